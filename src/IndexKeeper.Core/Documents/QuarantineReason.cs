@@ -1,0 +1,15 @@
+namespace IndexKeeper.Core.Documents;
+
+/// <summary>Why a document could not be read. Numbers reach the catalog: never change them.</summary>
+public enum QuarantineReason
+{
+    Corrupt = 1,
+    Encrypted = 2,
+    Unsupported = 3,
+    TooLarge = 4,
+    TooManyPages = 5,
+    ReadTimeout = 6,
+    ReaderCrashed = 7,
+    DecodedStreamTooLarge = 8,
+    Unreadable = 9,
+}

@@ -1,0 +1,10 @@
+namespace IndexKeeper.Benchmarks;
+
+internal static class Program
+{
+    private static int Main()
+    {
+        Console.WriteLine("no benchmarks yet");
+        return 0;
+    }
+}
