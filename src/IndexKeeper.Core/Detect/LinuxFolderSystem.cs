@@ -76,5 +76,7 @@ internal sealed unsafe class LinuxFolderSystem : IFolderSystem
         }
     }
 
-    public bool IsTooLong(string fullPath) => LinuxPathCodec.EncodeTerminated(fullPath).Length > LinuxNative.PathMax;
+    // A UTF-16 unit never takes more than 3 bytes, so most paths are settled without encoding them.
+    public bool IsTooLong(string fullPath) =>
+        fullPath.Length * 3 >= LinuxNative.PathMax && LinuxPathCodec.EncodeTerminated(fullPath).Length > LinuxNative.PathMax;
 }

@@ -56,6 +56,13 @@ internal static class LinuxPathCodec
     /// <summary>The bytes of <paramref name="path"/> followed by a NUL, ready for a libc call.</summary>
     public static byte[] EncodeTerminated(string path)
     {
+        if (!path.AsSpan().ContainsAnyInRange((char)EscapeFirst, (char)EscapeLast))
+        {
+            var plain = new byte[System.Text.Encoding.UTF8.GetByteCount(path) + 1];
+            System.Text.Encoding.UTF8.GetBytes(path, plain);
+            return plain;
+        }
+
         var bytes = new List<byte>(path.Length + 8);
         Span<byte> scratch = stackalloc byte[4];
         foreach (var rune in path.EnumerateRunes())

@@ -30,7 +30,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
         var stack = new Stack<Level>();
         try
         {
-            stack.Push(Level.Of(top, string.Empty, root.Name, onProblem));
+            stack.Push(Level.Of(top, string.Empty, globs, root.Name, onProblem));
             while (stack.Count > 0)
             {
                 cancellationToken.ThrowIfCancellationRequested();
@@ -59,7 +59,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
                         Report(WalkProblemKind.Inaccessible, false, entry.Error ?? "cannot be looked at");
                         break;
                     case EntryKind.Directory:
-                        if (globs.ExcludesFolder(relative))
+                        if (level.ExcludedFolders?.Contains(name) == true)
                         {
                             break;
                         }
@@ -77,10 +77,10 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
                             break;
                         }
 
-                        stack.Push(Level.Of(child, relative + "/", root.Name, onProblem));
+                        stack.Push(Level.Of(child, relative + "/", globs, root.Name, onProblem));
                         break;
                     case EntryKind.RegularFile:
-                        if (!globs.SelectsFile(relative))
+                        if (level.SelectedFiles?.Contains(name) == false)
                         {
                             break;
                         }
@@ -94,7 +94,14 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
                         yield return new FoundFile(root.Name, relative, fullPath, entry.Stat);
                         break;
                     case EntryKind.Link:
-                        var taken = FollowFileLink(root, globs, rootPrefix, relative, fullPath, Report);
+                        var taken = FollowFileLink(
+                            root,
+                            selected: level.SelectedFiles?.Contains(name) != false,
+                            folderExcluded: level.ExcludedFolders?.Contains(name) == true,
+                            rootPrefix,
+                            relative,
+                            fullPath,
+                            Report);
                         if (taken is not null)
                         {
                             yield return taken;
@@ -102,7 +109,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
 
                         break;
                     default:
-                        if (globs.SelectsFile(relative))
+                        if (level.SelectedFiles?.Contains(name) != false)
                         {
                             Report(WalkProblemKind.NotRegularFile, false, "device, pipe or socket");
                         }
@@ -122,7 +129,8 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
 
     private FoundFile? FollowFileLink(
         RootSpec root,
-        RootGlobs globs,
+        bool selected,
+        bool folderExcluded,
         string rootPrefix,
         string relative,
         string fullPath,
@@ -131,7 +139,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
         var target = system.RealPath(fullPath, out var failureKind, out var detail);
         if (target is null)
         {
-            if (globs.SelectsFile(relative))
+            if (selected)
             {
                 report(failureKind, false, detail);
             }
@@ -142,7 +150,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
         var targetStat = FileStatReader.Read(target);
         if (targetStat.Kind == EntryKind.Directory)
         {
-            if (!globs.ExcludesFolder(relative))
+            if (!folderExcluded)
             {
                 report(WalkProblemKind.LinkToFolder, false, "links to folders are not descended");
             }
@@ -150,7 +158,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
             return null;
         }
 
-        if (!globs.SelectsFile(relative))
+        if (!selected)
         {
             return null;
         }
@@ -178,9 +186,15 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
 
         public required string[] Names { get; init; }
 
+        /// <summary>Names selected if they are files; null: all.</summary>
+        public required HashSet<string>? SelectedFiles { get; init; }
+
+        /// <summary>Names excluded if they are folders; null: none.</summary>
+        public required HashSet<string>? ExcludedFolders { get; init; }
+
         public int Next { get; set; }
 
-        public static Level Of(IOpenFolder folder, string relativePrefix, string rootName, Action<WalkProblem> onProblem)
+        public static Level Of(IOpenFolder folder, string relativePrefix, RootGlobs globs, string rootName, Action<WalkProblem> onProblem)
         {
             if (folder.ListingError is not null)
             {
@@ -189,7 +203,14 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
 
             var names = folder.Names.ToArray();
             Array.Sort(names, StringComparer.Ordinal);
-            return new Level { Folder = folder, RelativePrefix = relativePrefix, Names = names };
+            return new Level
+            {
+                Folder = folder,
+                RelativePrefix = relativePrefix,
+                Names = names,
+                SelectedFiles = globs.SelectFiles(relativePrefix, names),
+                ExcludedFolders = globs.ExcludeFolders(relativePrefix, names),
+            };
         }
     }
 }

@@ -205,7 +205,7 @@ public sealed class RootWalkerTests
         // Bytes 0xFF 0xFE are never valid UTF-8 (RFC 3629 §1); the shell writes the raw name.
         TempTree.Run("sh", "-c", "cd \"$1\" && printf 'inspection form' > \"$(printf 'form-\\377\\376.pdf')\"", "sh", tree.Root);
 
-        var (files, problems) = Walk(RootWalker.Create(), Spec(tree.Root));
+        var (files, problems) = Walk(RootWalker.Create(), Spec(tree.Root, include: ["**/*.pdf"]));
 
         var file = Assert.Single(files);
         Assert.Empty(problems);
