@@ -42,13 +42,19 @@ public sealed class RescanBenchmark : IBenchmark
 
         context.Report("initial scan (walk + hash), warm", initial.Elapsed.TotalSeconds, "s");
 
-        var quick = Median(() => QuickRescan(walker, spec, catalog));
-        var full = Median(() => FullRehash(walker, hasher, spec, catalog));
+        var (quick, quickCpu) = Median(() => QuickRescan(walker, spec, catalog));
+        var (full, fullCpu) = Median(() => FullRehash(walker, hasher, spec, catalog));
         context.Report("no-change rescan, walk + quick check, warm", quick, "s");
         context.Report("no-change rescan, walk + re-hash, warm", full, "s");
         context.Report("ratio re-hash / quick check, warm", full / quick, "x");
+        // CPU time of this process: on a shared machine it moves less with other people's load than wall time.
+        context.Report("no-change rescan, walk + quick check, warm, cpu", quickCpu, "s");
+        context.Report("no-change rescan, walk + re-hash, warm, cpu", fullCpu, "s");
+        context.Report("ratio re-hash / quick check, warm, cpu", fullCpu / quickCpu, "x");
         context.Report("quick check rate, warm", fileCount / quick, "files/s");
         context.Report("re-hash rate, warm", bytes / 1e6 / full, "MB/s");
+        context.Report("re-hash rate, warm, cpu", bytes / 1e6 / fullCpu, "MB/s");
+        context.Report("load average (1 min) at end", LoadAverage(), "runnable");
 
         if (TryDropCaches(out var reason))
         {
@@ -127,20 +133,33 @@ public sealed class RescanBenchmark : IBenchmark
         }
     }
 
-    private static double Median(Action run)
+    /// <summary>Median wall and CPU seconds of <see cref="Repeats"/> runs after one warm-up (JIT, caches).</summary>
+    private static (double Wall, double Cpu) Median(Action run)
     {
-        run(); // warm-up: JIT and caches
-        var times = new List<double>();
+        run();
+        var walls = new List<double>();
+        var cpus = new List<double>();
+        using var self = Process.GetCurrentProcess();
         for (var i = 0; i < Repeats; i++)
         {
+            self.Refresh();
+            var cpuBefore = self.TotalProcessorTime;
             var watch = Stopwatch.StartNew();
             run();
-            times.Add(watch.Elapsed.TotalSeconds);
+            walls.Add(watch.Elapsed.TotalSeconds);
+            self.Refresh();
+            cpus.Add((self.TotalProcessorTime - cpuBefore).TotalSeconds);
         }
 
-        times.Sort();
-        return times[Repeats / 2];
+        walls.Sort();
+        cpus.Sort();
+        return (walls[Repeats / 2], cpus[Repeats / 2]);
     }
+
+    private static double LoadAverage() =>
+        File.Exists("/proc/loadavg")
+            ? double.Parse(File.ReadAllText("/proc/loadavg").Split(' ')[0], System.Globalization.CultureInfo.InvariantCulture)
+            : double.NaN;
 
     private static double Cold(Action run)
     {

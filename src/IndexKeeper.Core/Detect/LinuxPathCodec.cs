@@ -13,6 +13,7 @@ namespace IndexKeeper.Core.Detect;
 /// </summary>
 internal static class LinuxPathCodec
 {
+    // Never change: names made with these values are stored in catalogs (docs/detect.md, name mapping v1).
     private const int EscapeBase = 0xF700;
     private const int EscapeFirst = 0xF780;
     private const int EscapeLast = 0xF7FF;
