@@ -22,7 +22,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
         var top = system.OpenRoot(root.Path, out var rootFailure, out var rootDetail);
         if (top is null)
         {
-            onProblem(new WalkProblem(root.Name, string.Empty, rootFailure, IsFolder: true, rootDetail));
+            onProblem(new WalkProblem(root.Name, string.Empty, rootFailure, CoversSubtree: true, rootDetail));
             yield break;
         }
 
@@ -47,16 +47,17 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
                     ? level.Folder.FullPath + name
                     : level.Folder.FullPath + system.Separator + name;
                 var entry = level.Folder.Stat(name);
-                void Report(WalkProblemKind kind, bool isFolder, string detail) =>
-                    onProblem(new WalkProblem(root.Name, relative, kind, isFolder, detail));
+                void Report(WalkProblemKind kind, bool coversSubtree, string detail) =>
+                    onProblem(new WalkProblem(root.Name, relative, kind, coversSubtree, detail));
 
                 switch (entry.Kind)
                 {
+                    // The entry's kind is unknown here: it may have been a folder, so the problem covers its subtree.
                     case EntryKind.Missing:
-                        Report(WalkProblemKind.Vanished, false, entry.Error ?? "gone");
+                        Report(WalkProblemKind.Vanished, true, entry.Error ?? "gone");
                         break;
                     case EntryKind.Inaccessible:
-                        Report(WalkProblemKind.Inaccessible, false, entry.Error ?? "cannot be looked at");
+                        Report(WalkProblemKind.Inaccessible, true, entry.Error ?? "cannot be looked at");
                         break;
                     case EntryKind.Directory:
                         if (level.ExcludedFolders?.Contains(name) == true)
@@ -198,7 +199,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
         {
             if (folder.ListingError is not null)
             {
-                onProblem(new WalkProblem(rootName, relativePrefix.TrimEnd('/'), WalkProblemKind.ListingIncomplete, IsFolder: true, folder.ListingError));
+                onProblem(new WalkProblem(rootName, relativePrefix.TrimEnd('/'), WalkProblemKind.ListingIncomplete, CoversSubtree: true, folder.ListingError));
             }
 
             var names = folder.Names.ToArray();

@@ -166,10 +166,28 @@ public sealed class RootWalkerTests
 
         Assert.Equal(["a.pdf", "sealed.pdf", "z.pdf"], files.Select(f => f.RelativePath));
         var problem = Assert.Single(problems);
-        Assert.Equal(("locked", WalkProblemKind.Inaccessible, true, true), (problem.RelativePath, problem.Kind, problem.IsFolder, problem.LeavesUnknown));
+        Assert.Equal(("locked", WalkProblemKind.Inaccessible, true, true), (problem.RelativePath, problem.Kind, problem.CoversSubtree, problem.LeavesUnknown));
         Assert.Contains("errno 13", problem.Detail, StringComparison.Ordinal);
         // The file's stat needs no read permission, its content does: the hasher says so.
         Assert.Equal(FileHashStatus.Inaccessible, hash.Status);
+    }
+
+    [LinuxFact]
+    public void Reports_entries_of_a_folder_that_can_be_listed_but_not_searched()
+    {
+        using var tree = new TempTree();
+        tree.Write("list-only/sub/x.pdf");
+        tree.Write("list-only/y.pdf");
+        // r-- without x: the names can be read, the entries cannot be looked at (POSIX search permission).
+        TempTree.Run("chmod", "444", tree.PathOf("list-only"));
+
+        var (files, problems) = Unprivileged.Run(() => Walk(RootWalker.Create(), Spec(tree.Root)));
+
+        Assert.Empty(files);
+        Assert.Equal(
+            [("list-only/sub", WalkProblemKind.Inaccessible, true), ("list-only/y.pdf", WalkProblemKind.Inaccessible, true)],
+            problems.Select(p => (p.RelativePath, p.Kind, p.CoversSubtree)));
+        Assert.All(problems, p => Assert.True(p.LeavesUnknown));
     }
 
     [LinuxTheory]
@@ -195,7 +213,7 @@ public sealed class RootWalkerTests
         }
 
         Assert.Equal(["a.pdf", "d.pdf"], seen);
-        Assert.Equal([("b.pdf", WalkProblemKind.Vanished, false), ("c", WalkProblemKind.Vanished, false)], problems.Select(p => (p.RelativePath, p.Kind, p.IsFolder)));
+        Assert.Equal([("b.pdf", WalkProblemKind.Vanished, true), ("c", WalkProblemKind.Vanished, true)], problems.Select(p => (p.RelativePath, p.Kind, p.CoversSubtree)));
     }
 
     [LinuxFact]
@@ -251,7 +269,7 @@ public sealed class RootWalkerTests
 
         Assert.Equal(["z.pdf"], files.Select(f => f.RelativePath));
         var problem = Assert.Single(problems);
-        Assert.Equal((WalkProblemKind.PathTooLong, true), (problem.Kind, problem.IsFolder));
+        Assert.Equal((WalkProblemKind.PathTooLong, true), (problem.Kind, problem.CoversSubtree));
         Assert.True(problem.LeavesUnknown);
     }
 
@@ -267,7 +285,7 @@ public sealed class RootWalkerTests
 
         Assert.Empty(missingFiles);
         var problem = Assert.Single(missing);
-        Assert.Equal((WalkProblemKind.RootMissing, string.Empty, true, true), (problem.Kind, problem.RelativePath, problem.IsFolder, problem.LeavesUnknown));
+        Assert.Equal((WalkProblemKind.RootMissing, string.Empty, true, true), (problem.Kind, problem.RelativePath, problem.CoversSubtree, problem.LeavesUnknown));
         Assert.Equal(WalkProblemKind.RootInaccessible, Assert.Single(notFolder).Kind);
     }
 
