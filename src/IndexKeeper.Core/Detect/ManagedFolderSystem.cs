@@ -36,7 +36,7 @@ internal sealed class ManagedFolderSystem : IFolderSystem
             return null;
         }
 
-        var folder = ManagedFolder.Open(real.Length > 1 ? real.TrimEnd(Separator) : real, out var failure);
+        var folder = ManagedFolder.Open(Path.TrimEndingDirectorySeparator(real), out var failure);
         detail = failure.Error ?? string.Empty;
         return folder;
     }
