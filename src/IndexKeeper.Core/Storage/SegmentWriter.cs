@@ -172,12 +172,13 @@ public sealed class SegmentWriter : IDisposable
         var output = OpenStream();
         try
         {
+            var sealedChecksum = fileChecksum;
             Span<byte> seal = stackalloc byte[SegmentFormat.SealRecordLength];
             var crc = RecordCodec.BeginFrame(seal, SegmentFormat.RecordTypeSeal, SegmentFormat.SealBodyLength);
             var body = seal[SegmentFormat.FrameLength..];
             BinaryPrimitives.WriteUInt64LittleEndian(body, (ulong)RecordCount);
             BinaryPrimitives.WriteUInt64LittleEndian(body[8..], (ulong)Length);
-            BinaryPrimitives.WriteUInt32LittleEndian(body[16..], fileChecksum);
+            BinaryPrimitives.WriteUInt32LittleEndian(body[16..], sealedChecksum);
             BinaryPrimitives.WriteUInt32LittleEndian(body[20..], 0);
             RecordCodec.EndFrame(seal, Crc32C.Append(crc, body));
             Write(seal);
@@ -193,7 +194,7 @@ public sealed class SegmentWriter : IDisposable
             }
 
             DirectorySync.Flush(System.IO.Path.GetDirectoryName(System.IO.Path.GetFullPath(Path))!);
-            return new SealedSegment(SegmentId, Path, Length, RecordCount, fileChecksum);
+            return new SealedSegment(SegmentId, Path, Length, RecordCount, sealedChecksum);
         }
         catch
         {
