@@ -1,4 +1,6 @@
 using System.Numerics.Tensors;
+using System.Runtime.InteropServices;
+using System.Runtime.Intrinsics;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -44,16 +46,20 @@ public static class VectorQuantization
             throw new ArgumentException($"Sign codes need {words} words.", nameof(destination));
         }
 
+        // On the bit pattern (IEEE 754-2008 §3.4): x ≥ 0 exactly for +0 up to +infinity (0x0000..0x7C00)
+        // and for −0 (0x8000); NaNs and negatives fail. Eight components per compare, 64 per word.
+        var bits = MemoryMarshal.Cast<Half, ushort>(vectors);
+        var positiveLimit = Vector128.Create((ushort)0x7C00);
+        var negativeZero = Vector128.Create((ushort)0x8000);
         for (var word = 0; word < words; word++)
         {
-            var components = vectors.Slice(word * 64, 64);
+            var components = bits.Slice(word * 64, 64);
             ulong code = 0;
-            for (var bit = 0; bit < 64; bit++)
+            for (var lane = 0; lane < 8; lane++)
             {
-                if (components[bit] >= Half.Zero)
-                {
-                    code |= 1UL << bit;
-                }
+                var pattern = Vector128.Create(components.Slice(lane * 8, 8));
+                var set = Vector128.LessThanOrEqual(pattern, positiveLimit) | Vector128.Equals(pattern, negativeZero);
+                code |= (ulong)set.ExtractMostSignificantBits() << (lane * 8);
             }
 
             destination[word] = code;

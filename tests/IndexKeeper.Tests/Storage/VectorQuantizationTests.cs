@@ -60,6 +60,18 @@ public sealed class VectorQuantizationTests
     }
 
     [Fact]
+    public void Sign_codes_of_float16_agree_with_ieee_comparison_for_every_bit_pattern()
+    {
+        // All 65,536 binary16 patterns, 64 to a row; System.Half's ≥ is the reference comparison.
+        var all = Enumerable.Range(0, 65536).Select(i => BitConverter.UInt16BitsToHalf((ushort)i)).ToArray();
+        var codes = VectorQuantization.SignCodes(all, 64);
+        for (var i = 0; i < all.Length; i++)
+        {
+            Assert.Equal(all[i] >= Half.Zero, (codes[i / 64] >> (i % 64) & 1) == 1);
+        }
+    }
+
+    [Fact]
     public void Sign_codes_reject_dimensions_not_a_multiple_of_64()
     {
         Assert.Throws<ArgumentOutOfRangeException>(() => VectorQuantization.SignCodes(new float[96], 96));
