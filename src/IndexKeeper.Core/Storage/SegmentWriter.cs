@@ -65,7 +65,8 @@ public sealed class SegmentWriter : IDisposable
 
     /// <summary>
     /// Continues an open segment after a restart: checks it, cuts a torn tail (durably) and appends after
-    /// the last good record. A damaged or sealed segment is refused.
+    /// the last good record. A damaged or sealed segment is refused. REQUIRES: no reader maps the file
+    /// (recovery runs before readers start; cutting a mapped file's tail faults its readers on Linux).
     /// </summary>
     public static SegmentWriter Reopen(string path, SegmentWriterOptions? options = null, TimeProvider? time = null)
     {
