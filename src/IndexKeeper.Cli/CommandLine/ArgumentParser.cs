@@ -1,7 +1,7 @@
 namespace IndexKeeper.Cli.CommandLine;
 
 /// <summary>
-/// Parses <c>indexkeeper COMMAND [--index DIR] [--root DIR ...] [--config FILE] [--json] [--Section:Key=value ...]</c>
+/// Parses <c>indexkeeper COMMAND [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]</c>
 /// plus the named options each command declares. Unknown options are errors, never ignored.
 /// </summary>
 internal static class ArgumentParser
@@ -49,6 +49,9 @@ internal static class ArgumentParser
                     break;
                 case "--config":
                     config = Value();
+                    break;
+                case "--encoder":
+                    overrides.Add("Encoder:Name=" + Value());
                     break;
                 case "--json":
                     json = true;

@@ -20,6 +20,9 @@ public sealed class DocumentRecord
 
     public long FileIndex { get; set; }
 
+    /// <summary>When the stat above was taken (UTC ticks): a stat taken right after a write cannot vouch for the file.</summary>
+    public long CheckedAtTicksUtc { get; set; }
+
     /// <summary>SHA-256 of the file's bytes, lower-case hex (indexed: copies are found by it).</summary>
     public string FileHash { get; set; } = string.Empty;
 

@@ -1,37 +1,17 @@
-using System.Security.Cryptography;
 using IndexKeeper.Core.Detect;
 
 namespace IndexKeeper.Core.Pipeline;
 
-/// <summary>The scan's view of the real file system (walk, stat, hash).</summary>
+/// <summary>The scan's view of the real file system, through the Detect stage's walker, stat reader and hasher.</summary>
 internal sealed class FileSystemProbe : IFileProbe
 {
-    public bool RootExists(RootSpec root) => Directory.Exists(root.Path);
+    private readonly IRootWalker walker = RootWalker.Create();
+    private readonly IFileHasher hasher = FileHasher.Create();
 
-    public IEnumerable<FoundFile> Walk(RootSpec root, Action<string> problem, CancellationToken cancellationToken)
-    {
-        var full = Path.GetFullPath(root.Path);
-        var options = new EnumerationOptions { RecurseSubdirectories = true, IgnoreInaccessible = true, AttributesToSkip = FileAttributes.ReparsePoint };
-        foreach (var path in Directory.EnumerateFiles(full, "*", options).Order(StringComparer.Ordinal))
-        {
-            cancellationToken.ThrowIfCancellationRequested();
-            if (Stat(path) is { } stat)
-            {
-                yield return new FoundFile(root.Name, Path.GetRelativePath(full, path).Replace('\\', '/'), path, stat);
-            }
-        }
-    }
+    public IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> problem, CancellationToken cancellationToken) =>
+        walker.Walk(root, problem, cancellationToken);
 
-    public FileStat? Stat(string path)
-    {
-        var info = new FileInfo(path);
-        return info.Exists ? new FileStat(info.Length, info.LastWriteTimeUtc.Ticks, FileIdentity.None) : null;
-    }
+    public FileStat? Stat(string path) => FileStatReader.Read(path) is { Kind: EntryKind.RegularFile } entry ? entry.Stat : null;
 
-    public string? HashIfStable(string path, FileStat expected, CancellationToken cancellationToken)
-    {
-        using var stream = File.OpenRead(path);
-        var hash = Convert.ToHexStringLower(SHA256.HashData(stream));
-        return Stat(path) == expected ? hash : null;
-    }
+    public FileHashResult Hash(FoundFile file, CancellationToken cancellationToken) => hasher.Hash(file, cancellationToken);
 }

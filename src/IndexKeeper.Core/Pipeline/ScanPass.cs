@@ -45,20 +45,23 @@ public sealed class ScanPass
         var walkedRoots = new List<RootSpec>();
         foreach (var root in settings.Roots)
         {
-            if (!probe.RootExists(root))
-            {
-                state.Summary.RootsMissing.Add(root.Name);
-                continue;
-            }
-
-            walkedRoots.Add(root);
-            foreach (var file in probe.Walk(root, state.Summary.Problems.Add, cancellationToken))
+            var missing = false;
+            foreach (var file in probe.Walk(root, p => missing |= state.Report(p), cancellationToken))
             {
                 found.Add(file);
                 if (found.Count % 1000 == 0)
                 {
                     progress?.Report(new ScanProgress("walking", found.Count, 0, file.RelativePath));
                 }
+            }
+
+            if (missing)
+            {
+                state.Summary.RootsMissing.Add(root.Name);
+            }
+            else
+            {
+                walkedRoots.Add(root);
             }
         }
 
@@ -85,7 +88,7 @@ public sealed class ScanPass
         ProcessSettled(state, settling, cancellationToken);
         foreach (var root in walkedRoots)
         {
-            foreach (var gone in catalog.DocumentsOfRoot(root.Name).Where(d => !state.Seen.Contains(d.Id)).ToList())
+            foreach (var gone in catalog.DocumentsOfRoot(root.Name).Where(d => !state.Seen.Contains(d.Id) && !state.IsUnknown(d)).ToList())
             {
                 Delete(state, gone);
                 FlushIfFull(state);
@@ -137,31 +140,40 @@ public sealed class ScanPass
     {
         var summary = state.Summary;
         var existing = catalog.FindDocument(file.Root, file.RelativePath);
-        if (existing is not null && QuickCheck.Matches(existing, file.Stat))
+        var stored = existing is null ? null : StoredState.Of(existing);
+        if (QuickCheck.BeforeHash(stored, file.Stat).Verdict == QuickCheckVerdict.Unchanged)
         {
             summary.DocumentsUnchanged++;
-            summary.PagesSeen += existing.PageKeys.Count;
+            summary.PagesSeen += existing!.PageKeys.Count;
             return;
         }
 
         summary.FilesHashed++;
-        var hash = probe.HashIfStable(file.FullPath, file.Stat, cancellationToken);
-        if (hash is null)
+        var hashed = probe.Hash(file, cancellationToken);
+        switch (QuickCheck.AfterHash(stored, hashed))
         {
-            summary.DocumentsDeferred++;
-            return;
+            case HashVerdict.Retry:
+                summary.DocumentsDeferred++;
+                return;
+            case HashVerdict.Vanished:
+                // Gone between the walk and the hash: not seen, so the end of the pass treats it as deleted.
+                state.Seen.Remove(DocumentRecord.MakeId(file.Root, file.RelativePath));
+                summary.DocumentsSeen--;
+                return;
+            case HashVerdict.Unreadable:
+                // Seen but unreadable now: its catalog entry stays as it was.
+                summary.Problems.Add($"{file.Root}/{file.RelativePath}: {hashed.Detail}");
+                return;
+            case HashVerdict.Unchanged:
+                // Touched but identical: one hash, no parse. Only the stat moves on.
+                StoredState.Stamp(existing!, hashed);
+                state.Edit.PutDocuments.Add(existing!);
+                summary.DocumentsUnchanged++;
+                summary.PagesSeen += existing!.PageKeys.Count;
+                return;
         }
 
-        if (existing is not null && existing.FileHash == hash)
-        {
-            // Touched but identical: one hash, no parse. Only the stat moves on.
-            QuickCheck.Stamp(existing, file.Stat);
-            state.Edit.PutDocuments.Add(existing);
-            summary.DocumentsUnchanged++;
-            summary.PagesSeen += existing.PageKeys.Count;
-            return;
-        }
-
+        var hash = Convert.ToHexStringLower(hashed.Sha256!);
         var now = clock.GetUtcNow().UtcDateTime;
         var record = existing ?? new DocumentRecord
         {
@@ -171,8 +183,7 @@ public sealed class ScanPass
             FirstSeenUtc = now,
         };
         var oldKeys = existing is { State: DocumentState.Live } ? existing.PageKeys.Select(PageKey.Parse).ToList() : [];
-        QuickCheck.Stamp(record, file.Stat);
-        record.FileHash = hash;
+        StoredState.Stamp(record, hashed);
         record.LastChangedUtc = now;
 
         IReadOnlyList<PageKey> newKeys;
@@ -186,7 +197,7 @@ public sealed class ScanPass
         }
         else
         {
-            var content = Read(state, file, cancellationToken);
+            var content = Read(state, file, hashed.After, cancellationToken);
             if (content is null)
             {
                 return;
@@ -245,7 +256,7 @@ public sealed class ScanPass
     }
 
     /// <summary>Reads a document; null when it changed while being read (deferred to the next pass).</summary>
-    private (DocumentContent? Content, DocumentReadException? Quarantine)? Read(PassState state, FoundFile file, CancellationToken cancellationToken)
+    private (DocumentContent? Content, DocumentReadException? Quarantine)? Read(PassState state, FoundFile file, FileStat hashedStat, CancellationToken cancellationToken)
     {
         if (file.Stat.Size > settings.Limits.MaxFileBytes)
         {
@@ -265,8 +276,9 @@ public sealed class ScanPass
             result = (null, failure);
         }
 
-        if (probe.Stat(file.FullPath) != file.Stat)
+        if (probe.Stat(file.FullPath) != hashedStat)
         {
+            // The bytes read may not be the bytes hashed: look again next pass.
             state.Summary.DocumentsDeferred++;
             return null;
         }
@@ -342,6 +354,25 @@ public sealed class ScanPass
         public CatalogEdit Edit { get; set; } = new();
 
         public HashSet<string> Seen { get; } = new(StringComparer.Ordinal);
+
+        /// <summary>Paths the walk could not see (permissions, vanished folders): their documents are kept.</summary>
+        public List<WalkProblem> Unknown { get; } = [];
+
+        /// <summary>Records a walk problem; true when it means the whole root is missing.</summary>
+        public bool Report(WalkProblem problem)
+        {
+            Summary.Problems.Add($"{problem.Root}/{problem.RelativePath}: {problem.Kind}: {problem.Detail}");
+            if (problem.LeavesUnknown)
+            {
+                Unknown.Add(problem);
+            }
+
+            return problem.Kind is WalkProblemKind.RootMissing or WalkProblemKind.RootInaccessible;
+        }
+
+        public bool IsUnknown(DocumentRecord document) => Unknown.Any(u =>
+            u.Root == document.Root && (u.RelativePath == document.Path || (u.CoversSubtree && (u.RelativePath.Length == 0 || document.Path.StartsWith(u.RelativePath + "/", StringComparison.Ordinal)))));
+
 
         /// <summary>Pages first seen in this pass, waiting for the flush that adds them.</summary>
         public Dictionary<PageKey, PageRecord> NewPages { get; } = [];

@@ -41,6 +41,14 @@ public sealed class ScanSummary
     /// <summary>Encoder page calls made; always 0 for a scan.</summary>
     public long PagesEmbedded { get; set; }
 
+    /// <summary>Pages whose encoder batch failed; they stay queued with a back-off.</summary>
+    public long PagesFailed { get; set; }
+
+    public long VectorsWritten { get; set; }
+
+    /// <summary>Wall time spent inside encoder calls.</summary>
+    public double EncoderSeconds { get; set; }
+
     /// <summary>Files hashed (a quick check that failed); files whose quick check passed cost no read.</summary>
     public long FilesHashed { get; set; }
 

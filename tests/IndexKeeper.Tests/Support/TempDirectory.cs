@@ -13,12 +13,17 @@ public sealed class TempDirectory : IDisposable
 
     public string Combine(params string[] parts) => System.IO.Path.Combine([Path, .. parts]);
 
-    /// <summary>Writes a file (creating folders) and returns its full path.</summary>
+    /// <summary>
+    /// Writes a file (creating folders) and returns its full path. Its modification time is set an hour
+    /// back, as for a file that has been sitting on a drive: a stat taken right after a write cannot vouch
+    /// for the file, so fresh files are always hashed again (docs/detect.md, "racy" stats).
+    /// </summary>
     public string Write(string relative, string text)
     {
         var full = Combine(relative);
         Directory.CreateDirectory(System.IO.Path.GetDirectoryName(full)!);
         File.WriteAllText(full, text);
+        File.SetLastWriteTimeUtc(full, DateTime.UtcNow.AddHours(-1));
         return full;
     }
 

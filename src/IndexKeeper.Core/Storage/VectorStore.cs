@@ -1,0 +1,250 @@
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
+
+namespace IndexKeeper.Core.Storage;
+
+/// <summary>
+/// The segments of one index joined to its catalog: appends vector sets and commits them, opens live
+/// vector sets for search, compacts, and repairs what a crash left at open.
+/// </summary>
+/// <remarks>
+/// Ordering of every change (as LevelDB publishes a version): write and fsync segment bytes, then commit
+/// the catalog transaction that references them, then delete what is no longer referenced.
+/// REQUIRES: the index lock is held; one thread writes (readers of <see cref="OpenLive"/> may be many).
+/// </remarks>
+public sealed class VectorStore : IDisposable
+{
+    public const string SegmentsFolder = "segments";
+
+    private readonly IndexCatalog catalog;
+    private readonly SegmentWriterOptions writerOptions;
+    private readonly SegmentFileSet files;
+    private readonly Dictionary<string, SegmentWriter> writers = new(StringComparer.Ordinal);
+
+    private VectorStore(IndexCatalog catalog, string directory, SegmentWriterOptions writerOptions)
+    {
+        this.catalog = catalog;
+        Directory = directory;
+        this.writerOptions = writerOptions;
+        files = new SegmentFileSet(directory);
+    }
+
+    public string Directory { get; }
+
+    /// <summary>What <see cref="Open"/> repaired; empty after a clean shutdown.</summary>
+    public IReadOnlyList<string> Repairs { get; private set; } = [];
+
+    public static VectorStore Open(IndexCatalog catalog, string indexDirectory, SegmentWriterOptions? writerOptions = null)
+    {
+        ArgumentNullException.ThrowIfNull(catalog);
+        var directory = Path.Combine(indexDirectory, SegmentsFolder);
+        System.IO.Directory.CreateDirectory(directory);
+        var store = new VectorStore(catalog, directory, writerOptions ?? new SegmentWriterOptions());
+        store.Repairs = StoreRecovery.Run(catalog, directory);
+        return store;
+    }
+
+    /// <summary>
+    /// Appends a batch of vector sets of one encoder, makes the bytes durable, then commits them to the
+    /// catalog with the queue entries they satisfy. On an I/O failure (disk full) nothing of the batch is
+    /// committed and the open segment is cut back to its committed length at the next append.
+    /// </summary>
+    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
+    {
+        ArgumentNullException.ThrowIfNull(encoder);
+        ArgumentNullException.ThrowIfNull(batch);
+        if (batch.Count == 0)
+        {
+            return;
+        }
+
+        var writer = WriterFor(encoder);
+        var segment = catalog.FindSegment(writer.SegmentId) ?? new SegmentRecord
+        {
+            Id = writer.SegmentId,
+            EncoderId = encoder.Id,
+            Dimensions = encoder.Dimensions,
+            CreatedUtc = writer.Header.Created.UtcDateTime,
+        };
+        var added = new List<VectorSetRecord>(batch.Count);
+        try
+        {
+            foreach (var (key, vectors) in batch)
+            {
+                var location = writer.Append(key, vectors);
+                added.Add(new VectorSetRecord
+                {
+                    Id = VectorSetRecord.MakeId(encoder.Id, key.Hex),
+                    EncoderId = encoder.Id,
+                    PageKey = key.Hex,
+                    SegmentId = location.SegmentId,
+                    Offset = location.Offset,
+                    Length = location.Length,
+                    Checksum = location.Checksum,
+                    VectorCount = vectors.Count,
+                });
+            }
+
+            writer.Flush(durable: true);
+        }
+        catch (IOException)
+        {
+            DropWriter(encoder.Id);
+            throw;
+        }
+
+        segment.Length = writer.Length;
+        catalog.CommitEmbedded(segment, added, batch.Select(b => b.Key.Hex).ToList());
+        if (writer.ShouldSeal)
+        {
+            Seal(encoder.Id);
+        }
+    }
+
+    /// <summary>Seals every open segment (at shutdown, or before compaction takes them).</summary>
+    public void SealAll()
+    {
+        foreach (var encoderId in writers.Keys.ToList())
+        {
+            Seal(encoderId);
+        }
+    }
+
+    /// <summary>
+    /// The live vector sets of an encoder for search; the result holds the files it reads until disposed
+    /// (compaction then deletes them). Ordinal i is <see cref="LiveVectors.Records"/>[i].
+    /// </summary>
+    public LiveVectors OpenLive(string encoderId)
+    {
+        foreach (var writer in writers.Values)
+        {
+            writer.Flush(durable: false);
+        }
+
+        var records = catalog.LiveVectorSets(encoderId);
+        var source = files.OpenSource(encoderId, records.Select(ToLocation).ToList());
+        return new LiveVectors(source, records);
+    }
+
+    /// <summary>Runs the compaction policy and every job it asks for; returns what was done.</summary>
+    public CompactionReport Compact(CompactionOptions options, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        var stats = catalog.Segments().Select(s => new SegmentStats(
+            s.Id, s.EncoderId, s.Sealed, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
+        var jobs = CompactionPolicy.Plan(stats, options);
+        var compactor = new SegmentCompactor(Directory, catalog.AllocateSegmentId, options);
+        long read = 0, written = 0, reclaimed = 0;
+        foreach (var job in jobs)
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            var live = job.SegmentIds.SelectMany(catalog.VectorSetsOfSegment).Where(v => v.Live).Select(ToLocation).ToList();
+            var result = compactor.Run(job, live, cancellationToken);
+            var dimensions = catalog.FindSegment(job.SegmentIds[0])!.Dimensions;
+            var newSegments = result.NewSegments.Select(n => new SegmentRecord
+            {
+                Id = n.SegmentId,
+                EncoderId = job.EncoderId,
+                Dimensions = dimensions,
+                Sealed = true,
+                Length = n.Length,
+                RecordCount = n.RecordCount,
+                LiveRecordCount = n.RecordCount,
+                LiveBytes = result.Moves.Where(m => m.Value.SegmentId == n.SegmentId).Sum(m => (long)m.Value.Length),
+                CreatedUtc = DateTime.UtcNow,
+            }).ToList();
+            try
+            {
+                catalog.SwapCompacted(
+                    job.SegmentIds,
+                    newSegments,
+                    result.Moves.ToDictionary(m => (m.Key.SegmentId, m.Key.Offset), m => (m.Value.SegmentId, m.Value.Offset)));
+            }
+            catch
+            {
+                SegmentCompactor.Discard(result);
+                throw;
+            }
+
+            foreach (var old in job.SegmentIds)
+            {
+                files.Retire(old);
+            }
+
+            read += result.BytesRead;
+            written += result.BytesWritten;
+            reclaimed += job.InputBytes - result.BytesWritten;
+        }
+
+        return new CompactionReport(jobs.Count, jobs.Sum(j => j.SegmentIds.Count), read, written, reclaimed);
+    }
+
+    public void Dispose()
+    {
+        foreach (var writer in writers.Values)
+        {
+            writer.Dispose();
+        }
+
+        writers.Clear();
+        files.Dispose();
+    }
+
+    private static RecordLocation ToLocation(VectorSetRecord v) => new(v.SegmentId, v.Offset, v.Length, unchecked((uint)v.Checksum));
+
+    private SegmentWriter WriterFor(EncoderIdentity encoder)
+    {
+        if (writers.TryGetValue(encoder.Id, out var writer))
+        {
+            return writer;
+        }
+
+        catalog.RegisterEncoder(encoder);
+        if (catalog.FindOpenSegment(encoder.Id) is { } open && File.Exists(SegmentFileNames.PathOf(Directory, open.Id)))
+        {
+            writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions);
+        }
+        else
+        {
+            var header = new SegmentHeader(catalog.AllocateSegmentId(), encoder.Id, encoder.Dimensions, DateTimeOffset.UtcNow);
+            writer = SegmentWriter.Create(Directory, header, writerOptions);
+        }
+
+        writers[encoder.Id] = writer;
+        return writer;
+    }
+
+    private void Seal(string encoderId)
+    {
+        if (!writers.Remove(encoderId, out var writer))
+        {
+            return;
+        }
+
+        using (writer)
+        {
+            if (catalog.FindSegment(writer.SegmentId) is not { } segment)
+            {
+                // Nothing was ever committed to it: an orphan that recovery removes.
+                return;
+            }
+
+            var sealedSegment = writer.Seal();
+            segment.Sealed = true;
+            segment.Length = sealedSegment.Length;
+            catalog.PutSegment(segment);
+        }
+    }
+
+    private void DropWriter(string encoderId)
+    {
+        if (writers.Remove(encoderId, out var writer))
+        {
+            writer.Dispose();
+        }
+
+        StoreRecovery.CutToCommitted(catalog, Directory);
+    }
+}
