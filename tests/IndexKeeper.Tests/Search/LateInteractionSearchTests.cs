@@ -16,7 +16,7 @@ public sealed class LateInteractionSearchTests(ITestOutputHelper output)
         // the default options the first stage keeps 100 of 1,200 pages, so it has to do real work.
         var corpus = new GeneratedCorpus(pages: 1200, dimensions: 128, seed: 42, minVectors: 10, maxVectors: 30);
         var source = corpus.Source();
-        var queries = Enumerable.Range(0, 60).Select(i => corpus.Query(targetPage: i * 19, tokens: 6)).ToArray();
+        var queries = Enumerable.Range(0, 100).Select(i => corpus.Query(targetPage: i * 11, tokens: 6)).ToArray();
         var truth = queries.AsParallel().AsOrdered().Select(query => corpus.Pages
                 .Select((page, ordinal) => (Score: ReferenceMaxSim.FastScore(query.Vectors, page.Vectors, 128), Ordinal: ordinal))
                 .OrderByDescending(e => e.Score).Take(10).Select(e => e.Ordinal).ToHashSet())
