@@ -47,6 +47,9 @@ public sealed class HashedTermEncoderTests
 
         // FIPS 180-4 SHA-256 through the platform's implementation, an independent library.
         Assert.Equal(Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(identity.Description))), identity.Id);
+
+        // The same digest from coreutils' sha256sum over the description, checked in as a regression guard.
+        Assert.Equal("1b1b8a97fdc319fbd9c5afb4b3614e3ee6959673971c846b5b07028458f564a6", identity.Id);
     }
 
     [Fact]
