@@ -8,7 +8,10 @@ namespace IndexKeeper.Cli;
 /// <summary>The <c>indexkeeper</c> command: parses, dispatches, and maps failures to exit codes (0 ok, 1 problems, 2 bad usage).</summary>
 internal static class Program
 {
-    private static readonly ICommand[] Commands = [new ScanCommand(), new StatusCommand()];
+    private static readonly ICommand[] Commands =
+    [
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(),
+    ];
 
     private static int Main(string[] args)
     {
@@ -57,7 +60,7 @@ internal static class Program
     {
         output.WriteLine("indexkeeper — keeps a late-interaction page index true to a changing document store");
         output.WriteLine();
-        output.WriteLine("usage: indexkeeper <command> [--index DIR] [--root DIR ...] [--config FILE] [--json] [--Section:Key=value ...]");
+        output.WriteLine("usage: indexkeeper <command> [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]");
         output.WriteLine();
         foreach (var command in Commands)
         {

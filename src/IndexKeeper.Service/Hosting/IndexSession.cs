@@ -1,7 +1,10 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Service.Hosting;
@@ -13,6 +16,8 @@ namespace IndexKeeper.Service.Hosting;
 public sealed class IndexSession : IDisposable
 {
     private readonly IndexLock indexLock;
+    private VectorStore? store;
+    private IPageEncoder? encoder;
 
     private IndexSession(IndexKeeperOptions options, IndexLock indexLock, IndexCatalog catalog, IDocumentReader reader)
     {
@@ -29,6 +34,27 @@ public sealed class IndexSession : IDisposable
     public IDocumentReader Reader { get; }
 
     public string IndexDirectory => indexLock.Directory;
+
+    /// <summary>The segment store, opened (and repaired after a crash) on first use.</summary>
+    public VectorStore Store => store ??= VectorStore.Open(Catalog, IndexDirectory, new SegmentWriterOptions
+    {
+        SealAtBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
+        SealAtAge = TimeSpan.FromHours(Options.Storage.SealAtHours),
+    });
+
+    /// <summary>The active encoder, built on first use.</summary>
+    public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(Options.Encoder);
+
+    public IReadOnlyDictionary<string, string> RootPaths =>
+        Options.Roots.ToDictionary(r => r.Name, r => Path.GetFullPath(r.Path), StringComparer.Ordinal);
+
+    public CompactionOptions CompactionOptions() => new()
+    {
+        DeadShareThreshold = Options.Storage.CompactDeadShare,
+        SmallSegmentBytes = Options.Storage.SmallSegmentMegabytes * 1024 * 1024,
+        MinSmallSegmentsToMerge = Options.Storage.MinSmallSegmentsToMerge,
+        TargetSegmentBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
+    };
 
     public static IndexSession Open(IndexKeeperOptions options, string purpose)
     {
@@ -59,6 +85,8 @@ public sealed class IndexSession : IDisposable
 
     public void Dispose()
     {
+        store?.Dispose();
+        (encoder as IDisposable)?.Dispose();
         (Reader as IDisposable)?.Dispose();
         Catalog.Dispose();
         indexLock.Dispose();

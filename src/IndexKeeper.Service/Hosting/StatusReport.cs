@@ -15,6 +15,21 @@ public sealed class StatusReport
     /// <summary>Page positions in live documents (a page key held by two copies counts twice).</summary>
     public long PageLocations { get; init; }
 
+    public long VectorSets { get; init; }
+
+    /// <summary>Vector sets a live document holds (any encoder).</summary>
+    public long LiveVectorSets { get; init; }
+
+    public long Segments { get; init; }
+
+    /// <summary>Share of segment bytes that no live vector set uses; compaction brings it down.</summary>
+    public double DeadRatio { get; init; }
+
+    /// <summary>The configured encoder's name and id.</summary>
+    public string ActiveEncoder { get; init; } = string.Empty;
+
+    public string ActiveEncoderId { get; init; } = string.Empty;
+
     public long Queued { get; init; }
 
     public long Quarantined { get; init; }
@@ -31,12 +46,20 @@ public sealed class StatusReport
     {
         ArgumentNullException.ThrowIfNull(session);
         var figures = session.Catalog.Figures();
+        var segments = session.Catalog.Segments();
+        var segmentBytes = segments.Sum(s => s.Length);
         return new StatusReport
         {
             IndexDirectory = session.IndexDirectory,
             Documents = figures.Documents,
             Pages = figures.Pages,
             PageLocations = figures.PageLocations,
+            VectorSets = session.Catalog.CountVectorSets(liveOnly: false),
+            LiveVectorSets = session.Catalog.CountVectorSets(liveOnly: true),
+            Segments = segments.Count,
+            DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
+            ActiveEncoder = session.Options.Encoder.Name,
+            ActiveEncoderId = session.Encoder.Identity.Id,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = new DirectoryInfo(session.IndexDirectory).EnumerateFiles("*", SearchOption.AllDirectories).Sum(f => f.Length),

@@ -13,7 +13,7 @@ public sealed class LinuxPathCodecTests
     [InlineData("点検記録 😀.pdf")]
     public void Leaves_valid_utf8_names_as_dotnet_reads_them(string name)
     {
-        var bytes = Encoding.UTF8.GetBytes(name);
+        var bytes = System.Text.Encoding.UTF8.GetBytes(name);
 
         Assert.Equal(name, LinuxPathCodec.Decode(bytes));
         Assert.Equal(Terminated(bytes), LinuxPathCodec.EncodeTerminated(name));
@@ -37,7 +37,7 @@ public sealed class LinuxPathCodecTests
             var name = LinuxPathCodec.Decode(bytes);
 
             Assert.Equal(Terminated(bytes), LinuxPathCodec.EncodeTerminated(name));
-            Assert.Equal(name, Encoding.UTF8.GetString(Encoding.UTF8.GetBytes(name)));
+            Assert.Equal(name, System.Text.Encoding.UTF8.GetString(System.Text.Encoding.UTF8.GetBytes(name)));
         }
     }
 
@@ -46,7 +46,7 @@ public sealed class LinuxPathCodecTests
     {
         var first = LinuxPathCodec.Decode([0x61, 0xFF]);
         var second = LinuxPathCodec.Decode([0x61, 0xFE]);
-        var lookalike = LinuxPathCodec.Decode(Encoding.UTF8.GetBytes("a\uF7FF"));
+        var lookalike = LinuxPathCodec.Decode(System.Text.Encoding.UTF8.GetBytes("a\uF7FF"));
 
         Assert.Equal(3, new HashSet<string>([first, second, lookalike]).Count);
         Assert.Equal("a\uF7FF", first);

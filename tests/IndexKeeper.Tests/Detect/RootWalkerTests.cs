@@ -29,7 +29,7 @@ public sealed class RootWalkerTests
         using var tree = new TempTree();
         foreach (var name in new[] { "b.pdf", "a/z.pdf", "B.pdf", "a.pdf", "a/b/c.pdf", "aa.pdf", "empty.pdf" })
         {
-            tree.Write(name, name == "empty.pdf" ? [] : Encoding.UTF8.GetBytes(name));
+            tree.Write(name, name == "empty.pdf" ? [] : System.Text.Encoding.UTF8.GetBytes(name));
         }
 
         var (first, problems) = Walk(WalkerFor(walker), Spec(tree.Root));
@@ -229,7 +229,7 @@ public sealed class RootWalkerTests
         Assert.Empty(problems);
         Assert.DoesNotContain('\uFFFD', file.RelativePath);
         // The name survives storage as UTF-8 (the catalog) unchanged.
-        Assert.Equal(file.RelativePath, Encoding.UTF8.GetString(Encoding.UTF8.GetBytes(file.RelativePath)));
+        Assert.Equal(file.RelativePath, System.Text.Encoding.UTF8.GetString(System.Text.Encoding.UTF8.GetBytes(file.RelativePath)));
         var result = FileHasher.Create().Hash(file, CancellationToken.None);
         Assert.Equal(FileHashStatus.Stable, result.Status);
         // Independent tool: coreutils sha256sum over the same raw name (matched by the shell's glob).

@@ -23,7 +23,7 @@ public sealed class Sha256VectorTests
     public void Streams_published_vectors_through_a_file(string unit, int repeat, string expectedHex, int bufferSize)
     {
         using var tree = new TempTree();
-        var path = tree.Write("vector.bin", Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat(unit, repeat))));
+        var path = tree.Write("vector.bin", System.Text.Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat(unit, repeat))));
 
         var result = FileHasher.Create(bufferSize).Hash(path, CancellationToken.None);
 

@@ -27,7 +27,7 @@ internal sealed class LinePageReader : IDocumentReader
         var lines = text.Split('\n', StringSplitOptions.RemoveEmptyEntries);
         var pages = lines.Select((line, i) => new PageContent(
             i + 1,
-            PageKey.Of(Encoding.UTF8.GetBytes(line)),
+            PageKey.Of(System.Text.Encoding.UTF8.GetBytes(line)),
             612,
             792,
             0,

@@ -1,0 +1,62 @@
+using System.Globalization;
+using IndexKeeper.Cli.CommandLine;
+using IndexKeeper.Cli.Output;
+using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Querying;
+
+namespace IndexKeeper.Cli.Commands;
+
+/// <summary><c>search "text" [-k N] [--maps DIR]</c>: top-k pages by late interaction, with what matched where.</summary>
+internal sealed class SearchCommand : ICommand
+{
+    public string Name => "search";
+
+    public string Summary => "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps";
+
+    public IReadOnlySet<string> Options { get; } = new HashSet<string> { "k", "maps" };
+
+    public int Run(CommandContext context, CancellationToken cancellationToken)
+    {
+        var text = string.Join(' ', context.Arguments.Positional).Trim();
+        if (text.Length == 0)
+        {
+            throw new UsageException("search needs a query, e.g. indexkeeper search \"valve inspection interval\".");
+        }
+
+        var k = 10;
+        if (context.Arguments.Named.TryGetValue("k", out var kText) &&
+            (!int.TryParse(kText, NumberStyles.None, CultureInfo.InvariantCulture, out k) || k is < 1 or > 1000))
+        {
+            throw new UsageException($"-k {kText}: give a whole number from 1 to 1000.");
+        }
+
+        var options = context.LoadOptions();
+        using var session = IndexSession.Open(options, "indexkeeper search");
+        var report = PageSearcher.Search(session, text, k, cancellationToken);
+        if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
+        {
+            MatchMaps.Write(session, report, mapsDirectory);
+        }
+
+        if (context.Json)
+        {
+            JsonOutput.Write(report);
+            return 0;
+        }
+
+        var c = CultureInfo.InvariantCulture;
+        Console.Out.WriteLine(string.Create(c, $"{report.Hits.Count} hit(s) for \"{report.Query}\" ({report.QueryVectors} query vectors, {report.PagesScanned} pages, {report.ElapsedMilliseconds:0.0} ms)"));
+        var rank = 0;
+        foreach (var hit in report.Hits)
+        {
+            var words = string.Join(", ", hit.Matches.Where(m => m.Word is not null && m.Similarity > 0.5).Select(m => m.Word).Distinct().Take(6));
+            Console.Out.WriteLine(string.Create(c, $"{++rank,3}. {hit.Score,8:0.000}  {hit.Root}/{hit.Path}  page {hit.Page}{(hit.AlsoAt.Count > 0 ? $"  (+{hit.AlsoAt.Count} copies)" : string.Empty)}"));
+            if (words.Length > 0)
+            {
+                Console.Out.WriteLine("               matched: " + words);
+            }
+        }
+
+        return 0;
+    }
+}

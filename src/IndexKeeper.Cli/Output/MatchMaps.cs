@@ -1,0 +1,37 @@
+using System.Globalization;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Search;
+using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Querying;
+
+namespace IndexKeeper.Cli.Output;
+
+/// <summary>
+/// <c>search --maps DIR</c>: one PNG per hit, the page's word boxes with the region each query vector
+/// matched drawn over them (a rendered page comes with the page-image encoder).
+/// </summary>
+internal static class MatchMaps
+{
+    public static void Write(IndexSession session, SearchReport report, string directory)
+    {
+        Directory.CreateDirectory(directory);
+        var rank = 0;
+        foreach (var hit in report.Hits)
+        {
+            rank++;
+            if (session.Catalog.FindPage(hit.PageKey) is not { Width: > 0, Height: > 0 } page)
+            {
+                continue;
+            }
+
+            var words = page.Words.Select(w => new PageBox(w.L, w.B, w.R, w.U)).ToList();
+            var regions = hit.Matches.Select(m => new PageBox(m.Left, m.Bottom, m.Right, m.Top)).ToList();
+            var name = string.Create(CultureInfo.InvariantCulture, $"{rank:00}-{Safe(hit.Path)}-p{hit.Page}.png");
+            using var file = File.Create(Path.Combine(directory, name));
+            MatchMapRenderer.WritePng(file, page.Width, page.Height, words, regions);
+        }
+    }
+
+    private static string Safe(string path) =>
+        new(Path.GetFileNameWithoutExtension(path).Select(c => char.IsAsciiLetterOrDigit(c) || c is '-' or '_' ? c : '_').Take(60).ToArray());
+}

@@ -1,0 +1,75 @@
+using System.Diagnostics;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Search;
+using IndexKeeper.Service.Hosting;
+
+namespace IndexKeeper.Service.Querying;
+
+/// <summary>Runs a query against the live vector sets of the active encoder and resolves hits to page locations.</summary>
+public static class PageSearcher
+{
+    public static SearchReport Search(IndexSession session, string text, int k, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(session);
+        var stopwatch = Stopwatch.StartNew();
+        var encoder = session.Encoder;
+        var query = encoder.EncodeQuery(text, cancellationToken);
+        using var live = session.Store.OpenLive(encoder.Identity.Id);
+        var result = query.Count == 0 || live.Records.Count == 0
+            ? new SearchResult([], live.Records.Count, 0)
+            : LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+        var hits = new List<SearchReportHit>(result.Hits.Count);
+        foreach (var hit in result.Hits)
+        {
+            var locations = Locate(session.Catalog, hit.Key.Hex);
+            if (locations.Count == 0)
+            {
+                continue;
+            }
+
+            var page = session.Catalog.FindPage(hit.Key.Hex);
+            hits.Add(new SearchReportHit
+            {
+                Root = locations[0].Root,
+                Path = locations[0].Path,
+                Page = locations[0].Page,
+                Score = Math.Round(hit.Score, 6),
+                PageKey = hit.Key.Hex,
+                AlsoAt = locations.Skip(1).ToList(),
+                Matches = hit.Matches.Select((m, i) => new SearchReportMatch(
+                    i, m.VectorIndex, Math.Round(m.Similarity, 6), m.Region.Left, m.Region.Bottom, m.Region.Right, m.Region.Top, WordAt(page, m))).ToList(),
+            });
+        }
+
+        return new SearchReport
+        {
+            Query = text,
+            Encoder = encoder.Identity.Name + " " + encoder.Identity.Id[..12],
+            QueryVectors = query.Count,
+            PagesScanned = result.PagesScanned,
+            CandidatesReranked = result.CandidatesReranked,
+            ElapsedMilliseconds = Math.Round(stopwatch.Elapsed.TotalMilliseconds, 2),
+            Hits = hits,
+        };
+    }
+
+    private static List<PageLocation> Locate(IndexCatalog catalog, string pageKey)
+    {
+        var locations = new List<PageLocation>();
+        foreach (var document in catalog.DocumentsHolding(pageKey).OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal))
+        {
+            for (var i = 0; i < document.PageKeys.Count; i++)
+            {
+                if (document.PageKeys[i] == pageKey)
+                {
+                    locations.Add(new PageLocation(document.Root, document.Path, i + 1));
+                }
+            }
+        }
+
+        return locations;
+    }
+
+    private static string? WordAt(PageRecord? page, TokenMatch match) =>
+        page?.Words.FirstOrDefault(w => w.L == match.Region.Left && w.B == match.Region.Bottom && w.R == match.Region.Right && w.U == match.Region.Top)?.T;
+}
