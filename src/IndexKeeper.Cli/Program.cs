@@ -1,9 +1,16 @@
+using IndexKeeper.Cli.CommandLine;
+using IndexKeeper.Cli.Commands;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents.Isolation;
+using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Cli;
 
+/// <summary>The <c>indexkeeper</c> command: parses, dispatches, and maps failures to exit codes (0 ok, 1 problems, 2 bad usage).</summary>
 internal static class Program
 {
+    private static readonly ICommand[] Commands = [new ScanCommand(), new StatusCommand()];
+
     private static int Main(string[] args)
     {
         // Hidden: the supervised child process that reads documents (docs/reader-worker.md).
@@ -12,7 +19,60 @@ internal static class Program
             return ReadWorkerHost.RunOverStandardStreams();
         }
 
-        Console.Error.WriteLine("indexkeeper: under construction");
-        return args.Length == 0 ? 2 : 0;
+        if (args.Length == 0 || args[0] is "--help" or "-h" or "help")
+        {
+            PrintHelp(Console.Out);
+            return args.Length == 0 ? 2 : 0;
+        }
+
+        using var cancellation = new CancellationTokenSource();
+        Console.CancelKeyPress += (_, e) =>
+        {
+            // First Ctrl+C asks for a clean stop after the batch in flight; a second one kills.
+            e.Cancel = !cancellation.IsCancellationRequested;
+            cancellation.Cancel();
+        };
+        try
+        {
+            var parsed = ArgumentParser.Parse(args, Commands.ToDictionary(c => c.Name, c => c.Options));
+            var command = Commands.Single(c => c.Name == parsed.Command);
+            return command.Run(new CommandContext(parsed), cancellation.Token);
+        }
+        catch (UsageException ex)
+        {
+            Console.Error.WriteLine($"indexkeeper: {ex.Message} (see indexkeeper --help)");
+            return 2;
+        }
+        catch (ConfigurationException ex)
+        {
+            Console.Error.WriteLine("indexkeeper: " + ex.Message);
+            return 2;
+        }
+        catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException)
+        {
+            Console.Error.WriteLine("indexkeeper: " + ex.Message);
+            return 1;
+        }
+        catch (OperationCanceledException)
+        {
+            Console.Error.WriteLine("indexkeeper: stopped; work committed so far is kept.");
+            return 1;
+        }
+    }
+
+    private static void PrintHelp(TextWriter output)
+    {
+        output.WriteLine("indexkeeper — keeps a late-interaction page index true to a changing document store");
+        output.WriteLine();
+        output.WriteLine("usage: indexkeeper <command> [--index DIR] [--root DIR ...] [--config FILE] [--json] [--Section:Key=value ...]");
+        output.WriteLine();
+        foreach (var command in Commands)
+        {
+            output.WriteLine($"  {command.Name,-10} {command.Summary}");
+        }
+
+        output.WriteLine();
+        output.WriteLine("Settings: a JSON file (--config), environment variables INDEXKEEPER_Section__Key, overrides --Section:Key=value.");
+        output.WriteLine("Exit codes: 0 ok, 1 problems found or partial failure, 2 bad usage or configuration.");
     }
 }

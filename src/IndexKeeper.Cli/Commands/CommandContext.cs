@@ -1,0 +1,15 @@
+using IndexKeeper.Cli.CommandLine;
+using IndexKeeper.Service.Configuration;
+
+namespace IndexKeeper.Cli.Commands;
+
+/// <summary>What every command gets: its parsed arguments and a way to load the validated settings.</summary>
+internal sealed class CommandContext(ParsedArguments arguments)
+{
+    public ParsedArguments Arguments { get; } = arguments;
+
+    public bool Json => Arguments.Json;
+
+    public IndexKeeperOptions LoadOptions() =>
+        OptionsLoader.Load(new ConfigurationSources(Arguments.ConfigFile, Arguments.IndexDirectory, Arguments.Roots, Arguments.Overrides));
+}

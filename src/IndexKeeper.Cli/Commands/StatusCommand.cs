@@ -1,0 +1,46 @@
+using System.Globalization;
+using IndexKeeper.Cli.Output;
+using IndexKeeper.Service.Hosting;
+
+namespace IndexKeeper.Cli.Commands;
+
+/// <summary><c>status</c>: figures of the index and its quarantine list.</summary>
+internal sealed class StatusCommand : ICommand
+{
+    public string Name => "status";
+
+    public string Summary => "figures of the index: documents, pages, queue, quarantine, bytes on disk";
+
+    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
+
+    public int Run(CommandContext context, CancellationToken cancellationToken)
+    {
+        var options = context.LoadOptions();
+        using var session = IndexSession.Open(options, "indexkeeper status");
+        var report = StatusReport.Build(session);
+        if (context.Json)
+        {
+            JsonOutput.Write(report);
+            return 0;
+        }
+
+        var c = CultureInfo.InvariantCulture;
+        var o = Console.Out;
+        o.WriteLine($"Index {report.IndexDirectory}");
+        o.WriteLine(string.Create(c, $"  documents    {report.Documents} live, {report.Quarantined} quarantined"));
+        o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
+        o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
+        o.WriteLine(string.Create(c, $"  on disk      {report.BytesOnDisk / 1024.0 / 1024.0:0.0} MiB"));
+        o.WriteLine(string.Create(c, $"  last scan    {(report.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", c) : "never")}"));
+        if (report.Quarantine.Count > 0)
+        {
+            o.WriteLine("Quarantine (retried when the file changes):");
+            foreach (var q in report.Quarantine)
+            {
+                o.WriteLine($"  {q.Root}/{q.Path}  {q.Reason}: {q.Message}");
+            }
+        }
+
+        return 0;
+    }
+}

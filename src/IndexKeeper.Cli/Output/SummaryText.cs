@@ -1,0 +1,35 @@
+using System.Globalization;
+using IndexKeeper.Core.Pipeline;
+
+namespace IndexKeeper.Cli.Output;
+
+/// <summary>The human-readable change summary of a scan or sync.</summary>
+internal static class SummaryText
+{
+    public static void Write(TextWriter output, ScanSummary s)
+    {
+        var c = CultureInfo.InvariantCulture;
+        output.WriteLine(string.Create(c, $"Scanned {s.DocumentsSeen} documents in {s.ElapsedSeconds:0.0} s ({s.FilesHashed} hashed, {s.DocumentsRead} read)."));
+        output.WriteLine(string.Create(c, $"  documents  new {s.DocumentsNew}, changed {s.DocumentsChanged}, unchanged {s.DocumentsUnchanged}, deleted {s.DocumentsDeleted}, quarantined {s.DocumentsQuarantined}, deferred {s.DocumentsDeferred}"));
+        if (s.DocumentsCopied > 0 || s.DocumentsMoved > 0)
+        {
+            output.WriteLine(string.Create(c, $"             of which copies of indexed bytes {s.DocumentsCopied} (read for free), moves or renames {s.DocumentsMoved}"));
+        }
+
+        output.WriteLine(string.Create(c, $"  pages      seen {s.PagesSeen}: new {s.PagesNew} (need vectors), reused {s.PagesReused} (free), removed {s.PagesRemoved}, embedded {s.PagesEmbedded}"));
+        foreach (var root in s.RootsMissing)
+        {
+            output.WriteLine($"  root '{root}' was not found: its documents were kept, not deleted.");
+        }
+
+        foreach (var problem in s.Problems.Take(20))
+        {
+            output.WriteLine("  problem: " + problem);
+        }
+
+        if (s.Problems.Count > 20)
+        {
+            output.WriteLine(string.Create(c, $"  … and {s.Problems.Count - 20} more problems"));
+        }
+    }
+}

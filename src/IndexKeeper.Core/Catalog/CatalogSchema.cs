@@ -1,0 +1,16 @@
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>Names and version of the catalog schema; see docs/catalog.md. Values reach disk: never change them.</summary>
+public static class CatalogSchema
+{
+    /// <summary>The schema this build reads and writes (docs/catalog.md, "Version").</summary>
+    public const int Version = 1;
+
+    public const string FileName = "catalog.db";
+    public const string Meta = "meta";
+    public const string Documents = "documents";
+    public const string Pages = "pages";
+    public const string Queue = "queue";
+    public const string Scans = "scans";
+    internal const string SchemaMetaId = "schema";
+}

@@ -1,0 +1,368 @@
+using System.Diagnostics;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Diff;
+using IndexKeeper.Core.Documents;
+
+namespace IndexKeeper.Core.Pipeline;
+
+/// <summary>
+/// One pass of Detect → Read → Diff over every root: finds what is new, changed, moved, copied or gone,
+/// reads only files whose bytes are new to the index, and commits documents, page reference counts and
+/// queued page keys in batches (one transaction each). Embeds nothing.
+/// </summary>
+/// <remarks>REQUIRES: the caller holds the index lock; one pass at a time per catalog.</remarks>
+public sealed class ScanPass
+{
+    private readonly IndexCatalog catalog;
+    private readonly IDocumentReader reader;
+    private readonly ScanSettings settings;
+    private readonly IProgress<ScanProgress>? progress;
+    private readonly IFileProbe probe;
+    private readonly TimeProvider clock;
+
+    public ScanPass(IndexCatalog catalog, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress = null)
+        : this(catalog, reader, settings, progress, new FileSystemProbe(), TimeProvider.System)
+    {
+    }
+
+    internal ScanPass(IndexCatalog catalog, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress, IFileProbe probe, TimeProvider clock)
+    {
+        this.catalog = catalog;
+        this.reader = reader;
+        this.settings = settings;
+        this.progress = progress;
+        this.probe = probe;
+        this.clock = clock;
+    }
+
+    public ScanSummary Run(string command, CancellationToken cancellationToken)
+    {
+        var started = clock.GetUtcNow().UtcDateTime;
+        var stopwatch = Stopwatch.StartNew();
+        var state = new PassState(catalog);
+        var found = new List<FoundFile>();
+        var walkedRoots = new List<RootSpec>();
+        foreach (var root in settings.Roots)
+        {
+            if (!probe.RootExists(root))
+            {
+                state.Summary.RootsMissing.Add(root.Name);
+                continue;
+            }
+
+            walkedRoots.Add(root);
+            foreach (var file in probe.Walk(root, state.Summary.Problems.Add, cancellationToken))
+            {
+                found.Add(file);
+                if (found.Count % 1000 == 0)
+                {
+                    progress?.Report(new ScanProgress("walking", found.Count, 0, file.RelativePath));
+                }
+            }
+        }
+
+        state.Summary.DocumentsSeen = found.Count;
+        var settling = new List<FoundFile>();
+        var done = 0L;
+        foreach (var file in found)
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
+            if (IsSettling(file.Stat))
+            {
+                settling.Add(file);
+            }
+            else
+            {
+                Process(state, file, cancellationToken);
+            }
+
+            progress?.Report(new ScanProgress("checking", ++done, found.Count, file.RelativePath));
+            FlushIfFull(state);
+        }
+
+        ProcessSettled(state, settling, cancellationToken);
+        foreach (var root in walkedRoots)
+        {
+            foreach (var gone in catalog.DocumentsOfRoot(root.Name).Where(d => !state.Seen.Contains(d.Id)).ToList())
+            {
+                Delete(state, gone);
+                FlushIfFull(state);
+            }
+        }
+
+        Flush(state);
+        state.Summary.PagesRemoved = catalog.RemoveUnreferencedPages();
+        state.Summary.PagesNew = state.Ledger.PagesNew;
+        state.Summary.PagesReused = state.Ledger.PagesReused;
+        state.Summary.DocumentsMoved = state.NewHashes.Intersect(state.DeletedHashes).Count();
+        state.Summary.ElapsedSeconds = stopwatch.Elapsed.TotalSeconds;
+        catalog.AddScan(ToRecord(command, started, state.Summary));
+        return state.Summary;
+    }
+
+    private bool IsSettling(FileStat stat) =>
+        settings.Settle > TimeSpan.Zero && clock.GetUtcNow().UtcTicks - stat.ModifiedTicksUtc < settings.Settle.Ticks;
+
+    /// <summary>Waits once for the youngest file to be quiet for the settle time, then takes those that stayed still.</summary>
+    private void ProcessSettled(PassState state, List<FoundFile> settling, CancellationToken cancellationToken)
+    {
+        if (settling.Count == 0)
+        {
+            return;
+        }
+
+        var youngest = settling.Max(f => f.Stat.ModifiedTicksUtc);
+        var wait = TimeSpan.FromTicks(Math.Clamp(youngest + settings.Settle.Ticks - clock.GetUtcNow().UtcTicks, 0, settings.Settle.Ticks));
+        progress?.Report(new ScanProgress($"waiting {wait.TotalSeconds:0.0} s for {settling.Count} file(s) still being written", 0, 0, null));
+        cancellationToken.WaitHandle.WaitOne(wait);
+        cancellationToken.ThrowIfCancellationRequested();
+        foreach (var file in settling)
+        {
+            if (probe.Stat(file.FullPath) == file.Stat)
+            {
+                Process(state, file, cancellationToken);
+            }
+            else
+            {
+                state.Summary.DocumentsDeferred++;
+            }
+
+            FlushIfFull(state);
+        }
+    }
+
+    private void Process(PassState state, FoundFile file, CancellationToken cancellationToken)
+    {
+        var summary = state.Summary;
+        var existing = catalog.FindDocument(file.Root, file.RelativePath);
+        if (existing is not null && QuickCheck.Matches(existing, file.Stat))
+        {
+            summary.DocumentsUnchanged++;
+            summary.PagesSeen += existing.PageKeys.Count;
+            return;
+        }
+
+        summary.FilesHashed++;
+        var hash = probe.HashIfStable(file.FullPath, file.Stat, cancellationToken);
+        if (hash is null)
+        {
+            summary.DocumentsDeferred++;
+            return;
+        }
+
+        if (existing is not null && existing.FileHash == hash)
+        {
+            // Touched but identical: one hash, no parse. Only the stat moves on.
+            QuickCheck.Stamp(existing, file.Stat);
+            state.Edit.PutDocuments.Add(existing);
+            summary.DocumentsUnchanged++;
+            summary.PagesSeen += existing.PageKeys.Count;
+            return;
+        }
+
+        var now = clock.GetUtcNow().UtcDateTime;
+        var record = existing ?? new DocumentRecord
+        {
+            Id = DocumentRecord.MakeId(file.Root, file.RelativePath),
+            Root = file.Root,
+            Path = file.RelativePath,
+            FirstSeenUtc = now,
+        };
+        var oldKeys = existing is { State: DocumentState.Live } ? existing.PageKeys.Select(PageKey.Parse).ToList() : [];
+        QuickCheck.Stamp(record, file.Stat);
+        record.FileHash = hash;
+        record.LastChangedUtc = now;
+
+        IReadOnlyList<PageKey> newKeys;
+        if (state.FindCopySource(hash) is { } source && source.PageKeys.All(k => state.IsKnownPage(PageKey.Parse(k))))
+        {
+            // A copy, rename or move of bytes the index already holds: take its pages without reading.
+            summary.DocumentsCopied++;
+            record.Kind = source.Kind;
+            newKeys = source.PageKeys.Select(PageKey.Parse).ToList();
+            state.Ledger.Replace(oldKeys, newKeys);
+        }
+        else
+        {
+            var content = Read(state, file, cancellationToken);
+            if (content is null)
+            {
+                return;
+            }
+
+            if (content.Value.Quarantine is { } failure)
+            {
+                record.State = DocumentState.Quarantined;
+                record.Kind = DocumentKind.Unknown;
+                record.PageKeys = [];
+                record.QuarantineReason = failure.Reason;
+                record.QuarantineMessage = failure.Message;
+                state.Ledger.Replace(oldKeys, []);
+                state.Edit.PutDocuments.Add(record);
+                state.KnownHashes[hash] = record;
+                summary.DocumentsQuarantined++;
+                CountNewOrChanged(summary, existing);
+                return;
+            }
+
+            var document = content.Value.Content!;
+            record.Kind = document.Kind;
+            newKeys = document.Pages.Select(p => p.Key).ToList();
+            var fresh = state.Ledger.Replace(oldKeys, newKeys).ToHashSet();
+            foreach (var page in document.Pages.Where(p => fresh.Remove(p.Key)))
+            {
+                state.NewPages[page.Key] = PageRecords.From(page, file, now);
+            }
+        }
+
+        record.State = DocumentState.Live;
+        record.QuarantineReason = null;
+        record.QuarantineMessage = null;
+        record.PageKeys = newKeys.Select(k => k.Hex).ToList();
+        state.Edit.PutDocuments.Add(record);
+        state.KnownHashes[hash] = record;
+        if (existing is null)
+        {
+            state.NewHashes.Add(hash);
+        }
+
+        summary.PagesSeen += newKeys.Count;
+        CountNewOrChanged(summary, existing);
+    }
+
+    private static void CountNewOrChanged(ScanSummary summary, DocumentRecord? existing)
+    {
+        if (existing is null)
+        {
+            summary.DocumentsNew++;
+        }
+        else
+        {
+            summary.DocumentsChanged++;
+        }
+    }
+
+    /// <summary>Reads a document; null when it changed while being read (deferred to the next pass).</summary>
+    private (DocumentContent? Content, DocumentReadException? Quarantine)? Read(PassState state, FoundFile file, CancellationToken cancellationToken)
+    {
+        if (file.Stat.Size > settings.Limits.MaxFileBytes)
+        {
+            return (null, new DocumentReadException(
+                QuarantineReason.TooLarge,
+                $"{file.Stat.Size} bytes is over the limit of {settings.Limits.MaxFileBytes} bytes (Limits:MaxFileMegabytes)."));
+        }
+
+        (DocumentContent?, DocumentReadException?) result;
+        try
+        {
+            state.Summary.DocumentsRead++;
+            result = (reader.Read(file.FullPath, settings.Limits, cancellationToken), null);
+        }
+        catch (DocumentReadException failure)
+        {
+            result = (null, failure);
+        }
+
+        if (probe.Stat(file.FullPath) != file.Stat)
+        {
+            state.Summary.DocumentsDeferred++;
+            return null;
+        }
+
+        return result;
+    }
+
+    private void Delete(PassState state, DocumentRecord gone)
+    {
+        var keys = gone.State == DocumentState.Live ? gone.PageKeys.Select(PageKey.Parse).ToList() : [];
+        state.Ledger.Replace(keys, []);
+        state.Edit.DeleteDocuments.Add(gone.Id);
+        state.DeletedHashes.Add(gone.FileHash);
+        state.Summary.DocumentsDeleted++;
+    }
+
+    private void FlushIfFull(PassState state)
+    {
+        if (state.Edit.PutDocuments.Count + state.Edit.DeleteDocuments.Count >= settings.BatchSize)
+        {
+            Flush(state);
+        }
+    }
+
+    private void Flush(PassState state)
+    {
+        var edit = state.Edit;
+        var now = clock.GetUtcNow().UtcDateTime;
+        foreach (var (key, references, existedBefore) in state.Ledger.TakeTouched())
+        {
+            if (!existedBefore && state.NewPages.Remove(key, out var page))
+            {
+                page.References = references;
+                edit.AddPages.Add(page);
+                edit.Enqueue.Add(new QueueRecord { Id = key.Hex, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now });
+            }
+            else
+            {
+                edit.SetReferences.Add((key.Hex, references));
+            }
+        }
+
+        catalog.Apply(edit);
+        state.Edit = new CatalogEdit();
+    }
+
+    private static ScanRecord ToRecord(string command, DateTime started, ScanSummary summary) => new()
+    {
+        StartedUtc = started,
+        ElapsedSeconds = summary.ElapsedSeconds,
+        Command = command,
+        Counts = new Dictionary<string, long>
+        {
+            ["documentsSeen"] = summary.DocumentsSeen,
+            ["documentsNew"] = summary.DocumentsNew,
+            ["documentsChanged"] = summary.DocumentsChanged,
+            ["documentsUnchanged"] = summary.DocumentsUnchanged,
+            ["documentsDeleted"] = summary.DocumentsDeleted,
+            ["documentsQuarantined"] = summary.DocumentsQuarantined,
+            ["pagesNew"] = summary.PagesNew,
+            ["pagesReused"] = summary.PagesReused,
+            ["pagesRemoved"] = summary.PagesRemoved,
+        },
+    };
+
+    /// <summary>Mutable state of one pass; never shared between passes.</summary>
+    private sealed class PassState(IndexCatalog catalog)
+    {
+        public ScanSummary Summary { get; } = new();
+
+        public PageLedger Ledger { get; } = new(key => catalog.FindPage(key.Hex)?.References);
+
+        public CatalogEdit Edit { get; set; } = new();
+
+        public HashSet<string> Seen { get; } = new(StringComparer.Ordinal);
+
+        /// <summary>Pages first seen in this pass, waiting for the flush that adds them.</summary>
+        public Dictionary<PageKey, PageRecord> NewPages { get; } = [];
+
+        /// <summary>Documents written in this pass by file hash, so a second copy in the same batch is not read again.</summary>
+        public Dictionary<string, DocumentRecord> KnownHashes { get; } = new(StringComparer.Ordinal);
+
+        public HashSet<string> NewHashes { get; } = new(StringComparer.Ordinal);
+
+        public HashSet<string> DeletedHashes { get; } = new(StringComparer.Ordinal);
+
+        public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.FindPage(key.Hex) is not null;
+
+        public DocumentRecord? FindCopySource(string hash)
+        {
+            if (KnownHashes.TryGetValue(hash, out var known))
+            {
+                return known.State == DocumentState.Live ? known : null;
+            }
+
+            return catalog.FindLiveByFileHash(hash).FirstOrDefault();
+        }
+    }
+}

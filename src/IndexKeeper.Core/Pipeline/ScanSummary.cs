@@ -1,0 +1,57 @@
+namespace IndexKeeper.Core.Pipeline;
+
+/// <summary>
+/// What one scan pass found; the field names are the <c>scan --json</c> contract (DESIGN.md).
+/// Page figures: <see cref="PagesNew"/> + <see cref="PagesReused"/> = pages of new and changed documents.
+/// </summary>
+public sealed class ScanSummary
+{
+    public long DocumentsSeen { get; set; }
+
+    public long DocumentsNew { get; set; }
+
+    public long DocumentsChanged { get; set; }
+
+    public long DocumentsUnchanged { get; set; }
+
+    public long DocumentsDeleted { get; set; }
+
+    /// <summary>New paths whose bytes equal a document deleted in the same pass (renames and moves); counted in new and deleted too.</summary>
+    public long DocumentsMoved { get; set; }
+
+    /// <summary>New or changed paths whose bytes equal another live document: their pages were taken without reading.</summary>
+    public long DocumentsCopied { get; set; }
+
+    public long DocumentsQuarantined { get; set; }
+
+    /// <summary>Files still being written or changed while read: left for the next pass.</summary>
+    public long DocumentsDeferred { get; set; }
+
+    public long PagesSeen { get; set; }
+
+    /// <summary>Page keys not seen before: each needs one encoder call.</summary>
+    public long PagesNew { get; set; }
+
+    /// <summary>Pages of new or changed documents whose key already existed: no encoder call.</summary>
+    public long PagesReused { get; set; }
+
+    /// <summary>Page keys no live document holds any more.</summary>
+    public long PagesRemoved { get; set; }
+
+    /// <summary>Encoder page calls made; always 0 for a scan.</summary>
+    public long PagesEmbedded { get; set; }
+
+    /// <summary>Files hashed (a quick check that failed); files whose quick check passed cost no read.</summary>
+    public long FilesHashed { get; set; }
+
+    /// <summary>Documents parsed by the reader.</summary>
+    public long DocumentsRead { get; set; }
+
+    public double ElapsedSeconds { get; set; }
+
+    /// <summary>Configured roots that were not found: their documents were kept, not deleted.</summary>
+    public List<string> RootsMissing { get; } = [];
+
+    /// <summary>Entries that could not be looked at (permissions, vanished files, links out of a root).</summary>
+    public List<string> Problems { get; } = [];
+}

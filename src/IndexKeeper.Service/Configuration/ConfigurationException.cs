@@ -1,0 +1,11 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>Bad settings; the command exits with code 2 and prints every problem.</summary>
+public sealed class ConfigurationException : Exception
+{
+    public ConfigurationException(IReadOnlyList<string> problems)
+        : base("Bad configuration:" + Environment.NewLine + string.Join(Environment.NewLine, problems.Select(p => "  " + p))) =>
+        Problems = problems;
+
+    public IReadOnlyList<string> Problems { get; }
+}

@@ -1,0 +1,92 @@
+using System.Text.RegularExpressions;
+
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>
+/// Checks every setting at start and reports every failure at once, each naming the setting and what
+/// is allowed; the host refuses to run any stage while one remains.
+/// </summary>
+public static partial class IndexKeeperOptionsValidator
+{
+    public static IReadOnlyList<string> Validate(IndexKeeperOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        var errors = new List<string>();
+        if (string.IsNullOrWhiteSpace(options.IndexDirectory))
+        {
+            errors.Add("IndexDirectory: must name a folder (use --index DIR).");
+        }
+
+        if (options.Roots.Count == 0)
+        {
+            errors.Add("Roots: at least one root is needed (use --root DIR or a Roots list in the configuration file).");
+        }
+
+        var names = new HashSet<string>(StringComparer.Ordinal);
+        for (var i = 0; i < options.Roots.Count; i++)
+        {
+            var root = options.Roots[i];
+            var at = $"Roots:{i}";
+            if (!RootName().IsMatch(root.Name))
+            {
+                errors.Add($"{at}:Name: '{root.Name}' is not allowed; use 1-64 letters, digits, '-', '_' or '.'.");
+            }
+            else if (!names.Add(root.Name))
+            {
+                errors.Add($"{at}:Name: '{root.Name}' is used by two roots; root names must be unique.");
+            }
+
+            if (string.IsNullOrWhiteSpace(root.Path))
+            {
+                errors.Add($"{at}:Path: must name a folder.");
+            }
+            else if (!string.IsNullOrWhiteSpace(options.IndexDirectory) && IsSameOrInside(options.IndexDirectory, root.Path))
+            {
+                errors.Add($"{at}:Path: the index directory '{options.IndexDirectory}' lies inside this root; keep the index outside every root.");
+            }
+
+            CheckGlobs(errors, $"{at}:Include", root.Include);
+            CheckGlobs(errors, $"{at}:Exclude", root.Exclude);
+        }
+
+        var limits = options.Limits;
+        Range(errors, "Limits:MaxFileMegabytes", limits.MaxFileMegabytes, 1, 1024 * 1024);
+        Range(errors, "Limits:MaxPages", limits.MaxPages, 1, 1_000_000);
+        Range(errors, "Limits:MaxDecodedStreamMegabytes", limits.MaxDecodedStreamMegabytes, 1, 4096);
+        Range(errors, "Limits:ReadTimeoutSeconds", limits.ReadTimeoutSeconds, 0.1, 3600);
+        Range(errors, "Limits:WorkerMemoryMegabytes", limits.WorkerMemoryMegabytes, 128, 1024 * 1024);
+        Range(errors, "Detect:SettleSeconds", options.Detect.SettleSeconds, 0, 3600);
+        return errors;
+    }
+
+    private static void CheckGlobs(List<string> errors, string at, List<string> globs)
+    {
+        for (var i = 0; i < globs.Count; i++)
+        {
+            var glob = globs[i];
+            if (string.IsNullOrWhiteSpace(glob) || Path.IsPathRooted(glob) || glob.Split('/', '\\').Contains(".."))
+            {
+                errors.Add($"{at}:{i}: '{glob}' is not allowed; a glob is relative to its root, without '..' (e.g. **/*.pdf).");
+            }
+        }
+    }
+
+    private static void Range(List<string> errors, string name, double value, double min, double max)
+    {
+        if (double.IsNaN(value) || value < min || value > max)
+        {
+            errors.Add($"{name}: {value} is out of range; allowed {min} to {max}.");
+        }
+    }
+
+    private static bool IsSameOrInside(string candidate, string folder)
+    {
+        var inner = Path.TrimEndingDirectorySeparator(Path.GetFullPath(candidate)) + Path.DirectorySeparatorChar;
+        var outer = Path.TrimEndingDirectorySeparator(Path.GetFullPath(folder)) + Path.DirectorySeparatorChar;
+        var comparison = OperatingSystem.IsWindows() ? StringComparison.OrdinalIgnoreCase : StringComparison.Ordinal;
+        return inner.StartsWith(outer, comparison);
+    }
+
+    [GeneratedRegex("^[A-Za-z0-9._-]{1,64}$")]
+    private static partial Regex RootName();
+}

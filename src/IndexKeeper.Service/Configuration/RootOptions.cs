@@ -1,0 +1,16 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>One configured root: a stable name, a folder, and glob filters relative to it.</summary>
+public sealed class RootOptions
+{
+    /// <summary>Stable name stored in the catalog; renaming it re-indexes nothing but orphans the old name.</summary>
+    public string Name { get; set; } = string.Empty;
+
+    public string Path { get; set; } = string.Empty;
+
+    /// <summary>Globs a file must match (empty: every file). Example: <c>**/*.pdf</c>.</summary>
+    public List<string> Include { get; set; } = [];
+
+    /// <summary>Globs that drop files or whole folders. Example: <c>**/~$*</c>, <c>tmp/**</c>.</summary>
+    public List<string> Exclude { get; set; } = [];
+}

@@ -1,0 +1,83 @@
+using System.Security.Cryptography;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Tests.Support;
+using LiteDB;
+
+namespace IndexKeeper.Tests.Catalog;
+
+public sealed class IndexCatalogTests
+{
+    [Fact]
+    public void Second_holder_of_the_lock_is_refused_with_the_holders_process_id()
+    {
+        using var temp = new TempDirectory();
+        using (IndexLock.Acquire(temp.Path, "first"))
+        {
+            var refused = Assert.Throws<IndexLockedException>(() => IndexLock.Acquire(temp.Path, "second"));
+            Assert.Equal(Environment.ProcessId, refused.HolderProcessId);
+            Assert.Contains($"process {Environment.ProcessId}", refused.Message, StringComparison.Ordinal);
+        }
+
+        using (IndexLock.Acquire(temp.Path, "after release"))
+        {
+        }
+    }
+
+    [Fact]
+    public void Newer_schema_is_refused_and_the_file_is_left_untouched()
+    {
+        using var temp = new TempDirectory();
+        using (var held = IndexLock.Acquire(temp.Path, "test"))
+        using (IndexCatalog.Open(held))
+        {
+        }
+
+        var file = Path.Combine(temp.Path, CatalogSchema.FileName);
+        using (var db = new LiteDatabase(new ConnectionString { Filename = file, Connection = ConnectionType.Direct }))
+        {
+            var meta = db.GetCollection(CatalogSchema.Meta);
+            var schema = meta.FindById("schema");
+            schema["version"] = CatalogSchema.Version + 1;
+            meta.Update(schema);
+        }
+
+        var before = SHA256.HashData(File.ReadAllBytes(file));
+        using (var held = IndexLock.Acquire(temp.Path, "test"))
+        {
+            var refused = Assert.Throws<CatalogVersionException>(() => IndexCatalog.Open(held));
+            Assert.Contains($"schema version {CatalogSchema.Version + 1}", refused.Message, StringComparison.Ordinal);
+        }
+
+        Assert.Equal(before, SHA256.HashData(File.ReadAllBytes(file)));
+    }
+
+    [Fact]
+    public void Foreign_liteDB_file_is_not_taken_for_a_catalog()
+    {
+        using var temp = new TempDirectory();
+        using (var db = new LiteDatabase(Path.Combine(temp.Path, CatalogSchema.FileName)))
+        {
+            db.GetCollection("customers").Insert(new BsonDocument { ["name"] = "someone" });
+        }
+
+        using var held = IndexLock.Acquire(temp.Path, "test");
+        Assert.Throws<CatalogVersionException>(() => IndexCatalog.Open(held));
+    }
+
+    [Fact]
+    public void Failed_edit_leaves_nothing_behind()
+    {
+        using var temp = new TempDirectory();
+        using var held = IndexLock.Acquire(temp.Path, "test");
+        using var catalog = IndexCatalog.Open(held);
+        var edit = new CatalogEdit();
+        edit.PutDocuments.Add(new DocumentRecord { Id = DocumentRecord.MakeId("r", "a.pdf"), Root = "r", Path = "a.pdf", State = DocumentState.Live });
+        edit.AddPages.Add(new PageRecord { Id = "k1", References = 1 });
+        edit.AddPages.Add(new PageRecord { Id = "k1", References = 1 });
+        edit.Enqueue.Add(new QueueRecord { Id = "k1" });
+        edit.Enqueue.Add(null!);
+        Assert.ThrowsAny<Exception>(() => catalog.Apply(edit));
+        Assert.Null(catalog.FindDocument("r", "a.pdf"));
+        Assert.Null(catalog.FindPage("k1"));
+    }
+}

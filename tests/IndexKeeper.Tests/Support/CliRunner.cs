@@ -1,0 +1,36 @@
+using System.Diagnostics;
+
+namespace IndexKeeper.Tests.Support;
+
+/// <summary>Runs the real <c>indexkeeper</c> executable built beside the tests, as a user would.</summary>
+internal static class CliRunner
+{
+    public sealed record Result(int ExitCode, string Stdout, string Stderr);
+
+    public static Result Run(string workingDirectory, params string[] args)
+    {
+        var start = new ProcessStartInfo("dotnet")
+        {
+            WorkingDirectory = workingDirectory,
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
+            UseShellExecute = false,
+        };
+        start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"));
+        foreach (var arg in args)
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        using var process = Process.Start(start)!;
+        var stdout = process.StandardOutput.ReadToEndAsync();
+        var stderr = process.StandardError.ReadToEndAsync();
+        if (!process.WaitForExit(TimeSpan.FromMinutes(5)))
+        {
+            process.Kill(entireProcessTree: true);
+            throw new TimeoutException("indexkeeper " + string.Join(' ', args) + " did not finish in 5 minutes");
+        }
+
+        return new Result(process.ExitCode, stdout.Result, stderr.Result);
+    }
+}
