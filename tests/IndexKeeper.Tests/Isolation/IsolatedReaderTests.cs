@@ -27,7 +27,7 @@ public sealed class IsolatedReaderTests : IDisposable
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("exit code 137: signal 9 SIGKILL", error.Message, StringComparison.Ordinal);
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -39,7 +39,7 @@ public sealed class IsolatedReaderTests : IDisposable
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReadTimeout, error.Reason);
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -64,7 +64,7 @@ public sealed class IsolatedReaderTests : IDisposable
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("invalid reply", error.Message, StringComparison.Ordinal);
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -139,7 +139,7 @@ public sealed class IsolatedReaderTests : IDisposable
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("System.IO.InvalidDataException: broken object stream", error.Message, StringComparison.Ordinal);
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -152,7 +152,7 @@ public sealed class IsolatedReaderTests : IDisposable
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderOutOfMemory, error.Reason);
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -164,7 +164,7 @@ public sealed class IsolatedReaderTests : IDisposable
 
         NoHang.Throws<OperationCanceledException>(() => reader.Read(goodPdf, ReadLimits.Default, cancel.Token));
 
-        AssertGoodReadWorks(reader);
+        GoodRead.AssertWorks(reader, goodPdf);
         Assert.Equal(2, reader.WorkerStarts);
     }
 
@@ -252,11 +252,4 @@ public sealed class IsolatedReaderTests : IDisposable
             WorkerMemoryLimitBytes = memoryLimitBytes,
             KillGrace = TimeSpan.Zero,
         });
-
-    private void AssertGoodReadWorks(IIsolatedDocumentReader reader)
-    {
-        var inProcess = ReadOutcome.Of(() => DocumentReaderFactory.Create().Read(goodPdf, ReadLimits.Default, CancellationToken.None));
-        var isolated = NoHang.Run(() => ReadOutcome.Of(() => reader.Read(goodPdf, ReadLimits.Default, CancellationToken.None)));
-        Assert.Equal(inProcess, isolated);
-    }
 }
