@@ -19,22 +19,51 @@ public sealed class IsolatedReaderTests : IDisposable
     public void Dispose() => scratch.Dispose();
 
     [Fact]
-    public void A_worker_killed_mid_read_is_a_crash_with_its_signal_and_the_next_read_gets_a_new_worker()
+    public void A_worker_killed_mid_read_twice_is_a_crash_with_its_signal_and_the_next_read_gets_a_new_worker()
     {
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.KilledMidRead, scratch.File("marker")));
+        using var reader = Create(StandInWorker.ThenReal(StandInWorker.KilledMidRead, scratch.File("starts"), 2));
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("exit code 137: signal 9 SIGKILL", error.Message, StringComparison.Ordinal);
+        Assert.Contains("a fresh worker died on it too", error.Message, StringComparison.Ordinal);
         GoodRead.AssertWorks(reader, goodPdf);
+        Assert.Equal(3, reader.WorkerStarts);
+    }
+
+    [Fact]
+    public void A_worker_killed_once_does_not_blame_the_document()
+    {
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.KilledMidRead, scratch.File("starts")));
+
+        GoodRead.AssertWorks(reader, goodPdf);
+
         Assert.Equal(2, reader.WorkerStarts);
+    }
+
+    [Fact]
+    public void A_worker_that_exited_while_idle_is_replaced_before_the_next_read()
+    {
+        var reader = (IsolatedDocumentReader)Create(ReaderWorkerCommand.ForThisInstallation());
+        using (reader)
+        {
+            GoodRead.AssertWorks(reader, goodPdf);
+            using (var idle = System.Diagnostics.Process.GetProcessById(reader.WorkerProcessId!.Value))
+            {
+                idle.Kill();
+                idle.WaitForExit();
+            }
+
+            GoodRead.AssertWorks(reader, goodPdf);
+            Assert.Equal(2, reader.WorkerStarts);
+        }
     }
 
     [Fact]
     public void A_stalled_worker_is_killed_by_the_watchdog_and_replaced()
     {
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.Stalls, scratch.File("marker")));
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.Stalls, scratch.File("starts")));
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
@@ -58,7 +87,7 @@ public sealed class IsolatedReaderTests : IDisposable
     [Fact]
     public void Garbage_on_the_pipe_is_a_crash_and_the_next_read_gets_a_new_worker()
     {
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.WritesGarbage, scratch.File("marker")));
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.WritesGarbage, scratch.File("starts")));
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
@@ -106,6 +135,23 @@ public sealed class IsolatedReaderTests : IDisposable
     }
 
     [Fact]
+    public void Worker_stderr_and_restarts_go_to_the_logger()
+    {
+        var logger = new ListLogger();
+        using var reader = IsolatedReaderFactory.Create(
+            new IsolatedReaderOptions { WorkerCommand = StandInWorker.Command("echo 'xref table damaged' >&2; kill -9 $$") },
+            logger);
+
+        NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+
+        var messages = logger.Messages;
+        Assert.Contains(messages, m => m.StartsWith("Information: Reader worker ", StringComparison.Ordinal) && m.Contains(" started: /bin/sh", StringComparison.Ordinal));
+        Assert.Contains(messages, m => m.StartsWith("Warning: Reader worker ", StringComparison.Ordinal) && m.EndsWith(" stderr: xref table damaged", StringComparison.Ordinal));
+        Assert.Contains(messages, m => m.Contains("trying once more with a fresh worker", StringComparison.Ordinal));
+        Assert.Equal(2, messages.Count(m => m.Contains(" stopped: the reader process died reading this document", StringComparison.Ordinal)));
+    }
+
+    [Fact]
     public void The_memory_cap_reaches_the_worker_environment_in_hexadecimal()
     {
         using var capped = Create(StandInWorker.Command("echo \"cap=${DOTNET_GCHeapHardLimit:-none}\" >&2; kill -9 $$"), 1L << 30);
@@ -133,7 +179,7 @@ public sealed class IsolatedReaderTests : IDisposable
     public void A_fault_is_a_crash_of_the_reader_and_the_worker_is_replaced()
     {
         var fault = FrameStream.Encode(MessageCodec.Fault(new InvalidDataException("broken object stream")));
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(fault) + "; exec sleep 600", scratch.File("marker")));
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(fault) + "; exec sleep 600", scratch.File("starts")));
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
@@ -147,7 +193,7 @@ public sealed class IsolatedReaderTests : IDisposable
     public void An_out_of_memory_refusal_replaces_the_worker()
     {
         var refusal = FrameStream.Encode(MessageCodec.Refusal(QuarantineReason.ReaderOutOfMemory, "the reader ran out of memory"));
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(refusal) + "; exec sleep 600", scratch.File("marker")));
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(refusal) + "; exec sleep 600", scratch.File("starts")));
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
 
@@ -159,7 +205,7 @@ public sealed class IsolatedReaderTests : IDisposable
     [Fact]
     public void Cancelling_kills_the_read_in_flight_and_the_next_read_works()
     {
-        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.Stalls, scratch.File("marker")));
+        using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.Stalls, scratch.File("starts")));
         using var cancel = new CancellationTokenSource(TimeSpan.FromMilliseconds(300));
 
         NoHang.Throws<OperationCanceledException>(() => reader.Read(goodPdf, ReadLimits.Default, cancel.Token));

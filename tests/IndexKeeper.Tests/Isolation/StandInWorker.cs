@@ -6,7 +6,7 @@ namespace IndexKeeper.Tests.Isolation;
 /// <summary>
 /// Shell scripts that play a reader worker gone wrong, for the supervisor tests. Each announces itself
 /// with a correct hello (built by the production encoder), waits for the first byte of a request, then
-/// misbehaves. With a marker file, only the first start misbehaves and later starts run the real worker.
+/// misbehaves. With a counter file, only the first starts misbehave and later starts run the real worker.
 /// </summary>
 internal static class StandInWorker
 {
@@ -23,12 +23,15 @@ internal static class StandInWorker
         new("/bin/sh", ["-c", $"{PrintBytes(Hello())}; head -c 1 >/dev/null; {misbehaviour}"]);
 
     /// <summary>Misbehaves on its first start only; every later start is the real worker.</summary>
-    public static ReaderWorkerCommand OnceThenReal(string misbehaviour, string markerPath)
+    public static ReaderWorkerCommand OnceThenReal(string misbehaviour, string counterPath) => ThenReal(misbehaviour, counterPath, 1);
+
+    /// <summary>Misbehaves on its first <paramref name="starts"/> starts; every later start is the real worker.</summary>
+    public static ReaderWorkerCommand ThenReal(string misbehaviour, string counterPath, int starts)
     {
         var real = ReaderWorkerCommand.ForThisInstallation();
         var exec = string.Join(' ', new[] { real.FileName }.Concat(real.Arguments).Select(Quote));
-        var marker = Quote(markerPath);
-        return new("/bin/sh", ["-c", $"if [ -e {marker} ]; then exec {exec}; fi; : > {marker}; {PrintBytes(Hello())}; head -c 1 >/dev/null; {misbehaviour}"]);
+        var counter = Quote(counterPath);
+        return new("/bin/sh", ["-c", $"n=$(cat {counter} 2>/dev/null || echo 0); if [ \"$n\" -ge {starts} ]; then exec {exec}; fi; echo $((n + 1)) > {counter}; {PrintBytes(Hello())}; head -c 1 >/dev/null; {misbehaviour}"]);
     }
 
     /// <summary>A shell command that writes exactly these bytes to stdout.</summary>

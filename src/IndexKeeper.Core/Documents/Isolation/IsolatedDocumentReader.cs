@@ -41,42 +41,71 @@ internal sealed class IsolatedDocumentReader : IIsolatedDocumentReader
     {
         ArgumentNullException.ThrowIfNull(path);
         ArgumentNullException.ThrowIfNull(limits);
+        var allowed = WatchdogFor(limits.ReadTimeout);
+        var request = MessageCodec.Request(Path.GetFullPath(path), limits);
         lock (gate)
         {
-            ObjectDisposedException.ThrowIf(disposed, this);
-            cancellationToken.ThrowIfCancellationRequested();
-            var allowed = WatchdogFor(limits.ReadTimeout);
-            var current = worker ??= StartWorker(cancellationToken);
-            current.Stderr.BeginRead();
-            using var watchdog = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
-            if (allowed is { } due)
-            {
-                watchdog.CancelAfter(due);
-            }
-
-            Frame reply;
             try
             {
-                reply = current.Exchange(MessageCodec.Request(Path.GetFullPath(path), limits), watchdog.Token);
+                return ReadOnce(request, allowed, cancellationToken);
             }
-            catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
+            catch (DocumentReadException died) when (died.InnerException is EndOfStreamException or IOException)
             {
-                Replace(current, "the read was cancelled");
-                throw new OperationCanceledException(cancellationToken);
+                // A worker also dies of causes outside the document (an operator, the kernel's out-of-memory
+                // killer): blame the document only when a fresh worker dies on it too.
+                WorkerLog.Retrying(logger, path, died.Message);
+                try
+                {
+                    return ReadOnce(request, allowed, cancellationToken);
+                }
+                catch (DocumentReadException again) when (again.InnerException is EndOfStreamException or IOException)
+                {
+                    throw new DocumentReadException(again.Reason, again.Message + " (a fresh worker died on it too)", again.InnerException);
+                }
             }
-            catch (OperationCanceledException)
-            {
-                var message = $"reading took longer than the watchdog of {allowed!.Value.TotalSeconds:0.#} s; the reader process was stopped";
-                Replace(current, message);
-                throw new DocumentReadException(QuarantineReason.ReadTimeout, message);
-            }
-            catch (Exception e) when (e is EndOfStreamException or IOException or ReaderProtocolException)
-            {
-                throw Died(current, e);
-            }
-
-            return Interpret(current, reply);
         }
+    }
+
+    // REQUIRES: gate is held.
+    private DocumentContent ReadOnce(Frame request, TimeSpan? allowed, CancellationToken cancellationToken)
+    {
+        ObjectDisposedException.ThrowIf(disposed, this);
+        cancellationToken.ThrowIfCancellationRequested();
+        if (worker is { HasExited: true } idle)
+        {
+            Replace(idle, "it exited while idle");
+        }
+
+        var current = worker ??= StartWorker(cancellationToken);
+        current.Stderr.BeginRead();
+        using var watchdog = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
+        if (allowed is { } due)
+        {
+            watchdog.CancelAfter(due);
+        }
+
+        Frame reply;
+        try
+        {
+            reply = current.Exchange(request, watchdog.Token);
+        }
+        catch (OperationCanceledException) when (cancellationToken.IsCancellationRequested)
+        {
+            Replace(current, "the read was cancelled");
+            throw new OperationCanceledException(cancellationToken);
+        }
+        catch (OperationCanceledException)
+        {
+            var message = $"reading took longer than the watchdog of {allowed!.Value.TotalSeconds:0.#} s; the reader process was stopped";
+            Replace(current, message);
+            throw new DocumentReadException(QuarantineReason.ReadTimeout, message);
+        }
+        catch (Exception e) when (e is EndOfStreamException or IOException or ReaderProtocolException)
+        {
+            throw Died(current, e);
+        }
+
+        return Interpret(current, reply);
     }
 
     public void Dispose()

@@ -11,6 +11,9 @@ internal static partial class WorkerLog
     [LoggerMessage(Level = LogLevel.Warning, Message = "Reader worker {ProcessId} stopped: {Why}")]
     public static partial void Stopped(ILogger logger, int processId, string why);
 
+    [LoggerMessage(Level = LogLevel.Warning, Message = "Reader worker died on {Path} ({Why}); trying once more with a fresh worker")]
+    public static partial void Retrying(ILogger logger, string path, string why);
+
     [LoggerMessage(Level = LogLevel.Warning, Message = "Reader worker {ProcessId} stderr: {Line}")]
     public static partial void StderrLine(ILogger logger, int processId, string line);
 

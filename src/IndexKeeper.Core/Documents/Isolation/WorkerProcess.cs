@@ -29,6 +29,8 @@ internal sealed class WorkerProcess : IDisposable
 
     public WorkerStderr Stderr { get; }
 
+    public bool HasExited => process.HasExited;
+
     /// <summary>Starts the worker and waits for its hello frame.</summary>
     /// <exception cref="InvalidOperationException">The worker could not be started or did not announce itself.</exception>
     public static WorkerProcess Start(ReaderWorkerCommand command, long? memoryLimitBytes, TimeSpan startTimeout, ILogger logger, CancellationToken cancellationToken)
