@@ -12,5 +12,9 @@ public static class CatalogSchema
     public const string Pages = "pages";
     public const string Queue = "queue";
     public const string Scans = "scans";
+    public const string Encoders = "encoders";
+    public const string Segments = "segments";
+    public const string VectorSets = "vectorSets";
+    internal const string SegmentCounterMetaId = "segmentCounter";
     internal const string SchemaMetaId = "schema";
 }

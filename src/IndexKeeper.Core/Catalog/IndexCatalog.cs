@@ -6,13 +6,16 @@ namespace IndexKeeper.Core.Catalog;
 /// The catalog of one index directory (LiteDB; schema in docs/catalog.md). It is the source of truth
 /// for what is live. REQUIRES: the caller holds the index's <see cref="IndexLock"/> for the catalog's lifetime.
 /// </summary>
-public sealed class IndexCatalog : IDisposable
+public sealed partial class IndexCatalog : IDisposable
 {
     private readonly LiteDatabase database;
     private readonly ILiteCollection<DocumentRecord> documents;
     private readonly ILiteCollection<PageRecord> pages;
     private readonly ILiteCollection<QueueRecord> queue;
     private readonly ILiteCollection<ScanRecord> scans;
+    private readonly ILiteCollection<EncoderRecord> encoders;
+    private readonly ILiteCollection<SegmentRecord> segments;
+    private readonly ILiteCollection<VectorSetRecord> vectorSets;
 
     private IndexCatalog(LiteDatabase database)
     {
@@ -21,6 +24,9 @@ public sealed class IndexCatalog : IDisposable
         pages = database.GetCollection<PageRecord>(CatalogSchema.Pages);
         queue = database.GetCollection<QueueRecord>(CatalogSchema.Queue);
         scans = database.GetCollection<ScanRecord>(CatalogSchema.Scans);
+        encoders = database.GetCollection<EncoderRecord>(CatalogSchema.Encoders);
+        segments = database.GetCollection<SegmentRecord>(CatalogSchema.Segments);
+        vectorSets = database.GetCollection<VectorSetRecord>(CatalogSchema.VectorSets);
     }
 
     /// <summary>Opens or creates the catalog in the locked directory; refuses a newer schema without writing.</summary>
@@ -38,6 +44,10 @@ public sealed class IndexCatalog : IDisposable
             catalog.documents.EnsureIndex(d => d.Root);
             catalog.queue.EnsureIndex(q => q.Priority);
             catalog.pages.EnsureIndex(p => p.References);
+            catalog.documents.EnsureIndex("pageKeys", "$.PageKeys[*]");
+            catalog.vectorSets.EnsureIndex(v => v.PageKey);
+            catalog.vectorSets.EnsureIndex(v => v.SegmentId);
+            catalog.vectorSets.EnsureIndex(v => v.EncoderId);
             return catalog;
         }
         catch
@@ -59,9 +69,17 @@ public sealed class IndexCatalog : IDisposable
 
     public PageRecord? FindPage(string pageKey) => pages.FindById(pageKey);
 
+    public IEnumerable<DocumentRecord> AllDocuments() => documents.FindAll();
+
+    public IEnumerable<PageRecord> AllPages() => pages.FindAll();
+
     public IEnumerable<string> RootNames() => documents.Query().Select(d => d.Root).ToEnumerable().Distinct(StringComparer.Ordinal);
 
     public IEnumerable<QueueRecord> QueueInOrder() => queue.Query().OrderBy(q => q.Priority).ToEnumerable();
+
+    /// <summary>Up to <paramref name="count"/> queued pages that may be tried now, highest priority first.</summary>
+    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc) =>
+        queue.Query().Where(q => q.NotBeforeUtc <= nowUtc).OrderBy(q => q.Priority).Limit(count).ToList();
 
     /// <summary>Applies every change of <paramref name="edit"/> in one transaction.</summary>
     public void Apply(CatalogEdit edit)
@@ -82,6 +100,12 @@ public sealed class IndexCatalog : IDisposable
 
             documents.Upsert(edit.PutDocuments);
             pages.Upsert(edit.AddPages);
+            foreach (var page in edit.AddPages)
+            {
+                // A page key back within the life of its old vectors (a restored file) costs no encoder call.
+                SetVectorSetsLive(page.Id, live: true);
+            }
+
             foreach (var (key, references) in edit.SetReferences)
             {
                 if (pages.FindById(key) is { } page)
@@ -112,6 +136,7 @@ public sealed class IndexCatalog : IDisposable
             {
                 pages.Delete(key);
                 queue.Delete(key);
+                SetVectorSetsLive(key, live: false);
             }
 
             database.Commit();

@@ -15,4 +15,8 @@ public sealed class IndexKeeperOptions
     public LimitsOptions Limits { get; set; } = new();
 
     public DetectOptions Detect { get; set; } = new();
+
+    public EncoderOptions Encoder { get; set; } = new();
+
+    public StorageOptions Storage { get; set; } = new();
 }

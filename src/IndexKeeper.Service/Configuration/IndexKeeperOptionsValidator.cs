@@ -8,6 +8,9 @@ namespace IndexKeeper.Service.Configuration;
 /// </summary>
 public static partial class IndexKeeperOptionsValidator
 {
+    /// <summary>Encoder names this build knows.</summary>
+    public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms"];
+
     public static IReadOnlyList<string> Validate(IndexKeeperOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
@@ -56,6 +59,24 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Limits:ReadTimeoutSeconds", limits.ReadTimeoutSeconds, 0.1, 3600);
         Range(errors, "Limits:WorkerMemoryMegabytes", limits.WorkerMemoryMegabytes, 128, 1024 * 1024);
         Range(errors, "Detect:SettleSeconds", options.Detect.SettleSeconds, 0, 3600);
+        if (!EncoderNames.Contains(options.Encoder.Name))
+        {
+            errors.Add($"Encoder:Name: '{options.Encoder.Name}' is not an encoder; built in: {string.Join(", ", EncoderNames)}.");
+        }
+
+        if (options.Encoder.Dimensions is < 64 or > 4096 || options.Encoder.Dimensions % 64 != 0)
+        {
+            errors.Add($"Encoder:Dimensions: {options.Encoder.Dimensions} is not allowed; use a multiple of 64 from 64 to 4096.");
+        }
+
+        Range(errors, "Encoder:BatchSize", options.Encoder.BatchSize, 1, 4096);
+        Range(errors, "Encoder:PoolFactor", options.Encoder.PoolFactor, 1, 64);
+        var storage = options.Storage;
+        Range(errors, "Storage:SealAtMegabytes", storage.SealAtMegabytes, 1, 64 * 1024);
+        Range(errors, "Storage:SealAtHours", storage.SealAtHours, 0.01, 24 * 365);
+        Range(errors, "Storage:CompactDeadShare", storage.CompactDeadShare, 0.01, 0.99);
+        Range(errors, "Storage:SmallSegmentMegabytes", storage.SmallSegmentMegabytes, 1, 64 * 1024);
+        Range(errors, "Storage:MinSmallSegmentsToMerge", storage.MinSmallSegmentsToMerge, 2, 1000);
         return errors;
     }
 

@@ -8,7 +8,11 @@ public sealed class RootOptions
 
     public string Path { get; set; } = string.Empty;
 
-    /// <summary>Globs a file must match (empty: every file). Example: <c>**/*.pdf</c>.</summary>
+    /// <summary>The document types the reader understands; used when <see cref="Include"/> is empty.</summary>
+    public static IReadOnlyList<string> SupportedTypes { get; } =
+        ["**/*.pdf", "**/*.png", "**/*.jpg", "**/*.jpeg", "**/*.tif", "**/*.tiff"];
+
+    /// <summary>Globs a file must match (empty: <see cref="SupportedTypes"/>). Example: <c>manuals/**/*.pdf</c>.</summary>
     public List<string> Include { get; set; } = [];
 
     /// <summary>Globs that drop files or whole folders. Example: <c>**/~$*</c>, <c>tmp/**</c>.</summary>

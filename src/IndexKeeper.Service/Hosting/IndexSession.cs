@@ -47,7 +47,7 @@ public sealed class IndexSession : IDisposable
     }
 
     public ScanSettings ScanSettings() => new(
-        Options.Roots.Select(r => new RootSpec(r.Name, Path.GetFullPath(r.Path), r.Include, r.Exclude)).ToList(),
+        Options.Roots.Select(r => new RootSpec(r.Name, Path.GetFullPath(r.Path), r.Include.Count > 0 ? r.Include : RootOptions.SupportedTypes, r.Exclude)).ToList(),
         ReadLimits(),
         TimeSpan.FromSeconds(Options.Detect.SettleSeconds));
 

@@ -1,0 +1,17 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>Which encoder is active, and its settings. A change of any setting is a new encoder id.</summary>
+public sealed class EncoderOptions
+{
+    /// <summary>Built-in names: <c>hashed-terms</c>.</summary>
+    public string Name { get; set; } = "hashed-terms";
+
+    /// <summary>Output size d of every vector (a multiple of 64, for the sign codes).</summary>
+    public int Dimensions { get; set; } = 128;
+
+    /// <summary>Pages per encoder call.</summary>
+    public int BatchSize { get; set; } = 32;
+
+    /// <summary>Merge near-duplicate vectors of a page down to count/PoolFactor (1: no pooling).</summary>
+    public int PoolFactor { get; set; } = 1;
+}
