@@ -77,6 +77,9 @@ internal sealed class IsolatedDocumentReader : IIsolatedDocumentReader
         }
 
         var current = worker ??= StartWorker(cancellationToken);
+
+        // Dispose may have come while the worker started; it waits on the gate to stop it.
+        ObjectDisposedException.ThrowIf(disposed, this);
         current.Stderr.BeginRead();
         using var watchdog = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
         if (allowed is { } due)

@@ -81,8 +81,14 @@ internal sealed class WorkerProcess : IDisposable
     }
 
     /// <summary>Sends a request and waits for the reply; cancelling the token abandons the exchange.</summary>
-    public Frame Exchange(Frame request, CancellationToken cancellationToken) =>
-        ExchangeAsync(request, cancellationToken).WaitAsync(cancellationToken).GetAwaiter().GetResult();
+    public Frame Exchange(Frame request, CancellationToken cancellationToken)
+    {
+        var exchange = ExchangeAsync(request, cancellationToken);
+
+        // An abandoned exchange fails later, when the worker is killed; nobody waits for it any more.
+        _ = exchange.ContinueWith(static t => t.Exception, CancellationToken.None, TaskContinuationOptions.OnlyOnFaulted, TaskScheduler.Default);
+        return exchange.WaitAsync(cancellationToken).GetAwaiter().GetResult();
+    }
 
     /// <summary>Waits briefly for the process to end after its output ended; kills it if it does not.</summary>
     /// <returns>How it ended, or null when it had to be killed.</returns>
