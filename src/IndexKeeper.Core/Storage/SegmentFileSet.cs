@@ -1,0 +1,285 @@
+using System.Collections.Concurrent;
+using IndexKeeper.Core.Documents;
+
+namespace IndexKeeper.Core.Storage;
+
+/// <summary>
+/// The segment files of one index directory as readers share them: maps are opened once, handed out
+/// with a reference count, and a segment that compaction retired is deleted only when its last reader
+/// lets go.
+/// <para>Rules (see docs/compaction.md, "Deleting old segments"):</para>
+/// <list type="bullet">
+/// <item>The set holds one reference to the newest map of each segment; every open
+/// <see cref="SegmentVectorSetSource"/> holds one to each map it reads.</item>
+/// <item><see cref="Retire"/> is called after the catalog transaction that stopped referencing a
+/// segment. It drops the set's reference; the file is deleted when the count of its last map reaches
+/// zero. A retired segment cannot be opened again.</item>
+/// <item>An open segment grows; a source that needs bytes past the current map gets a new, longer map,
+/// and older maps live on until their sources are disposed.</item>
+/// </list>
+/// All members are safe to call from any thread; <c>gate</c> guards the table of entries.
+/// </summary>
+public sealed class SegmentFileSet : IDisposable
+{
+    private readonly object gate = new();
+    private readonly Dictionary<long, Entry> entries = [];
+    private bool disposed;
+
+    public SegmentFileSet(string directory)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(directory);
+        Directory = directory;
+    }
+
+    public string Directory { get; }
+
+    /// <summary>
+    /// A source over the vector sets at <paramref name="locations"/> (ordinal i is location i). Every
+    /// record is checked once per set (frame, checksums, layout, encoder id) before it can be read; a
+    /// bad one fails the call with <see cref="SegmentFormatException"/> naming it.
+    /// </summary>
+    public SegmentVectorSetSource OpenSource(string encoderId, IReadOnlyList<RecordLocation> locations)
+    {
+        ArgumentNullException.ThrowIfNull(encoderId);
+        ArgumentNullException.ThrowIfNull(locations);
+        var maps = new List<MappedFile>();
+        var mapOfSegment = new Dictionary<long, int>();
+        try
+        {
+            var ends = new Dictionary<long, long>();
+            foreach (var location in locations)
+            {
+                ends[location.SegmentId] = Math.Max(ends.GetValueOrDefault(location.SegmentId), location.Offset + location.Length);
+            }
+
+            var dimensions = 0;
+            var verifiedBySegment = new Dictionary<long, ConcurrentDictionary<long, (uint Checksum, int Length)>>();
+            foreach (var (segmentId, end) in ends)
+            {
+                var (map, header, verified) = Acquire(segmentId, end);
+                mapOfSegment[segmentId] = maps.Count;
+                maps.Add(map);
+                verifiedBySegment[segmentId] = verified;
+                if (header.EncoderId != encoderId)
+                {
+                    throw new SegmentFormatException(map.Path, null, $"segment holds encoder {header.EncoderId}, the catalog expects {encoderId}");
+                }
+
+                if (dimensions != 0 && header.Dimensions != dimensions)
+                {
+                    throw new SegmentFormatException(map.Path, null, $"segment has {header.Dimensions} dimensions, others of encoder {encoderId} have {dimensions}");
+                }
+
+                dimensions = header.Dimensions;
+            }
+
+            var ordinals = new SegmentVectorSetSource.Ordinal[locations.Count];
+            for (var i = 0; i < locations.Count; i++)
+            {
+                var location = locations[i];
+                var mapIndex = mapOfSegment[location.SegmentId];
+                var count = Check(maps[mapIndex], location, dimensions, verifiedBySegment[location.SegmentId], out var key);
+                ordinals[i] = new SegmentVectorSetSource.Ordinal(mapIndex, location.Offset + SegmentFormat.FrameLength, location.Length - SegmentFormat.FrameLength, count, key);
+            }
+
+            return new SegmentVectorSetSource(encoderId, dimensions, [.. maps], ordinals);
+        }
+        catch
+        {
+            foreach (var map in maps)
+            {
+                map.Release();
+            }
+
+            throw;
+        }
+    }
+
+    /// <summary>
+    /// REQUIRES: the catalog no longer references <paramref name="segmentId"/> (the swap is committed).
+    /// The file is deleted now if no reader holds it, else when the last one is disposed.
+    /// </summary>
+    public void Retire(long segmentId)
+    {
+        MappedFile? current;
+        lock (gate)
+        {
+            var entry = EntryOf(segmentId);
+            if (entry.Retired)
+            {
+                return;
+            }
+
+            entry.Retired = true;
+            current = entry.Current;
+            entry.Current = null;
+            if (current is null && entry.LiveMaps == 0)
+            {
+                Delete(segmentId);
+                return;
+            }
+        }
+
+        current?.Release();
+    }
+
+    /// <summary>Drops the set's own references; maps held by open sources stay until those are disposed.</summary>
+    public void Dispose()
+    {
+        List<MappedFile> held;
+        lock (gate)
+        {
+            if (disposed)
+            {
+                return;
+            }
+
+            disposed = true;
+            held = [.. entries.Values.Select(e => e.Current).OfType<MappedFile>()];
+            foreach (var entry in entries.Values)
+            {
+                entry.Current = null;
+            }
+        }
+
+        foreach (var map in held)
+        {
+            map.Release();
+        }
+    }
+
+    private static int Check(MappedFile map, RecordLocation location, int dimensions, ConcurrentDictionary<long, (uint Checksum, int Length)> verified, out PageKey key)
+    {
+        if (location.Length < SegmentFormat.FrameLength + SegmentFormat.VectorSetPrefixLength || location.Offset < SegmentFormat.MinHeaderLength
+            || location.Offset > map.Length - location.Length)
+        {
+            throw new SegmentFormatException(map.Path, location.Offset, $"record of {location.Length} bytes lies outside the {map.Length}-byte file");
+        }
+
+        var record = map.Span(location.Offset, location.Length);
+        var body = record[SegmentFormat.FrameLength..];
+        if (!verified.TryGetValue(location.Offset, out var known) || known != (location.Checksum, location.Length))
+        {
+            var state = RecordCodec.Examine(record, out var type, out var recordLength, out var checksum, out var problem);
+            if (state != RecordCodec.FrameState.Complete)
+            {
+                throw new SegmentFormatException(map.Path, location.Offset, state == RecordCodec.FrameState.Damaged ? problem : "record is incomplete");
+            }
+
+            if (type != SegmentFormat.RecordTypeVectorSet || recordLength != location.Length || checksum != location.Checksum)
+            {
+                throw new SegmentFormatException(map.Path, location.Offset, "the record here is not the one the location names (type, length or checksum differ)");
+            }
+
+            if (RecordCodec.CheckVectorSetBody(body, dimensions, out problem) < 0)
+            {
+                throw new SegmentFormatException(map.Path, location.Offset, problem);
+            }
+
+            verified[location.Offset] = (location.Checksum, location.Length);
+        }
+
+        key = PageKey.FromHash(body[..PageKey.ByteLength]);
+        return (location.Length - SegmentFormat.FrameLength - SegmentFormat.VectorSetPrefixLength) / SegmentFormat.BytesPerVector(dimensions);
+    }
+
+    private (MappedFile Map, SegmentHeader Header, ConcurrentDictionary<long, (uint Checksum, int Length)> Verified) Acquire(long segmentId, long end)
+    {
+        lock (gate)
+        {
+            ObjectDisposedException.ThrowIf(disposed, this);
+            var entry = EntryOf(segmentId);
+            if (entry.Retired)
+            {
+                throw new InvalidOperationException($"segment {segmentId} is retired and can no longer be read.");
+            }
+
+            if (entry.Current is null || entry.Current.Length < end)
+            {
+                var path = SegmentFileNames.PathOf(Directory, segmentId);
+                var map = MappedFile.Open(path, _ => Unmapped(segmentId));
+                entry.LiveMaps++;
+                try
+                {
+                    var header = SegmentHeader.Decode(map.Span(0, (int)Math.Min(map.Length, SegmentFormat.MaxHeaderLength)), path);
+                    if (header.SegmentId != segmentId)
+                    {
+                        throw new SegmentFormatException(path, null, $"the header names segment {header.SegmentId}");
+                    }
+
+                    if (map.Length < end)
+                    {
+                        throw new SegmentFormatException(path, null, $"the catalog references bytes up to {end}, the file has {map.Length}");
+                    }
+
+                    entry.Header = header;
+                }
+                catch
+                {
+                    map.Release();
+                    throw;
+                }
+
+                var previous = entry.Current;
+                entry.Current = map;
+                previous?.Release();
+            }
+
+            entry.Current.AddReference();
+            return (entry.Current, entry.Header!, entry.Verified);
+        }
+    }
+
+    private void Unmapped(long segmentId)
+    {
+        lock (gate)
+        {
+            var entry = entries[segmentId];
+            entry.LiveMaps--;
+            if (entry.Retired && entry.LiveMaps == 0)
+            {
+                Delete(segmentId);
+            }
+        }
+    }
+
+    /// <summary>REQUIRES: gate is held and no map of the segment is alive.</summary>
+    private void Delete(long segmentId)
+    {
+        var path = SegmentFileNames.PathOf(Directory, segmentId);
+        if (OperatingSystem.IsWindows() && File.Exists(path))
+        {
+            File.SetAttributes(path, File.GetAttributes(path) & ~FileAttributes.ReadOnly);
+        }
+
+        // A delete that a crash undoes is harmless: restart removes files the catalog does not name.
+        File.Delete(path);
+    }
+
+    private Entry EntryOf(long segmentId)
+    {
+        if (!entries.TryGetValue(segmentId, out var entry))
+        {
+            entry = new Entry();
+            entries[segmentId] = entry;
+        }
+
+        return entry;
+    }
+
+    private sealed class Entry
+    {
+        /// <summary>The newest map; the set holds one reference to it.</summary>
+        public MappedFile? Current { get; set; }
+
+        public SegmentHeader? Header { get; set; }
+
+        /// <summary>Maps of this segment not yet unmapped (the current one and older ones still held).</summary>
+        public int LiveMaps { get; set; }
+
+        public bool Retired { get; set; }
+
+        /// <summary>Record offsets already checked, with checksum and length: bytes at an offset never change.</summary>
+        public ConcurrentDictionary<long, (uint Checksum, int Length)> Verified { get; } = new();
+    }
+}
