@@ -1,6 +1,7 @@
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Commands;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Cli;
@@ -15,6 +16,12 @@ internal static class Program
 
     private static int Main(string[] args)
     {
+        // Hidden: the supervised child process that reads documents (docs/reader-worker.md).
+        if (args is [ReaderWorkerCommand.Verb])
+        {
+            return ReadWorkerHost.RunOverStandardStreams();
+        }
+
         if (args.Length == 0 || args[0] is "--help" or "-h" or "help")
         {
             PrintHelp(Console.Out);

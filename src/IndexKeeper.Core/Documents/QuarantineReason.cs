@@ -12,4 +12,7 @@ public enum QuarantineReason
     ReaderCrashed = 7,
     DecodedStreamTooLarge = 8,
     Unreadable = 9,
+
+    /// <summary>The reader ran out of memory (its worker process has a heap cap) reading this document.</summary>
+    ReaderOutOfMemory = 10,
 }
