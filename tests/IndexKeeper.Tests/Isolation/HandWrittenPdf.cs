@@ -48,7 +48,7 @@ internal sealed class HandWrittenPdf
         return objects.Count;
     }
 
-    private static byte[] Latin1(string text) => Encoding.Latin1.GetBytes(text);
+    private static byte[] Latin1(string text) => System.Text.Encoding.Latin1.GetBytes(text);
 
     private static void Write(Stream stream, string text) => stream.Write(Latin1(text));
 }

@@ -44,9 +44,9 @@ internal static class HostileFiles
         pdf.Add("<< /Type /Catalog /Pages 2 0 R >>");
         pdf.Add("<< /Type /Pages /Kids [3 0 R] /Count 1 >>");
         pdf.Add("<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] /Resources << /XObject << /Fa 5 0 R >> >> /Contents 4 0 R >>");
-        pdf.AddStream(string.Empty, Encoding.ASCII.GetBytes("q /Fa Do Q"));
-        pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 612 792] /Resources << /XObject << /Fb 6 0 R >> >>", Encoding.ASCII.GetBytes("q /Fb Do Q"));
-        pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 612 792] /Resources << /XObject << /Fa 5 0 R >> >>", Encoding.ASCII.GetBytes("q /Fa Do Q"));
+        pdf.AddStream(string.Empty, System.Text.Encoding.ASCII.GetBytes("q /Fa Do Q"));
+        pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 612 792] /Resources << /XObject << /Fb 6 0 R >> >>", System.Text.Encoding.ASCII.GetBytes("q /Fb Do Q"));
+        pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 612 792] /Resources << /XObject << /Fa 5 0 R >> >>", System.Text.Encoding.ASCII.GetBytes("q /Fa Do Q"));
         return pdf.Build();
     }
 
@@ -83,7 +83,7 @@ internal static class HostileFiles
         pdf.Add("<< /Type /Catalog /Pages 2 0 R >>");
         pdf.Add("<< /Type /Pages /Kids [3 0 R] /Count 1 >>");
         pdf.Add($"<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] /Nest {new string('[', depth)}{new string(']', depth)} /Contents 4 0 R >>");
-        pdf.AddStream(string.Empty, Encoding.ASCII.GetBytes("0 0 m 100 100 l S"));
+        pdf.AddStream(string.Empty, System.Text.Encoding.ASCII.GetBytes("0 0 m 100 100 l S"));
         return pdf.Build();
     }
 
