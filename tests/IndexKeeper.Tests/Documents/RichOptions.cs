@@ -30,4 +30,8 @@ internal sealed record RichOptions
     public byte ImagePixelFlip { get; init; }
 
     public string StampText { get; init; } = "CHECKED";
+
+    public string HiddenSquareColour { get; init; } = "0 0 1 rg";
+
+    public string StampModified { get; init; } = "D:20260101000000Z";
 }

@@ -130,8 +130,8 @@ internal static class SampleDocuments
         var appearance = pdf.AddStream(
             $"/Type /XObject /Subtype /Form /BBox [0 0 120 30] /Resources << /Font << /F2 {f2} 0 R >> >>",
             Latin($"0.9 0.9 0.2 rg 0 0 120 30 re f BT /F2 10 Tf 4 10 Td ({o.StampText}) Tj ET"));
-        var visible = pdf.Add($"<< /Type /Annot /Subtype /Stamp /Rect [400 700 520 730] /F 4 /M (D:20260101000000Z) /NM (stamp-1) /AP << /N {appearance} 0 R >> >>");
-        var hiddenAppearance = pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 10 10]", Latin("0 0 10 10 re f"));
+        var visible = pdf.Add($"<< /Type /Annot /Subtype /Stamp /Rect [400 700 520 730] /F 4 /M ({o.StampModified}) /NM (stamp-1) /AP << /N {appearance} 0 R >> >>");
+        var hiddenAppearance = pdf.AddStream("/Type /XObject /Subtype /Form /BBox [0 0 10 10]", Latin($"{o.HiddenSquareColour} 0 0 10 10 re f"));
         var hidden = pdf.Add($"<< /Type /Annot /Subtype /Square /Rect [10 10 20 20] /F 2 /AP << /N {hiddenAppearance} 0 R >> >>");
         var link = pdf.Add("<< /Type /Annot /Subtype /Link /Rect [72 715 200 735] /Border [0 0 0] /A << /S /URI /URI (https://example.org/harrowmere) >> >>");
         pdf.Set(pages[1], $"<< /Type /Page /Parent {root} 0 R /MediaBox [0 0 595 842] /CropBox [20 20 575 822] /Resources {shared} 0 R /Contents [{c2a} 0 R {c2b} 0 R] /Annots [{visible} 0 R {hidden} 0 R {link} 0 R] >>");
