@@ -8,8 +8,8 @@ namespace IndexKeeper.Tests.Documents;
 /// </summary>
 internal static class Qpdf
 {
-    /// <summary>Runs qpdf with <paramref name="arguments"/>; exit 0, or 3 (succeeded with warnings), is success.</summary>
-    public static string Run(params string[] arguments)
+    /// <summary>Runs qpdf with <paramref name="arguments"/> and returns its standard output as bytes; exit 0, or 3 (succeeded with warnings), is success.</summary>
+    public static byte[] Run(params string[] arguments)
     {
         var start = new ProcessStartInfo("qpdf") { RedirectStandardOutput = true, RedirectStandardError = true };
         foreach (var argument in arguments)
@@ -30,11 +30,13 @@ internal static class Qpdf
 
         using (process)
         {
-            var output = process.StandardOutput.ReadToEndAsync();
+            var output = new MemoryStream();
+            var copy = process.StandardOutput.BaseStream.CopyToAsync(output);
             var error = process.StandardError.ReadToEnd();
             process.WaitForExit();
+            copy.Wait();
             Assert.True(process.ExitCode is 0 or 3, $"qpdf {string.Join(' ', arguments)} exited {process.ExitCode}: {error}");
-            return output.Result;
+            return output.ToArray();
         }
     }
 

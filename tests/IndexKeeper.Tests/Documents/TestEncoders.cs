@@ -192,6 +192,21 @@ internal static class TestEncoders
         return output.ToArray();
     }
 
+    /// <summary>TIFF predictor 2 (TIFF 6.0 §14) for 8-bit samples: each byte minus the same component one pixel left.</summary>
+    public static byte[] TiffPredict(byte[] data, int colors, int rowLength)
+    {
+        var output = (byte[])data.Clone();
+        for (var row = 0; row < data.Length; row += rowLength)
+        {
+            for (var i = Math.Min(data.Length, row + rowLength) - 1; i >= row + colors; i--)
+            {
+                output[i] = (byte)(data[i] - data[i - colors]);
+            }
+        }
+
+        return output;
+    }
+
     private static int Paeth(int a, int b, int c)
     {
         var p = a + b - c;
