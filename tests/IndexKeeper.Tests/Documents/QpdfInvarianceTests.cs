@@ -22,6 +22,11 @@ public sealed class QpdfInvarianceTests : IDisposable
             ["--pages", "{in}", "1-z", "--"],
             ["--object-streams=generate", "--stream-data=compress", "--recompress-flate", "--compression-level=1"],
             ["--qdf"],
+            ["--normalize-content=y"],
+            ["--coalesce-contents"],
+            ["--externalize-inline-images", "--ii-min-bytes=0"],
+            ["--remove-unreferenced-resources=yes"],
+            ["--decode-level=specialized"],
         ];
         foreach (var document in new[] { "builder", "rich" })
         {
