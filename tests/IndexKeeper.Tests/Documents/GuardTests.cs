@@ -100,6 +100,16 @@ public sealed class GuardTests : IDisposable
     }
 
     [Fact]
+    public void A_reference_to_a_missing_object_reads_as_null()
+    {
+        // ISO 32000-1 §7.3.10: an indirect reference to an undefined object is the null object.
+        var pdf = OnePage(out var page, out var content);
+        pdf.SetStream(content, string.Empty, Ascii("/G gs 0 0 10 10 re f"));
+        var document = folder.Read(Finish(pdf, page, "/Resources << /ExtGState << /G 999 0 R >> >>"));
+        Assert.Single(document.Pages);
+    }
+
+    [Fact]
     public void Random_bytes_are_unsupported_and_random_bytes_after_a_pdf_header_are_corrupt()
     {
         var random = new Random(20261201);

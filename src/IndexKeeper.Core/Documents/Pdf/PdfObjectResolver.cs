@@ -46,7 +46,17 @@ internal sealed class PdfObjectResolver(UglyToad.PdfPig.Structure structure)
     {
         if (!cache.TryGetValue(reference, out var value))
         {
-            value = structure.GetObject(reference)?.Data;
+            try
+            {
+                value = structure.GetObject(reference)?.Data;
+            }
+            catch (Exception e) when (e is not (OutOfMemoryException or OperationCanceledException))
+            {
+                // The parser throws for an object it cannot find or parse; the standard makes such a
+                // reference null, and the parser's own page loading treats it the same way.
+                value = null;
+            }
+
             cache[reference] = value;
         }
 
