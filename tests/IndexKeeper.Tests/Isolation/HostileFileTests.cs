@@ -21,7 +21,20 @@ public sealed class HostileFileTests : IDisposable
 
     public HostileFileTests() => goodPdf = scratch.Write("inspection.pdf", GoodFiles.InspectionPdf());
 
-    public static TheoryData<string> Names => [.. HostileFiles.All];
+    /// <summary>
+    /// The reason each file must be quarantined under: the form cycle is found before it is followed, the
+    /// bomb stops at the cap, the nesting at the parser's depth limit; neither random bytes nor an empty
+    /// file carry a known signature.
+    /// </summary>
+    public static TheoryData<string, QuarantineReason> ExpectedReasons => new()
+    {
+        { HostileFiles.CyclicForms, QuarantineReason.Corrupt },
+        { HostileFiles.InflationBomb, QuarantineReason.DecodedStreamTooLarge },
+        { HostileFiles.NestedArrays, QuarantineReason.Corrupt },
+        { HostileFiles.RandomBytes, QuarantineReason.Unsupported },
+        { HostileFiles.Encrypted, QuarantineReason.Encrypted },
+        { HostileFiles.ZeroBytes, QuarantineReason.Unsupported },
+    };
 
     /// <summary>Files the in-process reader may be given: everything but the one that overflows its stack.</summary>
     public static TheoryData<string> SafeInProcess => [.. HostileFiles.All.Where(name => name != HostileFiles.CyclicForms)];
@@ -29,17 +42,32 @@ public sealed class HostileFileTests : IDisposable
     public void Dispose() => scratch.Dispose();
 
     [Theory]
-    [MemberData(nameof(Names))]
-    public void A_hostile_file_is_refused_with_a_reason_and_the_next_good_read_works(string name)
+    [MemberData(nameof(ExpectedReasons))]
+    public void A_hostile_file_is_refused_with_its_reason_and_the_next_good_read_works(string name, QuarantineReason expected)
     {
         var path = HostileFiles.Write(name, scratch);
         using var reader = CreateReader();
 
         var error = NoHang.Throws<DocumentReadException>(() => reader.Read(path, Limits, CancellationToken.None));
 
-        Assert.True(Enum.IsDefined(error.Reason), $"undefined reason {(int)error.Reason}");
+        Assert.True(expected == error.Reason, $"{name}: expected {expected}, got {error.Reason}: {error.Message}");
         Assert.False(string.IsNullOrWhiteSpace(error.Message));
         GoodRead.AssertWorks(reader, goodPdf);
+    }
+
+    [Fact]
+    public void A_document_that_exhausts_the_worker_heap_is_out_of_memory_and_the_worker_is_replaced()
+    {
+        // Without the per-stream cap the bomb's 200 MB must be held by a worker capped at 128 MiB of heap.
+        var path = HostileFiles.Write(HostileFiles.InflationBomb, scratch);
+        using var reader = IsolatedReaderFactory.Create(new IsolatedReaderOptions { WorkerMemoryLimitBytes = 128L * 1024 * 1024 });
+
+        var error = NoHang.Throws<DocumentReadException>(() =>
+            reader.Read(path, Limits with { MaxDecodedBytesPerStream = long.MaxValue }, CancellationToken.None));
+
+        Assert.Equal(QuarantineReason.ReaderOutOfMemory, error.Reason);
+        GoodRead.AssertWorks(reader, goodPdf);
+        Assert.Equal(2, reader.WorkerStarts);
     }
 
     [Theory]
