@@ -9,7 +9,7 @@ internal sealed class StatusCommand : ICommand
 {
     public string Name => "status";
 
-    public string Summary => "figures of the index: documents, pages, queue, quarantine, bytes on disk";
+    public string Summary => "figures of the index: documents, pages, vector sets, segments, queue, quarantine";
 
     public IReadOnlySet<string> Options { get; } = new HashSet<string>();
 
@@ -29,6 +29,8 @@ internal sealed class StatusCommand : ICommand
         o.WriteLine($"Index {report.IndexDirectory}");
         o.WriteLine(string.Create(c, $"  documents    {report.Documents} live, {report.Quarantined} quarantined"));
         o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
+        o.WriteLine(string.Create(c, $"  vector sets  {report.LiveVectorSets} live of {report.VectorSets}, in {report.Segments} segment(s), dead share {report.DeadRatio:P1}"));
+        o.WriteLine($"  encoder      {report.ActiveEncoder} ({report.ActiveEncoderId[..16]}…)");
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
         o.WriteLine(string.Create(c, $"  on disk      {report.BytesOnDisk / 1024.0 / 1024.0:0.0} MiB"));
         o.WriteLine(string.Create(c, $"  last scan    {(report.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", c) : "never")}"));

@@ -21,13 +21,16 @@ internal sealed class SignatureDocumentReader : IDocumentReader
         byte[] file;
         try
         {
-            var length = new FileInfo(path).Length;
-            if (length > limits.MaxFileBytes)
+            // Opened through the Detect stage's opener: it understands the walker's names for files whose
+            // Linux names are not valid UTF-8, which the framework's own file APIs cannot open.
+            using var stream = Detect.FileOpener.OpenRead(path);
+            if (stream.Length > limits.MaxFileBytes)
             {
-                throw new DocumentReadException(QuarantineReason.TooLarge, $"the file has {length} bytes, more than the limit of {limits.MaxFileBytes}");
+                throw new DocumentReadException(QuarantineReason.TooLarge, $"the file has {stream.Length} bytes, more than the limit of {limits.MaxFileBytes}");
             }
 
-            file = File.ReadAllBytes(path);
+            file = new byte[stream.Length];
+            stream.ReadExactly(file);
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {

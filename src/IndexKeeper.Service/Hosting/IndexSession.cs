@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
@@ -63,7 +64,13 @@ public sealed class IndexSession : IDisposable
         try
         {
             var catalog = IndexCatalog.Open(held);
-            return new IndexSession(options, held, catalog, DocumentReaderFactory.Create());
+            // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
+            // costs one quarantined document, never the command or the service.
+            var reader = IsolatedReaderFactory.Create(new IsolatedReaderOptions
+            {
+                WorkerMemoryLimitBytes = options.Limits.WorkerMemoryMegabytes * 1024 * 1024,
+            });
+            return new IndexSession(options, held, catalog, reader);
         }
         catch
         {

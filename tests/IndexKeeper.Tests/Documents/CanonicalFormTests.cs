@@ -99,7 +99,7 @@ public sealed partial class CanonicalFormTests : IDisposable
     [InlineData("4.", "4")]
     [InlineData("-12.25", "-12.25")]
     public void Numbers_have_one_spelling(string written, string canonical) =>
-        Assert.Equal(canonical, CanonicalNumber.FromPdfText(Encoding.ASCII.GetBytes(written)));
+        Assert.Equal(canonical, CanonicalNumber.FromPdfText(System.Text.Encoding.ASCII.GetBytes(written)));
 
     [Fact]
     public void Doubles_and_text_agree()
@@ -158,7 +158,7 @@ public sealed partial class CanonicalFormTests : IDisposable
         return pdf.Build(catalog);
     }
 
-    private static byte[] Ascii(string text) => Encoding.ASCII.GetBytes(text);
+    private static byte[] Ascii(string text) => System.Text.Encoding.ASCII.GetBytes(text);
 
     [GeneratedRegex(@"Canonical form version:\s*\**\s*(\d+)")]
     private static partial Regex SpecVersion();

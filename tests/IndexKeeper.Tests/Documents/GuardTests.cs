@@ -190,7 +190,7 @@ public sealed class GuardTests : IDisposable
 
     public void Dispose() => folder.Dispose();
 
-    private static byte[] Ascii(string text) => Encoding.ASCII.GetBytes(text);
+    private static byte[] Ascii(string text) => System.Text.Encoding.ASCII.GetBytes(text);
 
     private static HandWrittenPdf OnePage(out int page, out int content)
     {

@@ -31,7 +31,7 @@ internal sealed partial class HandWrittenPdf
         return number;
     }
 
-    public void Set(int number, string body) => objects[number] = Encoding.Latin1.GetBytes(body);
+    public void Set(int number, string body) => objects[number] = System.Text.Encoding.Latin1.GetBytes(body);
 
     /// <summary>A stream object (§7.3.8): the dictionary gets the right /Length.</summary>
     public void SetStream(int number, string dictionaryEntries, byte[] data) => objects[number] = StreamBody(dictionaryEntries, data);
@@ -68,7 +68,7 @@ internal sealed partial class HandWrittenPdf
     /// </summary>
     public static byte[] AppendUpdate(byte[] original, IReadOnlyDictionary<int, byte[]> changed, string trailerExtra = "")
     {
-        var text = Encoding.Latin1.GetString(original);
+        var text = System.Text.Encoding.Latin1.GetString(original);
         var previousXref = long.Parse(StartXref().Matches(text)[^1].Groups[1].Value, CultureInfo.InvariantCulture);
         var trailer = TrailerDictionary().Matches(text)[^1].Groups[1].Value;
         var size = int.Parse(SizeEntry().Match(trailer).Groups[1].Value, CultureInfo.InvariantCulture);
@@ -108,7 +108,7 @@ internal sealed partial class HandWrittenPdf
     /// <summary>Size of the file's object-number space, read from its last trailer (for new object numbers).</summary>
     public static int SizeOf(byte[] file)
     {
-        var trailer = TrailerDictionary().Matches(Encoding.Latin1.GetString(file))[^1].Groups[1].Value;
+        var trailer = TrailerDictionary().Matches(System.Text.Encoding.Latin1.GetString(file))[^1].Groups[1].Value;
         return int.Parse(SizeEntry().Match(trailer).Groups[1].Value, CultureInfo.InvariantCulture);
     }
 
@@ -121,9 +121,9 @@ internal sealed partial class HandWrittenPdf
         return output.ToArray();
     }
 
-    public static byte[] Latin1(string text) => Encoding.Latin1.GetBytes(text);
+    public static byte[] Latin1(string text) => System.Text.Encoding.Latin1.GetBytes(text);
 
-    private static void Write(Stream output, string text) => output.Write(Encoding.Latin1.GetBytes(text));
+    private static void Write(Stream output, string text) => output.Write(System.Text.Encoding.Latin1.GetBytes(text));
 
     [GeneratedRegex(@"startxref\s+(\d+)")]
     private static partial Regex StartXref();

@@ -87,7 +87,7 @@ internal static class SampleDocuments
         var node = pdf.Reserve();
         var pages = Enumerable.Range(0, 5).Select(_ => pdf.Reserve()).ToArray();
 
-        var program = Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat("HARROWMERE-GLYPH-OUTLINES;", 40)));
+        var program = System.Text.Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat("HARROWMERE-GLYPH-OUTLINES;", 40)));
         program[o.FontProgramByteIndex] ^= o.FontProgramFlip;
         var fontFile = pdf.AddStream($"/Length1 {program.Length} /Filter /FlateDecode", TestEncoders.Flate(program));
         var descriptor = pdf.Add($"<< /Type /FontDescriptor /FontName /HarrowSans /Flags 32 /FontBBox [0 -200 1000 900] /ItalicAngle 0 /Ascent 800 /Descent -200 /CapHeight 700 /StemV 80 /FontFile2 {fontFile} 0 R >>");

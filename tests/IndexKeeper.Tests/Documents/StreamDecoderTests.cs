@@ -32,7 +32,7 @@ public sealed class StreamDecoderTests : IDisposable
     public void Ascii85_decodes_vectors_of_an_independent_encoder(string plain, string encoded)
     {
         // Vectors from Python's standard library, base64.a85encode(data, adobe=False), plus the "~>" end.
-        Assert.Equal(Encoding.Latin1.GetBytes(plain), Decode(Encoding.ASCII.GetBytes(encoded), new StreamFilter("ASCII85Decode", null)));
+        Assert.Equal(System.Text.Encoding.Latin1.GetBytes(plain), Decode(System.Text.Encoding.ASCII.GetBytes(encoded), new StreamFilter("ASCII85Decode", null)));
     }
 
     [Fact]
@@ -104,7 +104,7 @@ public sealed class StreamDecoderTests : IDisposable
     private static byte[] Payload()
     {
         // Text with repeats (runs for RunLength, strings for LZW) and every byte value; 1200 bytes = 20 rows of 60.
-        var text = Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat("Harrowmere filter gallery ", 30)));
+        var text = System.Text.Encoding.ASCII.GetBytes(string.Concat(Enumerable.Repeat("Harrowmere filter gallery ", 30)));
         return text.Concat(Enumerable.Range(0, 256).Select(i => (byte)i)).Concat(new byte[164]).Take(1200).ToArray();
     }
 

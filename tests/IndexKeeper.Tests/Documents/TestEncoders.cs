@@ -22,7 +22,7 @@ internal static class TestEncoders
         return output.ToArray();
     }
 
-    public static byte[] AsciiHex(byte[] data) => Encoding.ASCII.GetBytes(Convert.ToHexString(data) + ">");
+    public static byte[] AsciiHex(byte[] data) => System.Text.Encoding.ASCII.GetBytes(Convert.ToHexString(data) + ">");
 
     /// <summary>§7.4.3: groups of four bytes as five base-85 digits from '!', 'z' for four zeros, "~>" at the end.</summary>
     public static byte[] Ascii85(byte[] data)
@@ -57,7 +57,7 @@ internal static class TestEncoders
             }
         }
 
-        return Encoding.ASCII.GetBytes(text.Append("~>").ToString());
+        return System.Text.Encoding.ASCII.GetBytes(text.Append("~>").ToString());
     }
 
     /// <summary>§7.4.5: runs of equal bytes as (257 - n, byte), other bytes as literal runs of up to 128.</summary>
