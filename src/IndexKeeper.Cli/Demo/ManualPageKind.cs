@@ -1,0 +1,13 @@
+namespace IndexKeeper.Cli.Demo;
+
+internal enum ManualPageKind
+{
+    Cover,
+    Contents,
+    Text,
+    Procedure,
+    Table,
+    Schematic,
+    Photo,
+    Appendix,
+}
