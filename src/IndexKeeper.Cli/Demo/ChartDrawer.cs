@@ -5,12 +5,12 @@ internal static class ChartDrawer
 {
     private const int GridSteps = 5;
 
-    public static void Draw(PageWriter page, double left, double bottom, double width, double height, string title, string unit, IReadOnlyList<ChartSeries> series)
+    public static void Draw(PageWriter page, double left, double bottom, double width, double height, string title, string unit, int decimals, IReadOnlyList<ChartSeries> series)
     {
-        page.Text(title, left, bottom + height + 8, 10, page.Fonts.Bold);
+        page.Text(title + " (" + unit + ")", left, bottom + height + 8, 10, page.Fonts.Bold);
 
-        int low = series.Min(line => line.Tenths.Min());
-        int high = series.Max(line => line.Tenths.Max());
+        int low = series.Min(line => line.Values.Min());
+        int high = series.Max(line => line.Values.Max());
         (int axisLow, int axisStep) = NiceAxis(low, high);
         double plotLeft = left + 38;
         double plotBottom = bottom + 28;
@@ -28,14 +28,13 @@ internal static class ChartDrawer
         for (int step = 0; step <= GridSteps; step++)
         {
             double y = plotBottom + plotHeight * step / GridSteps;
-            page.TextRight(DemoNumber.Fixed(axisLow + step * axisStep, 1), plotLeft - 4, y - 2.5, 7);
+            page.TextRight(DemoNumber.Fixed(axisLow + step * axisStep, decimals), plotLeft - 4, y - 2.5, 7);
         }
 
         page.Line(plotLeft, plotBottom, plotLeft, plotBottom + plotHeight, 0.9);
         page.Line(plotLeft, plotBottom, plotLeft + plotWidth, plotBottom, 0.9);
-        page.Text(unit, left, plotBottom + plotHeight + 2, 7, page.Fonts.Italic);
 
-        int points = series[0].Tenths.Count;
+        int points = series[0].Values.Count;
         for (int point = 0; point < points; point += 5)
         {
             double x = plotLeft + plotWidth * point / (points - 1);
@@ -52,9 +51,9 @@ internal static class ChartDrawer
             {
                 page.Line(
                     plotLeft + plotWidth * (point - 1) / (points - 1),
-                    plotBottom + plotHeight * (line.Tenths[point - 1] - axisLow) / span,
+                    plotBottom + plotHeight * (line.Values[point - 1] - axisLow) / span,
                     plotLeft + plotWidth * point / (points - 1),
-                    plotBottom + plotHeight * (line.Tenths[point] - axisLow) / span,
+                    plotBottom + plotHeight * (line.Values[point] - axisLow) / span,
                     1.1);
             }
 
@@ -65,7 +64,7 @@ internal static class ChartDrawer
         }
     }
 
-    /// <summary>Lowest grid value and grid step (both in tenths) so that GridSteps steps cover [low, high].</summary>
+    /// <summary>Lowest grid value and grid step (both scaled) so that GridSteps steps cover [low, high].</summary>
     private static (int Low, int Step) NiceAxis(int low, int high)
     {
         int[] steps = [1, 2, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000, 2000, 2500, 5000, 10000];

@@ -35,6 +35,14 @@ internal static class ManualBuilder
             }
         }
 
+        // The first photograph is embedded as a PNG, which the builder decodes and stores with Flate; the
+        // others as JPEGs kept as they are. PNGs are the fewer because the builder decodes them slowly.
+        int firstPhoto = pages.FindIndex(page => page.Kind == ManualPageKind.PhotoJpeg);
+        if (firstPhoto >= 0)
+        {
+            pages[firstPhoto] = pages[firstPhoto] with { Kind = ManualPageKind.PhotoPng };
+        }
+
         for (int page = 1; page <= AppendixPages; page++)
         {
             pages.Add(new("A-" + DemoNumber.Integer(page), ManualPageKind.Appendix, sectionCount + 1, "Appendix", page == 1, random.NextUInt64()));
@@ -102,7 +110,7 @@ internal static class ManualBuilder
         < 56 => ManualPageKind.Procedure,
         < 72 => ManualPageKind.Table,
         < 86 => ManualPageKind.Schematic,
-        _ => ManualPageKind.Photo,
+        _ => ManualPageKind.PhotoJpeg,
     };
 
     private static void Cover(PageWriter page, ManualSpec spec, DemoRandom random)
@@ -122,8 +130,8 @@ internal static class ManualBuilder
         }
 
         page.Text(spec.Site, PageWriter.Margin, y - 6, 14);
-        byte[] photo = SitePhotoBuilder.Paint(random).EncodePng();
-        page.Png(photo, PageWriter.Margin, 250, page.ContentWidth, page.ContentWidth * SitePhotoBuilder.Height / SitePhotoBuilder.Width);
+        byte[] photo = SitePhotoBuilder.Paint(random).EncodeJpeg(85);
+        page.Jpeg(photo, PageWriter.Margin, 250, page.ContentWidth, page.ContentWidth * SitePhotoBuilder.Height / SitePhotoBuilder.Width);
 
         string[][] rows =
         [
@@ -174,8 +182,9 @@ internal static class ManualBuilder
             case ManualPageKind.Schematic:
                 SchematicPage(page, flow, subNumber, text, random, spec);
                 break;
-            case ManualPageKind.Photo:
-                PhotoPage(page, flow, subNumber, text, random, spec);
+            case ManualPageKind.PhotoPng:
+            case ManualPageKind.PhotoJpeg:
+                PhotoPage(page, flow, subNumber, text, random, spec, planned.Kind == ManualPageKind.PhotoPng);
                 break;
             default:
                 TextPage(flow, subNumber, text, random, planned.Amended ? planned.Seed : null);
@@ -228,7 +237,9 @@ internal static class ManualBuilder
         }
 
         flow.Space(6);
-        flow.Paragraph(text.Paragraph(2));
+        while (flow.Paragraph(text.Paragraph(random.Next(2, 4))))
+        {
+        }
     }
 
     private static void TablePage(PageWriter page, TextFlow flow, string subNumber, DemoText text, DemoRandom random)
@@ -272,7 +283,7 @@ internal static class ManualBuilder
         }
     }
 
-    private static void PhotoPage(PageWriter page, TextFlow flow, string subNumber, DemoText text, DemoRandom random, ManualSpec spec)
+    private static void PhotoPage(PageWriter page, TextFlow flow, string subNumber, DemoText text, DemoRandom random, ManualSpec spec, bool png)
     {
         flow.Heading(subNumber + "  Site arrangement", 12);
         flow.Space(4);
@@ -282,8 +293,7 @@ internal static class ManualBuilder
         double height = width * SitePhotoBuilder.Height / SitePhotoBuilder.Width;
         double left = PageWriter.Margin + page.ContentWidth * 0.1;
         double bottom = flow.Y - height;
-        // Both kinds of embedded raster occur: a re-compressed PNG and a JPEG kept as it is.
-        if (random.Chance(50))
+        if (png)
         {
             page.Png(photo.EncodePng(), left, bottom, width, height);
         }

@@ -8,6 +8,7 @@ internal enum ManualPageKind
     Procedure,
     Table,
     Schematic,
-    Photo,
+    PhotoPng,
+    PhotoJpeg,
     Appendix,
 }

@@ -1,4 +1,5 @@
 using SixLabors.ImageSharp;
+using SixLabors.ImageSharp.Compression.Zlib;
 using SixLabors.ImageSharp.Formats.Tiff;
 using SixLabors.ImageSharp.Formats.Tiff.Constants;
 using SixLabors.ImageSharp.Metadata;
@@ -23,7 +24,7 @@ internal static class ScanImageBuilder
         int skewPerMille = random.Next(-12, 13);
         var ink = new Pen(canvas, skewPerMille);
 
-        ink.TextLine(random, 60, 70, Width - 260, 14);
+        ink.TextLine(random, 60, 70, Width - 330, 14);
         ink.Rectangle(Width - 230, 48, 170, 50, 2);
         ink.TextLine(random, Width - 220, 80, 140, 9);
         switch (layout)
@@ -56,7 +57,7 @@ internal static class ScanImageBuilder
         document.Metadata.HorizontalResolution = DotsPerInch;
         document.Metadata.VerticalResolution = DotsPerInch;
         using var output = new MemoryStream();
-        document.Save(output, new TiffEncoder { Compression = TiffCompression.Deflate, BitsPerPixel = TiffBitsPerPixel.Bit8 });
+        document.Save(output, new TiffEncoder { Compression = TiffCompression.Deflate, CompressionLevel = DeflateCompressionLevel.Level3, BitsPerPixel = TiffBitsPerPixel.Bit8 });
         return output.ToArray();
     }
 
@@ -72,6 +73,7 @@ internal static class ScanImageBuilder
             tone[at] = random.Next(230, 247);
         }
 
+        var pixels = canvas.Pixels;
         for (int y = 0; y < Height; y++)
         {
             int row = y / Cell;
@@ -82,11 +84,11 @@ internal static class ScanImageBuilder
                 int fx = x % Cell;
                 int top = tone[row * columns + column] * (Cell - fx) + tone[row * columns + column + 1] * fx;
                 int bottom = tone[(row + 1) * columns + column] * (Cell - fx) + tone[(row + 1) * columns + column + 1] * fx;
-                canvas.Set(x, y, DemoColour.OfGrey((top * (Cell - fy) + bottom * fy) / (Cell * Cell)));
+                int grain = (int)(random.NextUInt64() % 5) - 2;
+                pixels[y * Width + x] = (byte)((top * (Cell - fy) + bottom * fy) / (Cell * Cell) + grain);
             }
         }
 
-        canvas.Noise(random, 2);
         for (int speck = 0; speck < 220; speck++)
         {
             int size = random.Next(1, 3);
@@ -117,6 +119,7 @@ internal static class ScanImageBuilder
 
         ink.Handwriting(random, Width - 320, Height - 120, 200);
         ink.Ring(Width - 180, Height - 230, 70, 4);
+        ink.TextLine(random, Width - 225, Height - 225, 90, 10);
     }
 
     private static void DeliveryNote(Pen ink, DemoRandom random)
@@ -222,22 +225,37 @@ internal static class ScanImageBuilder
             }
         }
 
-        /// <summary>A pen trail: a random walk drifting right, drawn as 2-pixel dots.</summary>
+        /// <summary>Cursive-looking words: connected strokes that swing up and down while drifting right.</summary>
         public void Handwriting(DemoRandom random, int x, int y, int length)
         {
             int end = x + length;
-            int dy = 0;
+            int level = 40 + random.Next(0, 25);
             while (x < end)
             {
-                int steps = random.Next(3, 9);
-                for (int step = 0; step < steps; step++)
+                int previousX = x;
+                int previousY = y;
+                for (int stroke = random.Next(4, 14); stroke > 0 && x < end; stroke--)
                 {
-                    dy = Math.Clamp(dy + random.Next(-3, 4), -9, 9);
-                    Dot(x, y + dy, 2, 40 + random.Next(0, 25));
-                    x += random.Next(0, 3);
+                    int nextX = x + random.Next(2, 6);
+                    int nextY = y + random.Next(-9, 5);
+                    Stroke(previousX, previousY, nextX, nextY, level);
+                    previousX = nextX;
+                    previousY = nextY;
+                    x = nextX;
                 }
 
-                x += random.Next(3, 8);
+                Stroke(previousX, previousY, x + 2, y, level);
+                x += random.Next(8, 16);
+            }
+        }
+
+        /// <summary>A 2-pixel pen line from one point to another, stepped along its longer axis.</summary>
+        private void Stroke(int fromX, int fromY, int toX, int toY, int level)
+        {
+            int steps = Math.Max(1, Math.Max(Math.Abs(toX - fromX), Math.Abs(toY - fromY)));
+            for (int step = 0; step <= steps; step++)
+            {
+                Dot(fromX + (toX - fromX) * step / steps, fromY + (toY - fromY) * step / steps, 2, level);
             }
         }
 

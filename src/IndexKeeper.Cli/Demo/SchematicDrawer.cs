@@ -114,6 +114,17 @@ internal static class SchematicDrawer
         double reservoirY = bottom + height - dy * 0.9;
         Tank(page, reservoirX, reservoirY, dx * 0.7, dy * 0.6, 70);
         page.Text("Service reservoir", reservoirX, reservoirY - 9, 7, page.Fonts.Bold);
+        page.StrokeColour(30, 90, 160);
+        page.Line(reservoirX + dx * 0.35, reservoirY - 12, reservoirX + dx * 0.35, bottom + rows * dy, 2.5);
+        page.Line(reservoirX + dx * 0.35, bottom + rows * dy, left + dx, bottom + rows * dy, 2.5);
+        page.ResetColour();
+
+        // Street names along the roads, as on a network plan.
+        string[] streets = ["Mill Lane", "Station Road", "Chapel Street", "Quarry Road", "Beck Side", "Ings Lane", "High Street", "Low Green"];
+        for (int row = 1; row <= rows; row++)
+        {
+            page.Text(random.Pick(streets), left + dx * (1 + random.Next(columns - 1)) + 14, bottom + row * dy - 12, 6.5, page.Fonts.Italic);
+        }
     }
 
     private static List<(Part Part, string Label)> PartsFor(DemoTopic topic, DemoRandom random)

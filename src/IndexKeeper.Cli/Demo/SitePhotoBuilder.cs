@@ -4,8 +4,8 @@ namespace IndexKeeper.Cli.Demo;
 /// and a fence, each placed and coloured from a seeded draw.</summary>
 internal static class SitePhotoBuilder
 {
-    public const int Width = 480;
-    public const int Height = 320;
+    public const int Width = 360;
+    public const int Height = 240;
 
     public static PixelCanvas Paint(DemoRandom random)
     {
