@@ -119,7 +119,7 @@ internal static class DayTwoScript
         var appendices = pages.Where(page => page.Kind == ManualPageKind.Appendix).ToList();
         pages.RemoveAll(page => page.Kind == ManualPageKind.Appendix);
         pages.InsertRange(2, appendices);
-        int after = pages.FindIndex(page => page.Label == ManualBuilder.SectionLabel(3, 2));
+        int after = pages.FindIndex(page => page.Label == ManualPlanner.SectionLabel(3, 2));
         var anchor = pages[after];
         var inserted = new ManualPage(anchor.Label + "A", ManualPageKind.Text, anchor.Section, anchor.SectionTitle, false, plan.Random("manual/" + spec.Code + "/addendum").NextUInt64());
         pages.Insert(after + 1, inserted);

@@ -143,9 +143,6 @@ internal sealed class PageWriter
     public void Circle(double centreX, double centreY, double diameter, double lineWidth = 0.75, bool fill = false) =>
         page.DrawCircle(new PdfPoint(centreX, centreY), diameter, lineWidth, fill);
 
-    public void Ellipse(double centreX, double centreY, double width, double height, double lineWidth = 0.75, bool fill = false) =>
-        page.DrawEllipsis(new PdfPoint(centreX, centreY), width, height, lineWidth, fill);
-
     public void Triangle(double x1, double y1, double x2, double y2, double x3, double y3, double lineWidth = 0.75, bool fill = false) =>
         page.DrawTriangle(new PdfPoint(x1, y1), new PdfPoint(x2, y2), new PdfPoint(x3, y3), lineWidth, fill);
 

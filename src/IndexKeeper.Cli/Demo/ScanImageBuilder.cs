@@ -15,14 +15,12 @@ internal static class ScanImageBuilder
     public const int Height = 1169;
     public const int DotsPerInch = 100;
 
-    private const int Ink = 52;
-
     public static PixelCanvas Paint(DemoRandom random, ScanLayout layout)
     {
         var canvas = new PixelCanvas(Width, Height, colour: false);
         Paper(canvas, random);
         int skewPerMille = random.Next(-12, 13);
-        var ink = new Pen(canvas, skewPerMille);
+        var ink = new ScanPen(canvas, skewPerMille);
 
         ink.TextLine(random, 60, 70, Width - 330, 14);
         ink.Rectangle(Width - 230, 48, 170, 50, 2);
@@ -96,7 +94,7 @@ internal static class ScanImageBuilder
         }
     }
 
-    private static void FieldSheet(Pen ink, DemoRandom random)
+    private static void FieldSheet(ScanPen ink, DemoRandom random)
     {
         int y = 150;
         for (int box = 0; box < 6; box++)
@@ -122,7 +120,7 @@ internal static class ScanImageBuilder
         ink.TextLine(random, Width - 225, Height - 225, 90, 10);
     }
 
-    private static void DeliveryNote(Pen ink, DemoRandom random)
+    private static void DeliveryNote(ScanPen ink, DemoRandom random)
     {
         int y = 170;
         for (int line = 0; line < 5; line++)
@@ -157,7 +155,7 @@ internal static class ScanImageBuilder
         ink.TextLine(random, 60, Height - 100, 300, 8);
     }
 
-    private static void LogPage(Pen ink, DemoRandom random)
+    private static void LogPage(ScanPen ink, DemoRandom random)
     {
         for (int y = 160; y < Height - 60; y += 34)
         {
@@ -170,110 +168,5 @@ internal static class ScanImageBuilder
         }
 
         ink.Rectangle(136, 140, 2, Height - 200, 1);
-    }
-
-    /// <summary>Draws ink on a canvas, applying the page's skew.</summary>
-    private sealed class Pen(PixelCanvas canvas, int skewPerMille)
-    {
-        public void Dot(int x, int y, int size, int level) =>
-            canvas.FillRectangle(x, y + x * skewPerMille / 1000, size, size, DemoColour.OfGrey(level));
-
-        public void Block(int x, int y, int width, int height, int level)
-        {
-            for (int column = x; column < x + width; column++)
-            {
-                canvas.FillRectangle(column, y + column * skewPerMille / 1000, 1, height, DemoColour.OfGrey(level));
-            }
-        }
-
-        public void Rectangle(int x, int y, int width, int height, int thickness)
-        {
-            Block(x, y, width, thickness, Ink);
-            Block(x, y + height - thickness, width, thickness, Ink);
-            Block(x, y, thickness, height, Ink);
-            Block(x + width - thickness, y, thickness, height, Ink);
-        }
-
-        /// <summary>Printed-looking words: letter blocks of x-height with ascenders and descenders.</summary>
-        public void TextLine(DemoRandom random, int x, int baseline, int length, int xHeight)
-        {
-            int end = x + length;
-            while (x < end)
-            {
-                int letters = random.Next(2, 9);
-                for (int letter = 0; letter < letters && x < end; letter++)
-                {
-                    int width = xHeight * random.Next(55, 85) / 100;
-                    int top = baseline - xHeight;
-                    int height = xHeight;
-                    int shape = random.Next(10);
-                    if (shape < 3)
-                    {
-                        top -= xHeight / 2;
-                        height += xHeight / 2;
-                    }
-                    else if (shape == 3)
-                    {
-                        height += xHeight / 3;
-                    }
-
-                    Block(x, top, width, height, Ink + random.Next(0, 30));
-                    x += width + Math.Max(1, xHeight / 5);
-                }
-
-                x += xHeight;
-            }
-        }
-
-        /// <summary>Cursive-looking words: connected strokes that swing up and down while drifting right.</summary>
-        public void Handwriting(DemoRandom random, int x, int y, int length)
-        {
-            int end = x + length;
-            int level = 40 + random.Next(0, 25);
-            while (x < end)
-            {
-                int previousX = x;
-                int previousY = y;
-                for (int stroke = random.Next(4, 14); stroke > 0 && x < end; stroke--)
-                {
-                    int nextX = x + random.Next(2, 6);
-                    int nextY = y + random.Next(-9, 5);
-                    Stroke(previousX, previousY, nextX, nextY, level);
-                    previousX = nextX;
-                    previousY = nextY;
-                    x = nextX;
-                }
-
-                Stroke(previousX, previousY, x + 2, y, level);
-                x += random.Next(8, 16);
-            }
-        }
-
-        /// <summary>A 2-pixel pen line from one point to another, stepped along its longer axis.</summary>
-        private void Stroke(int fromX, int fromY, int toX, int toY, int level)
-        {
-            int steps = Math.Max(1, Math.Max(Math.Abs(toX - fromX), Math.Abs(toY - fromY)));
-            for (int step = 0; step <= steps; step++)
-            {
-                Dot(fromX + (toX - fromX) * step / steps, fromY + (toY - fromY) * step / steps, 2, level);
-            }
-        }
-
-        public void Ring(int centreX, int centreY, int radius, int thickness)
-        {
-            int outer = radius * radius;
-            int inner = (radius - thickness) * (radius - thickness);
-            for (int dy = -radius; dy <= radius; dy++)
-            {
-                for (int dx = -radius; dx <= radius; dx++)
-                {
-                    int distance = dx * dx + dy * dy;
-                    if (distance <= outer && distance >= inner)
-                    {
-                        Dot(centreX + dx, centreY + dy, 1, 96);
-                    }
-                }
-            }
-        }
     }
 }

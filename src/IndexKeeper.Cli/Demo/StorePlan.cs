@@ -134,7 +134,7 @@ internal sealed class StorePlan
         return files;
     }
 
-    public IReadOnlyList<ManualPage> ManualPages(ManualSpec spec) => ManualBuilder.Plan(spec, Random("manual/" + spec.Code));
+    public IReadOnlyList<ManualPage> ManualPages(ManualSpec spec) => ManualPlanner.Plan(spec, Random("manual/" + spec.Code));
 
     public byte[] RenderReport(ReportSpec spec, DemoPdfInfo info) => ReportBuilder.Render(spec, Random("report/" + spec.Code), info);
 
