@@ -1,0 +1,8 @@
+namespace IndexKeeper.Cli.Demo;
+
+internal enum ScanFormat
+{
+    Png,
+    Jpeg,
+    Tiff,
+}
