@@ -11,7 +11,7 @@ internal static class Program
 {
     private static readonly ICommand[] Commands =
     [
-        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(),
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(),
     ];
 
     private static int Main(string[] args)

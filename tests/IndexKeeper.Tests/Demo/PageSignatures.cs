@@ -27,7 +27,7 @@ internal static class PageSignatures
         {
             using var canonical = new MemoryStream();
             var header = string.Create(CultureInfo.InvariantCulture, $"{page.Width} {page.Height} {page.Rotation.Value}\n");
-            canonical.Write(Encoding.ASCII.GetBytes(header));
+            canonical.Write(System.Text.Encoding.ASCII.GetBytes(header));
             foreach (var operation in page.Operations)
             {
                 operation.Write(canonical);

@@ -50,7 +50,7 @@ public sealed partial class PdfTrailerIdTests
 
     private static (string Permanent, string Changing) Identifier(byte[] pdf)
     {
-        var match = IdEntry().Match(Encoding.ASCII.GetString(pdf));
+        var match = IdEntry().Match(System.Text.Encoding.ASCII.GetString(pdf));
         Assert.True(match.Success);
         return (match.Groups[1].Value, match.Groups[2].Value);
     }
