@@ -30,7 +30,7 @@ internal sealed class TerminalProgress : IProgress<ScanProgress>, IDisposable
         {
             var width = 30;
             var filled = value.Total > 0 ? (int)(width * value.Done / value.Total) : 0;
-            var bar = value.Total > 0 ? $"[{new string('#', filled)}{new string('.', width - filled)}] {value.Done}/{value.Total}" : $"{value.Done}";
+            var bar = value.Total > 0 ? $"[{new string('#', filled)}{new string('.', width - filled)}] {value.Done}/{value.Total}" : value.Done > 0 ? $"{value.Done}" : string.Empty;
             var line = $"{value.Phase,-9} {bar} {Shorten(value.Current, 40)}";
             var room = SafeWidth() - 1;
             Console.Error.Write("\r" + (line.Length >= room ? line[..room] : line.PadRight(room)));
@@ -38,7 +38,7 @@ internal sealed class TerminalProgress : IProgress<ScanProgress>, IDisposable
         }
         else if (phaseChanged || value.Total > 0)
         {
-            Console.Error.WriteLine(value.Total > 0 ? $"{value.Phase}: {value.Done}/{value.Total}" : $"{value.Phase}: {value.Done}");
+            Console.Error.WriteLine(value.Total > 0 ? $"{value.Phase}: {value.Done}/{value.Total}" : value.Done > 0 ? $"{value.Phase}: {value.Done}" : value.Phase);
         }
     }
 
