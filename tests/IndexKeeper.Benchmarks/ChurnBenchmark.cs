@@ -28,7 +28,8 @@ public sealed class ChurnBenchmark : IBenchmark
     public void Run(BenchmarkContext context)
     {
         ArgumentNullException.ThrowIfNull(context);
-        var documents = context.Quick ? 6 : 150;
+        var documents = context.Quick ? 3 : 150;
+        var rounds = context.Quick ? 3 : Rounds;
         var root = Path.Combine(context.WorkDirectory, "store");
         Directory.CreateDirectory(root);
         var revisions = Enumerable.Range(0, documents).Select(_ => new int[PagesPerDocument]).ToArray();
@@ -53,7 +54,7 @@ public sealed class ChurnBenchmark : IBenchmark
 
         var random = new Random(7717);
         var worst = 0.0;
-        for (var round = 1; round <= Rounds; round++)
+        for (var round = 1; round <= rounds; round++)
         {
             var edited = random.GetItems(Enumerable.Range(0, pages).ToArray(), pages).Distinct().Take((int)(pages * EditShare)).ToList();
             foreach (var page in edited)

@@ -43,6 +43,9 @@ public sealed class EmbedBenchmark : IBenchmark
         }
 
         var (append, appendCpu, bytes) = AppendAgain(Path.Combine(context.WorkDirectory, "replay"), encoder);
+        var keys = encoder.Batches.SelectMany(b => b).Select(p => p.Key.Hex).ToList();
+        var (pageReads, _) = Measure.Once(() => keys.ForEach(k => _ = session.Catalog.FindPage(k) ?? throw new InvalidOperationException(k)));
+        var (queueDrain, _) = Measure.Once(() => DrainAgain(session.Catalog, keys, options.Encoder.BatchSize));
         var total = scan + embed;
         context.Report("documents", summary.DocumentsSeen, "files");
         context.Report("pages seen", summary.PagesSeen, "pages");
@@ -54,6 +57,8 @@ public sealed class EmbedBenchmark : IBenchmark
         context.Report("  of which encoder calls", summary.EncoderSeconds, "s");
         context.Report("  of which store append + commit (timed alone, fresh index)", append, "s");
         context.Report("  rest: queue and page records from the catalog", embed - summary.EncoderSeconds - append, "s");
+        context.Report("    page records with their words, one read per page (timed alone)", pageReads, "s");
+        context.Report($"    queue: take {options.Encoder.BatchSize} at a time and dequeue (timed alone)", queueDrain, "s");
         context.Report("share of sync time: scan", scan / total, "share");
         context.Report("share of sync time: encoder", summary.EncoderSeconds / total, "share");
         context.Report("share of sync time: store append + commit", append / total, "share");
@@ -84,6 +89,19 @@ public sealed class EmbedBenchmark : IBenchmark
         }
 
         return [new DemoRoot("reports", root)];
+    }
+
+    /// <summary>Queues the keys again and drains the queue batch by batch as the embed pass does, without encoding.</summary>
+    private static void DrainAgain(IndexCatalog catalog, List<string> keys, int batchSize)
+    {
+        var edit = new CatalogEdit();
+        var now = DateTime.UtcNow;
+        edit.Enqueue.AddRange(keys.Select(k => new QueueRecord { Id = k, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now }));
+        catalog.Apply(edit);
+        while (catalog.NextQueued(batchSize, now) is { Count: > 0 } batch)
+        {
+            catalog.Dequeue(batch.Select(q => q.Id));
+        }
     }
 
     /// <summary>The vector sets the sync made, appended in the same batches to a fresh index (bytes made durable, then committed).</summary>
