@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -50,5 +51,5 @@ public sealed class BenchmarkContext
             figures,
             notes,
         },
-        new JsonSerializerOptions { WriteIndented = true });
+        new JsonSerializerOptions { WriteIndented = true, NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals });
 }

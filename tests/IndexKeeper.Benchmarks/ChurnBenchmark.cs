@@ -29,7 +29,7 @@ public sealed class ChurnBenchmark : IBenchmark
     {
         ArgumentNullException.ThrowIfNull(context);
         var documents = context.Quick ? 3 : 150;
-        var rounds = context.Quick ? 3 : Rounds;
+        var rounds = context.Quick ? 2 : Rounds;
         var root = Path.Combine(context.WorkDirectory, "store");
         Directory.CreateDirectory(root);
         var revisions = Enumerable.Range(0, documents).Select(_ => new int[PagesPerDocument]).ToArray();
@@ -56,7 +56,7 @@ public sealed class ChurnBenchmark : IBenchmark
         var worst = 0.0;
         for (var round = 1; round <= rounds; round++)
         {
-            var edited = random.GetItems(Enumerable.Range(0, pages).ToArray(), pages).Distinct().Take((int)(pages * EditShare)).ToList();
+            var edited = random.GetItems(Enumerable.Range(0, pages).ToArray(), pages).Distinct().Take(Math.Max(1, (int)(pages * EditShare))).ToList();
             foreach (var page in edited)
             {
                 revisions[page / PagesPerDocument][page % PagesPerDocument] = round;

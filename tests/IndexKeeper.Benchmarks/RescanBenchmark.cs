@@ -17,7 +17,7 @@ public sealed class RescanBenchmark : IBenchmark
     public void Run(BenchmarkContext context)
     {
         ArgumentNullException.ThrowIfNull(context);
-        var fileCount = context.Quick ? 500 : 5_000;
+        var fileCount = context.Quick ? 300 : 5_000;
         var root = Path.Combine(context.WorkDirectory, "store");
         var bytes = Generate(root, fileCount);
         context.Report("files", fileCount, "files");

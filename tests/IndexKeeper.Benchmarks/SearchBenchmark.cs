@@ -66,7 +66,7 @@ public sealed class SearchBenchmark : IBenchmark
 
     private static void Storage(BenchmarkContext context)
     {
-        var pages = context.Quick ? 40 : 1_000;
+        var pages = context.Quick ? 24 : 1_000;
         var queryCount = context.Quick ? 4 : 30;
         var generator = new Generator(seed: 2);
         var float32 = new VectorSet[pages];
