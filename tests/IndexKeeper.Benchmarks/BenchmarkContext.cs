@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -7,15 +8,20 @@ namespace IndexKeeper.Benchmarks;
 public sealed class BenchmarkContext
 {
     private readonly List<Dictionary<string, object>> figures = [];
+    private readonly List<string> notes = [];
 
     public BenchmarkContext(string name, string workDirectory, bool quick)
     {
         Name = name;
         WorkDirectory = workDirectory;
         Quick = quick;
+        LoadAtStart = Measure.LoadAverage();
     }
 
     public string Name { get; }
+
+    /// <summary>1-minute load average when the benchmark started: the machine is shared, and its load moves wall-clock figures.</summary>
+    public double LoadAtStart { get; }
 
     /// <summary>An empty folder the benchmark may fill; deleted afterwards.</summary>
     public string WorkDirectory { get; }
@@ -29,9 +35,21 @@ public sealed class BenchmarkContext
         Console.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  {figure,-52} {value,14:G6} {unit}"));
     }
 
-    public void Note(string text) => Console.WriteLine("  # " + text);
+    public void Note(string text)
+    {
+        notes.Add(text);
+        Console.WriteLine("  # " + text);
+    }
 
-    internal string ToJson() => JsonSerializer.Serialize(
-        new { benchmark = Name, quick = Quick, machine = new { Environment.ProcessorCount, os = Environment.OSVersion.VersionString }, figures },
-        new JsonSerializerOptions { WriteIndented = true });
+    internal string ToJson(double elapsedSeconds, double loadAtEnd) => JsonSerializer.Serialize(
+        new
+        {
+            benchmark = Name,
+            quick = Quick,
+            elapsedSeconds,
+            machine = new { Environment.ProcessorCount, os = Environment.OSVersion.VersionString, loadAverageAtStart = LoadAtStart, loadAverageAtEnd = loadAtEnd },
+            figures,
+            notes,
+        },
+        new JsonSerializerOptions { WriteIndented = true, NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals });
 }

@@ -20,8 +20,8 @@ public sealed class PageKeyBenchmark : IBenchmark
 
     public void Run(BenchmarkContext context)
     {
-        var documents = context.Quick ? 3 : 20;
-        var pagesPerDocument = context.Quick ? 10 : 50;
+        var documents = context.Quick ? 2 : 20;
+        var pagesPerDocument = context.Quick ? 8 : 50;
         var paths = new List<string>();
         for (var d = 0; d < documents; d++)
         {

@@ -34,8 +34,10 @@ internal static class Program
             {
                 Console.WriteLine($"== {benchmark.Name}{(quick ? " (quick)" : string.Empty)}");
                 var context = new BenchmarkContext(benchmark.Name, work, quick);
-                benchmark.Run(context);
-                File.WriteAllText(Path.Combine(outDir, benchmark.Name + ".json"), context.ToJson());
+                var (wall, _) = Measure.Once(() => benchmark.Run(context));
+                var loadAtEnd = Measure.LoadAverage();
+                Console.WriteLine(FormattableString.Invariant($"  # {wall:0.0} s; load average (1 min) {context.LoadAtStart:0.00} at start, {loadAtEnd:0.00} at end"));
+                File.WriteAllText(Path.Combine(outDir, benchmark.Name + ".json"), context.ToJson(wall, loadAtEnd));
             }
             finally
             {

@@ -17,7 +17,7 @@ public sealed class RescanBenchmark : IBenchmark
     public void Run(BenchmarkContext context)
     {
         ArgumentNullException.ThrowIfNull(context);
-        var fileCount = context.Quick ? 500 : 5_000;
+        var fileCount = context.Quick ? 300 : 5_000;
         var root = Path.Combine(context.WorkDirectory, "store");
         var bytes = Generate(root, fileCount);
         context.Report("files", fileCount, "files");
@@ -54,12 +54,11 @@ public sealed class RescanBenchmark : IBenchmark
         context.Report("quick check rate, warm", fileCount / quick, "files/s");
         context.Report("re-hash rate, warm", bytes / 1e6 / full, "MB/s");
         context.Report("re-hash rate, warm, cpu", bytes / 1e6 / fullCpu, "MB/s");
-        context.Report("load average (1 min) at end", LoadAverage(), "runnable");
-
-        if (TryDropCaches(out var reason))
+        
+        if (Measure.TryDropCaches(out var reason))
         {
-            var coldQuick = Cold(() => QuickRescan(walker, spec, catalog));
-            var coldFull = Cold(() => FullRehash(walker, hasher, spec, catalog));
+            var coldQuick = Measure.Cold(() => QuickRescan(walker, spec, catalog));
+            var coldFull = Measure.Cold(() => FullRehash(walker, hasher, spec, catalog));
             context.Report("no-change rescan, walk + quick check, cold", coldQuick, "s");
             context.Report("no-change rescan, walk + re-hash, cold", coldFull, "s");
             context.Report("ratio re-hash / quick check, cold", coldFull / coldQuick, "x");
@@ -154,40 +153,6 @@ public sealed class RescanBenchmark : IBenchmark
         walls.Sort();
         cpus.Sort();
         return (walls[Repeats / 2], cpus[Repeats / 2]);
-    }
-
-    private static double LoadAverage() =>
-        File.Exists("/proc/loadavg")
-            ? double.Parse(File.ReadAllText("/proc/loadavg").Split(' ')[0], System.Globalization.CultureInfo.InvariantCulture)
-            : double.NaN;
-
-    private static double Cold(Action run)
-    {
-        TryDropCaches(out _);
-        var watch = Stopwatch.StartNew();
-        run();
-        return watch.Elapsed.TotalSeconds;
-    }
-
-    private static bool TryDropCaches(out string reason)
-    {
-        try
-        {
-            // Write back dirty pages first: drop_caches only drops clean ones (proc(5)).
-            using (var sync = Process.Start(new ProcessStartInfo("sync") { UseShellExecute = false }))
-            {
-                sync?.WaitForExit();
-            }
-
-            File.WriteAllText("/proc/sys/vm/drop_caches", "3");
-            reason = string.Empty;
-            return true;
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or System.ComponentModel.Win32Exception)
-        {
-            reason = e.Message;
-            return false;
-        }
     }
 
     private static void Fail(WalkProblem problem) =>

@@ -30,8 +30,8 @@ public sealed class SearchBenchmark : IBenchmark
 
     private static void Throughput(BenchmarkContext context)
     {
-        var pages = context.Quick ? 1_000 : 10_240;
-        var distinct = context.Quick ? 64 : 512;
+        var pages = context.Quick ? 400 : 10_240;
+        var distinct = context.Quick ? 32 : 512;
         var generator = new Generator(seed: 1);
         var bodies = new InMemoryVectorSetSource();
         for (var p = 0; p < distinct; p++)
@@ -41,7 +41,7 @@ public sealed class SearchBenchmark : IBenchmark
 
         var source = new CyclingSource(bodies, pages);
         context.Note($"{pages} pages of {VectorsPerPage} × {Dimensions}-d ({distinct} distinct bodies repeated, {distinct * (long)VectorsPerPage * Dimensions * 2 / 1_000_000} MB of float16), queries of {QueryTokens} tokens, {Environment.ProcessorCount} cores");
-        var queries = Enumerable.Range(0, context.Quick ? 12 : 40).Select(i => generator.Query(i % distinct)).ToArray();
+        var queries = Enumerable.Range(0, context.Quick ? 4 : 40).Select(i => generator.Query(i % distinct)).ToArray();
         var all = Enumerable.Range(0, pages).ToArray();
 
         // Per core = pages per second of CPU time the process used, so that other work on a shared machine
@@ -66,8 +66,8 @@ public sealed class SearchBenchmark : IBenchmark
 
     private static void Storage(BenchmarkContext context)
     {
-        var pages = context.Quick ? 150 : 1_000;
-        var queryCount = context.Quick ? 8 : 30;
+        var pages = context.Quick ? 24 : 1_000;
+        var queryCount = context.Quick ? 4 : 30;
         var generator = new Generator(seed: 2);
         var float32 = new VectorSet[pages];
         var float16 = new InMemoryVectorSetSource();
