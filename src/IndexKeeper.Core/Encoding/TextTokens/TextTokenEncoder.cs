@@ -101,7 +101,7 @@ internal sealed class TextTokenEncoder : IPageEncoder, IDisposable
     }
 
     /// <summary>The word-piece ids of a text as this encoder tokenises it (no [CLS]/[SEP]).</summary>
-    internal IReadOnlyList<int> TokenIds(string text) => tokenizer.EncodeToIds(text, addSpecialTokens: false);
+    internal IReadOnlyList<int> TokenIds(string text) => WordPieceSequence.Tokenize(tokenizer, text);
 
     public void Dispose()
     {

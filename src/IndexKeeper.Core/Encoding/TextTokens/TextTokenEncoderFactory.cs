@@ -20,7 +20,7 @@ public static class TextTokenEncoderFactory
     public const string ExecutionProvider = "CPU";
 
     // Part of the encoder id: the tokenizer settings below, in words.
-    private const string TokenizerDescription = "bert-wordpiece+basic+lowercase+strip-accents+cjk-split+no-special-split+max-word-chars-100";
+    private const string TokenizerDescription = "nfkd-unicode15-drop-combining+bert-wordpiece+basic+lowercase+strip-accents+cjk-split+no-special-split+max-word-chars-100";
 
     /// <exception cref="ArgumentException">One or more settings are bad; the message names each.</exception>
     /// <exception cref="InvalidOperationException">The model assembly is missing or lacks its resources.</exception>

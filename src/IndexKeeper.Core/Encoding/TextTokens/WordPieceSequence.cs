@@ -33,7 +33,7 @@ internal sealed class WordPieceSequence
         {
             if (!cache.TryGetValue(words[w], out var pieces))
             {
-                pieces = [.. tokenizer.EncodeToIds(words[w], addSpecialTokens: false)];
+                pieces = [.. Tokenize(tokenizer, words[w])];
                 cache[words[w]] = pieces;
             }
 
@@ -45,6 +45,16 @@ internal sealed class WordPieceSequence
         }
 
         return new WordPieceSequence([.. ids], [.. owners]);
+    }
+
+    /// <summary>
+    /// The word-piece ids of one word (or any text), no [CLS]/[SEP]. Non-ASCII text loses its accents first
+    /// through the pinned Unicode tables, as the uncased vocabulary expects.
+    /// </summary>
+    public static IReadOnlyList<int> Tokenize(BertTokenizer tokenizer, string text)
+    {
+        var ascii = text.All(char.IsAscii);
+        return tokenizer.EncodeToIds(ascii ? text : TermNormalizer.ToNfkdWithoutMarks(text), addSpecialTokens: false);
     }
 
     public static WordPieceSequence Create(BertTokenizer tokenizer, IReadOnlyList<PageWord> words, Dictionary<string, int[]> cache) =>
