@@ -42,6 +42,32 @@ internal static class TermNormalizer
         return output.ToString();
     }
 
+    /// <summary>
+    /// Normalisation Form KD (UAX #15) with every character of non-zero canonical combining class dropped:
+    /// accent stripping from the pinned tables, for the text-token encoder (the runtime's own decomposition
+    /// does nothing under invariant globalisation).
+    /// </summary>
+    public static string ToNfkdWithoutMarks(string text)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        var buffer = new List<int>(text.Length + 4);
+        foreach (var codePoint in CodePoints(text))
+        {
+            Decompose(codePoint, buffer);
+        }
+
+        var output = new StringBuilder(buffer.Count);
+        foreach (var codePoint in buffer)
+        {
+            if (Lookup(CombiningClasses, codePoint) == 0)
+            {
+                output.Append(char.ConvertFromUtf32(codePoint));
+            }
+        }
+
+        return output.ToString();
+    }
+
     /// <summary>Normalisation Form KC of a string (UAX #15): full compatibility decomposition, canonical order, canonical composition.</summary>
     public static string ToNfkc(string text)
     {

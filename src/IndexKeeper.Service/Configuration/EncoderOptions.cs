@@ -3,7 +3,7 @@ namespace IndexKeeper.Service.Configuration;
 /// <summary>Which encoder is active, and its settings. A change of any setting is a new encoder id.</summary>
 public sealed class EncoderOptions
 {
-    /// <summary>Built-in names: <c>hashed-terms</c>.</summary>
+    /// <summary>Built-in names: <c>hashed-terms</c>, <c>minilm</c>.</summary>
     public string Name { get; set; } = "hashed-terms";
 
     /// <summary>Output size d of every vector (a multiple of 64, for the sign codes).</summary>
@@ -14,4 +14,7 @@ public sealed class EncoderOptions
 
     /// <summary>Merge near-duplicate vectors of a page down to count/PoolFactor (1: no pooling).</summary>
     public int PoolFactor { get; set; } = 1;
+
+    /// <summary>Threads inside one model run of a model-based encoder (0: one per core). Does not change the vectors.</summary>
+    public int IntraOpThreads { get; set; } = 1;
 }

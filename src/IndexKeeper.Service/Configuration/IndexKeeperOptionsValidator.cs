@@ -9,7 +9,7 @@ namespace IndexKeeper.Service.Configuration;
 public static partial class IndexKeeperOptionsValidator
 {
     /// <summary>Encoder names this build knows.</summary>
-    public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms"];
+    public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms", "minilm"];
 
     public static IReadOnlyList<string> Validate(IndexKeeperOptions options)
     {
@@ -71,6 +71,11 @@ public static partial class IndexKeeperOptionsValidator
 
         Range(errors, "Encoder:BatchSize", options.Encoder.BatchSize, 1, 4096);
         Range(errors, "Encoder:PoolFactor", options.Encoder.PoolFactor, 1, 64);
+        Range(errors, "Encoder:IntraOpThreads", options.Encoder.IntraOpThreads, 0, 256);
+        if (options.Encoder.Name == "minilm" && options.Encoder.Dimensions > 384)
+        {
+            errors.Add($"Encoder:Dimensions: {options.Encoder.Dimensions} is not allowed for minilm; its projection keeps at most the model's 384 dimensions.");
+        }
         var storage = options.Storage;
         Range(errors, "Storage:SealAtMegabytes", storage.SealAtMegabytes, 1, 64 * 1024);
         Range(errors, "Storage:SealAtHours", storage.SealAtHours, 0.01, 24 * 365);

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Encoding.TextTokens;
 using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Service.Hosting;
@@ -15,6 +16,12 @@ public static class EncoderFactory
             {
                 Dimensions = options.Dimensions,
                 PoolFactor = options.PoolFactor,
+            }),
+            TextTokenEncoderFactory.Name => TextTokenEncoderFactory.Create(new TextTokenEncoderOptions
+            {
+                Dimensions = options.Dimensions,
+                PoolFactor = options.PoolFactor,
+                IntraOpThreads = options.IntraOpThreads,
             }),
             _ => throw new ConfigurationException([$"Encoder:Name: '{options.Name}' is not an encoder."]),
         };
