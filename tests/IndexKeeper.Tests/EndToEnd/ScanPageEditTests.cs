@@ -48,25 +48,25 @@ public sealed class ScanPageEditTests : IDisposable
             ("pagesNew", 0),
             ("pagesReused", 0));
 
-        // Insert a page from another document after page 3 (qpdf --pages, Debian's qpdf manual).
+        // In one save, insert a page from another document after page 3 and drop page 5 (qpdf --pages,
+        // Debian's qpdf); poppler's pdfinfo confirms the page count independently.
         var current = StorePdfs.ToScratch(index, "current.pdf", index.Get(Manual));
         var insert = StorePdfs.ToScratch(index, "insert.pdf", StorePdfs.Document("dosing-pump", 1));
-        index.Put(Manual, StorePdfs.Qpdf(index, "inserted.pdf", "--empty", "--pages", current, "1-3", insert, "1", current, "4-z", "--"));
-        Assert.Equal(7, ExternalTool.PdfinfoPageCount(index.PathOf(Manual)));
-        ContractAssert.Counts(index.Json("scan"), "insert a page", ("documentsChanged", 1), ("pagesSeen", 7), ("pagesNew", 1), ("pagesReused", 6), ("pagesRemoved", 0));
+        index.Put(Manual, StorePdfs.Qpdf(index, "inserted.pdf", "--empty", "--pages", current, "1-3", insert, "1", current, "4,6", "--"));
+        Assert.Equal(6, ExternalTool.PdfinfoPageCount(index.PathOf(Manual)));
+        ContractAssert.Counts(
+            index.Json("scan"),
+            "insert a page, delete another",
+            ("documentsChanged", 1),
+            ("pagesSeen", 6),
+            ("pagesNew", 1),
+            ("pagesReused", 5),
+            ("pagesRemoved", 1));
 
         // Reorder: the first page moves to the end ("2-z,1"; qpdf 11.3 reads a lone "1" as a file name).
         current = StorePdfs.ToScratch(index, "current.pdf", index.Get(Manual));
         index.Put(Manual, StorePdfs.Qpdf(index, "reordered.pdf", current, "--pages", current, "2-z,1", "--"));
-        ContractAssert.Counts(index.Json("scan"), "reorder", ("documentsChanged", 1), ("pagesSeen", 7), ("pagesNew", 0), ("pagesReused", 7), ("pagesRemoved", 0));
-
-        // Delete one page (the fifth).
-        current = StorePdfs.ToScratch(index, "current.pdf", index.Get(Manual));
-        index.Put(Manual, StorePdfs.Qpdf(index, "shortened.pdf", current, "--pages", current, "1-4,6-z", "--"));
-        Assert.Equal(6, ExternalTool.PdfinfoPageCount(index.PathOf(Manual)));
-        ContractAssert.Counts(index.Json("scan"), "delete a page", ("documentsChanged", 1), ("pagesSeen", 6), ("pagesNew", 0), ("pagesReused", 6), ("pagesRemoved", 1));
-
-        ContractAssert.Counts(index.Json("status"), "status", ("documents", 1), ("pages", 6), ("queued", 6));
+        ContractAssert.Counts(index.Json("scan"), "reorder", ("documentsChanged", 1), ("pagesSeen", 6), ("pagesNew", 0), ("pagesReused", 6), ("pagesRemoved", 0));
     }
 
     public void Dispose() => index.Dispose();

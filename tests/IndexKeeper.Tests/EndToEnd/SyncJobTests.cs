@@ -29,8 +29,6 @@ public sealed class SyncJobTests : IDisposable
 
         var first = index.Json("sync");
         ContractAssert.Counts(first, "first sync", ("documentsNew", 3), ("pagesNew", allPages), ("pagesEmbedded", allPages), ("pagesFailed", 0));
-        var before = index.Json("status");
-        ContractAssert.Counts(before, "status after the first sync", ("documents", 3), ("vectorSets", allPages), ("liveVectorSets", allPages), ("queued", 0));
 
         // The edit: PdfPig's builder writes the manual again with page 17 changed, then Debian's qpdf
         // re-saves it (plain rewrite: new object layout, the same pages), as a user's tool chain would.
@@ -55,6 +53,7 @@ public sealed class SyncJobTests : IDisposable
             ("pagesRemoved", SurveyPages + 1), // the survey's pages and the old version of page 17
             ("pagesEmbedded", 1));
 
+        // All pages had live vector sets after the first sync; the survey's and the old page 17's die.
         var after = index.Json("status");
         ContractAssert.Counts(
             after,
@@ -63,9 +62,11 @@ public sealed class SyncJobTests : IDisposable
             ("liveVectorSets", allPages - SurveyPages),
             ("vectorSets", allPages + 1),
             ("queued", 0));
-        Assert.True(
-            after.GetProperty("deadRatio").GetDouble() > before.GetProperty("deadRatio").GetDouble(),
-            $"the dead share must grow when vector sets die: {before.GetProperty("deadRatio")} then {after.GetProperty("deadRatio")}");
+
+        // Every page carries about the same words, so its vector set about the same bytes: 6 dead sets of
+        // 62 are near a tenth of the segment bytes.
+        var deadRatio = after.GetProperty("deadRatio").GetDouble();
+        Assert.InRange(deadRatio, 0.05, 0.15);
 
         var verify = index.Json("verify");
         Assert.True(verify.GetProperty("clean").GetBoolean(), verify.ToString());
