@@ -73,14 +73,23 @@ internal sealed class OpenGate : IDisposable
             return false;
         }
 
+        // A mark on a file in the temp folder, where the tests' stores live (some file systems refuse marks).
         var probe = fanotify_init(ClassContent | CloseOnExec, 0);
         if (probe < 0)
         {
             return false;
         }
 
-        close(probe);
-        return true;
+        var file = Path.GetTempFileName();
+        try
+        {
+            return fanotify_mark(probe, MarkAdd, OpenPermission, AtCurrentDirectory, [.. System.Text.Encoding.UTF8.GetBytes(file), 0]) == 0;
+        }
+        finally
+        {
+            close(probe);
+            File.Delete(file);
+        }
     }
 
     private void Listen()

@@ -26,6 +26,9 @@ public sealed class ScanPageEditTests : IDisposable
             original,
             new Dictionary<int, byte[]> { [info] = HandWrittenPdf.Latin1("<< /Title (Chlorination manual, revised) /Author (Harrowmere treatment works) /ModDate (D:20261201090000Z) >>") },
             $"/Info {info} 0 R"));
+
+        // poppler's pdfinfo, an independent reader, sees the new title: the update is a valid one.
+        Assert.Contains("Chlorination manual, revised", ExternalTool.Run("pdfinfo", index.PathOf(Manual)).Output, StringComparison.Ordinal);
         ContractAssert.Counts(
             index.Json("scan"),
             "metadata-only save",
