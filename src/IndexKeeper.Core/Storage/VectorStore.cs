@@ -106,6 +106,16 @@ public sealed class VectorStore : IDisposable
     /// <summary>Seals every open segment (at shutdown, or before compaction takes them).</summary>
     public void SealAll()
     {
+        // A segment left open by an earlier process (each command is one) has no writer here yet.
+        foreach (var open in catalog.Segments().Where(s => !s.Sealed && !writers.ContainsKey(s.EncoderId)))
+        {
+            var path = SegmentFileNames.PathOf(Directory, open.Id);
+            if (File.Exists(path))
+            {
+                writers[open.EncoderId] = SegmentWriter.Reopen(path, writerOptions);
+            }
+        }
+
         foreach (var encoderId in writers.Keys.ToList())
         {
             Seal(encoderId);
