@@ -88,7 +88,7 @@ public sealed class ScanPass
         ProcessSettled(state, settling, cancellationToken);
         foreach (var root in walkedRoots)
         {
-            foreach (var gone in catalog.DocumentsOfRoot(root.Name).Where(d => !state.Seen.Contains(d.Id) && !state.IsUnknown(d)).ToList())
+            foreach (var gone in state.Known(root.Name).Values.Where(d => !state.Seen.Contains(d.Id) && !state.IsUnknown(d)).ToList())
             {
                 Delete(state, gone);
                 FlushIfFull(state);
@@ -139,7 +139,7 @@ public sealed class ScanPass
     private void Process(PassState state, FoundFile file, CancellationToken cancellationToken)
     {
         var summary = state.Summary;
-        var existing = catalog.FindDocument(file.Root, file.RelativePath);
+        var existing = state.Known(file.Root).GetValueOrDefault(DocumentRecord.MakeId(file.Root, file.RelativePath));
         var stored = existing is null ? null : StoredState.Of(existing);
         if (QuickCheck.BeforeHash(stored, file.Stat).Verdict == QuickCheckVerdict.Unchanged)
         {
@@ -354,6 +354,23 @@ public sealed class ScanPass
         public CatalogEdit Edit { get; set; } = new();
 
         public HashSet<string> Seen { get; } = new(StringComparer.Ordinal);
+
+        private Dictionary<string, Dictionary<string, DocumentRecord>> KnownByRoot { get; } = new(StringComparer.Ordinal);
+
+        /// <summary>
+        /// The catalog's documents of a root as they were when the pass began, read once: one lookup
+        /// per file costs more than the stat of the quick check. Each document is looked at once per pass.
+        /// </summary>
+        public Dictionary<string, DocumentRecord> Known(string root)
+        {
+            if (!KnownByRoot.TryGetValue(root, out var known))
+            {
+                known = catalog.DocumentsOfRoot(root).ToDictionary(d => d.Id, StringComparer.Ordinal);
+                KnownByRoot[root] = known;
+            }
+
+            return known;
+        }
 
         /// <summary>Paths the walk could not see (permissions, vanished folders): their documents are kept.</summary>
         public List<WalkProblem> Unknown { get; } = [];
