@@ -1,6 +1,7 @@
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Commands;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Service.Configuration;
 
@@ -54,6 +55,11 @@ internal static class Program
         catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException)
         {
             Console.Error.WriteLine("indexkeeper: " + ex.Message);
+            return 1;
+        }
+        catch (SegmentFormatException ex)
+        {
+            Console.Error.WriteLine($"indexkeeper: a segment is damaged: {ex.Message} Run 'indexkeeper verify' to isolate it and queue its pages again.");
             return 1;
         }
         catch (OperationCanceledException)
