@@ -31,6 +31,7 @@ public sealed class CrashKillTests(ITestOutputHelper output)
         Early,
         MidScan,
         MidEmbed,
+        MidSeal,
         MidCompaction,
     }
 
@@ -49,7 +50,8 @@ public sealed class CrashKillTests(ITestOutputHelper output)
         string[] compact = ["compact", .. common, "--Storage:SealAtMegabytes=16", "--Storage:SmallSegmentMegabytes=16", "--Storage:CompactDeadShare=0.05"];
 
         var rounds = int.TryParse(Environment.GetEnvironmentVariable("INDEXKEEPER_CRASH_ROUNDS"), CultureInfo.InvariantCulture, out var r) ? r : 16;
-        Target[] rotation = [Target.Early, Target.MidEmbed, Target.MidCompaction, Target.MidEmbed, Target.MidScan, Target.MidEmbed, Target.MidCompaction, Target.MidEmbed];
+        Target[] rotation = [Target.Early, Target.MidEmbed, Target.MidCompaction, Target.MidSeal, Target.MidScan, Target.MidEmbed, Target.MidCompaction, Target.MidSeal];
+        var segments = Path.Combine(index, "segments");
         var random = new Random(Seed);
         var churn = new StoreChurn(sharedDrive, Seed + 1);
         var killed = 0;
@@ -62,15 +64,25 @@ public sealed class CrashKillTests(ITestOutputHelper output)
                 output.WriteLine($"round {round,2}: churn: {churn.Step()}; {churn.Step()}");
             }
 
-            var (marker, delay) = target switch
+            if (round >= rotation.Length && target is Target.MidEmbed or Target.MidSeal)
             {
-                Target.Early => ((string?)null, random.Next(0, 1500)),
-                Target.MidScan => ("checking:", random.Next(0, 2500)),
-                Target.MidEmbed => ("embedding:", random.Next(0, 1500)),
-                _ => (null, random.Next(300, 1800)),
+                // The first pass's work is done by now: a long new report gives the encoder work to be killed in.
+                output.WriteLine($"round {round,2}: churn: {churn.Add(24)}");
+            }
+
+            var sealedAtStart = SealedCount(segments);
+            var (trigger, delay) = target switch
+            {
+                Target.Early => (KillTrigger.AtStart, random.Next(0, 1500)),
+                Target.MidScan => (KillTrigger.OnStderr("checking:"), random.Next(0, 2500)),
+                Target.MidEmbed => (KillTrigger.OnStderr("embedding:"), random.Next(0, 1500)),
+
+                // Seal: the seal record is fsynced and the file made read-only just before the catalog records it.
+                Target.MidSeal => (KillTrigger.When("a segment made read-only", () => SealedCount(segments) > sealedAtStart), random.Next(0, 3)),
+                _ => (KillTrigger.When("a compaction output appears", () => Directory.EnumerateFiles(segments, "*.tmp").Any()), random.Next(0, 500)),
             };
             var args = target == Target.MidCompaction ? compact : sync;
-            var outcome = KillableCli.RunAndKill(scratch.Path, marker, TimeSpan.FromMilliseconds(delay), args);
+            var outcome = KillableCli.RunAndKill(scratch.Path, trigger, TimeSpan.FromMilliseconds(delay), args);
             if (outcome.Killed)
             {
                 killed++;
@@ -81,14 +93,16 @@ public sealed class CrashKillTests(ITestOutputHelper output)
                 Assert.True(outcome.ExitCode == 0, $"round {round}: {args[0]} exited {outcome.ExitCode}:\n{outcome.Stdout}\n{outcome.Stderr}");
             }
 
+            var verifyClock = System.Diagnostics.Stopwatch.StartNew();
             var verify = CliRunner.Run(scratch.Path, ["verify", .. common, "--json"]);
+            var verifySeconds = verifyClock.Elapsed.TotalSeconds;
             var report = JsonDocument.Parse(verify.Stdout).RootElement;
             var repairs = Strings(report, "repairs");
             var problems = Strings(report, "problems");
             repairsSeen.AddRange(repairs);
             output.WriteLine(string.Create(
                 CultureInfo.InvariantCulture,
-                $"round {round,2}: {args[0]} {target,-13} {(outcome.Killed ? "killed" : "finished")} at {outcome.At.TotalMilliseconds,6:0} ms (marker {marker ?? "start"} + {delay} ms), last progress \"{outcome.LastProgress}\"; repairs: {(repairs.Count == 0 ? "none" : string.Join("; ", repairs))}"));
+                $"round {round,2}: {args[0]} {target,-13} {(outcome.Killed ? "killed" : outcome.Triggered ? "finished" : "finished untriggered")} at {outcome.At.TotalMilliseconds,6:0} ms ({trigger.Description} + {delay} ms), last progress \"{outcome.LastProgress}\", verify {verifySeconds:0.0} s; repairs: {(repairs.Count == 0 ? "none" : string.Join("; ", repairs))}"));
             Assert.True(verify.ExitCode == 0 && problems.Count == 0, $"round {round}: verify failed after a kill:\n{verify.Stdout}\n{verify.Stderr}");
             foreach (var repair in repairs)
             {
@@ -121,6 +135,32 @@ public sealed class CrashKillTests(ITestOutputHelper output)
         Assert.True(search.ExitCode == 0, search.Stdout + search.Stderr);
         var top = JsonDocument.Parse(search.Stdout).RootElement.GetProperty("hits")[0];
         Assert.Equal((path, page), (top.GetProperty("path").GetString(), top.GetProperty("page").GetInt32()));
+    }
+
+    /// <summary>Segment files without the owner's write bit (sealed ones); a file removed while counted does not count.</summary>
+    private static int SealedCount(string segments)
+    {
+        if (!Directory.Exists(segments))
+        {
+            return 0;
+        }
+
+        var count = 0;
+        foreach (var file in Directory.EnumerateFiles(segments, "*.vec"))
+        {
+            try
+            {
+                var sealedFile = OperatingSystem.IsWindows()
+                    ? (File.GetAttributes(file) & FileAttributes.ReadOnly) != 0
+                    : (File.GetUnixFileMode(file) & UnixFileMode.UserWrite) == 0;
+                count += sealedFile ? 1 : 0;
+            }
+            catch (FileNotFoundException)
+            {
+            }
+        }
+
+        return count;
     }
 
     private static List<string> Strings(JsonElement report, string name) =>

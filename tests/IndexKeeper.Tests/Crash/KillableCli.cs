@@ -5,17 +5,16 @@ namespace IndexKeeper.Tests.Crash;
 
 /// <summary>
 /// Starts the real <c>indexkeeper</c> executable (as <see cref="Support.CliRunner"/> does) and kills it
-/// with SIGKILL at a chosen instant: a delay counted from the first stderr line that contains a marker
-/// (a progress phase such as "embedding:"), or from the start when there is no marker.
+/// with SIGKILL (the whole process tree, reader workers included) a delay after a <see cref="KillTrigger"/>.
 /// </summary>
 internal static class KillableCli
 {
     /// <summary>What happened to one run: killed (and where), or finished before the kill came.</summary>
-    public sealed record Outcome(bool Killed, int? ExitCode, bool MarkerSeen, TimeSpan At, string LastProgress, string Stdout, string Stderr);
+    public sealed record Outcome(bool Killed, int? ExitCode, bool Triggered, TimeSpan At, string LastProgress, string Stdout, string Stderr);
 
     private static readonly TimeSpan Limit = TimeSpan.FromMinutes(2);
 
-    public static Outcome RunAndKill(string workingDirectory, string? marker, TimeSpan delay, IReadOnlyList<string> args)
+    public static Outcome RunAndKill(string workingDirectory, KillTrigger trigger, TimeSpan delay, IReadOnlyList<string> args)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -32,7 +31,8 @@ internal static class KillableCli
 
         var stderr = new ConcurrentQueue<string>();
         var stdout = new ConcurrentQueue<string>();
-        using var markerSeen = new ManualResetEventSlim(marker is null);
+        var marker = trigger.StderrMarker;
+        using var markerSeen = new ManualResetEventSlim(marker is null && trigger.Condition is null);
         using var process = new Process { StartInfo = start };
         process.ErrorDataReceived += (_, e) =>
         {
@@ -60,9 +60,24 @@ internal static class KillableCli
         process.BeginErrorReadLine();
         process.BeginOutputReadLine();
 
-        // Wait for the marker or the end of the process, whichever comes first, then for the delay.
-        while (!markerSeen.Wait(TimeSpan.FromMilliseconds(5)) && !process.HasExited && clock.Elapsed < Limit)
+        // Wait for the trigger or the end of the process, whichever comes first, then for the delay.
+        while (!markerSeen.IsSet && !process.HasExited && clock.Elapsed < Limit)
         {
+            if (trigger.Condition is { } condition)
+            {
+                if (condition())
+                {
+                    markerSeen.Set();
+                }
+                else
+                {
+                    Thread.Sleep(1);
+                }
+            }
+            else
+            {
+                markerSeen.Wait(TimeSpan.FromMilliseconds(5));
+            }
         }
 
         var seen = markerSeen.IsSet;

@@ -45,12 +45,12 @@ internal sealed class StoreChurn(string root, int seed)
         }
     }
 
-    /// <summary>Adds a new field note; <see cref="LastUnique"/> then names its last page.</summary>
-    public string Add()
+    /// <summary>Adds a new field note (of 2 to 5 pages when <paramref name="pages"/> is 0); <see cref="LastUnique"/> then names its last page.</summary>
+    public string Add(int pages = 0)
     {
         var added = Path.Combine(root, "reports", "churn", $"HWA-CR-{made++:000} field note.pdf");
         Directory.CreateDirectory(Path.GetDirectoryName(added)!);
-        WriteReport(added);
+        WriteReport(added, pages);
         return "added " + Relative(added);
     }
 
@@ -60,9 +60,10 @@ internal sealed class StoreChurn(string root, int seed)
         return candidates[random.Next(candidates.Count)];
     }
 
-    private void WriteReport(string path)
+    /// <summary>A new report of <paramref name="pages"/> pages, or 2 to 5 when 0.</summary>
+    private void WriteReport(string path, int pages = 0)
     {
-        var pages = random.Next(2, 6);
+        pages = pages > 0 ? pages : random.Next(2, 6);
         using var builder = new PdfDocumentBuilder();
         var font = builder.AddStandard14Font(Standard14Font.Helvetica);
         for (var p = 1; p <= pages; p++)
