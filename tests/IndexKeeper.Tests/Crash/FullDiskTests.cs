@@ -5,9 +5,11 @@ using Xunit.Abstractions;
 namespace IndexKeeper.Tests.Crash;
 
 /// <summary>
-/// The segment folder on a disk that fills up (a tiny tmpfs, so the kernel's ENOSPC is real): the batch
-/// that hits the full disk fails and stays queued, what was committed before it stays, nothing is left
-/// for recovery to repair, <c>verify</c> is clean, and once there is room again a sync carries on.
+/// An index on a disk that fills up (a tiny tmpfs, so the kernel's ENOSPC is real). Segment disk full:
+/// the batch that hits it fails and stays queued, what was committed before it stays, nothing is left for
+/// recovery to repair, <c>verify</c> is clean, and once there is room again a sync carries on. Catalog
+/// disk full: the command stops with a message and exit code 1 (the contract's partial failure), and
+/// LiteDB's write-ahead log keeps every committed transaction.
 /// </summary>
 public sealed class FullDiskTests(ITestOutputHelper output)
 {
@@ -59,6 +61,67 @@ public sealed class FullDiskTests(ITestOutputHelper output)
         Assert.Equal(pages, status.GetProperty("pages").GetInt64());
         Assert.Equal(failed, status.GetProperty("queued").GetInt64());
         Assert.Equal(pages - failed, status.GetProperty("liveVectorSets").GetInt64());
+    }
+
+    [TmpfsFact]
+    public void A_full_catalog_disk_stops_the_command_with_a_message_and_loses_nothing_committed()
+    {
+        using var scratch = new TempDirectory();
+        var store = scratch.Combine("store");
+        var churn = new StoreChurn(store, 4343);
+        for (var i = 0; i < 6; i++)
+        {
+            churn.Add(5);
+        }
+
+        var index = scratch.Combine("index");
+        string[] common = ["--index", index, "--root", store];
+        string[] sync = ["sync", .. common, "--Storage:SealAtMegabytes=1", "--Encoder:BatchSize=4", "--Detect:SettleSeconds=0"];
+
+        // The whole index, catalog and segments, on one small disk.
+        using var disk = TmpfsMount.Mount(index, 16 * 1024);
+        var first = CliRunner.Run(scratch.Path, sync);
+        Assert.True(first.ExitCode == 0, first.Stdout + first.Stderr);
+        var committed = Status(scratch.Path, common).GetProperty("liveVectorSets").GetInt64();
+
+        // More documents, and a filler that leaves the catalog 64 KiB to grow in.
+        for (var i = 0; i < 6; i++)
+        {
+            churn.Add(5);
+        }
+
+        // Written, not just sized: a sparse file would take no room.
+        var filler = Path.Combine(index, "filler");
+        using (var stream = File.Create(filler))
+        {
+            var zeros = new byte[64 * 1024];
+            for (var left = new DriveInfo(index).AvailableFreeSpace - zeros.Length; left > 0; left -= zeros.Length)
+            {
+                stream.Write(zeros, 0, (int)Math.Min(left, zeros.Length));
+            }
+        }
+
+        var full = CliRunner.Run(scratch.Path, sync);
+        output.WriteLine($"catalog disk full: exit {full.ExitCode}, stderr: {full.Stderr.ReplaceLineEndings(" ")}");
+        Assert.Equal(1, full.ExitCode);
+        Assert.DoesNotContain("Unhandled exception", full.Stderr, StringComparison.Ordinal);
+        Assert.Contains("indexkeeper: ", full.Stderr, StringComparison.Ordinal);
+
+        File.Delete(filler);
+        var verify = CliRunner.Run(scratch.Path, ["verify", .. common, "--json"]);
+        output.WriteLine("verify after the full disk: " + verify.Stdout.ReplaceLineEndings(" "));
+        Assert.Equal(0, verify.ExitCode);
+        var status = Status(scratch.Path, common);
+        Assert.True(status.GetProperty("liveVectorSets").GetInt64() >= committed, $"{committed} vector sets were committed before the disk filled, {status.GetProperty("liveVectorSets")} are live after");
+
+        var again = CliRunner.Run(scratch.Path, sync);
+        Assert.True(again.ExitCode == 0, again.Stdout + again.Stderr);
+        var clean = CliRunner.Run(scratch.Path, ["verify", .. common]);
+        Assert.True(clean.ExitCode == 0, clean.Stdout);
+        status = Status(scratch.Path, common);
+        output.WriteLine($"after room was made: {status.GetProperty("liveVectorSets")} live vector sets, {status.GetProperty("queued")} queued of {status.GetProperty("pages")} pages");
+        Assert.Equal(60, status.GetProperty("pages").GetInt64());
+        Assert.Equal(status.GetProperty("pages").GetInt64(), status.GetProperty("liveVectorSets").GetInt64() + status.GetProperty("queued").GetInt64());
     }
 
     private static JsonElement Status(string workingDirectory, string[] common) =>
