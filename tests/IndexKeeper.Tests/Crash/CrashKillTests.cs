@@ -1,6 +1,7 @@
 using System.Globalization;
 using System.Text.Json;
 using IndexKeeper.Cli.Demo;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Tests.Support;
 using Xunit.Abstractions;
 
@@ -12,7 +13,8 @@ namespace IndexKeeper.Tests.Crash;
 /// repair what the crash left (a torn or uncommitted tail, an unrecorded seal, an orphan or temp file)
 /// and report it as a repair, and no committed vector set may be lost. SIGKILL leaves the page cache
 /// to the kernel, so a repair that forgets committed vector sets would be a bug in the ordering, not
-/// a lost write. Rounds: 16 by default; set INDEXKEEPER_CRASH_ROUNDS for a longer local run.
+/// a lost write; the test also reads the catalog itself before and after each round and requires every
+/// vector set that was live before to be live after, unless its page is no longer held. Rounds: 16 by default; set INDEXKEEPER_CRASH_ROUNDS for a longer local run.
 /// </summary>
 public sealed class CrashKillTests(ITestOutputHelper output)
 {
@@ -70,6 +72,7 @@ public sealed class CrashKillTests(ITestOutputHelper output)
                 output.WriteLine($"round {round,2}: churn: {churn.Add(24)}");
             }
 
+            var liveBefore = Catalogued(index).Live;
             var sealedAtStart = SealedCount(segments);
             var (trigger, delay) = target switch
             {
@@ -108,6 +111,11 @@ public sealed class CrashKillTests(ITestOutputHelper output)
             {
                 Assert.True(AllowedRepairs.Any(a => repair.StartsWith(a, StringComparison.Ordinal)), $"round {round}: a repair that loses committed data: {repair}");
             }
+
+            // Committed before the round and still held by a document: it must still be live.
+            var after = Catalogued(index);
+            var lost = liveBefore.Where(after.Referenced.Contains).Where(k => !after.Live.Contains(k)).ToList();
+            Assert.True(lost.Count == 0, $"round {round}: {lost.Count} committed vector sets of pages still held were lost, e.g. {lost.FirstOrDefault()}");
         }
 
         output.WriteLine(string.Create(CultureInfo.InvariantCulture, $"{killed} of {rounds} runs killed; {repairsSeen.Count} repairs: {Summary(repairsSeen)}"));
@@ -135,6 +143,20 @@ public sealed class CrashKillTests(ITestOutputHelper output)
         Assert.True(search.ExitCode == 0, search.Stdout + search.Stderr);
         var top = JsonDocument.Parse(search.Stdout).RootElement.GetProperty("hits")[0];
         Assert.Equal((path, page), (top.GetProperty("path").GetString(), top.GetProperty("page").GetInt32()));
+    }
+
+    /// <summary>Page keys with a live vector set, and page keys some live document holds, read from the catalog itself.</summary>
+    private static (HashSet<string> Live, HashSet<string> Referenced) Catalogued(string index)
+    {
+        if (!Directory.Exists(index))
+        {
+            return ([], []);
+        }
+
+        using var indexLock = IndexLock.Acquire(index, "crash test check");
+        using var catalog = IndexCatalog.Open(indexLock);
+        var live = catalog.Encoders().SelectMany(e => catalog.LiveVectorSets(e.Id)).Select(v => v.PageKey).ToHashSet(StringComparer.Ordinal);
+        return (live, catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal));
     }
 
     /// <summary>Segment files without the owner's write bit (sealed ones); a file removed while counted does not count.</summary>
