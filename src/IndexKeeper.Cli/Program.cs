@@ -67,6 +67,13 @@ internal static class Program
             Console.Error.WriteLine("indexkeeper: stopped; work committed so far is kept.");
             return 1;
         }
+        catch (IOException ex)
+        {
+            // A full or failing disk under the catalog: the batch in flight is lost, committed work is not
+            // (the catalog's write-ahead log); a partial failure by the exit-code contract, not a crash.
+            Console.Error.WriteLine($"indexkeeper: {ex.Message}; work committed so far is kept, run the command again once the disk has room.");
+            return 1;
+        }
     }
 
     private static void PrintHelp(TextWriter output)

@@ -221,7 +221,17 @@ public sealed class SegmentWriter : IDisposable
         }
         finally
         {
-            stream.Dispose();
+            try
+            {
+                stream.Dispose();
+            }
+            catch (IOException) when (broken)
+            {
+                // Closing writes out what the failed write left in the buffer and fails again (a full
+                // disk); the handle is closed anyway, and those bytes were never committed: the caller
+                // cuts the file back to its committed length, which it could not if this threw.
+            }
+
             stream = null;
             if (publishPath is not null && !IsSealed)
             {

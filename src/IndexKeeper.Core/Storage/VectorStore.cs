@@ -13,6 +13,8 @@ namespace IndexKeeper.Core.Storage;
 /// Ordering of every change (as LevelDB publishes a version): write and fsync segment bytes, then commit
 /// the catalog transaction that references them, then delete what is no longer referenced.
 /// REQUIRES: the index lock is held; one thread writes (readers of <see cref="OpenLive"/> may be many).
+/// A reader reads the catalog and takes its maps under <c>swapGate</c>, and compaction commits a swap and
+/// retires the old segments under it, so a reader never names a segment retired in between.
 /// </remarks>
 public sealed class VectorStore : IDisposable
 {
@@ -22,6 +24,7 @@ public sealed class VectorStore : IDisposable
     private readonly SegmentWriterOptions writerOptions;
     private readonly SegmentFileSet files;
     private readonly Dictionary<string, SegmentWriter> writers = new(StringComparer.Ordinal);
+    private readonly object swapGate = new();
 
     private VectorStore(IndexCatalog catalog, string directory, SegmentWriterOptions writerOptions)
     {
@@ -133,9 +136,12 @@ public sealed class VectorStore : IDisposable
             writer.Flush(durable: false);
         }
 
-        var records = catalog.LiveVectorSets(encoderId);
-        var source = files.OpenSource(encoderId, records.Select(ToLocation).ToList());
-        return new LiveVectors(source, records);
+        lock (swapGate)
+        {
+            var records = catalog.LiveVectorSets(encoderId);
+            var source = files.OpenSource(encoderId, records.Select(ToLocation).ToList());
+            return new LiveVectors(source, records);
+        }
     }
 
     /// <summary>Runs the compaction policy and every job it asks for; returns what was done.</summary>
@@ -165,22 +171,25 @@ public sealed class VectorStore : IDisposable
                 LiveBytes = result.Moves.Where(m => m.Value.SegmentId == n.SegmentId).Sum(m => (long)m.Value.Length),
                 CreatedUtc = DateTime.UtcNow,
             }).ToList();
-            try
+            lock (swapGate)
             {
-                catalog.SwapCompacted(
-                    job.SegmentIds,
-                    newSegments,
-                    result.Moves.ToDictionary(m => (m.Key.SegmentId, m.Key.Offset), m => (m.Value.SegmentId, m.Value.Offset)));
-            }
-            catch
-            {
-                SegmentCompactor.Discard(result);
-                throw;
-            }
+                try
+                {
+                    catalog.SwapCompacted(
+                        job.SegmentIds,
+                        newSegments,
+                        result.Moves.ToDictionary(m => (m.Key.SegmentId, m.Key.Offset), m => (m.Value.SegmentId, m.Value.Offset)));
+                }
+                catch
+                {
+                    SegmentCompactor.Discard(result);
+                    throw;
+                }
 
-            foreach (var old in job.SegmentIds)
-            {
-                files.Retire(old);
+                foreach (var old in job.SegmentIds)
+                {
+                    files.Retire(old);
+                }
             }
 
             read += result.BytesRead;
