@@ -18,7 +18,7 @@ public sealed class CompactionUnderSearchTests(ITestOutputHelper output)
 {
     private const int Dimensions = 64;
     private const int Readers = 2;
-    private static readonly EncoderIdentity Encoder = new(TestVectors.EncoderId, "seeded-random", "seeded random vectors for storage tests", Dimensions);
+    private static readonly EncoderIdentity Encoder = OpenIndex.Encoder;
 
     [Fact]
     public void Searches_during_compaction_match_the_answers_before_it()

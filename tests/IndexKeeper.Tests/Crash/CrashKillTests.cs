@@ -1,7 +1,9 @@
+using System.Buffers.Binary;
 using System.Globalization;
 using System.Text.Json;
 using IndexKeeper.Cli.Demo;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Support;
 using Xunit.Abstractions;
 
@@ -82,15 +84,17 @@ public sealed class CrashKillTests(ITestOutputHelper output)
                 output.WriteLine($"round {round,2}: churn: {churn.Add(24)}");
             }
 
-            var sealedAtStart = SealedCount(segments);
+            var sealedAtStart = Sealed(segments);
             var (trigger, delay) = target switch
             {
                 Target.Early => (KillTrigger.AtStart, random.Next(0, 1500)),
                 Target.MidScan => (KillTrigger.OnStderr("checking:"), random.Next(0, 2500)),
                 Target.MidEmbed => (KillTrigger.OnStderr("embedding:"), random.Next(0, 1500)),
 
-                // Seal: the seal record is fsynced and the file made read-only just before the catalog records it.
-                Target.MidSeal => (KillTrigger.When("a segment made read-only", () => SealedCount(segments) > sealedAtStart), random.Next(0, 3)),
+                // Seal: written, fsynced, made read-only, the folder synced, then recorded by the catalog. Aimed with
+                // no delay, it still mostly lands after the record (about a millisecond here): RecoveryStateTests
+                // makes the unrecorded seal on purpose.
+                Target.MidSeal => (KillTrigger.When("a seal record written", () => SealWritten(segments, sealedAtStart)), 0),
                 _ => (KillTrigger.When("a compaction output appears", () => Directory.EnumerateFiles(segments, "*.tmp").Any()), random.Next(0, 500)),
             };
             var args = target == Target.MidCompaction ? compact : sync;
@@ -169,30 +173,65 @@ public sealed class CrashKillTests(ITestOutputHelper output)
         return (live, catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal));
     }
 
-    /// <summary>Segment files without the owner's write bit (sealed ones); a file removed while counted does not count.</summary>
-    private static int SealedCount(string segments)
+    /// <summary>
+    /// True once a segment file other than those sealed before the run ends with a seal record
+    /// (docs/segment-format.md: a frame of type 2 and a 24-byte body, the last 40 bytes of the file).
+    /// </summary>
+    private static bool SealWritten(string segments, IReadOnlySet<string> sealedBefore)
     {
         if (!Directory.Exists(segments))
         {
-            return 0;
+            return false;
         }
 
-        var count = 0;
-        foreach (var file in Directory.EnumerateFiles(segments, "*.vec"))
+        Span<byte> tail = stackalloc byte[SegmentFormat.SealRecordLength];
+        foreach (var file in Directory.EnumerateFiles(segments, "*.vec").Where(f => !sealedBefore.Contains(f)))
         {
             try
             {
-                var sealedFile = OperatingSystem.IsWindows()
-                    ? (File.GetAttributes(file) & FileAttributes.ReadOnly) != 0
-                    : (File.GetUnixFileMode(file) & UnixFileMode.UserWrite) == 0;
-                count += sealedFile ? 1 : 0;
+                using var stream = new FileStream(file, FileMode.Open, FileAccess.Read, FileShare.ReadWrite | FileShare.Delete);
+                if (stream.Length < SegmentFormat.MinHeaderLength + tail.Length)
+                {
+                    continue;
+                }
+
+                stream.Position = stream.Length - tail.Length;
+                stream.ReadExactly(tail);
+                if (tail[8] == SegmentFormat.RecordTypeSeal && BinaryPrimitives.ReadUInt32LittleEndian(tail[4..]) == SegmentFormat.SealBodyLength)
+                {
+                    return true;
+                }
             }
-            catch (FileNotFoundException)
+            catch (IOException)
             {
+                // Removed by recovery or cut while looked at.
             }
         }
 
-        return count;
+        return false;
+    }
+
+    /// <summary>Segment files without the owner's write bit (sealed ones).</summary>
+    private static HashSet<string> Sealed(string segments)
+    {
+        var found = new HashSet<string>(StringComparer.Ordinal);
+        if (!Directory.Exists(segments))
+        {
+            return found;
+        }
+
+        foreach (var file in Directory.EnumerateFiles(segments, "*.vec"))
+        {
+            var readOnly = OperatingSystem.IsWindows()
+                ? (File.GetAttributes(file) & FileAttributes.ReadOnly) != 0
+                : (File.GetUnixFileMode(file) & UnixFileMode.UserWrite) == 0;
+            if (readOnly)
+            {
+                found.Add(file);
+            }
+        }
+
+        return found;
     }
 
     private static List<string> Strings(JsonElement report, string name) =>

@@ -2,8 +2,8 @@ namespace IndexKeeper.Tests.Crash;
 
 /// <summary>
 /// When the delay before a kill starts counting: at process start, at the first stderr line holding a
-/// text (a progress phase), or once a condition on the index directory holds (polled about every
-/// millisecond), so a kill can aim at a step that prints nothing.
+/// text (a progress phase), or once a condition on the index directory holds (polled without
+/// sleeping), so a kill can aim at a step that prints nothing.
 /// </summary>
 internal sealed record KillTrigger(string Description, string? StderrMarker, Func<bool>? Condition)
 {

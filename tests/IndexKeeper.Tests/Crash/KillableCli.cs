@@ -71,7 +71,8 @@ internal static class KillableCli
                 }
                 else
                 {
-                    Thread.Sleep(1);
+                    // Yield rather than sleep: a seal takes about a millisecond from its write to its catalog record.
+                    Thread.Yield();
                 }
             }
             else
