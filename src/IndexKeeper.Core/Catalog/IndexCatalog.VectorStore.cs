@@ -71,7 +71,7 @@ public sealed partial class IndexCatalog
             foreach (var set in added)
             {
                 // A key whose last page location went away while it was being encoded is born dead.
-                set.Live = pages.FindById(set.PageKey) is { References: > 0 };
+                set.Live = ReferencesOf(set.PageKey) > 0;
                 segment.RecordCount++;
                 if (set.Live)
                 {
@@ -193,7 +193,7 @@ public sealed partial class IndexCatalog
                     segments.Update(segment);
                 }
 
-                if (set.Live && pages.FindById(set.PageKey) is { References: > 0 })
+                if (set.Live && ReferencesOf(set.PageKey) > 0)
                 {
                     queue.Upsert(new QueueRecord { Id = set.PageKey, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now });
                     requeued++;
@@ -214,6 +214,10 @@ public sealed partial class IndexCatalog
             throw;
         }
     }
+
+    /// <summary>A page's reference count (0 when it has no record), read without deserialising its words.</summary>
+    private int ReferencesOf(string pageKey) =>
+        pages.Query().Where(p => p.Id == pageKey).Select(p => p.References).ToEnumerable().FirstOrDefault();
 
     /// <summary>REQUIRES: inside a transaction of the caller.</summary>
     private void SetVectorSetsLive(string pageKey, bool live)

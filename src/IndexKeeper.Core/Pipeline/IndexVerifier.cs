@@ -21,14 +21,16 @@ public static class IndexVerifier
         ArgumentNullException.ThrowIfNull(store);
         var report = new VerifyReport();
         report.Repairs.AddRange(store.Repairs.Select(r => "at open: " + r));
-        CheckReferences(catalog, report);
+        var held = CheckReferences(catalog, report);
         CheckSegments(catalog, store.Directory, report, cancellationToken);
-        CheckCoverage(catalog, activeEncoderId, report);
+        CheckCoverage(catalog, activeEncoderId, held, report);
         return report;
     }
 
-    private static void CheckReferences(IndexCatalog catalog, VerifyReport report)
+    /// <summary>Checks every page's count against the documents; returns the keys a live document holds.</summary>
+    private static List<string> CheckReferences(IndexCatalog catalog, VerifyReport report)
     {
+        var held = new List<string>();
         var counts = new Dictionary<string, int>(StringComparer.Ordinal);
         foreach (var document in catalog.AllDocuments())
         {
@@ -49,6 +51,11 @@ public static class IndexVerifier
             report.PagesChecked++;
             var expected = counts.GetValueOrDefault(page.Id);
             counts.Remove(page.Id);
+            if (page.References > 0)
+            {
+                held.Add(page.Id);
+            }
+
             if (page.References != expected && !(expected == 0 && page.References == 0))
             {
                 report.Problems.Add($"page {page.Id}: the catalog counts {page.References} page locations, the documents hold {expected}");
@@ -59,6 +66,8 @@ public static class IndexVerifier
         {
             report.Problems.Add($"page {key}: held by {count} page locations but has no page record");
         }
+
+        return held;
     }
 
     private static void CheckSegments(IndexCatalog catalog, string directory, VerifyReport report, CancellationToken cancellationToken)
@@ -153,7 +162,7 @@ public static class IndexVerifier
         report.Repairs.Add($"isolated segment {segment.Id} in {DamagedFolder}/: {sets.Count} vector sets forgotten, {requeued} pages queued again");
     }
 
-    private static void CheckCoverage(IndexCatalog catalog, string? activeEncoderId, VerifyReport report)
+    private static void CheckCoverage(IndexCatalog catalog, string? activeEncoderId, IReadOnlyList<string> held, VerifyReport report)
     {
         if (activeEncoderId is null)
         {
@@ -161,11 +170,11 @@ public static class IndexVerifier
         }
 
         var queued = catalog.QueueInOrder().Select(q => q.Id).ToHashSet(StringComparer.Ordinal);
-        foreach (var page in catalog.AllPages().Where(p => p.References > 0))
+        foreach (var key in held)
         {
-            if (catalog.FindVectorSet(activeEncoderId, page.Id) is not { Live: true } && !queued.Contains(page.Id))
+            if (catalog.FindVectorSet(activeEncoderId, key) is not { Live: true } && !queued.Contains(key))
             {
-                report.Problems.Add($"page {page.Id} has no live vectors under the active encoder and is not queued");
+                report.Problems.Add($"page {key} has no live vectors under the active encoder and is not queued");
             }
         }
     }

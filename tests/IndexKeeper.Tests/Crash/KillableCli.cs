@@ -16,18 +16,7 @@ internal static class KillableCli
 
     public static Outcome RunAndKill(string workingDirectory, KillTrigger trigger, TimeSpan delay, IReadOnlyList<string> args)
     {
-        var start = new ProcessStartInfo("dotnet")
-        {
-            WorkingDirectory = workingDirectory,
-            RedirectStandardOutput = true,
-            RedirectStandardError = true,
-            UseShellExecute = false,
-        };
-        start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"));
-        foreach (var arg in args)
-        {
-            start.ArgumentList.Add(arg);
-        }
+        var start = Support.CliRunner.StartInfo(workingDirectory, args);
 
         var stderr = new ConcurrentQueue<string>();
         var stdout = new ConcurrentQueue<string>();

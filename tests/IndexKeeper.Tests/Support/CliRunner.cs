@@ -7,7 +7,8 @@ internal static class CliRunner
 {
     public sealed record Result(int ExitCode, string Stdout, string Stderr);
 
-    public static Result Run(string workingDirectory, params string[] args)
+    /// <summary>How to start <c>dotnet indexkeeper.dll ARGS</c> with both output streams redirected.</summary>
+    public static ProcessStartInfo StartInfo(string workingDirectory, IEnumerable<string> args)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -22,6 +23,12 @@ internal static class CliRunner
             start.ArgumentList.Add(arg);
         }
 
+        return start;
+    }
+
+    public static Result Run(string workingDirectory, params string[] args)
+    {
+        var start = StartInfo(workingDirectory, args);
         using var process = Process.Start(start)!;
         var stdout = process.StandardOutput.ReadToEndAsync();
         var stderr = process.StandardError.ReadToEndAsync();
