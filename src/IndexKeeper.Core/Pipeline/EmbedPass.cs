@@ -27,6 +27,20 @@ public sealed class EmbedPass(
         ArgumentNullException.ThrowIfNull(summary);
         var total = catalog.Figures().Queued;
         var started = DateTime.UtcNow;
+        var stopwatchRun = Stopwatch.StartNew();
+        var (pagesBefore, vectorsBefore, secondsBefore) = (summary.PagesEmbedded, summary.VectorsWritten, summary.EncoderSeconds);
+        Drain(summary, total, started, cancellationToken);
+        if (summary.PagesEmbedded > pagesBefore)
+        {
+            // The measured throughput of this encoder, kept for the plan's estimates.
+            catalog.RecordEmbedding(encoder.Identity.Id, started, stopwatchRun.Elapsed.TotalSeconds, summary.PagesEmbedded - pagesBefore, summary.VectorsWritten - vectorsBefore, summary.EncoderSeconds - secondsBefore);
+        }
+
+        cancellationToken.ThrowIfCancellationRequested();
+    }
+
+    private void Drain(ScanSummary summary, long total, DateTime started, CancellationToken cancellationToken)
+    {
         while (!cancellationToken.IsCancellationRequested)
         {
             var queued = catalog.NextQueued(batchSize, started);
@@ -82,11 +96,12 @@ public sealed class EmbedPass(
 
             progress?.Report(new ScanProgress("embedding", summary.PagesEmbedded, total, null));
         }
-
-        cancellationToken.ThrowIfCancellationRequested();
     }
 
-    private PageToEncode ToEncode(PageRecord page)
+    private PageToEncode ToEncode(PageRecord page) => ToEncode(page, rootPaths);
+
+    /// <summary>The encoder's view of a catalog page; the source path lets image encoders open the file.</summary>
+    internal static PageToEncode ToEncode(PageRecord page, IReadOnlyDictionary<string, string> rootPaths)
     {
         var source = rootPaths.TryGetValue(page.SourceRoot, out var rootPath)
             ? Path.Combine(rootPath, page.SourcePath.Replace('/', Path.DirectorySeparatorChar))
