@@ -75,6 +75,31 @@ public sealed class PlanContractTests : IDisposable
     }
 
     [Fact]
+    public void A_new_encoder_makes_every_page_drifted_migration_work_that_finishes_inside_a_window()
+    {
+        index.Put("store/manuals/pump-manual.pdf", StorePdfs.Document("pump", 4));
+        index.Put("store/reports/audit-report.pdf", StorePdfs.Document("audit", 3));
+        index.Json("sync");
+
+        // Other dimensions give another encoder id: the stored vectors are all under the old one.
+        var plan = index.Json("plan", "--Encoder:Dimensions=192", "--calibrate", "--Schedule:TimeZone=Europe/Berlin", "--Schedule:Windows:0=Sat 22:00-23:00");
+        ContractAssert.Counts(plan, "plan under a new encoder", ("driftedPages", 7), ("driftedNotQueued", 7), ("pagesToEmbed", 7), ("pagesToRemove", 0));
+        Assert.Equal(7, plan.GetProperty("work").GetProperty("migration").GetInt64());
+        Assert.Equal(0, plan.GetProperty("work").GetProperty("fresh").GetInt64());
+        var rows = plan.GetProperty("breakdown").EnumerateArray().ToDictionary(r => r.GetProperty("folder").GetString()!, r => r.GetProperty("pagesToEmbed").GetInt64());
+        Assert.Equal(new Dictionary<string, long> { ["manuals"] = 4, ["reports"] = 3 }, rows);
+
+        // Migration runs only inside the window: the finish is a Saturday between 22:00 and 23:00 in
+        // Berlin (ISO 8601 local time with offset; offsets from the IANA tz database), within a week.
+        var finish = Instant(plan, "estimatedFinish");
+        var local = TimeZoneInfo.ConvertTime(finish, Berlin);
+        Assert.Equal(Berlin.GetUtcOffset(finish), finish.Offset);
+        Assert.Equal(DayOfWeek.Saturday, local.DayOfWeek);
+        Assert.InRange(local.TimeOfDay, TimeSpan.FromHours(22), TimeSpan.FromHours(23));
+        Assert.InRange((finish - Instant(plan, "generatedAt")).TotalDays, 0, 7);
+    }
+
+    [Fact]
     public void Terminal_table_names_the_figures_and_a_bad_window_exits_2_naming_it()
     {
         index.Put("store/manuals/pump-manual.pdf", StorePdfs.Document("pump", 2));
