@@ -1,3 +1,6 @@
+using System.Buffers;
+using System.Numerics.Tensors;
+
 namespace IndexKeeper.Core.Encoding.PageImages;
 
 /// <summary>
@@ -50,59 +53,94 @@ internal sealed class PageImagePreprocessor
         var columns = Taps.Of(width, placement.SourceWidth, placement.ScaleX, placement.OffsetX);
         var rows = Taps.Of(height, placement.SourceHeight, placement.ScaleY, placement.OffsetY);
         var channels = raster.Channels;
-        var pixels = raster.Pixels;
-
-        // Horizontal pass: every source row resampled to the input width, per channel, padding included.
-        var horizontal = new float[raster.Height * width * channels];
-        for (var y = 0; y < raster.Height; y++)
+        var sourceRow = raster.Width * channels;
+        var samples = ArrayPool<float>.Shared.Rent(raster.Pixels.Length);
+        var vertical = ArrayPool<float>.Shared.Rent(height * sourceRow);
+        try
         {
-            var rowStart = y * raster.Width * channels;
-            for (var x = 0; x < width; x++)
-            {
-                var first = columns.First[x];
-                var weights = columns.Weights[x];
-                for (var c = 0; c < channels; c++)
-                {
-                    var sum = columns.Outside[x] * Paper;
-                    for (var k = 0; k < weights.Length; k++)
-                    {
-                        sum += weights[k] * pixels[rowStart + ((first + k) * channels) + c];
-                    }
+            TensorPrimitives.ConvertChecked<byte, float>(raster.Pixels, samples.AsSpan(0, raster.Pixels.Length));
 
-                    horizontal[(((y * width) + x) * channels) + c] = sum;
+            // Vertical pass first (it shrinks the rows the scalar pass must visit): whole source rows weighted
+            // and added, contiguous, so vectorised.
+            for (var y = 0; y < height; y++)
+            {
+                var accumulated = vertical.AsSpan(y * sourceRow, sourceRow);
+                accumulated.Fill(rows.Outside[y] * Paper);
+                var weights = rows.Weights[y];
+                for (var k = 0; k < weights.Length; k++)
+                {
+                    AddScaled(samples.AsSpan((rows.First[y] + k) * sourceRow, sourceRow), weights[k], accumulated);
                 }
             }
-        }
 
-        // Vertical pass, then normalisation into the planar layout.
-        var plane = width * height;
-        for (var y = 0; y < height; y++)
-        {
-            var first = rows.First[y];
-            var weights = rows.Weights[y];
-            for (var x = 0; x < width; x++)
+            // Horizontal pass, normalised straight into the planar layout.
+            var plane = width * height;
+            for (var y = 0; y < height; y++)
             {
-                for (var c = 0; c < channels; c++)
+                var row = vertical.AsSpan(y * sourceRow, sourceRow);
+                for (var x = 0; x < width; x++)
                 {
-                    var sum = rows.Outside[y] * Paper;
-                    for (var k = 0; k < weights.Length; k++)
-                    {
-                        sum += weights[k] * horizontal[((((first + k) * width) + x) * channels) + c];
-                    }
-
+                    var weights = columns.Weights[x];
+                    var first = columns.First[x] * channels;
+                    var pad = columns.Outside[x] * Paper;
+                    var at = (y * width) + x;
                     if (channels == 3)
                     {
-                        input[(c * plane) + (y * width) + x] = (sum * scale[c]) + shift[c];
+                        float red = pad, green = pad, blue = pad;
+                        for (var k = 0; k < weights.Length; k++)
+                        {
+                            var sample = first + (3 * k);
+                            red += weights[k] * row[sample];
+                            green += weights[k] * row[sample + 1];
+                            blue += weights[k] * row[sample + 2];
+                        }
+
+                        input[at] = (red * scale[0]) + shift[0];
+                        input[plane + at] = (green * scale[1]) + shift[1];
+                        input[(2 * plane) + at] = (blue * scale[2]) + shift[2];
                     }
                     else
                     {
+                        var grey = pad;
+                        for (var k = 0; k < weights.Length; k++)
+                        {
+                            grey += weights[k] * row[first + k];
+                        }
+
                         for (var o = 0; o < 3; o++)
                         {
-                            input[(o * plane) + (y * width) + x] = (sum * scale[o]) + shift[o];
+                            input[(o * plane) + at] = (grey * scale[o]) + shift[o];
                         }
                     }
                 }
             }
+        }
+        finally
+        {
+            ArrayPool<float>.Shared.Return(samples);
+            ArrayPool<float>.Shared.Return(vertical);
+        }
+    }
+
+    // accumulated += source × weight, element by element, a multiply then an add (never fused, so every
+    // platform and vector width gives the same floats).
+    private static void AddScaled(ReadOnlySpan<float> source, float weight, Span<float> accumulated)
+    {
+        var i = 0;
+        if (System.Numerics.Vector.IsHardwareAccelerated)
+        {
+            var factor = new System.Numerics.Vector<float>(weight);
+            var lanes = System.Numerics.Vector<float>.Count;
+            for (; i + lanes <= source.Length; i += lanes)
+            {
+                var product = new System.Numerics.Vector<float>(source[i..]) * factor;
+                (new System.Numerics.Vector<float>(accumulated[i..]) + product).CopyTo(accumulated[i..]);
+            }
+        }
+
+        for (; i < source.Length; i++)
+        {
+            accumulated[i] += source[i] * weight;
         }
     }
 

@@ -10,7 +10,7 @@ namespace IndexKeeper.Tests.Encoding.PageImages;
 /// data_type 2 (FLOAT 1, INT64 7), name 8, raw_data 9 (fixed-width little-endian); ValueInfoProto name 1,
 /// type 2; TypeProto tensor_type 1; TypeProto.Tensor elem_type 1, shape 2; TensorShapeProto dim 1;
 /// Dimension dim_value 1, dim_param 2. Operators as the ONNX operator specification defines them
-/// (Conv, Reshape, Transpose, Gather, MatMul, Relu).
+/// (Conv, Reshape, Transpose, Gather, MatMul, Tanh).
 /// </summary>
 internal static class OnnxModels
 {
@@ -21,7 +21,7 @@ internal static class OnnxModels
     /// The page graph of the tests: a convolution with a <paramref name="patch"/>×<paramref name="patch"/>
     /// kernel and the same stride cuts [1, 3, height, width] pixels into patches and projects each to
     /// <paramref name="dimensions"/> (weights [d, 3, p, p], bias [d]); reshape to [1, d, n] and transpose
-    /// to [1, n, d], patches in row-major order. Optional extra layers (each MatMul [d, d] then Relu) only add cost, for the benchmark.
+    /// to [1, n, d], patches in row-major order. Optional extra layers (each MatMul, then Tanh between layers) only add cost, for the benchmark.
     /// </summary>
     public static byte[] PatchGraph(int width, int height, int patch, int dimensions, float[] weights, float[] bias, string input, string output, int extraLayers = 0, int extraWidth = 0)
     {
@@ -48,7 +48,7 @@ internal static class OnnxModels
             graph.Message(1, Node("MatMul", [$"layer{layer}", $"layer{layer}_matrix"], [last ? output : $"layer{layer}_product"]));
             if (!last)
             {
-                graph.Message(1, Node("Relu", [$"layer{layer}_product"], [$"layer{layer + 1}"]));
+                graph.Message(1, Node("Tanh", [$"layer{layer}_product"], [$"layer{layer + 1}"]));
             }
         }
 
