@@ -12,16 +12,29 @@ namespace IndexKeeper.Core.Encoding.PageImages;
 /// </summary>
 internal static class ImageFileDecoder
 {
+    /// <summary>Decodes the given pages (1-based) of one file, each handed over as soon as it is decoded; a multi-page TIFF is decoded once.</summary>
     /// <exception cref="InvalidOperationException">The file does not decode (it changed since it was read, or is damaged).</exception>
-    public static RasterImage Decode(byte[] file, DocumentKind kind, int pageNumber)
+    public static void Decode(byte[] file, DocumentKind kind, IEnumerable<int> pageNumbers, Action<int, RasterImage> onPage, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(file);
-        return kind switch
+        ArgumentNullException.ThrowIfNull(pageNumbers);
+        ArgumentNullException.ThrowIfNull(onPage);
+        switch (kind)
         {
-            DocumentKind.Png or DocumentKind.Jpeg => DecodeWithSkia(file, kind),
-            DocumentKind.Tiff => DecodeTiff(file, pageNumber),
-            _ => throw new InvalidOperationException($"a {kind} file is not an image page"),
-        };
+            case DocumentKind.Png or DocumentKind.Jpeg:
+                var image = DecodeWithSkia(file, kind);
+                foreach (var number in pageNumbers)
+                {
+                    onPage(number == 1 ? number : throw new InvalidOperationException($"a {kind} file has one page, not page {number}"), image);
+                }
+
+                break;
+            case DocumentKind.Tiff:
+                DecodeTiff(file, pageNumbers, onPage, cancellationToken);
+                break;
+            default:
+                throw new InvalidOperationException($"a {kind} file is not an image page");
+        }
     }
 
     private static RasterImage DecodeWithSkia(byte[] file, DocumentKind kind)
@@ -38,25 +51,34 @@ internal static class ImageFileDecoder
         return OverWhite(info.Width, info.Height, rgba);
     }
 
-    private static RasterImage DecodeTiff(byte[] file, int pageNumber)
+    private static void DecodeTiff(byte[] file, IEnumerable<int> pageNumbers, Action<int, RasterImage> onPage, CancellationToken cancellationToken)
     {
+        Image<Rgba32> image;
         try
         {
-            using var image = Image.Load<Rgba32>(file);
-            if (pageNumber < 1 || pageNumber > image.Frames.Count)
-            {
-                throw new InvalidOperationException($"the TIFF file has {image.Frames.Count} page(s), not page {pageNumber}");
-            }
-
-            var frame = image.Frames[pageNumber - 1];
-            var rgba = new byte[frame.Width * frame.Height * 4];
-            frame.CopyPixelDataTo(rgba);
-            return OverWhite(frame.Width, frame.Height, rgba);
+            image = Image.Load<Rgba32>(file);
         }
-        catch (Exception e) when (e is not (InvalidOperationException or OutOfMemoryException or OperationCanceledException))
+        catch (Exception e) when (e is not (OutOfMemoryException or OperationCanceledException))
         {
             // Damaged files make decoders throw exceptions of many types; all of them mean the same.
             throw new InvalidOperationException($"the TIFF file cannot be decoded ({e.GetType().Name}: {e.Message})", e);
+        }
+
+        using (image)
+        {
+            foreach (var number in pageNumbers)
+            {
+                cancellationToken.ThrowIfCancellationRequested();
+                if (number < 1 || number > image.Frames.Count)
+                {
+                    throw new InvalidOperationException($"the TIFF file has {image.Frames.Count} page(s), not page {number}");
+                }
+
+                var frame = image.Frames[number - 1];
+                var rgba = new byte[frame.Width * frame.Height * 4];
+                frame.CopyPixelDataTo(rgba);
+                onPage(number, OverWhite(frame.Width, frame.Height, rgba));
+            }
         }
     }
 

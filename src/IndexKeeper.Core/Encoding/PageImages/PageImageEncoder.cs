@@ -188,12 +188,12 @@ internal sealed class PageImageEncoder : IPageEncoder, IDisposable
             }
             else
             {
-                foreach (var (number, indices) in numbers)
-                {
-                    cancellationToken.ThrowIfCancellationRequested();
-                    var stored = ImageFileDecoder.Decode(file, kind, number);
-                    onPrepared(Preprocess(pages, indices, stored.RotateClockwise(pages[indices[0]].Rotation)));
-                }
+                ImageFileDecoder.Decode(
+                    file,
+                    kind,
+                    numbers.Keys,
+                    (number, stored) => onPrepared(Preprocess(pages, numbers[number], stored.RotateClockwise(pages[numbers[number][0]].Rotation))),
+                    cancellationToken);
             }
         }
     }

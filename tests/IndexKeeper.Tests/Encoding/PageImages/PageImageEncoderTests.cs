@@ -52,15 +52,7 @@ public sealed class PageImageEncoderTests(PageImageModels models) : IClassFixtur
         var set = encoder.EncodePages([Page(png, 1, PageImageModels.Width, PageImageModels.Height, 0)], CancellationToken.None)[0];
 
         // The image is exactly the input size, so pre-processing is only (v / 255 − mean) / std per channel, planar.
-        var plane = PageImageModels.Width * PageImageModels.Height;
-        var input = new float[3 * plane];
-        for (var i = 0; i < plane; i++)
-        {
-            for (var c = 0; c < 3; c++)
-            {
-                input[(c * plane) + i] = (float)(((pixels[(i * 3) + c] / 255.0) - options.PixelMean[c]) / options.PixelStd[c]);
-            }
-        }
+        var input = Normalise(pixels, options);
 
         var expected = models.ReferencePatchVectors(input);
         Assert.Equal(expected.Length, set.Vectors.Length);
@@ -68,6 +60,35 @@ public sealed class PageImageEncoderTests(PageImageModels models) : IClassFixtur
 
         // Patch 0 is the top-left 32×32 pixels: in page coordinates (origin bottom left) x 0..32, y 128..160.
         Assert.Equal(new PageBox(0, 128, 32, 160), set.Regions[0]);
+    }
+
+    [Fact]
+    public void Pages_of_a_multi_page_tiff_are_decoded_directly_and_a_turned_page_is_drawn_as_shown()
+    {
+        using var folder = new TempFolder();
+        // Two pages stored 160×128 (the image library reads TIFFs whose pages share one size, as the document reader does).
+        var first = Pattern(PageImageModels.Height, PageImageModels.Width);
+        var second = Pattern(PageImageModels.Height, PageImageModels.Width).Select(b => (byte)(255 - b)).ToArray();
+        var tiff = folder.Write("scans.tif", TiffWriter.Rgb([(PageImageModels.Height, PageImageModels.Width, first), (PageImageModels.Height, PageImageModels.Width, second)]));
+        using var encoder = Create(models.Options());
+
+        // Page 1 is shown as stored (letterboxed: 128×102.4 at input rows 28.8 to 131.2, still all five patch rows);
+        // page 2 is shown turned a quarter clockwise (as TIFF orientation 6), so it fills the 128×160 input.
+        var sets = encoder.EncodePages(
+            [Page(tiff, 1, PageImageModels.Height, PageImageModels.Width, 0), Page(tiff, 2, PageImageModels.Height, PageImageModels.Width, 90)],
+            CancellationToken.None);
+
+        Assert.Equal(20, sets[0].Count);
+        Assert.Equal(20, sets[1].Count);
+        PageImagePreprocessorTests.AssertTiles(sets[0].Regions, PageImageModels.Height, PageImageModels.Width);
+        PageImagePreprocessorTests.AssertTiles(sets[1].Regions, PageImageModels.Height, PageImageModels.Width);
+
+        // The stored page 2 turned clockwise is an image of the input's size: the reference convolution of it is what the graph gave.
+        var turned = new Core.Encoding.PageImages.RasterImage(PageImageModels.Height, PageImageModels.Width, 3, second).RotateClockwise(90);
+        Assert.Equal(models.ReferencePatchVectors(Normalise(turned.Pixels, models.Options())), sets[1].Vectors, new Tolerance(1e-4f));
+
+        // Turned clockwise, the stored bottom-left corner shows at the top left: patch 0 covers it.
+        Assert.Equal(new PageBox(0, 0, 32, 32), sets[1].Regions[0]);
     }
 
     [Fact]
@@ -180,6 +201,21 @@ public sealed class PageImageEncoderTests(PageImageModels models) : IClassFixtur
         var columns = Enumerable.Range(0, 4).Count(c => c * 32 < left + contentWidth && (c + 1) * 32 > left);
         var rows = Enumerable.Range(0, 5).Count(r => r * 32 < top + contentHeight && (r + 1) * 32 > top);
         return columns * rows;
+    }
+
+    private static float[] Normalise(byte[] rgb, PageImageEncoderOptions options)
+    {
+        var plane = rgb.Length / 3;
+        var input = new float[rgb.Length];
+        for (var i = 0; i < plane; i++)
+        {
+            for (var c = 0; c < 3; c++)
+            {
+                input[(c * plane) + i] = (float)(((rgb[(i * 3) + c] / 255.0) - options.PixelMean[c]) / options.PixelStd[c]);
+            }
+        }
+
+        return input;
     }
 
     private static void AssertUnitRows(VectorSet set)
