@@ -1,5 +1,7 @@
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
+using IndexKeeper.Tests.Documents;
+using Microsoft.Extensions.Configuration;
 
 namespace IndexKeeper.Tests.Encoding.PageImages;
 
@@ -76,6 +78,23 @@ public sealed class PageImageConfigurationTests(PageImageModels models) : IClass
 
         Assert.Equal(new[] { 0.48, 0.46, 0.41 }, options.Encoder.PageImage.PixelMean);
         Assert.Equal("page-image", ((Core.Encoding.IPageEncoder)encoder).Identity.Name);
+    }
+
+    [Fact]
+    public void The_sample_configuration_block_binds_strictly_when_uncommented()
+    {
+        var lines = File.ReadAllLines(Path.Combine(CanonicalFormTests.RepositoryRoot(), "config", "indexkeeper.sample.json"));
+        var start = Array.FindIndex(lines, l => l.Trim() == "// ,\"Encoder\": {");
+        Assert.True(start > 0, "the commented page-image block is in the sample");
+        var block = lines.Skip(start).TakeWhile(l => l.TrimStart().StartsWith("//", StringComparison.Ordinal)).Select(l => l.TrimStart()[2..]);
+        var json = "{" + string.Join("\n", block).TrimStart()[1..] + "}";
+        using var stream = new MemoryStream(System.Text.Encoding.UTF8.GetBytes(json));
+
+        var options = new ConfigurationBuilder().AddJsonStream(stream).Build().Get<IndexKeeperOptions>(o => o.ErrorOnUnknownConfiguration = true)!;
+
+        Assert.Equal("page-image", options.Encoder.Name);
+        Assert.Equal(new[] { 0.5, 0.5, 0.5 }, options.Encoder.PageImage.PixelStd);
+        Assert.Equal("/var/lib/indexkeeper/models/vocab.txt", options.Encoder.PageImage.QueryVocabulary);
     }
 
     [Fact]
