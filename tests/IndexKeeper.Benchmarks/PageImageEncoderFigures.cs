@@ -9,11 +9,12 @@ namespace IndexKeeper.Benchmarks;
 
 /// <summary>
 /// The page-image encoder's part of the <c>encoders</c> benchmark: A4 works reports of ~400 words drawn by
-/// pdftoppm at 72 dpi, fitted into 448×448, run through two graphs written by the benchmark (no model is
-/// downloaded): the tests' patch graph (a 32×32 strided convolution to 128-d, ~0.15 GFLOP a page) and a
-/// heavier stand-in (convolution to 768-d, then five 768×768 and one 768×128 matrix products with tanh between them,
-/// ~2.1 GFLOP a page) — both far cheaper than a real late-interaction vision model, so the share of wall time
-/// outside the model is an upper bound of what a real model would show.
+/// pdftoppm at 72 dpi, fitted into 448×448, run through graphs written by the benchmark (no model is
+/// downloaded): the tests' patch graph (a 32×32 strided convolution to 128-d, ~0.15 GFLOP a page), a
+/// stand-in (convolution to 768-d, then five 768×768 and one 768×128 matrix products with tanh between
+/// them, ~2.1 GFLOP a page) and a large stand-in (1024-d, eleven 1024×1024 products, ~5.8 GFLOP a page) —
+/// all far cheaper than a real late-interaction vision model, so the share of wall time outside the model
+/// is an upper bound of what a real model would show.
 /// </summary>
 internal static class PageImageEncoderFigures
 {
@@ -22,6 +23,8 @@ internal static class PageImageEncoderFigures
     private const int Dimensions = 128;
     private const int StandInWidth = 768;
     private const int StandInLayers = 6;
+    private const int LargeWidth = 1024;
+    private const int LargeLayers = 12;
 
     public static void Run(BenchmarkContext context, int batchSize)
     {
@@ -52,8 +55,12 @@ internal static class PageImageEncoderFigures
         File.WriteAllBytes(standIn, OnnxModels.PatchGraph(
             Input, Input, Patch, Dimensions, PageImageModels.Sequence(StandInWidth * 3 * Patch * Patch, 1), PageImageModels.Sequence(StandInWidth, 2), "pixels", "vectors", StandInLayers, StandInWidth));
 
+        var large = Path.Combine(folder, "large-stand-in.onnx");
+        File.WriteAllBytes(large, OnnxModels.PatchGraph(
+            Input, Input, Patch, Dimensions, PageImageModels.Sequence(LargeWidth * 3 * Patch * Patch, 1), PageImageModels.Sequence(LargeWidth, 2), "pixels", "vectors", LargeLayers, LargeWidth));
+
         MeasureDrawing(context, pages);
-        foreach (var (label, model) in new[] { ("patch graph", small), ("stand-in graph", standIn) })
+        foreach (var (label, model) in new[] { ("patch graph", small), ("stand-in graph", standIn), ("large stand-in graph", large) })
         {
             foreach (var threads in new[] { 1, 2 })
             {

@@ -177,8 +177,7 @@ internal sealed class PageImageEncoder : IPageEncoder, IDisposable
         foreach (var path in fileOrder)
         {
             var numbers = byFile[path];
-            var file = File.ReadAllBytes(path);
-            var kind = SignatureSniffer.Sniff(file.AsSpan(0, Math.Min(file.Length, SignatureSniffer.PdfHeaderWindow)));
+            var kind = SignatureSniffer.Sniff(ReadFile(path, SignatureSniffer.PdfHeaderWindow));
             if (kind == DocumentKind.Pdf)
             {
                 foreach (var (first, last) in Runs(numbers.Keys))
@@ -189,12 +188,31 @@ internal sealed class PageImageEncoder : IPageEncoder, IDisposable
             else
             {
                 ImageFileDecoder.Decode(
-                    file,
+                    ReadFile(path, int.MaxValue),
                     kind,
                     numbers.Keys,
                     (number, stored) => onPrepared(Preprocess(pages, numbers[number], stored.RotateClockwise(pages[numbers[number][0]].Rotation))),
                     cancellationToken);
             }
+        }
+    }
+
+    /// <summary>
+    /// Up to <paramref name="limit"/> bytes of a page's file. A file gone or unreadable since it was queued
+    /// fails this batch (it stays queued) rather than the whole pass, which an I/O error would stop.
+    /// </summary>
+    private static byte[] ReadFile(string path, int limit)
+    {
+        try
+        {
+            using var stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.ReadWrite | FileShare.Delete);
+            var bytes = new byte[Math.Min(limit, stream.Length)];
+            stream.ReadExactly(bytes);
+            return bytes;
+        }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            throw new InvalidOperationException($"the page's file '{path}' cannot be read ({e.Message}).", e);
         }
     }
 

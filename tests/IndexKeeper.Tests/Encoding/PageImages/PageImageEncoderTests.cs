@@ -148,6 +148,29 @@ public sealed class PageImageEncoderTests(PageImageModels models) : IClassFixtur
     }
 
     [Fact]
+    public void A_cancelled_batch_stops_with_cancellation()
+    {
+        using var folder = new TempFolder();
+        var pdf = folder.Write("long.pdf", TestPdfs.Pages(Enumerable.Range(0, 6).Select(_ => (612, 792, 0, "0 0 1 rg 10 10 50 50 re f")).ToArray()));
+        using var encoder = Create(models.Options());
+        using var cancelled = new CancellationTokenSource();
+        cancelled.Cancel();
+
+        Assert.ThrowsAny<OperationCanceledException>(() => encoder.EncodePages(Enumerable.Range(1, 6).Select(n => Page(pdf, n, 612, 792, 0)).ToArray(), cancelled.Token));
+    }
+
+    [Fact]
+    public void A_file_gone_since_it_was_queued_fails_the_batch_not_the_pass()
+    {
+        using var encoder = Create(models.Options());
+        var gone = Path.Combine(models.Folder, "gone.pdf");
+
+        // InvalidOperationException leaves the batch queued; an IOException would stop the whole embed pass.
+        var error = Assert.Throws<InvalidOperationException>(() => encoder.EncodePages([Page(gone, 1, 612, 792, 0)], CancellationToken.None));
+        Assert.Contains(gone, error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Missing_pdftoppm_and_model_files_are_named_before_any_page()
     {
         var options = models.Options();
