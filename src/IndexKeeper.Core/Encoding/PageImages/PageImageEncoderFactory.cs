@@ -108,7 +108,14 @@ public static class PageImageEncoderFactory
     // Round-trip formatting: two different doubles never print alike.
     private static string Numbers(IReadOnlyList<double> values) => string.Join(",", values.Select(v => v.ToString("R", CultureInfo.InvariantCulture)));
 
-    private static string AssemblyVersion(Type type) => type.Assembly.GetName().Version?.ToString() ?? "unknown";
+    // The package version (informational version without build metadata): the assembly version of the
+    // image library stays 2.0.0.0 across its 2.x releases, which may decode differently.
+    private static string AssemblyVersion(Type type)
+    {
+        var informational = type.Assembly.GetCustomAttributes(typeof(System.Reflection.AssemblyInformationalVersionAttribute), inherit: false)
+            .OfType<System.Reflection.AssemblyInformationalVersionAttribute>().FirstOrDefault()?.InformationalVersion;
+        return informational?.Split('+')[0] ?? type.Assembly.GetName().Version?.ToString() ?? "unknown";
+    }
 
     private static InferenceSession OpenSession(string setting, byte[] model, SessionOptions options)
     {

@@ -67,6 +67,9 @@ public sealed class PageImageIdentityTests(PageImageModels models) : IClassFixtu
         Assert.Contains("onnxruntime=1.31.1;provider=CPU;", identity.Description, StringComparison.Ordinal);
         Assert.Contains("mean=0.48,0.46,0.41;std=0.27,0.26,0.28;", identity.Description, StringComparison.Ordinal);
 
+        // The package versions pinned in Directory.Packages.props, not the assembly versions (ImageSharp's stays 2.0.0.0).
+        Assert.Contains("images=skiasharp-3.119.0+imagesharp-2.1.13+over-white;", identity.Description, StringComparison.Ordinal);
+
         // FIPS 180-4 SHA-256 through the platform's implementation.
         Assert.Equal(Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(identity.Description))), identity.Id);
     }
