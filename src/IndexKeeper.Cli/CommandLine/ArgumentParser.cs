@@ -2,11 +2,14 @@ namespace IndexKeeper.Cli.CommandLine;
 
 /// <summary>
 /// Parses <c>indexkeeper COMMAND [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]</c>
-/// plus the named options each command declares. Unknown options are errors, never ignored.
+/// plus the named options (<c>--name VALUE</c>) and flags (<c>--name</c>) each command declares. Unknown options are errors, never ignored.
 /// </summary>
 internal static class ArgumentParser
 {
-    public static ParsedArguments Parse(IReadOnlyList<string> args, IReadOnlyDictionary<string, IReadOnlySet<string>> commandOptions)
+    public static ParsedArguments Parse(
+        IReadOnlyList<string> args,
+        IReadOnlyDictionary<string, IReadOnlySet<string>> commandOptions,
+        IReadOnlyDictionary<string, IReadOnlySet<string>>? commandFlags = null)
     {
         if (args.Count == 0)
         {
@@ -26,6 +29,8 @@ internal static class ArgumentParser
         var overrides = new List<string>();
         var positional = new List<string>();
         var named = new Dictionary<string, string>(StringComparer.Ordinal);
+        var flags = new HashSet<string>(StringComparer.Ordinal);
+        var allowedFlags = commandFlags?.GetValueOrDefault(command) ?? new HashSet<string>();
         for (var i = 1; i < args.Count; i++)
         {
             var arg = args[i];
@@ -68,6 +73,12 @@ internal static class ArgumentParser
                     else if (arg.StartsWith('-') && arg.Length > 1)
                     {
                         var name = arg.TrimStart('-');
+                        if (allowedFlags.Contains(name))
+                        {
+                            flags.Add(name);
+                            break;
+                        }
+
                         if (!allowed.Contains(name))
                         {
                             throw new UsageException($"'{command}' has no option '{arg}'.");
@@ -88,6 +99,7 @@ internal static class ArgumentParser
         parsed.Roots.AddRange(roots);
         parsed.Overrides.AddRange(overrides);
         parsed.Positional.AddRange(positional);
+        parsed.Flags.UnionWith(flags);
         foreach (var (key, value) in named)
         {
             parsed.Named[key] = value;

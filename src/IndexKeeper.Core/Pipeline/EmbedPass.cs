@@ -46,7 +46,7 @@ public sealed class EmbedPass(
                     continue;
                 }
 
-                batch.Add(ToEncode(page));
+                batch.Add(PageInput.From(page, rootPaths));
             }
 
             catalog.Dequeue(satisfied);
@@ -84,14 +84,5 @@ public sealed class EmbedPass(
         }
 
         cancellationToken.ThrowIfCancellationRequested();
-    }
-
-    private PageToEncode ToEncode(PageRecord page)
-    {
-        var source = rootPaths.TryGetValue(page.SourceRoot, out var rootPath)
-            ? Path.Combine(rootPath, page.SourcePath.Replace('/', Path.DirectorySeparatorChar))
-            : string.Empty;
-        var words = page.Words.Select(w => new PageWord(w.T, new PageBox(w.L, w.B, w.R, w.U))).ToList();
-        return new PageToEncode(PageKey.Parse(page.Id), source, page.SourcePage, page.Width, page.Height, words);
     }
 }

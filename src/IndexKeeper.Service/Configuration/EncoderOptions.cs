@@ -3,8 +3,8 @@ namespace IndexKeeper.Service.Configuration;
 /// <summary>Which encoder is active, and its settings. A change of any setting is a new encoder id.</summary>
 public sealed class EncoderOptions
 {
-    /// <summary>Built-in names: <c>hashed-terms</c>, <c>minilm</c>.</summary>
-    public string Name { get; set; } = "hashed-terms";
+    /// <summary>Built-in names: <c>minilm</c> (the default: a pretrained text encoder), <c>hashed-terms</c> (training-free, fast).</summary>
+    public string Name { get; set; } = "minilm";
 
     /// <summary>Output size d of every vector (a multiple of 64, for the sign codes).</summary>
     public int Dimensions { get; set; } = 128;

@@ -3,6 +3,7 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Isolation;
+using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
@@ -56,6 +57,18 @@ public sealed class IndexSession : IDisposable
         MinSmallSegmentsToMerge = Options.Storage.MinSmallSegmentsToMerge,
         TargetSegmentBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
     };
+
+    public CanarySettings CanarySettings() => new(
+        Options.Drift.CanaryPages,
+        Options.Drift.CanaryMinimumMeanCosine,
+        Options.Drift.CanaryMinimumCosine);
+
+    /// <summary>Records the active encoder and applies declared drift: queues drifted pages, switches over when complete.</summary>
+    public DriftDecision ReconcileDrift() =>
+        DriftReconciler.Reconcile(Catalog, Encoder.Identity, EncoderSettings.Record(Options.Encoder), DateTime.UtcNow);
+
+    /// <summary>The drift state as <see cref="ReconcileDrift"/> would see it, without writing.</summary>
+    public DriftDecision ReadDrift() => DriftReconciler.Read(Catalog, Encoder.Identity.Id);
 
     public static IndexSession Open(IndexKeeperOptions options, string purpose)
     {

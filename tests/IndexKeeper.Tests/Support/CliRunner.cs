@@ -17,6 +17,9 @@ internal static class CliRunner
             RedirectStandardError = true,
             UseShellExecute = false,
         };
+        // Tests drive the machinery with the fast training-free encoder; a test that wants the default
+        // (minilm) says --encoder minilm, which the command line lets win over the environment.
+        start.Environment["INDEXKEEPER_Encoder__Name"] = "hashed-terms";
         start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"));
         foreach (var arg in args)
         {
