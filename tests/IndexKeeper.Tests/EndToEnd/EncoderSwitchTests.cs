@@ -27,7 +27,9 @@ public sealed class EncoderSwitchTests : IDisposable
         Assert.True(oldEncoder.GetProperty("active").GetBoolean() && oldEncoder.GetProperty("serving").GetBoolean());
         var oldId = oldEncoder.GetProperty("id").GetString()!;
 
-        // The declared change: scan queues every page for migration, embeds nothing.
+        // The declared change: before any scan the old vectors still cover every page (verify is clean);
+        // scan queues every page for migration and embeds nothing.
+        index.Json("verify", NewEncoder);
         var scan = index.Json("scan", NewEncoder);
         ContractAssert.Counts(scan, "scan after the change", ("pagesDrifted", Pages), ("pagesQueuedForMigration", Pages), ("pagesEmbedded", 0));
         var drifted = index.Json("encoders", NewEncoder);
