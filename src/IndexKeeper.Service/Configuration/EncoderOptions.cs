@@ -15,6 +15,10 @@ public sealed class EncoderOptions
     /// <summary>Merge near-duplicate vectors of a page down to count/PoolFactor (1: no pooling).</summary>
     public int PoolFactor { get; set; } = 1;
 
-    /// <summary>Threads inside one model run of a model-based encoder (0: one per core). Does not change the vectors.</summary>
-    public int IntraOpThreads { get; set; } = 1;
+    /// <summary>
+    /// Threads inside one model run of a model-based encoder (0: one per core). Does not change the vectors.
+    /// One per core by default: a page costs the same CPU time on 1 or 2 threads (docs/benchmarks.md,
+    /// "minilm as the default"), so free cores only shorten the wall time; idle threads sleep, never spin.
+    /// </summary>
+    public int IntraOpThreads { get; set; }
 }
