@@ -31,7 +31,7 @@ internal sealed class EncodersCommand : ICommand
         if (check)
         {
             session.ReconcileDrift();
-            figures = CanaryCheck.Run(session.Catalog, session.Store, session.Encoder, session.RootPaths, session.CanarySettings(), DateTime.UtcNow, cancellationToken);
+            figures = session.CheckCanaries(cancellationToken);
         }
 
         var report = EncodersReport.Build(session, check);

@@ -67,6 +67,13 @@ public sealed class IndexSession : IDisposable
     public DriftDecision ReconcileDrift() =>
         DriftReconciler.Reconcile(Catalog, Encoder.Identity, EncoderSettings.Record(Options.Encoder), DateTime.UtcNow);
 
+    /// <summary>
+    /// Re-embeds the canary pages with the active encoder and records the figures (docs/encoders.md,
+    /// "Canaries"); the daemon calls this every <c>Drift:CanaryIntervalHours</c>.
+    /// </summary>
+    public CanaryFigures CheckCanaries(CancellationToken cancellationToken) =>
+        CanaryCheck.Run(Catalog, Store, Encoder, RootPaths, CanarySettings(), DateTime.UtcNow, cancellationToken);
+
     /// <summary>The drift state as <see cref="ReconcileDrift"/> would see it, without writing.</summary>
     public DriftDecision ReadDrift() => DriftReconciler.Read(Catalog, Encoder.Identity.Id);
 

@@ -32,16 +32,26 @@ internal sealed class RankingEncoder : IDisposable
     public static RankingEncoder Choose(IndexSession session)
     {
         var active = session.Encoder;
-        // A catalog that never recorded one is served by the active encoder, as before drift tracking.
-        var serving = session.Catalog.ServingEncoderId() ?? active.Identity.Id;
+        // A catalog that never recorded one (made before drift tracking) gets the policy's inference.
+        var serving = session.Catalog.ServingEncoderId() ?? session.ReadDrift().ServingEncoderId;
         if (serving == active.Identity.Id)
         {
             return new RankingEncoder(active, null, serving, null);
         }
 
         var record = session.Catalog.FindEncoder(serving);
-        var why = "the catalog holds no settings for it";
-        if (record is not null && EncoderSettings.Rebuild(record.Settings, session.Options.Encoder) is { } options)
+        var why = "the catalog does not know it";
+        // A record made before settings were recorded: its name and d with no pooling are the likely
+        // settings, and the id check below makes a wrong guess harmless.
+        var recorded = record is { Settings.Count: 0 }
+            ? new Dictionary<string, string>
+            {
+                [nameof(EncoderOptions.Name)] = record.Name,
+                [nameof(EncoderOptions.Dimensions)] = record.Dimensions.ToString(System.Globalization.CultureInfo.InvariantCulture),
+                [nameof(EncoderOptions.PoolFactor)] = "1",
+            }
+            : record?.Settings;
+        if (recorded is not null && EncoderSettings.Rebuild(recorded, session.Options.Encoder) is { } options)
         {
             IPageEncoder? rebuilt = null;
             try

@@ -196,6 +196,31 @@ public sealed class DeclaredDriftTests : IDisposable
         Assert.Empty(second.Catalog.LiveVectorSets(oldId));
     }
 
+    [Fact]
+    public void An_index_made_before_drift_tracking_keeps_serving_its_encoder_and_migrates()
+    {
+        string oldId;
+        using (var first = index.Open(128))
+        {
+            // As an older build left it: vectors and an encoder record, no serving encoder, no settings.
+            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+            DriftIndex.Embed(first);
+            oldId = first.Encoder.Identity.Id;
+            Assert.Null(first.Catalog.ServingEncoderId());
+            Assert.Empty(first.Catalog.FindEncoder(oldId)!.Settings);
+        }
+
+        using var second = index.Open(64);
+        var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
+        Assert.Equal(oldId, report.ServingEncoderId);
+        Assert.Null(report.Notice);
+        Assert.Equal(3, report.PagesScanned);
+
+        var decision = second.ReconcileDrift();
+        Assert.Equal(oldId, second.Catalog.ServingEncoderId());
+        Assert.Equal(3, decision.QueueForMigration.Count);
+    }
+
     public void Dispose() => index.Dispose();
 
     private static Core.Encoding.PageToEncode ToEncode(PageRecord page) => new(
