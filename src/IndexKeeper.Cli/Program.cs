@@ -13,7 +13,7 @@ internal static class Program
     private static readonly ICommand[] Commands =
     [
         new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(),
-        new PlanCommand(),
+        new PlanCommand(), new EncodersCommand(),
     ];
 
     private static int Main(string[] args)

@@ -2,7 +2,7 @@ namespace IndexKeeper.Cli.CommandLine;
 
 /// <summary>
 /// Parses <c>indexkeeper COMMAND [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]</c>
-/// plus the named options each command declares (flags take no value and read as "true"). Unknown options are errors, never ignored.
+/// plus the named options (<c>--name VALUE</c>) and flags (<c>--name</c>) each command declares. Unknown options are errors, never ignored.
 /// </summary>
 internal static class ArgumentParser
 {
@@ -29,7 +29,8 @@ internal static class ArgumentParser
         var overrides = new List<string>();
         var positional = new List<string>();
         var named = new Dictionary<string, string>(StringComparer.Ordinal);
-        var flags = commandFlags?.GetValueOrDefault(command) ?? new HashSet<string>();
+        var flags = new HashSet<string>(StringComparer.Ordinal);
+        var allowedFlags = commandFlags?.GetValueOrDefault(command) ?? new HashSet<string>();
         for (var i = 1; i < args.Count; i++)
         {
             var arg = args[i];
@@ -72,11 +73,13 @@ internal static class ArgumentParser
                     else if (arg.StartsWith('-') && arg.Length > 1)
                     {
                         var name = arg.TrimStart('-');
-                        if (flags.Contains(name))
+                        if (allowedFlags.Contains(name))
                         {
-                            named[name] = "true";
+                            flags.Add(name);
+                            break;
                         }
-                        else if (!allowed.Contains(name))
+
+                        if (!allowed.Contains(name))
                         {
                             throw new UsageException($"'{command}' has no option '{arg}'.");
                         }
@@ -98,6 +101,7 @@ internal static class ArgumentParser
         parsed.Roots.AddRange(roots);
         parsed.Overrides.AddRange(overrides);
         parsed.Positional.AddRange(positional);
+        parsed.Flags.UnionWith(flags);
         foreach (var (key, value) in named)
         {
             parsed.Named[key] = value;

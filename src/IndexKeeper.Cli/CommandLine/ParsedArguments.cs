@@ -19,4 +19,7 @@ internal sealed class ParsedArguments
 
     /// <summary>Command-specific options by name (without dashes), e.g. <c>output</c> for <c>--output DIR</c>.</summary>
     public Dictionary<string, string> Named { get; } = new(StringComparer.Ordinal);
+
+    /// <summary>Command-specific flags given (without dashes), e.g. <c>check-canaries</c>.</summary>
+    public HashSet<string> Flags { get; } = new(StringComparer.Ordinal);
 }

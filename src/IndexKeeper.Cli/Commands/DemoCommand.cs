@@ -77,7 +77,7 @@ internal sealed class DemoCommand : ICommand
         log.WriteLine();
         log.WriteLine(string.Create(
             CultureInfo.InvariantCulture,
-            $"Index {status.IndexDirectory}: {status.Documents} documents, {status.Pages} pages, {status.LiveVectorSets} live vector sets in {status.Segments} segment(s), dead share {status.DeadRatio:P1}, {status.Quarantined} quarantined."));
+            $"Index {status.IndexDirectory}: {status.Documents} documents, {status.Pages} pages, {status.LiveVectorSets} live vector sets of encoder {status.ActiveEncoder} in {status.Segments} segment(s), dead share {status.DeadRatio:P1}, {status.Quarantined} quarantined."));
         log.WriteLine($"Try: indexkeeper search --index {status.IndexDirectory} {string.Join(' ', info.Roots.Select(r => "--root " + r.Path))} \"pump station maintenance\"");
         if (context.Json)
         {

@@ -25,7 +25,7 @@ internal sealed class PlanCommand : ICommand
         PlanReport report;
         using (var progress = new TerminalProgress())
         {
-            report = PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], context.Arguments.Named.ContainsKey("calibrate"), progress), cancellationToken);
+            report = PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], context.Arguments.Flags.Contains("calibrate"), progress), cancellationToken);
         }
 
         if (context.Json)

@@ -4,7 +4,7 @@ using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
 
-/// <summary><c>scan</c>: detect, read and diff every root; queues new page keys, embeds nothing.</summary>
+/// <summary><c>scan</c>: detect, read and diff every root; queues new page keys and drifted pages, embeds nothing.</summary>
 internal sealed class ScanCommand : ICommand
 {
     public string Name => "scan";
@@ -22,6 +22,8 @@ internal sealed class ScanCommand : ICommand
         {
             summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings(), progress).Run(Name, cancellationToken);
         }
+
+        summary.RecordDrift(session.ReconcileDrift());
 
         if (context.Json)
         {

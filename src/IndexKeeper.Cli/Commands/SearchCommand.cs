@@ -46,6 +46,11 @@ internal sealed class SearchCommand : ICommand
 
         var c = CultureInfo.InvariantCulture;
         Console.Out.WriteLine(string.Create(c, $"{report.Hits.Count} hit(s) for \"{report.Query}\" ({report.QueryVectors} query vectors, {report.PagesScanned} pages, {report.ElapsedMilliseconds:0.0} ms)"));
+        if (report.Notice is { } notice)
+        {
+            Console.Out.WriteLine("note: " + notice);
+        }
+
         var rank = 0;
         foreach (var hit in report.Hits)
         {

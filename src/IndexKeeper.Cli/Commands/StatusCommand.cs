@@ -31,6 +31,16 @@ internal sealed class StatusCommand : ICommand
         o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
         o.WriteLine(string.Create(c, $"  vector sets  {report.LiveVectorSets} live of {report.VectorSets}, in {report.Segments} segment(s), dead share {report.DeadRatio:P1}"));
         o.WriteLine($"  encoder      {report.ActiveEncoder} ({report.ActiveEncoderId[..16]}…)");
+        if (report.ServingEncoderId != report.ActiveEncoderId)
+        {
+            o.WriteLine(string.Create(c, $"  migration    serving {report.ServingEncoderId[..16]}…: {report.PagesMigrated} page(s) migrated, {report.PagesDrifted} drifted and queued"));
+        }
+
+        if (report.Canary is { } canary)
+        {
+            o.WriteLine(string.Create(c, $"  canaries     {(canary.Drifted ? "DRIFTED" : "ok")}: {canary.Pages} page(s), mean cosine {canary.MeanCosine:0.000000}, minimum {canary.MinimumCosine:0.000000}, {canary.CheckedUtc:yyyy-MM-dd HH:mm:ss'Z'}"));
+        }
+
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
         o.WriteLine(string.Create(c, $"  on disk      {report.BytesOnDisk / 1024.0 / 1024.0:0.0} MiB"));
         o.WriteLine(string.Create(c, $"  last scan    {(report.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", c) : "never")}"));

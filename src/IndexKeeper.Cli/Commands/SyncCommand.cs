@@ -37,7 +37,9 @@ internal sealed class SyncCommand : ICommand
         var started = DateTime.UtcNow;
         var store = session.Store;
         var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings(), progress).Run(command, cancellationToken);
+        summary.RecordDrift(session.ReconcileDrift());
         new EmbedPass(session.Catalog, store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize, progress).Run(summary, cancellationToken);
+        summary.RecordDrift(session.ReconcileDrift());
         summary.ElapsedSeconds = (DateTime.UtcNow - started).TotalSeconds;
         return summary;
     }

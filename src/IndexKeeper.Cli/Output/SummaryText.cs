@@ -17,6 +17,16 @@ internal static class SummaryText
         }
 
         output.WriteLine(string.Create(c, $"  pages      seen {s.PagesSeen}: new {s.PagesNew} (need vectors), reused {s.PagesReused} (free), removed {s.PagesRemoved}, embedded {s.PagesEmbedded}"));
+        if (s.PagesDrifted > 0 || s.PagesQueuedForMigration > 0)
+        {
+            output.WriteLine(string.Create(c, $"  drift      {s.PagesDrifted} page(s) still served by the old encoder, {s.PagesMigrated} migrated; {s.PagesQueuedForMigration} queued for migration in this pass"));
+        }
+
+        if (s.EncoderSwitchedOver)
+        {
+            output.WriteLine($"  drift      migration complete: encoder {s.ServingEncoderId[..12]} now serves; the old vectors are dead and compaction reclaims them");
+        }
+
         foreach (var root in s.RootsMissing)
         {
             output.WriteLine($"  root '{root}' was not found: its documents were kept, not deleted.");

@@ -17,4 +17,5 @@ public static class CatalogSchema
     public const string VectorSets = "vectorSets";
     internal const string SegmentCounterMetaId = "segmentCounter";
     internal const string SchemaMetaId = "schema";
+    internal const string ServingEncoderMetaId = "servingEncoder";
 }

@@ -222,9 +222,17 @@ public sealed partial class IndexCatalog
     /// <summary>REQUIRES: inside a transaction of the caller.</summary>
     private void SetVectorSetsLive(string pageKey, bool live)
     {
+        HashSet<string>? retired = null;
         foreach (var set in vectorSets.Find(v => v.PageKey == pageKey && v.Live != live).ToList())
         {
             if (segments.FindById(set.SegmentId) is not { } segment)
+            {
+                continue;
+            }
+
+            // A restored page brings back only vectors of encoders still in use; a retired encoder's stay dead.
+            retired ??= live ? RetiredEncoderIds() : [];
+            if (live && retired.Contains(set.EncoderId))
             {
                 continue;
             }

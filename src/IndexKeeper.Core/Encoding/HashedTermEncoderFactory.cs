@@ -30,7 +30,8 @@ public static class HashedTermEncoderFactory
         var description = string.Create(
             CultureInfo.InvariantCulture,
             $"{Name};scheme={SchemeVersion};hash=fnv1a64;unicode={UnicodeTables.Version};normalise=nfkc+casefold+letters-marks-digits;" +
-            $"dimensions={options.Dimensions};probes={options.Probes};ngram={options.CharacterNGramLength};seed={options.Seed};pool={options.PoolFactor}");
+            $"dimensions={options.Dimensions};probes={options.Probes};ngram={options.CharacterNGramLength};seed={options.Seed};pool={options.PoolFactor};" +
+            $"pooling={VectorPooling.Scheme};stored={Storage.VectorQuantization.StoredForm}");
         var id = Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(description)));
         return new EncoderIdentity(id, Name, description, options.Dimensions);
     }

@@ -12,6 +12,9 @@ namespace IndexKeeper.Core.Encoding;
 /// </summary>
 internal static class VectorPooling
 {
+    /// <summary>The pooling algorithm in words, part of the encoder id; raise the version on any change that alters pooled vectors.</summary>
+    public const string Scheme = "ward-lance-williams-renormalised-mean-v1";
+
     public static VectorSet Pool(VectorSet set, int factor)
     {
         ArgumentNullException.ThrowIfNull(set);

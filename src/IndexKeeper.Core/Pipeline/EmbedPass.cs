@@ -60,7 +60,7 @@ public sealed class EmbedPass(
                     continue;
                 }
 
-                batch.Add(ToEncode(page));
+                batch.Add(PageInput.From(page, rootPaths));
             }
 
             catalog.Dequeue(satisfied);
@@ -96,17 +96,5 @@ public sealed class EmbedPass(
 
             progress?.Report(new ScanProgress("embedding", summary.PagesEmbedded, total, null));
         }
-    }
-
-    private PageToEncode ToEncode(PageRecord page) => ToEncode(page, rootPaths);
-
-    /// <summary>The encoder's view of a catalog page; the source path lets image encoders open the file.</summary>
-    internal static PageToEncode ToEncode(PageRecord page, IReadOnlyDictionary<string, string> rootPaths)
-    {
-        var source = rootPaths.TryGetValue(page.SourceRoot, out var rootPath)
-            ? Path.Combine(rootPath, page.SourcePath.Replace('/', Path.DirectorySeparatorChar))
-            : string.Empty;
-        var words = page.Words.Select(w => new PageWord(w.T, new PageBox(w.L, w.B, w.R, w.U))).ToList();
-        return new PageToEncode(PageKey.Parse(page.Id), source, page.SourcePage, page.Width, page.Height, words);
     }
 }

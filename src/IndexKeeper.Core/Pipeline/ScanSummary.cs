@@ -1,3 +1,5 @@
+using IndexKeeper.Core.Drift;
+
 namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
@@ -57,9 +59,35 @@ public sealed class ScanSummary
 
     public double ElapsedSeconds { get; set; }
 
+    /// <summary>The encoder searches rank with after the pass (differs from the active one while migrating).</summary>
+    public string ServingEncoderId { get; set; } = string.Empty;
+
+    /// <summary>Declared drift: pages whose live vectors are only under the serving encoder, still to be migrated to the active one.</summary>
+    public long PagesDrifted { get; set; }
+
+    /// <summary>Pages of the serving encoder that already have vectors of the active encoder.</summary>
+    public long PagesMigrated { get; set; }
+
+    /// <summary>Drifted pages this pass put in the queue at migration priority.</summary>
+    public long PagesQueuedForMigration { get; set; }
+
+    /// <summary>The migration completed in this pass and the active encoder now serves.</summary>
+    public bool EncoderSwitchedOver { get; set; }
+
     /// <summary>Configured roots that were not found: their documents were kept, not deleted.</summary>
     public List<string> RootsMissing { get; } = [];
 
     /// <summary>Entries that could not be looked at (permissions, vanished files, links out of a root).</summary>
     public List<string> Problems { get; } = [];
+
+    /// <summary>Adds what a drift reconciliation did; the last one called gives the figures after the pass.</summary>
+    public void RecordDrift(DriftDecision decision)
+    {
+        ArgumentNullException.ThrowIfNull(decision);
+        ServingEncoderId = decision.ServingEncoderId;
+        PagesDrifted = decision.DriftedPages.Count;
+        PagesMigrated = decision.MigratedPages;
+        PagesQueuedForMigration += decision.QueueForMigration.Count;
+        EncoderSwitchedOver |= decision.SwitchOver;
+    }
 }

@@ -11,6 +11,12 @@ namespace IndexKeeper.Core.Storage;
 /// </summary>
 public static class VectorQuantization
 {
+    /// <summary>
+    /// The stored element types in words, part of every encoder id (docs/encoders.md, "Encoder identity"):
+    /// a change of how vectors are stored changes what search reads. Change it with the segment format.
+    /// </summary>
+    public const string StoredForm = "float16-binary16-nearest-even+sign-bits-64-per-word-lsb-first";
+
     public static int WordsPerCode(int dimensions)
     {
         if (dimensions <= 0 || dimensions % 64 != 0)

@@ -144,6 +144,21 @@ public sealed class VectorStore : IDisposable
         }
     }
 
+    /// <summary>Some vector sets of an encoder (canaries), opened as <see cref="OpenLive"/> opens them all.</summary>
+    public LiveVectors OpenSelected(string encoderId, IReadOnlyList<VectorSetRecord> records)
+    {
+        ArgumentNullException.ThrowIfNull(records);
+        foreach (var writer in writers.Values)
+        {
+            writer.Flush(durable: false);
+        }
+
+        lock (swapGate)
+        {
+            return new LiveVectors(files.OpenSource(encoderId, records.Select(ToLocation).ToList()), records);
+        }
+    }
+
     /// <summary>Runs the compaction policy and every job it asks for; returns what was done.</summary>
     public CompactionReport Compact(CompactionOptions options, CancellationToken cancellationToken)
     {

@@ -91,6 +91,16 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Storage:SmallSegmentMegabytes", storage.SmallSegmentMegabytes, 1, 64 * 1024);
         Range(errors, "Storage:MinSmallSegmentsToMerge", storage.MinSmallSegmentsToMerge, 2, 1000);
         CheckSchedule(errors, options.Schedule);
+        var drift = options.Drift;
+        Range(errors, "Drift:CanaryPages", drift.CanaryPages, 0, 10_000);
+        Range(errors, "Drift:CanaryMinimumMeanCosine", drift.CanaryMinimumMeanCosine, 0, 1);
+        Range(errors, "Drift:CanaryMinimumCosine", drift.CanaryMinimumCosine, -1, 1);
+        if (drift.CanaryMinimumCosine > drift.CanaryMinimumMeanCosine)
+        {
+            errors.Add($"Drift:CanaryMinimumCosine: {drift.CanaryMinimumCosine} is above Drift:CanaryMinimumMeanCosine ({drift.CanaryMinimumMeanCosine}); the bound on one vector must not be stricter than the bound on the mean.");
+        }
+
+        Range(errors, "Drift:CanaryIntervalHours", drift.CanaryIntervalHours, 0.01, 24 * 365);
         return errors;
     }
 

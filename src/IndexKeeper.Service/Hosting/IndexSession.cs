@@ -3,6 +3,7 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Isolation;
+using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
@@ -62,6 +63,30 @@ public sealed class IndexSession : IDisposable
         MinSmallSegmentsToMerge = Options.Storage.MinSmallSegmentsToMerge,
         TargetSegmentBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
     };
+
+    public CanarySettings CanarySettings() => new(
+        Options.Drift.CanaryPages,
+        Options.Drift.CanaryMinimumMeanCosine,
+        Options.Drift.CanaryMinimumCosine);
+
+    /// <summary>Records the active encoder and applies declared drift: queues drifted pages, switches over when complete.</summary>
+    public DriftDecision ReconcileDrift() =>
+        DriftReconciler.Reconcile(Catalog, Encoder.Identity, EncoderSettings.Record(Options.Encoder), DateTime.UtcNow);
+
+    /// <summary>
+    /// Re-embeds the canary pages with the active encoder and records the figures (docs/encoders.md,
+    /// "Canaries"); the daemon calls this every <c>Drift:CanaryIntervalHours</c>.
+    /// </summary>
+    public CanaryFigures CheckCanaries(CancellationToken cancellationToken) =>
+        CanaryCheck.Run(Catalog, Store, Encoder, RootPaths, CanarySettings(), DateTime.UtcNow, cancellationToken);
+
+    /// <summary>Whether the active encoder's canaries are due for a check (<c>Drift:CanaryIntervalHours</c>); off when <c>Drift:CanaryPages</c> is 0.</summary>
+    public bool CanariesDue(DateTime nowUtc) =>
+        Options.Drift.CanaryPages > 0 &&
+        CanarySchedule.IsDue(Catalog.FindEncoder(Encoder.Identity.Id)?.CanaryCheckedUtc?.ToUniversalTime(), TimeSpan.FromHours(Options.Drift.CanaryIntervalHours), nowUtc);
+
+    /// <summary>The drift state as <see cref="ReconcileDrift"/> would see it, without writing.</summary>
+    public DriftDecision ReadDrift() => DriftReconciler.Read(Catalog, Encoder.Identity.Id);
 
     public static IndexSession Open(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: false);
 

@@ -30,6 +30,21 @@ public sealed class StatusReport
 
     public string ActiveEncoderId { get; init; } = string.Empty;
 
+    /// <summary>The encoder searches rank with; differs from the active one while a migration runs.</summary>
+    public string ServingEncoderId { get; init; } = string.Empty;
+
+    /// <summary>Declared drift: pages whose live vectors are only under the serving encoder, waiting for migration.</summary>
+    public long PagesDrifted { get; init; }
+
+    /// <summary>Pages of the serving encoder that already have vectors of the active one.</summary>
+    public long PagesMigrated { get; init; }
+
+    /// <summary>Silent drift: the last canary check of the active encoder found its vectors changed (see <see cref="Canary"/>).</summary>
+    public bool CanaryDrifted { get; init; }
+
+    /// <summary>The last canary check of the active encoder; null when never checked.</summary>
+    public CanaryReport? Canary { get; init; }
+
     public long Queued { get; init; }
 
     public long Quarantined { get; init; }
@@ -48,6 +63,8 @@ public sealed class StatusReport
         var figures = session.Catalog.Figures();
         var segments = session.Catalog.Segments();
         var segmentBytes = segments.Sum(s => s.Length);
+        var drift = session.ReadDrift();
+        var canary = CanaryReport.Of(session.Catalog.FindEncoder(session.Encoder.Identity.Id));
         return new StatusReport
         {
             IndexDirectory = session.IndexDirectory,
@@ -60,6 +77,11 @@ public sealed class StatusReport
             DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             ActiveEncoder = session.Options.Encoder.Name,
             ActiveEncoderId = session.Encoder.Identity.Id,
+            ServingEncoderId = drift.ServingEncoderId,
+            PagesDrifted = drift.DriftedPages.Count,
+            PagesMigrated = drift.MigratedPages,
+            CanaryDrifted = canary?.Drifted ?? false,
+            Canary = canary,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = new DirectoryInfo(session.IndexDirectory).EnumerateFiles("*", SearchOption.AllDirectories).Sum(f => f.Length),

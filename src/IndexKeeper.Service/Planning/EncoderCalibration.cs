@@ -18,7 +18,7 @@ internal static class EncoderCalibration
         var catalog = session.Catalog;
         var sample = catalog.ReferencedPageKeys().Take(SampleSize).Select(catalog.FindPage).OfType<PageRecord>()
             .Concat(pendingPages).Take(SampleSize)
-            .Select(p => EmbedPass.ToEncode(p, session.RootPaths)).ToList();
+            .Select(p => PageInput.From(p, session.RootPaths)).ToList();
         if (sample.Count == 0)
         {
             return null;

@@ -5,14 +5,15 @@ using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Querying;
 
-/// <summary>Runs a query against the live vector sets of the active encoder and resolves hits to page locations.</summary>
+/// <summary>Runs a query against the live vector sets of one encoder (see <see cref="RankingEncoder"/>) and resolves hits to page locations.</summary>
 public static class PageSearcher
 {
     public static SearchReport Search(IndexSession session, string text, int k, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(session);
         var stopwatch = Stopwatch.StartNew();
-        var encoder = session.Encoder;
+        using var ranking = RankingEncoder.Choose(session);
+        var encoder = ranking.Encoder;
         var query = encoder.EncodeQuery(text, cancellationToken);
         using var live = session.Store.OpenLive(encoder.Identity.Id);
         var result = query.Count == 0 || live.Records.Count == 0
@@ -45,6 +46,8 @@ public static class PageSearcher
         {
             Query = text,
             Encoder = encoder.Identity.Name + " " + encoder.Identity.Id[..12],
+            ServingEncoderId = ranking.ServingEncoderId,
+            Notice = ranking.Notice,
             QueryVectors = query.Count,
             PagesScanned = result.PagesScanned,
             CandidatesReranked = result.CandidatesReranked,

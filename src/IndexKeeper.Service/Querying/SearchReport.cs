@@ -5,7 +5,14 @@ public sealed class SearchReport
 {
     public string Query { get; init; } = string.Empty;
 
+    /// <summary>The encoder that ranked this query: name and the first 12 digits of its id.</summary>
     public string Encoder { get; init; } = string.Empty;
+
+    /// <summary>The index's serving encoder id; while a migration runs it differs from the active one.</summary>
+    public string ServingEncoderId { get; init; } = string.Empty;
+
+    /// <summary>Set when the ranking covers less than the serving encoder's pages (docs/encoders.md, "Search during a migration").</summary>
+    public string? Notice { get; init; }
 
     public int QueryVectors { get; init; }
 

@@ -23,6 +23,9 @@ internal sealed class CliIndex : IDisposable
         }
     }
 
+    /// <summary>Commands run with the shipped default encoder rather than the fast one tests name (see <see cref="CliRunner"/>).</summary>
+    public bool ShippedEncoder { get; init; }
+
     /// <summary>Folder for files that are not in any root (sources, qpdf input and output).</summary>
     public string Scratch => Directory.CreateDirectory(temp.Combine("scratch")).FullName;
 
@@ -65,7 +68,7 @@ internal sealed class CliIndex : IDisposable
         }
 
         args.AddRange(extra);
-        return CliRunner.Run(temp.Path, [.. args]);
+        return CliRunner.Run(temp.Path, ShippedEncoder, [.. args]);
     }
 
     /// <summary>Runs a command with <c>--json</c>, asserts its exit code, and returns its one JSON object.</summary>

@@ -8,7 +8,8 @@ internal static class CliRunner
     public sealed record Result(int ExitCode, string Stdout, string Stderr);
 
     /// <summary>How to start <c>dotnet indexkeeper.dll ARGS</c> with both output streams redirected.</summary>
-    public static ProcessStartInfo StartInfo(string workingDirectory, IEnumerable<string> args)
+    /// <param name="shippedEncoder">Leave the encoder to the shipped default instead of naming the fast one.</param>
+    public static ProcessStartInfo StartInfo(string workingDirectory, IEnumerable<string> args, bool shippedEncoder = false)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -17,6 +18,13 @@ internal static class CliRunner
             RedirectStandardError = true,
             UseShellExecute = false,
         };
+        // Tests drive the machinery with the fast training-free encoder unless they test the default one;
+        // a command-line --encoder still wins over this environment setting.
+        if (!shippedEncoder)
+        {
+            start.Environment["INDEXKEEPER_Encoder__Name"] = "hashed-terms";
+        }
+
         start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"));
         foreach (var arg in args)
         {
@@ -26,9 +34,11 @@ internal static class CliRunner
         return start;
     }
 
-    public static Result Run(string workingDirectory, params string[] args)
+    public static Result Run(string workingDirectory, params string[] args) => Run(workingDirectory, shippedEncoder: false, args);
+
+    public static Result Run(string workingDirectory, bool shippedEncoder, params string[] args)
     {
-        var start = StartInfo(workingDirectory, args);
+        var start = StartInfo(workingDirectory, args, shippedEncoder);
         using var process = Process.Start(start)!;
         var stdout = process.StandardOutput.ReadToEndAsync();
         var stderr = process.StandardError.ReadToEndAsync();

@@ -41,24 +41,35 @@ public static class TextTokenEncoderFactory
 
         var tokenizer = CreateTokenizer(vocabulary);
         var projection = SeededProjection.Create(options.Dimensions, TextTokenEncoderOptions.HiddenSize, options.ProjectionSeed);
-        var identity = Identify(options, SHA256.HashData(model), SHA256.HashData(vocabulary), RuntimeVersion());
+        var identity = Identify(options, SHA256.HashData(model), SHA256.HashData(vocabulary), RuntimeVersion(), TokenizerVersion());
         using var sessionOptions = CreateSessionOptions(options.IntraOpThreads);
         var session = new InferenceSession(model, sessionOptions);
         return new TextTokenEncoder(identity, session, tokenizer, projection, options);
     }
 
     /// <summary>The canonical description names every input of the vectors; the id is its SHA-256.</summary>
-    internal static EncoderIdentity Identify(TextTokenEncoderOptions options, byte[] modelHash, byte[] vocabularyHash, string runtimeVersion)
+    internal static EncoderIdentity Identify(TextTokenEncoderOptions options, byte[] modelHash, byte[] vocabularyHash, string runtimeVersion, string tokenizerVersion)
     {
         var description = string.Create(
             CultureInfo.InvariantCulture,
             $"{Name};scheme={SchemeVersion};model-sha256={Convert.ToHexStringLower(modelHash)};vocab-sha256={Convert.ToHexStringLower(vocabularyHash)};" +
-            $"tokenizer={TokenizerDescription};max-sequence={options.MaxSequenceLength};window={options.MaxSequenceLength - 2};overlap={options.WindowOverlap};" +
+            $"tokenizer={TokenizerDescription};tokenizer-library={tokenizerVersion};max-sequence={options.MaxSequenceLength};window={options.MaxSequenceLength - 2};overlap={options.WindowOverlap};" +
             $"states={StatesDescription};projection=splitmix64-signs+gram-schmidt;seed={options.ProjectionSeed};dimensions={options.Dimensions};" +
-            $"pool={options.PoolFactor};onnxruntime={runtimeVersion};provider={ExecutionProvider};graph-optimisation=all");
+            $"pool={options.PoolFactor};pooling={VectorPooling.Scheme};onnxruntime={runtimeVersion};provider={ExecutionProvider};graph-optimisation=all;" +
+            $"stored={Storage.VectorQuantization.StoredForm}");
         var id = Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(description)));
         return new EncoderIdentity(id, Name, description, options.Dimensions);
     }
+
+    /// <summary>
+    /// The tokenizer library's version: its word-piece and normalisation code make the token ids, so an
+    /// upgrade that changed them would change the vectors.
+    /// </summary>
+    internal static string TokenizerVersion() =>
+        typeof(BertTokenizer).Assembly.GetCustomAttributes(typeof(System.Reflection.AssemblyInformationalVersionAttribute), false)
+            .OfType<System.Reflection.AssemblyInformationalVersionAttribute>().FirstOrDefault()?.InformationalVersion
+        ?? typeof(BertTokenizer).Assembly.GetName().Version?.ToString()
+        ?? "unknown";
 
     /// <summary>The version of the native ONNX Runtime actually loaded.</summary>
     internal static string RuntimeVersion() => OrtEnv.Instance().GetVersionString();

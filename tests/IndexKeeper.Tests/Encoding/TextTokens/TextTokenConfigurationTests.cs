@@ -5,10 +5,11 @@ namespace IndexKeeper.Tests.Encoding.TextTokens;
 public sealed class TextTokenConfigurationTests
 {
     [Fact]
-    public void The_service_knows_minilm_and_keeps_hashed_terms_the_default()
+    public void The_service_knows_minilm_and_makes_it_the_default()
     {
         Assert.Contains("minilm", IndexKeeperOptionsValidator.EncoderNames);
-        Assert.Equal("hashed-terms", new EncoderOptions().Name);
+        Assert.Equal("minilm", new EncoderOptions().Name);
+        Assert.Contains("hashed-terms", IndexKeeperOptionsValidator.EncoderNames);
         Assert.Empty(IndexKeeperOptionsValidator.Validate(Options("minilm", 128, 2)));
     }
 
