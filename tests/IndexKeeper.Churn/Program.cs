@@ -4,8 +4,9 @@ using System.Text.Json.Serialization;
 using IndexKeeper.Churn;
 using IndexKeeper.Churn.Report;
 
-// dotnet run -c Release --project tests/IndexKeeper.Churn -- [--quick] [--seed N] [--out DIR] [--work DIR]
+// dotnet run -c Release --project tests/IndexKeeper.Churn -- [--quick | --scale [--pages N]] [--seed N] [--out DIR] [--work DIR]
 var quick = args.Contains("--quick");
+var scale = args.Contains("--scale");
 var seed = Option("--seed") is { } s ? int.Parse(s, CultureInfo.InvariantCulture) : 2026;
 var output = Path.GetFullPath(Option("--out") ?? Path.Combine("artifacts", "churn"));
 var ownWork = Option("--work") is null;
@@ -16,6 +17,34 @@ if (Directory.Exists(work) && Directory.EnumerateFileSystemEntries(work).Any())
     return 2;
 }
 
+var json = new JsonSerializerOptions
+{
+    WriteIndented = true,
+    PropertyNamingPolicy = JsonNamingPolicy.CamelCase,
+    NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
+};
+if (scale)
+{
+    var pages = Option("--pages") is { } p ? int.Parse(p, CultureInfo.InvariantCulture) : 100_000;
+    Console.WriteLine($"churn scale run, {pages} pages, work directory {work}");
+    try
+    {
+        var figures = new ScaleRun(pages, seed, work, Console.WriteLine).Run();
+        Directory.CreateDirectory(output);
+        var text = JsonSerializer.Serialize(figures, json);
+        File.WriteAllText(Path.Combine(output, "churn-scale.json"), text);
+        Console.WriteLine(text);
+        return 0;
+    }
+    finally
+    {
+        if (ownWork && Directory.Exists(work))
+        {
+            Directory.Delete(work, recursive: true);
+        }
+    }
+}
+
 var profile = quick ? ChurnProfile.Quick : ChurnProfile.Month;
 Console.WriteLine($"churn simulation, profile {profile.Name}, seed {seed}, work directory {work}");
 try
@@ -23,12 +52,7 @@ try
     var report = new ChurnSimulation(profile, seed, work, Console.WriteLine).Run();
     Directory.CreateDirectory(output);
     var name = "churn-" + profile.Name;
-    File.WriteAllText(Path.Combine(output, name + ".json"), JsonSerializer.Serialize(report, new JsonSerializerOptions
-    {
-        WriteIndented = true,
-        PropertyNamingPolicy = JsonNamingPolicy.CamelCase,
-        NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
-    }));
+    File.WriteAllText(Path.Combine(output, name + ".json"), JsonSerializer.Serialize(report, json));
     File.WriteAllText(Path.Combine(output, name + ".md"), MarkdownTables.Write(report));
     CallsChart.Write(Path.Combine(output, name + "-calls.png"), $"Encoder page calls per day, {report.Days[^1].Pages:N0}-page drive, {profile.Days} days (seed {seed})", report.Days);
     Console.WriteLine(MarkdownTables.Write(report));

@@ -4,8 +4,8 @@ using SkiaSharp;
 namespace IndexKeeper.Churn.Report;
 
 /// <summary>
-/// Encoder page calls per day of the three strategies as a PNG line chart, on a logarithmic scale so the
-/// smallest series stays readable beside the largest. Text uses DejaVu Sans where Debian installs it.
+/// Encoder page calls per day of the three strategies as a PNG line chart, on a logarithmic scale of
+/// (1 + calls) so the smallest series stays readable beside the largest and a day of no calls sits on 0. Text uses DejaVu Sans where Debian installs it.
 /// </summary>
 internal static class CallsChart
 {
@@ -20,10 +20,10 @@ internal static class CallsChart
             ("(a) nightly full re-embed", new SKColor(200, 70, 50), d => d.FullReembed.EncoderCalls),
             ("(b) re-embed files whose bytes changed", new SKColor(220, 160, 30), d => d.FileHashing.EncoderCalls),
             ("(c) IndexKeeper", new SKColor(30, 110, 170), d => d.IndexKeeper.EncoderCalls),
-            ("truth: page contents new that day", new SKColor(120, 120, 120), d => d.NewContents),
+            ("truth: page contents new that day", new SKColor(30, 30, 30), d => d.NewContents),
         ];
         var top = Math.Max(10, days.Max(d => series.Max(s => s.Calls(d))));
-        var decades = (int)Math.Ceiling(Math.Log10(top));
+        var decades = (int)Math.Ceiling(Math.Log10(top + 1));
         using var surface = SKSurface.Create(new SKImageInfo(Width, Height));
         var canvas = surface.Canvas;
         canvas.Clear(SKColors.White);
@@ -34,13 +34,12 @@ internal static class CallsChart
         using var grid = new SKPaint { Color = new SKColor(220, 220, 220), StrokeWidth = 1, IsAntialias = true };
         float plotWidth = Width - Left - Right, plotHeight = Height - Top - Bottom;
         float X(int index) => Left + plotWidth * index / Math.Max(1, days.Count - 1);
-        // Zero calls sit on the bottom line (value 1 on the log axis).
-        float Y(long value) => Top + plotHeight * (1 - (float)(Math.Log10(Math.Max(1, value)) / decades));
+        float Y(long value) => Top + plotHeight * (1 - (float)(Math.Log10(1 + value) / decades));
 
         canvas.DrawText(title, Left, 32, SKTextAlign.Left, bold, ink);
-        for (var decade = 0; decade <= decades; decade++)
+        for (var decade = -1; decade <= decades; decade++)
         {
-            var value = (long)Math.Pow(10, decade);
+            var value = decade < 0 ? 0 : (long)Math.Pow(10, decade);
             canvas.DrawLine(Left, Y(value), Left + plotWidth, Y(value), grid);
             canvas.DrawText(value.ToString("N0", CultureInfo.InvariantCulture), Left - 8, Y(value) + 5, SKTextAlign.Right, font, ink);
         }
@@ -57,7 +56,7 @@ internal static class CallsChart
         canvas.DrawText("day (0 = first build)", Left + plotWidth / 2, Top + plotHeight + 44, SKTextAlign.Center, font, ink);
         canvas.Save();
         canvas.RotateDegrees(-90, 24, Top + plotHeight / 2);
-        canvas.DrawText("encoder page calls (log scale)", 24, Top + plotHeight / 2 + 5, SKTextAlign.Center, font, ink);
+        canvas.DrawText("encoder page calls (log scale of 1 + calls)", 24, Top + plotHeight / 2 + 5, SKTextAlign.Center, font, ink);
         canvas.Restore();
         canvas.DrawLine(Left, Top, Left, Top + plotHeight, ink);
         canvas.DrawLine(Left, Top + plotHeight, Left + plotWidth, Top + plotHeight, ink);
@@ -65,7 +64,10 @@ internal static class CallsChart
         var legendX = Left;
         foreach (var (name, colour, calls) in series)
         {
-            using var line = new SKPaint { Color = colour, StrokeWidth = name.StartsWith("truth", StringComparison.Ordinal) ? 1.5f : 3, IsAntialias = true, Style = SKPaintStyle.Stroke };
+            // The truth is drawn last, thin and dashed, so (c) lying on it stays visible.
+            var truth = name.StartsWith("truth", StringComparison.Ordinal);
+            using var dashes = truth ? SKPathEffect.CreateDash([6, 5], 0) : null;
+            using var line = new SKPaint { Color = colour, StrokeWidth = truth ? 1.5f : 3, IsAntialias = true, Style = SKPaintStyle.Stroke, PathEffect = dashes };
             using var pathLine = new SKPath();
             for (var i = 0; i < days.Count; i++)
             {
@@ -79,7 +81,10 @@ internal static class CallsChart
                     pathLine.LineTo(point);
                 }
 
-                canvas.DrawCircle(point, 3.5f, line);
+                if (!truth)
+                {
+                    canvas.DrawCircle(point, 3.5f, line);
+                }
             }
 
             canvas.DrawPath(pathLine, line);
