@@ -83,7 +83,7 @@ internal sealed class ChurnSimulation(ChurnProfile profile, int seed, string wor
                 synced.Summary.DocumentsRead,
                 synced.Summary.PagesReused);
             days.Add((figures, synced.Summary.EncoderSeconds));
-            log($"day {day,2} {figures.DayType,-15} files {truth.Count,5} pages {pages,6} new contents {changed.Count,5} | calls (a) {pages,6} (b) {fileCalls,6} (c) {synced.Summary.PagesEmbedded,6} | misses {checkedDay.Misses} unserved {checkedDay.Unserved} stale {checkedDay.StaleServed} split {checkedDay.SplitContents} | sync {synced.SyncSeconds:0.0} s");
+            log($"day {day,2} {figures.DayType,-15} files {truth.Count,5} pages {pages,6} new contents {changed.Count,5} | calls (a) {pages,6} (b) {fileCalls,6} (c) {synced.Summary.PagesEmbedded,6} | misses {checkedDay.Misses} unserved {checkedDay.Unserved} (rebound keys {checkedDay.Rebound}) stale {checkedDay.StaleServed} split {checkedDay.SplitContents} | sync {synced.SyncSeconds:0.0} s");
 
             previousContents = contents;
             previousHashes = hashes;
