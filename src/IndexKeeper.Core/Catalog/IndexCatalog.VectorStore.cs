@@ -44,8 +44,13 @@ public sealed partial class IndexCatalog
 
     public VectorSetRecord? FindVectorSet(string encoderId, string pageKey) => vectorSets.FindById(VectorSetRecord.MakeId(encoderId, pageKey));
 
+    /// <summary>
+    /// The live vector sets of an encoder in page-key order. Search numbers pages by this order and gives
+    /// equal scores to the lower number, so ties rank alike in every index holding the same vector sets,
+    /// whatever segments and offsets the history of the index left them in (a rebuild equals the original).
+    /// </summary>
     public IReadOnlyList<VectorSetRecord> LiveVectorSets(string encoderId) =>
-        vectorSets.Find(v => v.EncoderId == encoderId && v.Live).OrderBy(v => v.SegmentId).ThenBy(v => v.Offset).ToList();
+        vectorSets.Find(v => v.EncoderId == encoderId && v.Live).OrderBy(v => v.PageKey, StringComparer.Ordinal).ToList();
 
     public IReadOnlyList<VectorSetRecord> VectorSetsOfSegment(long segmentId) => vectorSets.Find(v => v.SegmentId == segmentId).ToList();
 
