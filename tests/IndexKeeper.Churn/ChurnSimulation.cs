@@ -50,7 +50,7 @@ internal sealed class ChurnSimulation(ChurnProfile profile, int seed, string wor
             var contents = truth.Values.SelectMany(p => p).ToHashSet();
             var changed = encoderChange ? contents : contents.Where(c => !previousContents.Contains(c)).ToHashSet();
 
-            var synced = keeper.Sync(dimensions, requeueAll: encoderChange, compact: true);
+            var synced = keeper.Sync(dimensions, compact: true);
             AuditResult checkedDay;
             using (var session = keeper.Open(dimensions, "churn audit"))
             {

@@ -34,7 +34,7 @@ internal sealed class ScaleRun(int pages, int seed, string workDirectory, Action
         log($"{files} files, {pages} pages generated in {generateSeconds:0} s");
 
         var keeper = new KeeperIndex(Path.Combine(workDirectory, "index"), root);
-        var first = keeper.Sync(ChurnSimulation.Dimensions, requeueAll: false, compact: true);
+        var first = keeper.Sync(ChurnSimulation.Dimensions, compact: true);
         log($"first sync: {first.Summary.PagesEmbedded} pages embedded in {first.TotalSeconds:0} s (scan {first.ScanSeconds:0} s)");
 
         using var session = keeper.Open(ChurnSimulation.Dimensions, "churn scale");

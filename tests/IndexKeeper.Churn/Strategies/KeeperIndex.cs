@@ -33,8 +33,8 @@ internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
 
     public IndexSession Open(int dimensions, string purpose) => IndexSession.Open(Options(indexDirectory, rootDirectory, dimensions), purpose);
 
-    /// <summary>One sync and one compaction. With <paramref name="requeueAll"/> every held page is queued for the (new) active encoder first.</summary>
-    public KeeperDay Sync(int dimensions, bool requeueAll, bool compact)
+    /// <summary>One sync (as the <c>sync</c> command does it: scan, drift, embed, drift) and one compaction.</summary>
+    public KeeperDay Sync(int dimensions, bool compact)
     {
         using var session = Open(dimensions, "churn simulation");
         var store = session.Store;
@@ -42,17 +42,11 @@ internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
         var stopwatch = Stopwatch.StartNew();
         var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("churn sync", CancellationToken.None);
         var scanSeconds = stopwatch.Elapsed.TotalSeconds;
-        if (requeueAll)
-        {
-            // No migration stage on main yet: the encoder change is handled as a full re-embed of every held page.
-            var now = DateTime.UtcNow;
-            var edit = new CatalogEdit();
-            edit.Enqueue.AddRange(session.Catalog.AllPages().Where(p => p.References > 0)
-                .Select(p => new QueueRecord { Id = p.Id, Priority = QueuePriority.Migration, EnqueuedUtc = now, NotBeforeUtc = now }));
-            session.Catalog.Apply(edit);
-        }
-
+        // A changed encoder id is declared drift: held pages are queued for migration, the old vectors serve
+        // until every page has new ones, then the index switches over (docs/encoders.md).
+        summary.RecordDrift(session.ReconcileDrift());
         new EmbedPass(session.Catalog, store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize).Run(summary, CancellationToken.None);
+        summary.RecordDrift(session.ReconcileDrift());
         var syncSeconds = stopwatch.Elapsed.TotalSeconds;
         var ingested = SegmentBytes(session) - before;
         CompactionReport? compaction = null;

@@ -20,7 +20,7 @@ internal static class RebuildComparer
     public static RebuildComparison Compare(KeeperIndex incremental, KeeperIndex rebuild, int dimensions, int queryCount, int seed)
     {
         var stopwatch = Stopwatch.StartNew();
-        var built = rebuild.Sync(dimensions, requeueAll: false, compact: true);
+        var built = rebuild.Sync(dimensions, compact: true);
         var rebuildSeconds = stopwatch.Elapsed.TotalSeconds;
         var differences = new List<string>();
         void Note(string difference)
