@@ -1,4 +1,6 @@
 using System.Globalization;
+using System.Text.Json;
+using IndexKeeper.Core.Encoding.PageImages;
 using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Service.Hosting;
@@ -18,6 +20,9 @@ public static class EncoderSettings
             [nameof(EncoderOptions.Name)] = options.Name,
             [nameof(EncoderOptions.Dimensions)] = options.Dimensions.ToString(CultureInfo.InvariantCulture),
             [nameof(EncoderOptions.PoolFactor)] = options.PoolFactor.ToString(CultureInfo.InvariantCulture),
+
+            // Model paths, tensor names and pre-processing; a rebuilt encoder is used only if its id matches.
+            [nameof(EncoderOptions.PageImage)] = JsonSerializer.Serialize(options.PageImage),
         };
     }
 
@@ -33,6 +38,23 @@ public static class EncoderSettings
             return null;
         }
 
+        var pageImage = current.PageImage;
+        if (recorded.TryGetValue(nameof(EncoderOptions.PageImage), out var pageImageJson))
+        {
+            try
+            {
+                pageImage = JsonSerializer.Deserialize<PageImageOptions>(pageImageJson) ?? pageImage;
+            }
+            catch (JsonException)
+            {
+                return null;
+            }
+        }
+        else if (name == PageImageEncoderFactory.Name)
+        {
+            return null;
+        }
+
         return new EncoderOptions
         {
             Name = name,
@@ -40,6 +62,7 @@ public static class EncoderSettings
             PoolFactor = poolFactor,
             BatchSize = current.BatchSize,
             IntraOpThreads = current.IntraOpThreads,
+            PageImage = pageImage,
         };
     }
 

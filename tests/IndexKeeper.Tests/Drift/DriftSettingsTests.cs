@@ -30,6 +30,15 @@ public sealed class DriftSettingsTests
         Assert.Equal(EncoderFactory.Create(configured).Identity.Id, EncoderFactory.Create(rebuilt).Identity.Id);
         Assert.Equal(2, rebuilt.IntraOpThreads);
         Assert.Null(EncoderSettings.Rebuild(new Dictionary<string, string> { ["Name"] = "hashed-terms" }, new EncoderOptions()));
+
+        // The page-image settings travel whole: the recorded model, not the one configured now, is rebuilt.
+        var image = new EncoderOptions { Name = "page-image", PageImage = new PageImageOptions { PageModel = "/srv/models/pages-v1.onnx", PixelMean = [0.5, 0.5, 0.5], RenderDpi = 96 } };
+        var rebuiltImage = EncoderSettings.Rebuild(EncoderSettings.Record(image), new EncoderOptions { PageImage = new PageImageOptions { PageModel = "/srv/models/pages-v2.onnx" } })!;
+        Assert.Equal("/srv/models/pages-v1.onnx", rebuiltImage.PageImage.PageModel);
+        Assert.Equal([0.5, 0.5, 0.5], rebuiltImage.PageImage.PixelMean);
+        Assert.Equal(96, rebuiltImage.PageImage.RenderDpi);
+        var withoutImage = EncoderSettings.Record(image).Where(p => p.Key != nameof(EncoderOptions.PageImage)).ToDictionary();
+        Assert.Null(EncoderSettings.Rebuild(withoutImage, new EncoderOptions()));
     }
 
     /// <summary>A setting added to <see cref="EncoderOptions"/> must be recorded if it changes the vectors, or listed here if it does not.</summary>
