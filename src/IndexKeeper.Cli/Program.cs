@@ -12,7 +12,7 @@ internal static class Program
 {
     private static readonly ICommand[] Commands =
     [
-        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(),
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(), new RunCommand(),
     ];
 
     private static int Main(string[] args)

@@ -19,4 +19,6 @@ public sealed class IndexKeeperOptions
     public EncoderOptions Encoder { get; set; } = new();
 
     public StorageOptions Storage { get; set; } = new();
+
+    public DaemonOptions Daemon { get; set; } = new();
 }
