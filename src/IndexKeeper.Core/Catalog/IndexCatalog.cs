@@ -87,13 +87,7 @@ public sealed partial class IndexCatalog : IDisposable
     /// <summary>Queued pages by priority, quarantined pages apart (they wait for their document to change).</summary>
     public IReadOnlyDictionary<QueuePriority, long> QueueDepths()
     {
-        var depths = Enum.GetValues<QueuePriority>().ToDictionary(p => p, _ => 0L);
-        foreach (var priority in queue.Query().Where(q => q.QuarantinedUtc == null).Select(q => q.Priority).ToEnumerable())
-        {
-            depths[priority]++;
-        }
-
-        return depths;
+        return Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => queue.LongCount(q => q.Priority == p && q.QuarantinedUtc == null));
     }
 
     /// <summary>Pages quarantined after repeated encoder failures, with their last error.</summary>

@@ -35,6 +35,7 @@ public static class DaemonHost
         _ = session.Store;
         _ = session.Encoder;
         var app = Build(options, session, listen!, token);
+        var state = app.Services.GetRequiredService<DaemonState>();
         var lifetime = app.Services.GetRequiredService<IHostApplicationLifetime>();
         lifetime.ApplicationStarted.Register(() =>
         {
@@ -53,7 +54,6 @@ public static class DaemonHost
             await app.DisposeAsync().ConfigureAwait(false);
         }
 
-        var state = app.Services.GetRequiredService<DaemonState>();
         return state.WorkLoopRunning ? 0 : 1;
     }
 
