@@ -21,4 +21,6 @@ public sealed class IndexKeeperOptions
     public StorageOptions Storage { get; set; } = new();
 
     public DaemonOptions Daemon { get; set; } = new();
+
+    public ScheduleOptions Schedule { get; set; } = new();
 }

@@ -1,4 +1,5 @@
 using System.Text.RegularExpressions;
+using IndexKeeper.Core.Scheduling;
 
 namespace IndexKeeper.Service.Configuration;
 
@@ -87,7 +88,26 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Detect:MaxPendingPaths", options.Detect.MaxPendingPaths, 1, 10_000_000);
         Range(errors, "Detect:RootGoneGraceHours", options.Detect.RootGoneGraceHours, 0, 24 * 365);
         DaemonOptionsRules.Check(errors, options.Daemon);
+        CheckSchedule(errors, options.Schedule);
         return errors;
+    }
+
+    private static void CheckSchedule(List<string> errors, ScheduleOptions schedule)
+    {
+        if (ScheduleSetup.ZoneProblem(schedule.TimeZone) is { } zoneProblem)
+        {
+            errors.Add($"Schedule:TimeZone: {zoneProblem}");
+        }
+
+        for (var i = 0; i < schedule.Windows.Count; i++)
+        {
+            if (WindowCalendar.ProblemOf(schedule.Windows[i]) is { } why)
+            {
+                errors.Add($"Schedule:Windows:{i}: '{schedule.Windows[i]}' is not a window: {why}.");
+            }
+        }
+
+        Range(errors, "Schedule:BudgetPagesPerHour", schedule.BudgetPagesPerHour, 0, 10_000_000);
     }
 
     private static void CheckGlobs(List<string> errors, string at, List<string> globs)

@@ -115,7 +115,7 @@ public static class DaemonHost
         var ringCapacity = (int)Math.Clamp(TimeSpan.FromDays(1) / TimeSpan.FromSeconds(daemon.SampleSeconds), 16, 86_400);
         builder.Services.AddSingleton(session);
         builder.Services.AddSingleton(new DaemonState(TimeProvider.System, ringCapacity));
-        builder.Services.AddSingleton<IEmbedGate, UngatedEmbedGate>();
+        builder.Services.AddSingleton<IEmbedGate>(new ScheduledEmbedGate(ScheduleSetup.Gate(options.Schedule)));
         builder.Services.AddSingleton(sp => new RootWatchers(
             session.ScanSettings().Roots,
             TimeSpan.FromSeconds(options.Detect.SettleSeconds),

@@ -18,7 +18,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private long heartbeatTicks;
     private volatile bool workLoopRunning = true;
     private volatile DaemonFigures figures = DaemonFigures.Empty;
-    private volatile EmbedAllowance allowance = EmbedAllowance.Everything;
+    private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private double pagesPerSecond;
 
     public DateTimeOffset Started { get; } = clock.GetUtcNow();

@@ -1,10 +1,12 @@
+using IndexKeeper.Core.Scheduling;
+
 namespace IndexKeeper.Service.Daemon;
 
 /// <summary>Decides how much queued work the encoder may take now (windows and the daytime budget).</summary>
 internal interface IEmbedGate
 {
-    EmbedAllowance Allowance(DateTimeOffset now);
+    EmbedAllowance Allowance(DateTimeOffset now, QueuedPages queued);
 
-    /// <summary>Tells the gate how many pages of which kind were just embedded (the budget spends them).</summary>
+    /// <summary>Tells the gate how many pages were just embedded under its last allowance (the budget spends them).</summary>
     void Spent(DateTimeOffset now, long pages);
 }

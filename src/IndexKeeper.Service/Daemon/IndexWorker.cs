@@ -3,6 +3,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Hosting;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
@@ -199,7 +200,8 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        var allowance = gate.Allowance(now);
+        var depths = session.Catalog.QueueDepths();
+        var allowance = gate.Allowance(now, new QueuedPages(depths[QueuePriority.Fresh], depths[QueuePriority.Migration], depths[QueuePriority.Canary]));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {

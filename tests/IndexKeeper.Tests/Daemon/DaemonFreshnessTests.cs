@@ -9,7 +9,7 @@ namespace IndexKeeper.Tests.Daemon;
 /// </summary>
 public sealed class DaemonFreshnessTests
 {
-    private static readonly string[] Fast = ["--root", "store", "--encoder", "hashed-terms", "--Detect:SettleSeconds=0.3", "--Daemon:SampleSeconds=0.5"];
+    private static readonly string[] Fast = ["--root", "store", "--encoder", "hashed-terms", "--Detect:SettleSeconds=0.3", "--Daemon:SampleSeconds=0.5", "--Schedule:Windows:0=Mon-Sun 00:00-24:00"];
 
     [Fact]
     public void NewEditedMovedAndDeletedFilesReachTheIndex()
