@@ -1,5 +1,6 @@
 using System.Globalization;
 using IndexKeeper.Core.Health;
+using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Querying;
 using Microsoft.AspNetCore.Builder;
@@ -71,6 +72,8 @@ internal static class DaemonApi
             WatcherOverflows = state.WatcherOverflows,
             WindowOpen = allowance.WindowOpen,
             WindowEnd = allowance.WindowEnd,
+            Windows = session.Options.Schedule.EffectiveWindows,
+            TimeZone = ScheduleSetup.Zone(session.Options.Schedule).Id,
             QueuedFresh = figures.QueuedFresh,
             QueuedMigration = figures.QueuedMigration,
             QueuedCanary = figures.QueuedCanary,

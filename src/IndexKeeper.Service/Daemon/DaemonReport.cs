@@ -19,6 +19,11 @@ public sealed class DaemonReport
 
     public DateTimeOffset? WindowEnd { get; init; }
 
+    /// <summary>The windows in force, as configured (docs/scheduling.md), and the zone they are read in.</summary>
+    public IReadOnlyList<string> Windows { get; init; } = [];
+
+    public string TimeZone { get; init; } = string.Empty;
+
     public long QueuedFresh { get; init; }
 
     public long QueuedMigration { get; init; }

@@ -21,7 +21,10 @@ internal sealed class ScheduledEmbedGate(EncoderGate gate) : IEmbedGate
         var open = decision.Mode == GateMode.Window;
 
         // The end of the window we are in, or of the next one: what the backlog has to finish before.
-        var windowEnd = gate.Calendar.OpenSpans(now, now + TimeSpan.FromDays(8)).Select(s => (DateTimeOffset?)s.End).FirstOrDefault();
+        // A window reaching the horizon has no end worth reporting.
+        var horizon = now + TimeSpan.FromDays(8);
+        var windowEnd = gate.Calendar.OpenSpans(now, horizon).Select(s => (DateTimeOffset?)s.End).FirstOrDefault();
+        windowEnd = windowEnd >= horizon ? null : windowEnd;
         var lowest = decision.Priorities.Count == 0 ? QueuePriority.Fresh : decision.Priorities.Max();
         return new EmbedAllowance(decision.Priorities.Count == 0 ? 0 : decision.PagesAllowed, lowest, open, windowEnd);
     }
