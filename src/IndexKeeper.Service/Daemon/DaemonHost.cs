@@ -29,7 +29,7 @@ public static class DaemonHost
         ArgumentNullException.ThrowIfNull(options);
         ListenAddress.TryParse(options.Daemon.Listen, out var listen);
         var token = BearerTokens.Resolve(options.Daemon);
-        using var session = IndexSession.Open(options, "indexkeeper run");
+        using var session = IndexSession.Open(options, DaemonClient.LockPurpose);
 
         // Built and repaired before any thread can race for them.
         _ = session.Store;
