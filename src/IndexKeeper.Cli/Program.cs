@@ -13,7 +13,8 @@ internal static class Program
 {
     private static readonly ICommand[] Commands =
     [
-        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(), new RunCommand(),
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(),
+        new PlanCommand(), new RunCommand(),
     ];
 
     private static int Main(string[] args)
@@ -39,7 +40,7 @@ internal static class Program
         };
         try
         {
-            var parsed = ArgumentParser.Parse(args, Commands.ToDictionary(c => c.Name, c => c.Options));
+            var parsed = ArgumentParser.Parse(args, Commands.ToDictionary(c => c.Name, c => c.Options), Commands.ToDictionary(c => c.Name, c => c.Flags));
             var command = Commands.Single(c => c.Name == parsed.Command);
             return command.Run(new CommandContext(parsed), cancellation.Token);
         }

@@ -2,11 +2,14 @@ namespace IndexKeeper.Cli.CommandLine;
 
 /// <summary>
 /// Parses <c>indexkeeper COMMAND [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]</c>
-/// plus the named options each command declares. Unknown options are errors, never ignored.
+/// plus the named options each command declares (flags take no value and read as "true"). Unknown options are errors, never ignored.
 /// </summary>
 internal static class ArgumentParser
 {
-    public static ParsedArguments Parse(IReadOnlyList<string> args, IReadOnlyDictionary<string, IReadOnlySet<string>> commandOptions)
+    public static ParsedArguments Parse(
+        IReadOnlyList<string> args,
+        IReadOnlyDictionary<string, IReadOnlySet<string>> commandOptions,
+        IReadOnlyDictionary<string, IReadOnlySet<string>>? commandFlags = null)
     {
         if (args.Count == 0)
         {
@@ -26,6 +29,7 @@ internal static class ArgumentParser
         var overrides = new List<string>();
         var positional = new List<string>();
         var named = new Dictionary<string, string>(StringComparer.Ordinal);
+        var flags = commandFlags?.GetValueOrDefault(command) ?? new HashSet<string>();
         for (var i = 1; i < args.Count; i++)
         {
             var arg = args[i];
@@ -68,12 +72,18 @@ internal static class ArgumentParser
                     else if (arg.StartsWith('-') && arg.Length > 1)
                     {
                         var name = arg.TrimStart('-');
-                        if (!allowed.Contains(name))
+                        if (flags.Contains(name))
+                        {
+                            named[name] = "true";
+                        }
+                        else if (!allowed.Contains(name))
                         {
                             throw new UsageException($"'{command}' has no option '{arg}'.");
                         }
-
-                        named[name] = Value();
+                        else
+                        {
+                            named[name] = Value();
+                        }
                     }
                     else
                     {

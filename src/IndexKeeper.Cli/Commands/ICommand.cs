@@ -10,5 +10,8 @@ internal interface ICommand
     /// <summary>Names of the command's own options (without dashes), besides the common ones.</summary>
     IReadOnlySet<string> Options { get; }
 
+    /// <summary>Names of the command's flags (options without a value).</summary>
+    IReadOnlySet<string> Flags => new HashSet<string>();
+
     int Run(CommandContext context, CancellationToken cancellationToken);
 }

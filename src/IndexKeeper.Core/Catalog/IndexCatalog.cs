@@ -168,8 +168,7 @@ public sealed partial class IndexCatalog : IDisposable
         var live = documents.Count(d => d.State == DocumentState.Live);
         var quarantined = documents.Count(d => d.State == DocumentState.Quarantined);
         var locations = pages.Query().Select(p => p.References).ToEnumerable().Sum(r => (long)r);
-        var last = scans.Query().OrderByDescending(s => s.Id).Limit(1).FirstOrDefault();
-        return new CatalogFigures(live, quarantined, pages.LongCount(p => p.References > 0), locations, queue.LongCount(), last?.StartedUtc.ToUniversalTime());
+        return new CatalogFigures(live, quarantined, pages.LongCount(p => p.References > 0), locations, queue.LongCount(), LastScanUtc());
     }
 
     public void Dispose() => database.Dispose();

@@ -1,6 +1,9 @@
 namespace IndexKeeper.Core.Catalog;
 
-/// <summary>One finished scan pass (collection <c>scans</c>): when, and what it found.</summary>
+/// <summary>
+/// One finished scan pass (collection <c>scans</c>): when, and what it found; or, with
+/// <see cref="Command"/> <c>embed</c>, one embed run: pages and vectors made and encoder seconds spent.
+/// </summary>
 public sealed class ScanRecord
 {
     public int Id { get; set; }
@@ -12,4 +15,10 @@ public sealed class ScanRecord
     public string Command { get; set; } = string.Empty;
 
     public Dictionary<string, long> Counts { get; set; } = [];
+
+    /// <summary>The encoder of an embed record; empty for a scan.</summary>
+    public string EncoderId { get; set; } = string.Empty;
+
+    /// <summary>Wall time inside encoder calls (embed records).</summary>
+    public double EncoderSeconds { get; set; }
 }

@@ -41,8 +41,11 @@ public sealed class EmbedPass(
     public long Run(ScanSummary summary, long maxPages, QueuePriority lowestPriority, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(summary);
-        var total = catalog.Figures().Queued;
+        // Counting the whole catalog is for the progress bar only (the daemon calls this once per few batches).
+        var total = progress is null ? 0 : catalog.Figures().Queued;
         var started = DateTime.UtcNow;
+        var stopwatchRun = Stopwatch.StartNew();
+        var (vectorsBefore, secondsBefore) = (summary.VectorsWritten, summary.EncoderSeconds);
         var embedded = 0L;
         while (!cancellationToken.IsCancellationRequested && embedded < maxPages)
         {
@@ -79,6 +82,12 @@ public sealed class EmbedPass(
             {
                 break;
             }
+        }
+
+        if (embedded > 0)
+        {
+            // The measured throughput of this encoder, kept for the plan's estimates.
+            catalog.RecordEmbedding(encoder.Identity.Id, started, stopwatchRun.Elapsed.TotalSeconds, embedded, summary.VectorsWritten - vectorsBefore, summary.EncoderSeconds - secondsBefore);
         }
 
         return embedded;
@@ -168,7 +177,10 @@ public sealed class EmbedPass(
 
     private static bool IsPageFailure(Exception ex) => ex is InvalidOperationException or ArgumentException or FormatException;
 
-    private PageToEncode ToEncode(PageRecord page)
+    private PageToEncode ToEncode(PageRecord page) => ToEncode(page, rootPaths);
+
+    /// <summary>The encoder's view of a catalog page; the source path lets image encoders open the file.</summary>
+    internal static PageToEncode ToEncode(PageRecord page, IReadOnlyDictionary<string, string> rootPaths)
     {
         var source = rootPaths.TryGetValue(page.SourceRoot, out var rootPath)
             ? Path.Combine(rootPath, page.SourcePath.Replace('/', Path.DirectorySeparatorChar))

@@ -38,13 +38,33 @@ public sealed class ScanPass
         this.clock = clock;
     }
 
-    public ScanSummary Run(string command, CancellationToken cancellationToken)
+    public ScanSummary Run(string command, CancellationToken cancellationToken) => Pass(command, dryRun: false, cancellationToken).Summary;
+
+    /// <summary>
+    /// The same pass as a dry run for the plan: walks, hashes and reads what <see cref="Run"/> would, but
+    /// writes nothing (no catalog edit, no scan record) and does not wait for files still being written.
+    /// </summary>
+    public ScanPreview Preview(CancellationToken cancellationToken)
+    {
+        var state = Pass(command: null, dryRun: true, cancellationToken);
+        var removed = state.Ledger.TakeTouched().Where(t => t.ExistedBefore && t.References <= 0).Select(t => t.Key.Hex).ToHashSet(StringComparer.Ordinal);
+        removed.UnionWith(catalog.UnreferencedPageKeys());
+        state.Summary.PagesRemoved = removed.Count;
+        return new ScanPreview(
+            state.Summary,
+            state.Changes,
+            state.NewPages.Keys.Select(k => k.Hex).ToList(),
+            removed,
+            state.NewPages.Values.Where(p => !ReferenceEquals(p, PassState.Placeholder)).ToList());
+    }
+
+    private PassState Pass(string? command, bool dryRun, CancellationToken cancellationToken)
     {
         using var activity = CoreTelemetry.Traces.StartActivity("scan");
         activity?.SetTag("indexkeeper.scan.kind", "full");
         var started = clock.GetUtcNow().UtcDateTime;
         var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog);
+        var state = new PassState(catalog, dryRun);
         var found = new List<FoundFile>();
         var walkedRoots = new List<RootSpec>();
         foreach (var root in settings.Roots)
@@ -82,7 +102,7 @@ public sealed class ScanPass
         {
             cancellationToken.ThrowIfCancellationRequested();
             state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
-            if (IsSettling(file.Stat))
+            if (!dryRun && IsSettling(file.Stat))
             {
                 settling.Add(file);
             }
@@ -122,7 +142,7 @@ public sealed class ScanPass
         activity?.SetTag("indexkeeper.paths", paths.Count);
         var started = clock.GetUtcNow().UtcDateTime;
         var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog);
+        var state = new PassState(catalog, dryRun: false);
         var found = new List<FoundFile>();
         var gone = new List<DocumentRecord>();
         foreach (var path in paths.Distinct())
@@ -182,7 +202,7 @@ public sealed class ScanPass
             FlushIfFull(state);
         }
 
-        return Finish(state, command, started, stopwatch);
+        return Finish(state, command, started, stopwatch).Summary;
     }
 
     /// <summary>
@@ -193,7 +213,7 @@ public sealed class ScanPass
     {
         var started = clock.GetUtcNow().UtcDateTime;
         var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog);
+        var state = new PassState(catalog, dryRun: false);
         foreach (var document in catalog.DocumentsOfRoot(rootName).ToList())
         {
             cancellationToken.ThrowIfCancellationRequested();
@@ -201,20 +221,28 @@ public sealed class ScanPass
             FlushIfFull(state);
         }
 
-        return Finish(state, command, started, stopwatch);
+        return Finish(state, command, started, stopwatch).Summary;
     }
 
-    private ScanSummary Finish(PassState state, string command, DateTime started, Stopwatch stopwatch)
+    private PassState Finish(PassState state, string? command, DateTime started, Stopwatch stopwatch)
     {
         Flush(state);
-        state.Summary.PagesRemoved = catalog.RemoveUnreferencedPages();
         state.Summary.PagesNew = state.Ledger.PagesNew;
         state.Summary.PagesReused = state.Ledger.PagesReused;
         state.Summary.DocumentsMoved = state.NewHashes.Intersect(state.DeletedHashes).Count();
+        if (!state.DryRun)
+        {
+            state.Summary.PagesRemoved = catalog.RemoveUnreferencedPages();
+        }
+
         state.Summary.ElapsedSeconds = stopwatch.Elapsed.TotalSeconds;
-        catalog.AddScan(ToRecord(command, started, state.Summary));
-        CoreTelemetry.ScanDuration.Record(state.Summary.ElapsedSeconds);
-        return state.Summary;
+        if (!state.DryRun)
+        {
+            catalog.AddScan(ToRecord(command!, started, state.Summary));
+            CoreTelemetry.ScanDuration.Record(state.Summary.ElapsedSeconds);
+        }
+
+        return state;
     }
 
     /// <summary>True when every folder between the root and the path is a real folder (walks never follow a link out of a root).</summary>
@@ -336,7 +364,7 @@ public sealed class ScanPass
             summary.DocumentsCopied++;
             record.Kind = source.Kind;
             newKeys = source.PageKeys.Select(PageKey.Parse).ToList();
-            state.Ledger.Replace(oldKeys, newKeys);
+            state.Note(file, existing is null ? ChangeKind.Copied : ChangeKind.Changed, newKeys.Count, state.Ledger.Replace(oldKeys, newKeys).Count);
         }
         else
         {
@@ -354,6 +382,7 @@ public sealed class ScanPass
                 record.QuarantineReason = failure.Reason;
                 record.QuarantineMessage = failure.Message;
                 state.Ledger.Replace(oldKeys, []);
+                state.Note(file, ChangeKind.Quarantined, 0, 0);
                 state.Edit.PutDocuments.Add(record);
                 state.KnownHashes[hash] = record;
                 summary.DocumentsQuarantined++;
@@ -365,9 +394,11 @@ public sealed class ScanPass
             record.Kind = document.Kind;
             newKeys = document.Pages.Select(p => p.Key).ToList();
             var fresh = state.Ledger.Replace(oldKeys, newKeys).ToHashSet();
+            state.Note(file, existing is null ? ChangeKind.New : ChangeKind.Changed, newKeys.Count, fresh.Count);
             foreach (var page in document.Pages.Where(p => fresh.Remove(p.Key)))
             {
-                state.NewPages[page.Key] = PageRecords.From(page, file, now);
+                // A dry run never writes pages: it keeps words only for the few it may time the encoder on.
+                state.NewPages[page.Key] = !state.DryRun || state.NewPages.Count < ScanPreview.SampleSize ? PageRecords.From(page, file, now) : PassState.Placeholder;
             }
         }
 
@@ -436,6 +467,10 @@ public sealed class ScanPass
         state.Edit.DeleteDocuments.Add(gone.Id);
         state.DeletedHashes.Add(gone.FileHash);
         state.Summary.DocumentsDeleted++;
+        if (state.DryRun)
+        {
+            state.Changes.Add(new PreviewChange(gone.Root, gone.Path, ChangeKind.Deleted, 0, 0));
+        }
     }
 
     private void FlushIfFull(PassState state)
@@ -448,6 +483,13 @@ public sealed class ScanPass
 
     private void Flush(PassState state)
     {
+        if (state.DryRun)
+        {
+            // Nothing is written; the ledger keeps every count so later lookups never see the stale catalog.
+            state.Edit = new CatalogEdit();
+            return;
+        }
+
         var edit = state.Edit;
         var now = clock.GetUtcNow().UtcDateTime;
         foreach (var (key, references, existedBefore) in state.Ledger.TakeTouched())
@@ -488,9 +530,25 @@ public sealed class ScanPass
     };
 
     /// <summary>Mutable state of one pass; never shared between passes.</summary>
-    private sealed class PassState(IndexCatalog catalog)
+    private sealed class PassState(IndexCatalog catalog, bool dryRun)
     {
+        /// <summary>Stands in for the pages of a dry run beyond the timing sample.</summary>
+        public static PageRecord Placeholder { get; } = new();
+
+        public bool DryRun { get; } = dryRun;
+
         public ScanSummary Summary { get; } = new();
+
+        /// <summary>Per-document changes, kept only in a dry run (the plan's breakdown).</summary>
+        public List<PreviewChange> Changes { get; } = [];
+
+        public void Note(FoundFile file, ChangeKind kind, int pages, int freshPages)
+        {
+            if (DryRun)
+            {
+                Changes.Add(new PreviewChange(file.Root, file.RelativePath, kind, freshPages, pages - freshPages));
+            }
+        }
 
         public PageLedger Ledger { get; } = new(key => catalog.FindPage(key.Hex)?.References);
 

@@ -2,6 +2,7 @@ using System.Globalization;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Planning;
 using IndexKeeper.Service.Querying;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Http;
@@ -11,7 +12,7 @@ namespace IndexKeeper.Service.Daemon;
 /// <summary>The daemon's HTTP paths (DESIGN.md): metrics, health, the status page and the JSON API.</summary>
 internal static class DaemonApi
 {
-    public static void Map(WebApplication app, IndexSession session, DaemonState state, HealthLimits limits, string? token)
+    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, string? token)
     {
         if (token is not null)
         {
@@ -54,6 +55,13 @@ internal static class DaemonApi
             }
 
             return Results.Json(PageSearcher.Search(session, q.Trim(), top, cancellationToken), ApiJson.Options);
+        });
+        app.MapGet("/api/plan", async (string? calibrate) =>
+        {
+            // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
+            var wantCalibration = calibrate is "1" or "true";
+            var report = await state.OnWorkLoop(() => PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
+            return Results.Json(report, ApiJson.Options);
         });
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
             Results.Json(DocumentLister.List(session, root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));

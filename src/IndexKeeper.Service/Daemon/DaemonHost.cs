@@ -54,7 +54,7 @@ public static class DaemonHost
             await app.DisposeAsync().ConfigureAwait(false);
         }
 
-        return state.WorkLoopRunning ? 0 : 1;
+        return state.HasWorkLoopFailed ? 1 : 0;
     }
 
     private static WebApplication Build(IndexKeeperOptions options, IndexSession session, ListenAddress listen, string? token)
@@ -132,7 +132,7 @@ public static class DaemonHost
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
         var limits = new HealthLimits(TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare);
-        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), limits, token);
+        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, token);
         return app;
     }
 }

@@ -1,4 +1,5 @@
 using System.Collections.Concurrent;
+using System.Threading.Channels;
 using IndexKeeper.Core.Health;
 
 namespace IndexKeeper.Service.Daemon;
@@ -17,9 +18,12 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private long lastFullWalkTicks = -1;
     private long heartbeatTicks;
     private volatile bool workLoopRunning = true;
+    private volatile bool workLoopFailed;
     private volatile DaemonFigures figures = DaemonFigures.Empty;
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private double pagesPerSecond;
+    private readonly Channel<Action> requests = Channel.CreateBounded<Action>(new BoundedChannelOptions(16) { SingleReader = true });
+    private readonly AutoResetEvent requestArrived = new(false);
 
     public DateTimeOffset Started { get; } = clock.GetUtcNow();
 
@@ -49,6 +53,48 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
 
     public IReadOnlyList<RootState> Roots => roots.Values.OrderBy(r => r.Name, StringComparer.Ordinal).ToList();
 
+    /// <summary>Set when a request for the work loop's thread arrives.</summary>
+    public WaitHandle RequestArrived => requestArrived;
+
+    /// <summary>
+    /// Runs <paramref name="work"/> on the work loop's thread between two units of work (the document reader
+    /// and the writer's state belong to that thread). Full (16 waiting) means busy: the caller says so.
+    /// </summary>
+    public Task<T> OnWorkLoop<T>(Func<T> work)
+    {
+        var done = new TaskCompletionSource<T>(TaskCreationOptions.RunContinuationsAsynchronously);
+        if (!workLoopRunning)
+        {
+            done.SetException(new InvalidOperationException("the work loop has stopped"));
+        }
+        else if (!requests.Writer.TryWrite(() =>
+        {
+            try
+            {
+                done.SetResult(work());
+            }
+            catch (Exception ex)
+            {
+                done.SetException(ex);
+            }
+        }))
+        {
+            done.SetException(new InvalidOperationException("the work loop has too many requests waiting; try again shortly"));
+        }
+
+        requestArrived.Set();
+        return done.Task;
+    }
+
+    /// <summary>Runs the waiting requests; called by the work loop only.</summary>
+    public void RunRequests()
+    {
+        while (requests.Reader.TryRead(out var request))
+        {
+            request();
+        }
+    }
+
     public void SetRoot(RootState root) => roots[root.Name] = root;
 
     public RootState? Root(string name) => roots.GetValueOrDefault(name);
@@ -61,7 +107,13 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
 
     public void Beat(DateTimeOffset at) => Interlocked.Exchange(ref heartbeatTicks, at.UtcTicks);
 
+    /// <summary>The loop ended (stop request or failure): health says so and requests are refused.</summary>
     public void WorkLoopStopped() => workLoopRunning = false;
+
+    /// <summary>The loop ended on an error: the process exits with 1.</summary>
+    public void WorkLoopFailed() => workLoopFailed = true;
+
+    public bool HasWorkLoopFailed => workLoopFailed;
 
     /// <summary>Takes a new sample of the figures; pages/s is the embedding rate since the previous sample.</summary>
     public void Publish(DaemonFigures latest, long embeddedSincePrevious)

@@ -9,4 +9,7 @@ internal interface IEmbedGate
 
     /// <summary>Tells the gate how many pages were just embedded under its last allowance (the budget spends them).</summary>
     void Spent(DateTimeOffset now, long pages);
+
+    /// <summary>Budget grants still counting (for the plan's simulation).</summary>
+    IReadOnlyList<BudgetSpend> Spends { get; }
 }

@@ -64,6 +64,7 @@ internal sealed class IndexWorker(
                     ForgetRoot(gone);
                 }
 
+                state.RunRequests();
                 var busy = false;
                 if (now >= nextFullWalk)
                 {
@@ -115,7 +116,7 @@ internal sealed class IndexWorker(
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
                     }
 
-                    WaitHandle.WaitAny([watchers.Wake, stopping.WaitHandle], wait);
+                    WaitHandle.WaitAny([watchers.Wake, state.RequestArrived, stopping.WaitHandle], wait);
                 }
             }
         }
@@ -126,13 +127,15 @@ internal sealed class IndexWorker(
         catch (Exception ex)
         {
             // Health turns unhealthy; the HTTP side keeps answering so operators can see why.
-            state.WorkLoopStopped();
+            state.WorkLoopFailed();
             log.LogCritical(ex, "The work loop stopped: {Message}", ex.Message);
             return;
         }
         finally
         {
             SealOnExit();
+            state.WorkLoopStopped();
+            state.RunRequests();
         }
 
         log.LogInformation("Work loop stopped cleanly.");
@@ -208,7 +211,9 @@ internal sealed class IndexWorker(
             return false;
         }
 
-        var batch = Math.Min(allowance.MaxPages, session.Options.Encoder.BatchSize);
+        // A few batches per turn: changes and stop requests are looked at in between, and the embed
+        // history (one record per call, for the plan's throughput) does not get a record per batch.
+        var batch = Math.Min(allowance.MaxPages, session.Options.Encoder.BatchSize * 4L);
         var summary = new ScanSummary();
         var stopwatch = Stopwatch.StartNew();
         var embedded = new EmbedPass(session.Catalog, session.Store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize, retry: retry)

@@ -29,6 +29,8 @@ internal sealed class ScheduledEmbedGate(EncoderGate gate) : IEmbedGate
         return new EmbedAllowance(decision.Priorities.Count == 0 ? 0 : decision.PagesAllowed, lowest, open, windowEnd);
     }
 
+    public IReadOnlyList<BudgetSpend> Spends => spends.ToList();
+
     public void Spent(DateTimeOffset now, long pages)
     {
         if (lastMode == GateMode.Budget && pages > 0)

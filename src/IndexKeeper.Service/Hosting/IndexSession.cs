@@ -20,8 +20,9 @@ public sealed class IndexSession : IDisposable
     private VectorStore? store;
     private IPageEncoder? encoder;
 
-    private IndexSession(IndexKeeperOptions options, IndexLock indexLock, IndexCatalog catalog, IDocumentReader reader)
+    private IndexSession(IndexKeeperOptions options, IndexLock indexLock, IndexCatalog catalog, IDocumentReader reader, bool readOnly = false)
     {
+        ReadOnly = readOnly;
         Options = options;
         this.indexLock = indexLock;
         Catalog = catalog;
@@ -30,6 +31,9 @@ public sealed class IndexSession : IDisposable
 
     public IndexKeeperOptions Options { get; }
 
+    /// <summary>Opened by <see cref="OpenReadOnly"/>: the catalog cannot be written and the store is not opened.</summary>
+    public bool ReadOnly { get; }
+
     public IndexCatalog Catalog { get; }
 
     public IDocumentReader Reader { get; }
@@ -37,7 +41,9 @@ public sealed class IndexSession : IDisposable
     public string IndexDirectory => indexLock.Directory;
 
     /// <summary>The segment store, opened (and repaired after a crash) on first use.</summary>
-    public VectorStore Store => store ??= VectorStore.Open(Catalog, IndexDirectory, new SegmentWriterOptions
+    public VectorStore Store => ReadOnly
+        ? throw new InvalidOperationException("A read-only session does not open the segment store (opening repairs and writes).")
+        : store ??= VectorStore.Open(Catalog, IndexDirectory, new SegmentWriterOptions
     {
         SealAtBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
         SealAtAge = TimeSpan.FromHours(Options.Storage.SealAtHours),
@@ -57,20 +63,25 @@ public sealed class IndexSession : IDisposable
         TargetSegmentBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,
     };
 
-    public static IndexSession Open(IndexKeeperOptions options, string purpose)
+    public static IndexSession Open(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: false);
+
+    /// <summary>Opens for reading only (the plan): the lock is taken, the catalog file's bytes are never changed.</summary>
+    public static IndexSession OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
+
+    private static IndexSession Open(IndexKeeperOptions options, string purpose, bool readOnly)
     {
         ArgumentNullException.ThrowIfNull(options);
         var held = IndexLock.Acquire(options.IndexDirectory, purpose);
         try
         {
-            var catalog = IndexCatalog.Open(held);
+            var catalog = readOnly ? IndexCatalog.OpenReadOnly(held) : IndexCatalog.Open(held);
             // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
             // costs one quarantined document, never the command or the service.
             var reader = IsolatedReaderFactory.Create(new IsolatedReaderOptions
             {
                 WorkerMemoryLimitBytes = options.Limits.WorkerMemoryMegabytes * 1024 * 1024,
             });
-            return new IndexSession(options, held, catalog, reader);
+            return new IndexSession(options, held, catalog, reader, readOnly);
         }
         catch
         {

@@ -33,6 +33,17 @@ public sealed class CliThroughDaemonTests
             Assert.Equal("ferry-timetable.pdf", json.RootElement.GetProperty("hits")[0].GetProperty("path").GetString());
         }
 
+        // The plan is built on the daemon's work loop and comes back as the same JSON contract.
+        var plan = CliRunner.Run(temp.Path, ["plan", .. common, "--json"]);
+        Assert.True(plan.ExitCode == 0, plan.Stderr);
+        using (var json = JsonDocument.Parse(plan.Stdout))
+        {
+            Assert.Equal(0, json.RootElement.GetProperty("pagesToEmbed").GetInt64());
+            Assert.True(json.RootElement.TryGetProperty("estimatedFinish", out _));
+        }
+
+        Assert.Equal(0, daemon.GetJson("/api/plan").GetProperty("pagesToRemove").GetInt64());
+
         foreach (var writer in new[] { "sync", "scan", "compact" })
         {
             var refused = CliRunner.Run(temp.Path, [writer, .. common]);

@@ -10,8 +10,8 @@ public sealed class DaemonShutdownTests
     [Fact]
     public void SigtermMidBatchThenRestartLosesNothing()
     {
-        const int documents = 60;
-        const int pagesEach = 20;
+        const int documents = 30;
+        const int pagesEach = 10;
         using var temp = new TempDirectory();
         Directory.CreateDirectory(temp.Combine("store"));
         for (var i = 0; i < documents; i++)
@@ -19,8 +19,8 @@ public sealed class DaemonShutdownTests
             File.WriteAllBytes(temp.Combine("store", $"manual-{i:D2}.pdf"), StorePdfs.Document($"pumphouse{i:D2}", pagesEach));
         }
 
-        // Batches of one page keep the encoder busy across many commits, so the stop lands mid-work.
-        string[] args = ["--root", "store", "--encoder", "hashed-terms", "--Encoder:BatchSize=1", "--Detect:SettleSeconds=0.2", "--Daemon:SampleSeconds=0.2", "--Schedule:Windows:0=Mon-Sun 00:00-24:00"];
+        // Small batches keep the encoder busy across many commits, so the stop lands mid-work.
+        string[] args = ["--root", "store", "--encoder", "hashed-terms", "--Encoder:BatchSize=2", "--Detect:SettleSeconds=0.2", "--Daemon:SampleSeconds=0.2", "--Schedule:Windows:0=Mon-Sun 00:00-24:00"];
         using (var daemon = RunningDaemon.Start(temp.Path, args))
         {
             daemon.WaitUntil("some pages have vectors and some are still queued", () =>

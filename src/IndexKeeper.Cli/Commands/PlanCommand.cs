@@ -1,0 +1,84 @@
+using System.Globalization;
+using IndexKeeper.Cli.Output;
+using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Planning;
+
+namespace IndexKeeper.Cli.Commands;
+
+/// <summary><c>plan [--calibrate]</c>: read-only — what the next run would do, its cost, and when it would be done.</summary>
+internal sealed class PlanCommand : ICommand
+{
+    private static readonly CultureInfo C = CultureInfo.InvariantCulture;
+
+    public string Name => "plan";
+
+    public string Summary => "read-only: what the next run would do, its cost and finish time under the windows; --calibrate times a few pages";
+
+    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
+
+    public IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
+
+    public int Run(CommandContext context, CancellationToken cancellationToken)
+    {
+        var options = context.LoadOptions();
+        var calibrate = context.Arguments.Named.ContainsKey("calibrate");
+        var report = ThroughDaemon.Ask(options, () =>
+        {
+            using var session = IndexSession.OpenReadOnly(options, "indexkeeper plan");
+            using var progress = new TerminalProgress();
+            return PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken);
+        }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
+
+        if (context.Json)
+        {
+            JsonOutput.Write(report);
+        }
+        else
+        {
+            Write(Console.Out, report);
+        }
+
+        return 0;
+    }
+
+    private static void Write(TextWriter o, PlanReport r)
+    {
+        o.WriteLine($"Plan for {r.IndexDirectory}, encoder {r.ActiveEncoder} ({r.ActiveEncoderId[..16]}…), from {Time(r.GeneratedAt)} ({r.TimeZone})");
+        o.WriteLine($"Changes since the last scan ({(r.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", C) : "never")}):");
+        o.WriteLine(string.Create(C, $"  documents    {r.DocumentsNew} new, {r.DocumentsChanged} changed, {r.DocumentsCopied} copied or moved (free), {r.DocumentsDeleted} deleted, {r.DocumentsQuarantined} to quarantine"));
+        o.WriteLine(string.Create(C, $"  pages        {r.PagesNew} new, {r.PagesFree} free (keys already held), {r.PagesToRemove} to remove"));
+        o.WriteLine(string.Create(C, $"Queued         {r.Queued.Fresh} fresh, {r.Queued.Migration} migration, {r.Queued.Canary} canary"));
+        o.WriteLine(string.Create(C, $"Drift          {r.DriftedPages} page(s) only under another encoder ({r.DriftedNotQueued} not yet queued)"));
+        o.WriteLine($"Roots missing  {(r.RootsMissing.Count == 0 ? "none" : string.Join(", ", r.RootsMissing) + " (their documents are kept)")}");
+        o.WriteLine(string.Create(C, $"To embed       {r.PagesToEmbed} page(s): {r.Work.Fresh} fresh, {r.Work.Migration} migration, {r.Work.Canary} canary"));
+        o.WriteLine(r.EncoderSecondsPerPage is { } spp
+            ? string.Create(C, $"Encoder        {spp:0.0000} s/page ({r.ThroughputSource}), {r.EstimatedEncoderSeconds:0.0} s in all")
+            : "Encoder        throughput unknown (no history; try --calibrate)");
+        o.WriteLine(r.BytesDelta is { } bytes
+            ? string.Create(C, $"Storage        +{bytes / 1048576.0:0.00} MiB ({r.VectorsPerPage:0.0} vectors/page)")
+            : "Storage        unknown (no vectors per page measured yet)");
+        o.WriteLine(r.CompactionDue
+            ? string.Create(C, $"Compaction     due: {r.Compaction.Jobs} job(s) over {r.Compaction.Segments} segment(s), {r.Compaction.BytesToRewrite / 1048576.0:0.00} MiB to rewrite, {r.Compaction.BytesToReclaim / 1048576.0:0.00} MiB to reclaim")
+            : "Compaction     not due");
+        var next = r.NextWindowChange is { } change ? $"{(r.WindowOpen ? "closes" : "opens")} {Time(change)}" : "never changes";
+        o.WriteLine(string.Create(C, $"Window         {(r.WindowOpen ? "open" : "closed")} now, {next}; budget {r.BudgetPagesPerHour} fresh pages/hour outside windows"));
+        o.WriteLine($"Finish         fresh work {Time(r.FreshFinish)}, all work {Time(r.EstimatedFinish)}");
+        if (r.Breakdown.Count > 0)
+        {
+            o.WriteLine("By root and top folder:");
+            o.WriteLine($"  {"root",-16} {"folder",-24} {"new",6} {"changed",8} {"copied",7} {"deleted",8} {"embed",8} {"free",8} {"encoder s",10}");
+            foreach (var row in r.Breakdown)
+            {
+                var folder = row.Folder.Length == 0 ? "(top)" : row.Folder;
+                o.WriteLine(string.Create(C, $"  {row.Root,-16} {folder,-24} {row.DocumentsNew,6} {row.DocumentsChanged,8} {row.DocumentsCopied,7} {row.DocumentsDeleted,8} {row.PagesToEmbed,8} {row.PagesFree,8} {(row.EstimatedEncoderSeconds is { } s ? s.ToString("0.0", C) : "?"),10}"));
+            }
+        }
+
+        foreach (var note in r.Notes)
+        {
+            o.WriteLine("Note: " + note);
+        }
+    }
+
+    private static string Time(DateTimeOffset? instant) => instant is { } i ? i.ToString("yyyy-MM-dd HH:mm:ss zzz", C) : "unknown";
+}

@@ -1,0 +1,36 @@
+using System.Diagnostics;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Service.Hosting;
+
+namespace IndexKeeper.Service.Planning;
+
+/// <summary>
+/// Times the active encoder on a few real pages (<c>plan --calibrate</c>): pages the index holds, else
+/// pages the pending changes would add. Encodes in memory only; nothing is stored.
+/// </summary>
+internal static class EncoderCalibration
+{
+    private const int SampleSize = 16;
+
+    public static (double SecondsPerPage, double VectorsPerPage)? Run(IndexSession session, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
+    {
+        var catalog = session.Catalog;
+        var sample = catalog.ReferencedPageKeys().Take(SampleSize).Select(catalog.FindPage).OfType<PageRecord>()
+            .Concat(pendingPages).Take(SampleSize)
+            .Select(p => EmbedPass.ToEncode(p, session.RootPaths)).ToList();
+        if (sample.Count == 0)
+        {
+            return null;
+        }
+
+        var encoder = session.Encoder;
+
+        // One untimed page first: model loading and first-call set-up are not throughput.
+        encoder.EncodePages(sample.Take(1).ToList(), cancellationToken);
+        var stopwatch = Stopwatch.StartNew();
+        var vectors = encoder.EncodePages(sample, cancellationToken);
+        var seconds = stopwatch.Elapsed.TotalSeconds;
+        return (seconds / sample.Count, (double)vectors.Sum(v => v.Count) / sample.Count);
+    }
+}

@@ -1,0 +1,257 @@
+using System.Diagnostics;
+using System.Globalization;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Planning;
+using IndexKeeper.Core.Scheduling;
+using IndexKeeper.Core.Storage;
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Hosting;
+
+namespace IndexKeeper.Service.Planning;
+
+/// <summary>
+/// Builds the plan (docs/plan.md) from an open session: a dry run of the scan pass, the queue, drift,
+/// measured throughput, compaction policy and a simulation of the work through the encoder gate.
+/// Reads only: nothing here writes the catalog or the segments.
+/// </summary>
+public static class PlanBuilder
+{
+    /// <summary>Embed runs the throughput is averaged over (newest first).</summary>
+    private const int HistoryRuns = 20;
+
+    /// <summary>Queued and drifted pages attributed to folders one lookup each; past this they are counted unattributed.</summary>
+    private const int AttributionLimit = 20_000;
+
+    public static PlanReport Build(IndexSession session, PlanRequest request, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(session);
+        ArgumentNullException.ThrowIfNull(request);
+        var stopwatch = Stopwatch.StartNew();
+        var catalog = session.Catalog;
+        var identity = session.Encoder.Identity;
+        var schedule = session.Options.Schedule;
+        var calendar = ScheduleSetup.Calendar(schedule);
+        var zone = calendar.Zone;
+        var notes = new List<string>();
+
+        var preview = new ScanPass(catalog, session.Reader, session.ScanSettings(), request.Progress).Preview(cancellationToken);
+        var summary = preview.Summary;
+        var removed = preview.RemovedKeys;
+
+        // A page key back within the life of its old vectors is made live again, not embedded.
+        var activeCounts = catalog.VectorCounts(identity.Id);
+        var revived = activeCounts.VectorSets == 0 ? 0 : preview.NewKeys.Count(k => catalog.FindVectorSet(identity.Id, k) is not null);
+        var scanToEmbed = preview.NewKeys.Count - revived;
+
+        var queuedKeys = catalog.QueuedKeys().Where(q => !removed.Contains(q.PageKey)).ToList();
+        var queued = new QueuedPages(
+            queuedKeys.LongCount(q => q.Priority == QueuePriority.Fresh),
+            queuedKeys.LongCount(q => q.Priority == QueuePriority.Migration),
+            queuedKeys.LongCount(q => q.Priority == QueuePriority.Canary));
+        var drifted = DriftedPages(catalog, identity.Id, removed);
+        var queuedSet = queuedKeys.Select(q => q.PageKey).ToHashSet(StringComparer.Ordinal);
+        var driftedNotQueued = drifted.Where(k => !queuedSet.Contains(k)).ToList();
+        var work = new QueuedPages(scanToEmbed + queued.Fresh, queued.Migration + driftedNotQueued.Count, queued.Canary);
+
+        var (source, secondsPerPage, vectorsPerPage) = Throughput(session, preview, request.Calibrate, notes, cancellationToken);
+        if (vectorsPerPage is null && activeCounts.VectorSets > 0)
+        {
+            vectorsPerPage = (double)activeCounts.Vectors / activeCounts.VectorSets;
+        }
+
+        var dimensions = identity.Dimensions;
+        long? bytesDelta = vectorsPerPage is { } perPage
+            ? (long)Math.Round(work.Total * (SegmentFormat.FrameLength + SegmentFormat.VectorSetBodyLength(dimensions, 0) + (perPage * SegmentFormat.BytesPerVector(dimensions))))
+            : null;
+
+        var compaction = Compaction(catalog, session.CompactionOptions());
+        var now = TimeZoneInfo.ConvertTime(request.Now, zone);
+        var forecast = secondsPerPage is { } spp
+            ? WorkSimulator.Simulate(new EncoderGate(calendar, schedule.BudgetPagesPerHour), now, work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
+            : null;
+        if (forecast is { AllDone: null })
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"Not all work finishes within {WorkSimulator.DefaultHorizon.TotalDays:0} days under these windows and budget (migration and canary work run only inside windows)."));
+        }
+
+        if (summary.Problems.Count > 0)
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{summary.Problems.Count} path(s) could not be looked at; their documents are kept as they are (first: {summary.Problems[0]})."));
+        }
+
+        if (summary.DocumentsDeferred > 0)
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{summary.DocumentsDeferred} document(s) changed while being looked at; a later pass takes them."));
+        }
+
+        var change = calendar.NextChange(now);
+        return new PlanReport
+        {
+            IndexDirectory = session.IndexDirectory,
+            GeneratedAt = now,
+            TimeZone = zone.Id,
+            ActiveEncoder = identity.Name,
+            ActiveEncoderId = identity.Id,
+            LastScanUtc = catalog.LastScanUtc(),
+            DocumentsNew = preview.Changes.LongCount(c => c.Kind == ChangeKind.New),
+            DocumentsChanged = preview.Changes.LongCount(c => c.Kind == ChangeKind.Changed),
+            DocumentsCopied = preview.Changes.LongCount(c => c.Kind == ChangeKind.Copied),
+            DocumentsDeleted = preview.Changes.LongCount(c => c.Kind == ChangeKind.Deleted),
+            DocumentsQuarantined = preview.Changes.LongCount(c => c.Kind == ChangeKind.Quarantined),
+            DocumentsUnchanged = summary.DocumentsUnchanged,
+            PagesToEmbed = work.Total,
+            PagesFree = summary.PagesReused + revived,
+            PagesToRemove = removed.Count,
+            PagesNew = scanToEmbed,
+            Queued = queued,
+            DriftedPages = drifted.Count,
+            DriftedNotQueued = driftedNotQueued.Count,
+            Work = work,
+            RootsMissing = summary.RootsMissing,
+            ThroughputSource = source,
+            EncoderSecondsPerPage = secondsPerPage,
+            VectorsPerPage = vectorsPerPage,
+            EstimatedEncoderSeconds = forecast?.EncoderSeconds,
+            BytesDelta = bytesDelta,
+            CompactionDue = compaction.Jobs > 0,
+            Compaction = compaction,
+            WindowOpen = calendar.IsOpen(now),
+            NextWindowChange = change == DateTimeOffset.MaxValue ? null : TimeZoneInfo.ConvertTime(change, zone),
+            BudgetPagesPerHour = schedule.BudgetPagesPerHour,
+            FreshFinish = InZone(forecast?.FreshDone, zone),
+            EstimatedFinish = InZone(forecast?.AllDone, zone),
+            Breakdown = Breakdown(catalog, preview, queuedKeys.Select(q => q.PageKey).Concat(driftedNotQueued), secondsPerPage, notes),
+            Notes = notes,
+            ElapsedSeconds = stopwatch.Elapsed.TotalSeconds,
+        };
+    }
+
+    /// <summary>Live pages with vectors under some other encoder and none under the active one.</summary>
+    private static HashSet<string> DriftedPages(IndexCatalog catalog, string activeEncoderId, IReadOnlySet<string> removed)
+    {
+        var withActive = new HashSet<string>(StringComparer.Ordinal);
+        var withOther = new HashSet<string>(StringComparer.Ordinal);
+        foreach (var (pageKey, encoderId) in catalog.LiveVectorSetOwners())
+        {
+            (encoderId == activeEncoderId ? withActive : withOther).Add(pageKey);
+        }
+
+        withOther.ExceptWith(withActive);
+        withOther.ExceptWith(removed);
+        return withOther;
+    }
+
+    private static (string Source, double? SecondsPerPage, double? VectorsPerPage) Throughput(
+        IndexSession session, ScanPreview preview, bool calibrate, List<string> notes, CancellationToken cancellationToken)
+    {
+        if (calibrate)
+        {
+            if (EncoderCalibration.Run(session, preview.SamplePages, cancellationToken) is { } measured)
+            {
+                return ("calibration", measured.SecondsPerPage, measured.VectorsPerPage);
+            }
+
+            notes.Add("Nothing to calibrate on: neither the index nor the pending changes hold a page.");
+        }
+
+        var history = session.Catalog.EmbedHistory(session.Encoder.Identity.Id, HistoryRuns);
+        var pages = history.Sum(h => h.Counts.GetValueOrDefault("pagesEmbedded"));
+        if (pages > 0)
+        {
+            var vectors = history.Sum(h => h.Counts.GetValueOrDefault("vectorsWritten"));
+            return ("history", history.Sum(h => h.EncoderSeconds) / pages, (double)vectors / pages);
+        }
+
+        if (!calibrate)
+        {
+            notes.Add("No measured throughput for the active encoder yet: run 'indexkeeper plan --calibrate' (times a few real pages) or a sync for time estimates.");
+        }
+
+        return ("none", null, null);
+    }
+
+    private static PlanCompaction Compaction(IndexCatalog catalog, CompactionOptions options)
+    {
+        var stats = catalog.Segments().Select(s => new SegmentStats(
+            s.Id, s.EncoderId, s.Sealed, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
+        var jobs = CompactionPolicy.Plan(stats, options);
+        return new PlanCompaction
+        {
+            Jobs = jobs.Count,
+            Segments = jobs.Sum(j => j.SegmentIds.Count),
+            BytesToRewrite = jobs.Sum(j => j.LiveBytes),
+            BytesToReclaim = jobs.Sum(j => j.ReclaimedBytes),
+        };
+    }
+
+    /// <summary>Cost per root and top-level folder: the scan's changes, then queued and drifted pages by where they were seen.</summary>
+    private static List<PlanBreakdownRow> Breakdown(IndexCatalog catalog, ScanPreview preview, IEnumerable<string> pendingKeys, double? secondsPerPage, List<string> notes)
+    {
+        var rows = new Dictionary<(string Root, string Folder), PlanBreakdownRow>();
+        PlanBreakdownRow Row(string root, string path)
+        {
+            var slash = path.IndexOf('/', StringComparison.Ordinal);
+            var key = (root, slash < 0 ? string.Empty : path[..slash]);
+            if (!rows.TryGetValue(key, out var row))
+            {
+                row = new PlanBreakdownRow { Root = key.root, Folder = key.Item2 };
+                rows[key] = row;
+            }
+
+            return row;
+        }
+
+        foreach (var change in preview.Changes)
+        {
+            var row = Row(change.Root, change.Path);
+            switch (change.Kind)
+            {
+                case ChangeKind.New:
+                    row.DocumentsNew++;
+                    break;
+                case ChangeKind.Changed:
+                    row.DocumentsChanged++;
+                    break;
+                case ChangeKind.Copied:
+                    row.DocumentsCopied++;
+                    break;
+                case ChangeKind.Deleted:
+                    row.DocumentsDeleted++;
+                    break;
+            }
+
+            row.PagesToEmbed += change.PagesToEmbed;
+            row.PagesFree += change.PagesFree;
+        }
+
+        var unattributed = 0L;
+        var looked = 0;
+        foreach (var key in pendingKeys)
+        {
+            if (looked++ < AttributionLimit && catalog.FindPage(key) is { } page)
+            {
+                Row(page.SourceRoot, page.SourcePath).PagesToEmbed++;
+            }
+            else
+            {
+                unattributed++;
+            }
+        }
+
+        if (unattributed > 0)
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{unattributed} queued or drifted page(s) are not attributed to a folder in the breakdown."));
+        }
+
+        foreach (var row in rows.Values)
+        {
+            row.EstimatedEncoderSeconds = row.PagesToEmbed * secondsPerPage;
+        }
+
+        return rows.Values.OrderByDescending(r => r.PagesToEmbed).ThenBy(r => r.Root, StringComparer.Ordinal).ThenBy(r => r.Folder, StringComparer.Ordinal).ToList();
+    }
+
+    private static DateTimeOffset? InZone(DateTimeOffset? instant, TimeZoneInfo zone) => instant is { } i ? TimeZoneInfo.ConvertTime(i, zone) : null;
+}

@@ -1,0 +1,10 @@
+using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Scheduling;
+
+namespace IndexKeeper.Service.Planning;
+
+/// <summary>What the caller adds to the index when asking for a plan.</summary>
+/// <param name="Now">The instant the plan starts from.</param>
+/// <param name="BudgetSpent">Budget grants of the last hour (the daemon's ledger); empty means the budget is full.</param>
+/// <param name="Calibrate">Time the encoder on a small sample of real pages when there is no embed history.</param>
+public sealed record PlanRequest(DateTimeOffset Now, IReadOnlyList<BudgetSpend> BudgetSpent, bool Calibrate, IProgress<ScanProgress>? Progress = null);
