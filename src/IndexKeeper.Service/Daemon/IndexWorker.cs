@@ -110,7 +110,8 @@ internal sealed class IndexWorker(
                 SealByAge();
                 if (!busy)
                 {
-                    var wait = TimeSpan.FromSeconds(1);
+                    // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
+                    var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
                     if (nextSettle is { } settle)
                     {
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
