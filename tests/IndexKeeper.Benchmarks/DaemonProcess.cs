@@ -31,7 +31,18 @@ internal sealed class DaemonProcess : IDisposable
         }
 
         var process = Process.Start(start)!;
-        process.ErrorDataReceived += (_, _) => { };
+        // The daemon's log goes beside the work folder (which is deleted at the end) for a look after a failure.
+        var log = new StreamWriter(Path.Combine(Path.GetTempPath(), "indexkeeper-bench-daemon.log"), append: true) { AutoFlush = true };
+        process.ErrorDataReceived += (_, e) =>
+        {
+            if (e.Data is not null)
+            {
+                lock (log)
+                {
+                    log.WriteLine(e.Data);
+                }
+            }
+        };
         process.OutputDataReceived += (_, _) => { };
         process.BeginErrorReadLine();
         process.BeginOutputReadLine();

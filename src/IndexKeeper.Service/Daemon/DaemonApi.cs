@@ -6,6 +6,7 @@ using IndexKeeper.Service.Planning;
 using IndexKeeper.Service.Querying;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Http;
+using Microsoft.Extensions.Logging;
 
 namespace IndexKeeper.Service.Daemon;
 
@@ -32,6 +33,20 @@ internal static class DaemonApi
             });
         }
 
+        app.Use(async (context, next) =>
+        {
+            try
+            {
+                await next(context).ConfigureAwait(false);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException && !context.Response.HasStarted)
+            {
+                // A failed question is the caller's answer, with its reason; the daemon goes on.
+                app.Logger.LogError(ex, "{Path} failed: {Message}", context.Request.Path, ex.Message);
+                context.Response.StatusCode = StatusCodes.Status500InternalServerError;
+                await context.Response.WriteAsJsonAsync(new { error = ex.Message }, ApiJson.Options).ConfigureAwait(false);
+            }
+        });
         app.MapPrometheusScrapingEndpoint("/metrics");
         app.MapGet("/health", () =>
         {

@@ -276,7 +276,6 @@ internal sealed class IndexWorker(
         var depths = catalog.QueueDepths();
         var segments = catalog.Segments();
         var segmentBytes = segments.Sum(s => s.Length);
-        var indexDirectory = new DirectoryInfo(session.IndexDirectory);
         double? free = null;
         try
         {
@@ -301,7 +300,7 @@ internal sealed class IndexWorker(
             segments.Count(s => !s.Sealed),
             segments.Count(s => s.Sealed),
             segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
-            indexDirectory.EnumerateFiles("*", SearchOption.AllDirectories).Sum(f => f.Length),
+            DirectorySize.Of(session.IndexDirectory),
             free);
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }

@@ -62,7 +62,7 @@ public sealed class StatusReport
             ActiveEncoderId = session.Encoder.Identity.Id,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
-            BytesOnDisk = new DirectoryInfo(session.IndexDirectory).EnumerateFiles("*", SearchOption.AllDirectories).Sum(f => f.Length),
+            BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
             LastScanUtc = figures.LastScanUtc,
             Roots = session.Options.Roots.Select(r => r.Name).ToList(),
             Quarantine = session.Catalog.QuarantinedDocuments()
