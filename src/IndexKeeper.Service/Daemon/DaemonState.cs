@@ -16,7 +16,6 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private long watcherOverflows;
     private long pagesEmbedded;
     private long lastFullWalkTicks = -1;
-    private long heartbeatTicks;
     private volatile bool workLoopRunning = true;
     private volatile bool workLoopFailed;
     private volatile DaemonFigures figures = DaemonFigures.Empty;
@@ -48,8 +47,6 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     public bool WorkLoopRunning => workLoopRunning;
 
     public DateTimeOffset? LastFullWalk => Interlocked.Read(ref lastFullWalkTicks) is var t and >= 0 ? new DateTimeOffset(t, TimeSpan.Zero) : null;
-
-    public DateTimeOffset Heartbeat => new(Interlocked.Read(ref heartbeatTicks), TimeSpan.Zero);
 
     public IReadOnlyList<RootState> Roots => roots.Values.OrderBy(r => r.Name, StringComparer.Ordinal).ToList();
 
@@ -104,8 +101,6 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     public void CountEmbedded(long pages) => Interlocked.Add(ref pagesEmbedded, pages);
 
     public void FullWalkDone(DateTimeOffset at) => Interlocked.Exchange(ref lastFullWalkTicks, at.UtcTicks);
-
-    public void Beat(DateTimeOffset at) => Interlocked.Exchange(ref heartbeatTicks, at.UtcTicks);
 
     /// <summary>The loop ended (stop request or failure): health says so and requests are refused.</summary>
     public void WorkLoopStopped() => workLoopRunning = false;

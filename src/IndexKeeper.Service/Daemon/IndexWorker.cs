@@ -58,7 +58,6 @@ internal sealed class IndexWorker(
             while (!stopping.IsCancellationRequested)
             {
                 var now = clock.GetUtcNow();
-                state.Beat(now);
                 foreach (var gone in watchers.CheckRoots())
                 {
                     ForgetRoot(gone);
