@@ -55,6 +55,8 @@ public sealed class EncoderBenchmark : IBenchmark
                 Measure(context, $"minilm {threads} thread(s)", encoder, pages, () => textTokens.ModelTime);
             }
         }
+
+        PageImageEncoderFigures.Run(context, BatchSize);
     }
 
     private static void Measure(BenchmarkContext context, string label, IPageEncoder encoder, PageToEncode[] pages, Func<TimeSpan>? modelTime)

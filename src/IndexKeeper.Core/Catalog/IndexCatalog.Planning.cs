@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Scheduling;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
@@ -46,6 +47,26 @@ public sealed partial class IndexCatalog
     /// <summary>Queued page keys with their priority.</summary>
     public IReadOnlyList<(string PageKey, QueuePriority Priority)> QueuedKeys() =>
         queue.FindAll().Select(q => (q.Id, q.Priority)).ToList();
+
+    /// <summary>Queued pages by priority that may be tried at <paramref name="nowUtc"/> (past their back-off): what the gate is asked about.</summary>
+    public QueuedPages DueQueued(DateTime nowUtc) => new(
+        queue.LongCount(q => q.Priority == QueuePriority.Fresh && q.NotBeforeUtc <= nowUtc),
+        queue.LongCount(q => q.Priority == QueuePriority.Migration && q.NotBeforeUtc <= nowUtc),
+        queue.LongCount(q => q.Priority == QueuePriority.Canary && q.NotBeforeUtc <= nowUtc));
+
+    /// <summary>Up to <paramref name="count"/> due queued pages of the priorities a gate decision allows, highest first.</summary>
+    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc, IReadOnlyCollection<QueuePriority> allowed)
+    {
+        ArgumentNullException.ThrowIfNull(allowed);
+        if (allowed.Count == 0)
+        {
+            return [];
+        }
+
+        // The gate allows a prefix of the priorities (fresh; or all), so one bound selects them.
+        var lowest = allowed.Max();
+        return queue.Query().Where(q => q.NotBeforeUtc <= nowUtc && q.Priority <= lowest).OrderBy(q => q.Priority).Limit(count).ToList();
+    }
 
     /// <summary>Page keys that live documents hold.</summary>
     public IEnumerable<string> ReferencedPageKeys() =>

@@ -78,11 +78,8 @@ public sealed partial class IndexCatalog : IDisposable
     public IEnumerable<QueueRecord> QueueInOrder() => queue.Query().OrderBy(q => q.Priority).ToEnumerable();
 
     /// <summary>Up to <paramref name="count"/> queued pages that may be tried now, highest priority first.</summary>
-    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc) => NextQueued(count, nowUtc, QueuePriority.Canary);
-
-    /// <summary>As <see cref="NextQueued(int, DateTime)"/>, taking only priorities up to <paramref name="lowestPriority"/>.</summary>
-    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc, QueuePriority lowestPriority) =>
-        queue.Query().Where(q => q.NotBeforeUtc <= nowUtc && q.Priority <= lowestPriority).OrderBy(q => q.Priority).Limit(count).ToList();
+    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc) =>
+        queue.Query().Where(q => q.NotBeforeUtc <= nowUtc).OrderBy(q => q.Priority).Limit(count).ToList();
 
     /// <summary>Queued pages by priority, quarantined pages apart (they wait for their document to change).</summary>
     public IReadOnlyDictionary<QueuePriority, long> QueueDepths()

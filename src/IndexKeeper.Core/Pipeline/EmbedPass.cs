@@ -47,9 +47,10 @@ public sealed class EmbedPass(
         var stopwatchRun = Stopwatch.StartNew();
         var (vectorsBefore, secondsBefore) = (summary.VectorsWritten, summary.EncoderSeconds);
         var embedded = 0L;
+        var allowed = Enum.GetValues<QueuePriority>().Where(p => p <= lowestPriority).ToList();
         while (!cancellationToken.IsCancellationRequested && embedded < maxPages)
         {
-            var queued = catalog.NextQueued((int)Math.Min(batchSize, maxPages - embedded), started, lowestPriority);
+            var queued = catalog.NextQueued((int)Math.Min(batchSize, maxPages - embedded), started, allowed);
             if (queued.Count == 0)
             {
                 break;

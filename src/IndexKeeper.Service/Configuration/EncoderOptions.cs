@@ -3,7 +3,7 @@ namespace IndexKeeper.Service.Configuration;
 /// <summary>Which encoder is active, and its settings. A change of any setting is a new encoder id.</summary>
 public sealed class EncoderOptions
 {
-    /// <summary>Built-in names: <c>hashed-terms</c>, <c>minilm</c>.</summary>
+    /// <summary>Built-in names: <c>hashed-terms</c>, <c>minilm</c>, <c>page-image</c>.</summary>
     public string Name { get; set; } = "hashed-terms";
 
     /// <summary>Output size d of every vector (a multiple of 64, for the sign codes).</summary>
@@ -17,4 +17,7 @@ public sealed class EncoderOptions
 
     /// <summary>Threads inside one model run of a model-based encoder (0: one per core). Does not change the vectors.</summary>
     public int IntraOpThreads { get; set; } = 1;
+
+    /// <summary>Settings of the <c>page-image</c> encoder; read only when it is the active one.</summary>
+    public PageImageOptions PageImage { get; set; } = new();
 }

@@ -10,7 +10,7 @@ namespace IndexKeeper.Service.Configuration;
 public static partial class IndexKeeperOptionsValidator
 {
     /// <summary>Encoder names this build knows.</summary>
-    public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms", "minilm"];
+    public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms", "minilm", "page-image"];
 
     public static IReadOnlyList<string> Validate(IndexKeeperOptions options)
     {
@@ -77,6 +77,13 @@ public static partial class IndexKeeperOptionsValidator
         {
             errors.Add($"Encoder:Dimensions: {options.Encoder.Dimensions} is not allowed for minilm; its projection keeps at most the model's 384 dimensions.");
         }
+
+        if (options.Encoder.Name == "page-image")
+        {
+            // Model files and pdftoppm are looked for now, so a missing one stops the start, not the first page.
+            errors.AddRange(PageImageSettings.Validate(options.Encoder));
+        }
+
         var storage = options.Storage;
         Range(errors, "Storage:SealAtMegabytes", storage.SealAtMegabytes, 1, 64 * 1024);
         Range(errors, "Storage:SealAtHours", storage.SealAtHours, 0.01, 24 * 365);

@@ -203,8 +203,7 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        var depths = session.Catalog.QueueDepths();
-        var allowance = gate.Allowance(now, new QueuedPages(depths[QueuePriority.Fresh], depths[QueuePriority.Migration], depths[QueuePriority.Canary]));
+        var allowance = gate.Allowance(now, session.Catalog.DueQueued(now.UtcDateTime));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {
