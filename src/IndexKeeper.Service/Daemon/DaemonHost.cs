@@ -36,6 +36,7 @@ public static class DaemonHost
         _ = session.Encoder;
         var app = Build(options, session, listen!, token);
         var state = app.Services.GetRequiredService<DaemonState>();
+        var worker = app.Services.GetRequiredService<IndexWorker>();
         var lifetime = app.Services.GetRequiredService<IHostApplicationLifetime>();
         lifetime.ApplicationStarted.Register(() =>
         {
@@ -48,9 +49,23 @@ public static class DaemonHost
         {
             await app.RunAsync(cancellationToken).ConfigureAwait(false);
         }
+        catch (IOException ex) when (!lifetime.ApplicationStarted.IsCancellationRequested)
+        {
+            // Kestrel could not bind (port taken, address not on this machine): a setting to change.
+            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message}"]);
+        }
         finally
         {
             DaemonEndpoint.Remove(session.IndexDirectory);
+
+            // The session closes only after the work loop's thread has ended: never under a writer.
+            if (await Task.WhenAny(worker.Completion, Task.Delay(TimeSpan.FromSeconds(options.Daemon.ShutdownGraceSeconds))).ConfigureAwait(false) != worker.Completion)
+            {
+                // Still writing after the grace period: exit without closing the catalog under it; the OS
+                // releases the lock and the next open recovers (nothing uncommitted is visible).
+                Environment.Exit(1);
+            }
+
             await app.DisposeAsync().ConfigureAwait(false);
         }
 
@@ -125,7 +140,8 @@ public static class DaemonHost
             sp.GetRequiredService<DaemonState>(),
             sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.Watch")));
         builder.Services.AddSingleton<DaemonMetrics>();
-        builder.Services.AddHostedService<IndexWorker>();
+        builder.Services.AddSingleton<IndexWorker>();
+        builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
 
         var app = builder.Build();
 

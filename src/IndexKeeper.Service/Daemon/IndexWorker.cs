@@ -22,6 +22,7 @@ internal sealed class IndexWorker(
     DaemonState state,
     RootWatchers watchers,
     IEmbedGate gate,
+    IHostApplicationLifetime lifetime,
     ILogger<IndexWorker> log) : BackgroundService
 {
     private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(session.Options.Detect.FullWalkMinutes);
@@ -32,13 +33,56 @@ internal sealed class IndexWorker(
         session.Options.Daemon.MaxAttempts, TimeSpan.FromSeconds(session.Options.Daemon.RetryBaseSeconds), TimeSpan.FromHours(1));
 
     private readonly CancellationTokenSource hardStop = new();
+    private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long embeddedSinceSample;
 
-    protected override Task ExecuteAsync(CancellationToken stoppingToken)
+    /// <summary>Completes when the loop's thread has ended (or never started): only then may the session be closed.</summary>
+    public Task Completion => completion.Task;
+
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         // Hard stop: a little before the host gives up, so sealing still fits in the grace period.
-        stoppingToken.Register(() => hardStop.CancelAfter(grace * 0.8));
-        return Task.Factory.StartNew(() => Loop(stoppingToken), CancellationToken.None, TaskCreationOptions.LongRunning, TaskScheduler.Default);
+        stoppingToken.Register(() =>
+        {
+            try
+            {
+                hardStop.CancelAfter(grace * 0.8);
+            }
+            catch (ObjectDisposedException)
+            {
+                // The loop is over and the worker disposed: nothing left to stop.
+            }
+        });
+        try
+        {
+            // Nothing is written before the host is up: a server that cannot bind never touches the index.
+            await Task.Delay(Timeout.Infinite, CancellationTokenSource.CreateLinkedTokenSource(stoppingToken, lifetime.ApplicationStarted).Token).ConfigureAwait(false);
+        }
+        catch (OperationCanceledException)
+        {
+        }
+
+        if (stoppingToken.IsCancellationRequested)
+        {
+            completion.TrySetResult();
+            return;
+        }
+
+        await Task.Factory.StartNew(
+            () =>
+            {
+                try
+                {
+                    Loop(stoppingToken);
+                }
+                finally
+                {
+                    completion.TrySetResult();
+                }
+            },
+            CancellationToken.None,
+            TaskCreationOptions.LongRunning,
+            TaskScheduler.Default).ConfigureAwait(false);
     }
 
     public override void Dispose()
