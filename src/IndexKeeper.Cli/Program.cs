@@ -4,6 +4,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Daemon;
 
 namespace IndexKeeper.Cli;
 
@@ -13,7 +14,7 @@ internal static class Program
     private static readonly ICommand[] Commands =
     [
         new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new DemoCommand(),
-        new PlanCommand(), new EncodersCommand(),
+        new PlanCommand(), new EncodersCommand(), new RunCommand(),
     ];
 
     private static int Main(string[] args)
@@ -52,6 +53,11 @@ internal static class Program
         {
             Console.Error.WriteLine("indexkeeper: " + ex.Message);
             return 2;
+        }
+        catch (IndexLockedException ex) when (ex.HolderPurpose == DaemonClient.LockPurpose)
+        {
+            Console.Error.WriteLine("indexkeeper: " + ex.Message + " It is the daemon: it keeps the index fresh itself; status, search and plan ask it, other commands need it stopped.");
+            return 1;
         }
         catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException)
         {

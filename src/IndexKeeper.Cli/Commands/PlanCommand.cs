@@ -21,12 +21,13 @@ internal sealed class PlanCommand : ICommand
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions();
-        using var session = IndexSession.OpenReadOnly(options, "indexkeeper plan");
-        PlanReport report;
-        using (var progress = new TerminalProgress())
+        var calibrate = context.Arguments.Flags.Contains("calibrate");
+        var report = ThroughDaemon.Ask(options, () =>
         {
-            report = PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], context.Arguments.Flags.Contains("calibrate"), progress), cancellationToken);
-        }
+            using var session = IndexSession.OpenReadOnly(options, "indexkeeper plan");
+            using var progress = new TerminalProgress();
+            return PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken);
+        }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 
         if (context.Json)
         {

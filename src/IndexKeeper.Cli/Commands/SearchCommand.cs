@@ -31,12 +31,19 @@ internal sealed class SearchCommand : ICommand
         }
 
         var options = context.LoadOptions();
-        using var session = IndexSession.Open(options, "indexkeeper search");
-        var report = PageSearcher.Search(session, text, k, cancellationToken);
-        if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
+        var report = ThroughDaemon.Ask(options, () =>
         {
-            MatchMaps.Write(session, report, mapsDirectory);
-        }
+            using var session = IndexSession.Open(options, "indexkeeper search");
+            var found = PageSearcher.Search(session, text, k, cancellationToken);
+            if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
+            {
+                MatchMaps.Write(session, found, mapsDirectory);
+            }
+
+            return found;
+        }, daemon => context.Arguments.Named.ContainsKey("maps")
+            ? throw new UsageException("--maps draws from the index itself, which the running daemon holds; search without --maps, or stop the daemon.")
+            : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 
         if (context.Json)
         {

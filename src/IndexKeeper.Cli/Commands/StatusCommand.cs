@@ -16,8 +16,11 @@ internal sealed class StatusCommand : ICommand
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions();
-        using var session = IndexSession.Open(options, "indexkeeper status");
-        var report = StatusReport.Build(session);
+        var report = ThroughDaemon.Ask(options, () =>
+        {
+            using var session = IndexSession.Open(options, "indexkeeper status");
+            return StatusReport.Build(session);
+        }, daemon => daemon.Get<StatusReport>("/api/status"));
         if (context.Json)
         {
             JsonOutput.Write(report);

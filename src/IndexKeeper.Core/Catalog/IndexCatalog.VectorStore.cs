@@ -121,6 +121,34 @@ public sealed partial class IndexCatalog
         }
     }
 
+    /// <summary>
+    /// Records a failed attempt with its reason: the page is tried again at <paramref name="nextTryUtc"/>,
+    /// or quarantined when that is null. Returns the page's failed attempts so far (0 when it is no longer queued).
+    /// </summary>
+    public int RecordFailure(string pageKey, Func<int, DateTime?> nextTryUtc, string reason, DateTime nowUtc)
+    {
+        ArgumentNullException.ThrowIfNull(nextTryUtc);
+        if (queue.FindById(pageKey) is not { } entry)
+        {
+            return 0;
+        }
+
+        entry.Attempts++;
+        entry.LastError = reason;
+        if (nextTryUtc(entry.Attempts) is { } next)
+        {
+            entry.NotBeforeUtc = next;
+        }
+        else
+        {
+            entry.NotBeforeUtc = QueueRecord.QuarantinedNotBefore;
+            entry.QuarantinedUtc = nowUtc;
+        }
+
+        queue.Update(entry);
+        return entry.Attempts;
+    }
+
     public void PutSegment(SegmentRecord segment) => segments.Upsert(segment);
 
     /// <summary>

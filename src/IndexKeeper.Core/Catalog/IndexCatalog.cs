@@ -81,6 +81,15 @@ public sealed partial class IndexCatalog : IDisposable
     public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc) =>
         queue.Query().Where(q => q.NotBeforeUtc <= nowUtc).OrderBy(q => q.Priority).Limit(count).ToList();
 
+    /// <summary>Queued pages by priority, quarantined pages apart (they wait for their document to change).</summary>
+    public IReadOnlyDictionary<QueuePriority, long> QueueDepths()
+    {
+        return Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => queue.LongCount(q => q.Priority == p && q.QuarantinedUtc == null));
+    }
+
+    /// <summary>Pages quarantined after repeated encoder failures, with their last error.</summary>
+    public IReadOnlyList<QueueRecord> QuarantinedPages() => queue.Find(q => q.QuarantinedUtc != null).ToList();
+
     /// <summary>Applies every change of <paramref name="edit"/> in one transaction.</summary>
     public void Apply(CatalogEdit edit)
     {

@@ -41,10 +41,11 @@ public sealed class IndexLock : IDisposable
         }
         catch (IOException)
         {
-            var (pid, text) = ReadOwner(ownerPath);
+            var (pid, text, holderPurpose) = ReadOwner(ownerPath);
             throw new IndexLockedException(
                 $"The index '{directory}' is in use by {text}. Only one process may write an index; stop it or use another --index.",
-                pid);
+                pid,
+                holderPurpose);
         }
 
         var owner = string.Create(
@@ -68,20 +69,20 @@ public sealed class IndexLock : IDisposable
         stream.Dispose();
     }
 
-    private static (int? Pid, string Text) ReadOwner(string ownerPath)
+    private static (int? Pid, string Text, string? Purpose) ReadOwner(string ownerPath)
     {
         try
         {
             var lines = File.ReadAllLines(ownerPath);
             if (lines.Length >= 4 && int.TryParse(lines[0], NumberStyles.None, CultureInfo.InvariantCulture, out var pid))
             {
-                return (pid, $"process {pid} on {lines[1]} ('{lines[3]}', since {lines[2]})");
+                return (pid, $"process {pid} on {lines[1]} ('{lines[3]}', since {lines[2]})", lines[3]);
             }
         }
         catch (IOException)
         {
         }
 
-        return (null, "another process (its id could not be read)");
+        return (null, "another process (its id could not be read)", null);
     }
 }

@@ -3,6 +3,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Diff;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Pipeline;
 
@@ -20,6 +21,7 @@ public sealed class ScanPass
     private readonly IProgress<ScanProgress>? progress;
     private readonly IFileProbe probe;
     private readonly TimeProvider clock;
+    private readonly Dictionary<string, RootGlobs> globs = new(StringComparer.Ordinal);
 
     public ScanPass(IndexCatalog catalog, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress = null)
         : this(catalog, reader, settings, progress, new FileSystemProbe(), TimeProvider.System)
@@ -58,6 +60,8 @@ public sealed class ScanPass
 
     private PassState Pass(string? command, bool dryRun, CancellationToken cancellationToken)
     {
+        using var activity = CoreTelemetry.Traces.StartActivity("scan");
+        activity?.SetTag("indexkeeper.scan.kind", "full");
         var started = clock.GetUtcNow().UtcDateTime;
         var stopwatch = Stopwatch.StartNew();
         var state = new PassState(catalog, dryRun);
@@ -86,6 +90,12 @@ public sealed class ScanPass
         }
 
         state.Summary.DocumentsSeen = found.Count;
+        foreach (var root in settings.Roots)
+        {
+            // A full pass reads each root's documents once: one lookup per file costs more than its stat.
+            state.Known(root.Name);
+        }
+
         var settling = new List<FoundFile>();
         var done = 0L;
         foreach (var file in found)
@@ -115,22 +125,155 @@ public sealed class ScanPass
             }
         }
 
+        return Finish(state, command, started, stopwatch);
+    }
+
+    /// <summary>
+    /// A targeted pass over paths that notifications named: each file that is there (a regular file the
+    /// root's globs select, reached through real folders only) is checked and read as in a full pass; each
+    /// path that is gone, or that is a link or excluded now, loses its document. Paths whose state cannot be
+    /// seen are left as they are. Folders are the caller's business (a full walk of the root).
+    /// </summary>
+    public ScanSummary RunPaths(string command, IReadOnlyCollection<ChangedPath> paths, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(paths);
+        using var activity = CoreTelemetry.Traces.StartActivity("scan");
+        activity?.SetTag("indexkeeper.scan.kind", "targeted");
+        activity?.SetTag("indexkeeper.paths", paths.Count);
+        var started = clock.GetUtcNow().UtcDateTime;
+        var stopwatch = Stopwatch.StartNew();
+        var state = new PassState(catalog, dryRun: false);
+        var found = new List<FoundFile>();
+        var gone = new List<DocumentRecord>();
+        foreach (var path in paths.Distinct())
+        {
+            if (settings.Roots.FirstOrDefault(r => r.Name == path.Root) is not { } root)
+            {
+                continue;
+            }
+
+            var full = Path.Combine(root.Path, path.RelativePath.Replace('/', Path.DirectorySeparatorChar));
+            var entry = ThroughRealFolders(root.Path, path.RelativePath) ? FileStatReader.Read(full) : EntryStat.Failed(EntryKind.Link, "a folder on the way is a link");
+            var known = state.Find(path.Root, DocumentRecord.MakeId(path.Root, path.RelativePath));
+            switch (entry.Kind)
+            {
+                case EntryKind.RegularFile when Selects(root, path.RelativePath):
+                    found.Add(new FoundFile(path.Root, path.RelativePath, full, entry.Stat));
+                    break;
+                case EntryKind.Inaccessible:
+                    state.Summary.Problems.Add($"{path.Root}/{path.RelativePath}: {entry.Error}");
+                    break;
+                case EntryKind.Directory:
+                    break;
+                default:
+                    if (known is not null)
+                    {
+                        gone.Add(known);
+                    }
+
+                    break;
+            }
+        }
+
+        state.Summary.DocumentsSeen = found.Count;
+        var settling = new List<FoundFile>();
+        foreach (var file in found)
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
+            if (IsSettling(file.Stat))
+            {
+                settling.Add(file);
+            }
+            else
+            {
+                Process(state, file, cancellationToken);
+            }
+
+            FlushIfFull(state);
+        }
+
+        ProcessSettled(state, settling, cancellationToken);
+
+        // New paths first, deletions after: a move's new path then finds the old one as a copy source.
+        foreach (var document in gone)
+        {
+            Delete(state, document);
+            FlushIfFull(state);
+        }
+
+        return Finish(state, command, started, stopwatch).Summary;
+    }
+
+    /// <summary>
+    /// Forgets every document of a root (one that has been gone longer than its grace time): their page
+    /// references drop, pages no document holds are removed, their vector sets become dead.
+    /// </summary>
+    public ScanSummary RunForgetRoot(string command, string rootName, CancellationToken cancellationToken)
+    {
+        var started = clock.GetUtcNow().UtcDateTime;
+        var stopwatch = Stopwatch.StartNew();
+        var state = new PassState(catalog, dryRun: false);
+        foreach (var document in catalog.DocumentsOfRoot(rootName).ToList())
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            Delete(state, document);
+            FlushIfFull(state);
+        }
+
+        return Finish(state, command, started, stopwatch).Summary;
+    }
+
+    private PassState Finish(PassState state, string? command, DateTime started, Stopwatch stopwatch)
+    {
         Flush(state);
         state.Summary.PagesNew = state.Ledger.PagesNew;
         state.Summary.PagesReused = state.Ledger.PagesReused;
         state.Summary.DocumentsMoved = state.NewHashes.Intersect(state.DeletedHashes).Count();
-        if (!dryRun)
+        if (!state.DryRun)
         {
             state.Summary.PagesRemoved = catalog.RemoveUnreferencedPages();
         }
 
         state.Summary.ElapsedSeconds = stopwatch.Elapsed.TotalSeconds;
-        if (!dryRun)
+        if (!state.DryRun)
         {
             catalog.AddScan(ToRecord(command!, started, state.Summary));
+            CoreTelemetry.ScanDuration.Record(state.Summary.ElapsedSeconds);
         }
 
         return state;
+    }
+
+    /// <summary>True when every folder between the root and the path is a real folder (walks never follow a link out of a root).</summary>
+    private static bool ThroughRealFolders(string rootPath, string relativePath)
+    {
+        var parts = relativePath.Split('/');
+        var folder = rootPath;
+        for (var i = 0; i < parts.Length - 1; i++)
+        {
+            folder = Path.Combine(folder, parts[i]);
+            if (FileStatReader.Read(folder).Kind != EntryKind.Directory)
+            {
+                return false;
+            }
+        }
+
+        return !parts.Any(p => p is "" or "." or "..");
+    }
+
+    private bool Selects(RootSpec root, string relativePath)
+    {
+        if (!globs.TryGetValue(root.Name, out var rootGlobs))
+        {
+            rootGlobs = new RootGlobs(root, OperatingSystem.IsWindows() ? StringComparison.OrdinalIgnoreCase : StringComparison.Ordinal);
+            globs[root.Name] = rootGlobs;
+        }
+
+        var slash = relativePath.LastIndexOf('/');
+        var name = relativePath[(slash + 1)..];
+        var prefix = slash < 0 ? string.Empty : relativePath[..(slash + 1)];
+        return rootGlobs.SelectFiles(prefix, [name]) is not { } selected || selected.Contains(name);
     }
 
     private bool IsSettling(FileStat stat) =>
@@ -167,7 +310,7 @@ public sealed class ScanPass
     private void Process(PassState state, FoundFile file, CancellationToken cancellationToken)
     {
         var summary = state.Summary;
-        var existing = state.Known(file.Root).GetValueOrDefault(DocumentRecord.MakeId(file.Root, file.RelativePath));
+        var existing = state.Find(file.Root, DocumentRecord.MakeId(file.Root, file.RelativePath));
         var stored = existing is null ? null : StoredState.Of(existing);
         if (QuickCheck.BeforeHash(stored, file.Stat).Verdict == QuickCheckVerdict.Unchanged)
         {
@@ -419,6 +562,28 @@ public sealed class ScanPass
         /// The catalog's documents of a root as they were when the pass began, read once: one lookup
         /// per file costs more than the stat of the quick check. Each document is looked at once per pass.
         /// </summary>
+        /// <summary>
+        /// The catalog's document at an id: from the root's documents when a full pass has read them,
+        /// else looked up alone (a targeted pass touches a few paths of a large root).
+        /// </summary>
+        public DocumentRecord? Find(string root, string id)
+        {
+            if (KnownByRoot.TryGetValue(root, out var known))
+            {
+                return known.GetValueOrDefault(id);
+            }
+
+            if (!SingleLookups.TryGetValue(id, out var document))
+            {
+                document = catalog.FindDocument(root, id[(root.Length + 1)..]);
+                SingleLookups[id] = document;
+            }
+
+            return document;
+        }
+
+        private Dictionary<string, DocumentRecord?> SingleLookups { get; } = new(StringComparer.Ordinal);
+
         public Dictionary<string, DocumentRecord> Known(string root)
         {
             if (!KnownByRoot.TryGetValue(root, out var known))

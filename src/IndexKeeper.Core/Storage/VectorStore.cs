@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -15,6 +16,8 @@ namespace IndexKeeper.Core.Storage;
 /// REQUIRES: the index lock is held; one thread writes (readers of <see cref="OpenLive"/> may be many).
 /// A reader reads the catalog and takes its maps under <c>swapGate</c>, and compaction commits a swap and
 /// retires the old segments under it, so a reader never names a segment retired in between.
+/// The open writers are touched only under <c>writerGate</c>: a reader flushes them (so it sees what was
+/// committed) while the daemon's writer thread may be appending or sealing.
 /// </remarks>
 public sealed class VectorStore : IDisposable
 {
@@ -25,6 +28,7 @@ public sealed class VectorStore : IDisposable
     private readonly SegmentFileSet files;
     private readonly Dictionary<string, SegmentWriter> writers = new(StringComparer.Ordinal);
     private readonly object swapGate = new();
+    private readonly object writerGate = new();
 
     private VectorStore(IndexCatalog catalog, string directory, SegmentWriterOptions writerOptions)
     {
@@ -63,6 +67,15 @@ public sealed class VectorStore : IDisposable
             return;
         }
 
+        lock (writerGate)
+        {
+            AppendAndCommitLocked(encoder, batch);
+        }
+    }
+
+    /// <summary>REQUIRES: <c>writerGate</c> is held.</summary>
+    private void AppendAndCommitLocked(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
+    {
         var writer = WriterFor(encoder);
         var segment = catalog.FindSegment(writer.SegmentId) ?? new SegmentRecord
         {
@@ -109,6 +122,24 @@ public sealed class VectorStore : IDisposable
     /// <summary>Seals every open segment (at shutdown, or before compaction takes them).</summary>
     public void SealAll()
     {
+        lock (writerGate)
+        {
+            SealAllLocked();
+        }
+    }
+
+    /// <summary>The creation time of the oldest open segment this process writes, or null when none is open.</summary>
+    public DateTimeOffset? OldestOpenSince()
+    {
+        lock (writerGate)
+        {
+            return writers.Count == 0 ? null : writers.Values.Min(w => w.Header.Created);
+        }
+    }
+
+    /// <summary>REQUIRES: <c>writerGate</c> is held.</summary>
+    private void SealAllLocked()
+    {
         // A segment left open by an earlier process (each command is one) has no writer here yet.
         foreach (var open in catalog.Segments().Where(s => !s.Sealed && !writers.ContainsKey(s.EncoderId)))
         {
@@ -131,16 +162,11 @@ public sealed class VectorStore : IDisposable
     /// </summary>
     public LiveVectors OpenLive(string encoderId)
     {
-        foreach (var writer in writers.Values)
-        {
-            writer.Flush(durable: false);
-        }
-
+        FlushWritersForReaders();
         lock (swapGate)
         {
             var records = catalog.LiveVectorSets(encoderId);
-            var source = files.OpenSource(encoderId, records.Select(ToLocation).ToList());
-            return new LiveVectors(source, records);
+            return new LiveVectors(files.OpenSource(encoderId, records.Select(ToLocation).ToList()), records);
         }
     }
 
@@ -148,15 +174,35 @@ public sealed class VectorStore : IDisposable
     public LiveVectors OpenSelected(string encoderId, IReadOnlyList<VectorSetRecord> records)
     {
         ArgumentNullException.ThrowIfNull(records);
-        foreach (var writer in writers.Values)
-        {
-            writer.Flush(durable: false);
-        }
-
+        FlushWritersForReaders();
         lock (swapGate)
         {
             return new LiveVectors(files.OpenSource(encoderId, records.Select(ToLocation).ToList()), records);
         }
+    }
+
+    /// <summary>Readers map the files, so bytes still in a writer's buffer must reach the file first.</summary>
+    private void FlushWritersForReaders()
+    {
+        lock (writerGate)
+        {
+            foreach (var writer in writers.Values)
+            {
+                writer.Flush(durable: false);
+            }
+        }
+    }
+
+    /// <summary>
+    /// Whether the policy would find work if the open segments were sealed now: the daemon then seals them
+    /// first (compaction touches only sealed segments) and compacts.
+    /// </summary>
+    public bool CompactionDue(CompactionOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        var stats = catalog.Segments().Select(s => new SegmentStats(
+            s.Id, s.EncoderId, true, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
+        return CompactionPolicy.Plan(stats, options).Count > 0;
     }
 
     /// <summary>Runs the compaction policy and every job it asks for; returns what was done.</summary>
@@ -166,6 +212,8 @@ public sealed class VectorStore : IDisposable
         var stats = catalog.Segments().Select(s => new SegmentStats(
             s.Id, s.EncoderId, s.Sealed, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
         var jobs = CompactionPolicy.Plan(stats, options);
+        using var activity = jobs.Count > 0 ? CoreTelemetry.Traces.StartActivity("compaction") : null;
+        activity?.SetTag("indexkeeper.jobs", jobs.Count);
         var compactor = new SegmentCompactor(Directory, catalog.AllocateSegmentId, options);
         long read = 0, written = 0, reclaimed = 0;
         foreach (var job in jobs)
@@ -212,17 +260,28 @@ public sealed class VectorStore : IDisposable
             reclaimed += job.InputBytes - result.BytesWritten;
         }
 
+        if (jobs.Count > 0)
+        {
+            CoreTelemetry.CompactionBytes.Add(read, new KeyValuePair<string, object?>("kind", "read"));
+            CoreTelemetry.CompactionBytes.Add(written, new KeyValuePair<string, object?>("kind", "written"));
+            CoreTelemetry.CompactionBytes.Add(reclaimed, new KeyValuePair<string, object?>("kind", "reclaimed"));
+        }
+
         return new CompactionReport(jobs.Count, jobs.Sum(j => j.SegmentIds.Count), read, written, reclaimed);
     }
 
     public void Dispose()
     {
-        foreach (var writer in writers.Values)
+        lock (writerGate)
         {
-            writer.Dispose();
+            foreach (var writer in writers.Values)
+            {
+                writer.Dispose();
+            }
+
+            writers.Clear();
         }
 
-        writers.Clear();
         files.Dispose();
     }
 

@@ -20,6 +20,8 @@ public sealed class IndexKeeperOptions
 
     public StorageOptions Storage { get; set; } = new();
 
+    public DaemonOptions Daemon { get; set; } = new();
+
     public ScheduleOptions Schedule { get; set; } = new();
 
     public DriftOptions Drift { get; set; } = new();

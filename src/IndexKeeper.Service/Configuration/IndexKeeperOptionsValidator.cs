@@ -90,6 +90,11 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Storage:CompactDeadShare", storage.CompactDeadShare, 0.01, 0.99);
         Range(errors, "Storage:SmallSegmentMegabytes", storage.SmallSegmentMegabytes, 1, 64 * 1024);
         Range(errors, "Storage:MinSmallSegmentsToMerge", storage.MinSmallSegmentsToMerge, 2, 1000);
+        Range(errors, "Detect:FullWalkMinutes", options.Detect.FullWalkMinutes, 0.05, 7 * 24 * 60);
+        Range(errors, "Detect:WatcherBufferKilobytes", options.Detect.WatcherBufferKilobytes, 4, 64);
+        Range(errors, "Detect:MaxPendingPaths", options.Detect.MaxPendingPaths, 1, 10_000_000);
+        Range(errors, "Detect:RootGoneGraceHours", options.Detect.RootGoneGraceHours, 0, 24 * 365);
+        DaemonOptionsRules.Check(errors, options.Daemon);
         CheckSchedule(errors, options.Schedule);
         var drift = options.Drift;
         Range(errors, "Drift:CanaryPages", drift.CanaryPages, 0, 10_000);

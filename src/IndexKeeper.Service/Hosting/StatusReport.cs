@@ -84,7 +84,7 @@ public sealed class StatusReport
             Canary = canary,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
-            BytesOnDisk = new DirectoryInfo(session.IndexDirectory).EnumerateFiles("*", SearchOption.AllDirectories).Sum(f => f.Length),
+            BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
             LastScanUtc = figures.LastScanUtc,
             Roots = session.Options.Roots.Select(r => r.Name).ToList(),
             Quarantine = session.Catalog.QuarantinedDocuments()

@@ -1,0 +1,76 @@
+using System.Globalization;
+
+namespace IndexKeeper.Core.Health;
+
+/// <summary>
+/// Decides the daemon's health from a snapshot of figures. Pure: plain data in, plain data out. Each rule
+/// adds at most one reason; the status is the worst severity found. Unhealthy (HTTP 503) is kept for
+/// states in which the index stops following its store: the work loop died, or the disk is about to fill.
+/// </summary>
+public static class HealthRules
+{
+    public static HealthReport Evaluate(HealthSnapshot snapshot, HealthLimits limits)
+    {
+        ArgumentNullException.ThrowIfNull(snapshot);
+        ArgumentNullException.ThrowIfNull(limits);
+        var c = CultureInfo.InvariantCulture;
+        var reasons = new List<HealthReason>();
+        if (!snapshot.WorkLoopRunning)
+        {
+            reasons.Add(new("work-loop-stopped", HealthStatus.Unhealthy, "the loop that scans and embeds has stopped; see the log"));
+        }
+
+        if (snapshot.FreeShare is { } free)
+        {
+            if (free < limits.MinFreeShare / 2)
+            {
+                reasons.Add(new("disk-critical", HealthStatus.Unhealthy, string.Create(c, $"the index volume has {free:P1} free; segments cannot be written much longer")));
+            }
+            else if (free < limits.MinFreeShare)
+            {
+                reasons.Add(new("disk-low", HealthStatus.Degraded, string.Create(c, $"the index volume has {free:P1} free (limit {limits.MinFreeShare:P0})")));
+            }
+        }
+
+        if (snapshot.RootsMissing.Count > 0)
+        {
+            reasons.Add(new("root-missing", HealthStatus.Degraded, $"root(s) not found, documents kept for their grace time: {string.Join(", ", snapshot.RootsMissing)}"));
+        }
+
+        if (snapshot.WatchersLost.Count > 0)
+        {
+            reasons.Add(new("watcher-lost", HealthStatus.Degraded, $"no change notifications for: {string.Join(", ", snapshot.WatchersLost)}; only full walks catch changes there"));
+        }
+
+        var overdueAfter = limits.FullWalkInterval * 2;
+        if (snapshot.LastFullWalkAge is { } age ? age > overdueAfter : snapshot.Uptime > overdueAfter)
+        {
+            reasons.Add(new("full-walk-overdue", HealthStatus.Degraded, snapshot.LastFullWalkAge is { } a
+                ? string.Create(c, $"the last full walk finished {a.TotalMinutes:0} min ago (due every {limits.FullWalkInterval.TotalMinutes:0} min)")
+                : string.Create(c, $"no full walk has finished in {snapshot.Uptime.TotalMinutes:0} min")));
+        }
+
+        if (snapshot.BacklogFinish is { } finish && snapshot.WindowEnd is { } end && finish > end)
+        {
+            reasons.Add(new("backlog-past-window", HealthStatus.Degraded, string.Create(c, $"queued work is expected to finish at {finish:O}, after the window ends at {end:O}")));
+        }
+
+        if (snapshot.MigrationQueued > 0)
+        {
+            reasons.Add(new("migration-running", HealthStatus.Degraded, string.Create(c, $"{snapshot.MigrationQueued} page(s) wait to move to the active encoder; results mix nothing but miss those pages")));
+        }
+
+        if (snapshot.DeadRatio > limits.DeadRatio)
+        {
+            reasons.Add(new("dead-ratio-high", HealthStatus.Degraded, string.Create(c, $"{snapshot.DeadRatio:P0} of segment bytes are dead (limit {limits.DeadRatio:P0}); compaction is behind")));
+        }
+
+        if (snapshot.QuarantinedEarlier is { } earlier && snapshot.Quarantined > earlier)
+        {
+            reasons.Add(new("quarantine-growing", HealthStatus.Degraded, string.Create(c, $"quarantine grew from {earlier} to {snapshot.Quarantined} in the last hour")));
+        }
+
+        var status = reasons.Count == 0 ? HealthStatus.Healthy : reasons.Max(r => r.Severity);
+        return new HealthReport(status, reasons);
+    }
+}

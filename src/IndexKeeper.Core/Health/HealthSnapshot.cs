@@ -1,0 +1,23 @@
+namespace IndexKeeper.Core.Health;
+
+/// <summary>The figures the health rules look at, sampled by the daemon at one moment.</summary>
+/// <param name="WorkLoopRunning">False once the loop that scans and embeds has stopped on an error.</param>
+/// <param name="Uptime">Time since the daemon started (a first full walk is not overdue before it had time).</param>
+/// <param name="LastFullWalkAge">Time since the last completed full walk of every root; null when none completed yet.</param>
+/// <param name="BacklogFinish">When queued work is expected to be done under the windows and budget; null when unknown or nothing is queued.</param>
+/// <param name="WindowEnd">The end of the current or next window; null when no windows are configured.</param>
+/// <param name="FreeShare">Free share of the index volume; null when it could not be read.</param>
+/// <param name="QuarantinedEarlier">Quarantined documents and pages an hour ago (null when the daemon is younger).</param>
+public sealed record HealthSnapshot(
+    bool WorkLoopRunning,
+    TimeSpan Uptime,
+    IReadOnlyList<string> RootsMissing,
+    IReadOnlyList<string> WatchersLost,
+    TimeSpan? LastFullWalkAge,
+    DateTimeOffset? BacklogFinish,
+    DateTimeOffset? WindowEnd,
+    long MigrationQueued,
+    double DeadRatio,
+    double? FreeShare,
+    long Quarantined,
+    long? QuarantinedEarlier);

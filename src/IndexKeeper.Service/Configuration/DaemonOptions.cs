@@ -1,0 +1,41 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>Settings of <c>indexkeeper run</c>: the HTTP endpoint, its token, shutdown, logs, telemetry and health limits.</summary>
+public sealed class DaemonOptions
+{
+    /// <summary>HOST:PORT of the HTTP API; loopback by default. Any other address needs a token.</summary>
+    public string Listen { get; set; } = "127.0.0.1:7717";
+
+    /// <summary>Bearer token (prefer <see cref="TokenFile"/> or the environment variable INDEXKEEPER_Daemon__Token).</summary>
+    public string? Token { get; set; }
+
+    /// <summary>A file whose first line is the bearer token (readable by the service account only).</summary>
+    public string? TokenFile { get; set; }
+
+    /// <summary>Time a stop request (SIGTERM, service stop, Ctrl+C) has to finish the batch in flight and seal.</summary>
+    public double ShutdownGraceSeconds { get; set; } = 30;
+
+    /// <summary><c>text</c> or <c>json</c> (one JSON object per line on stderr).</summary>
+    public string LogFormat { get; set; } = "text";
+
+    /// <summary>OTLP endpoint (e.g. http://127.0.0.1:4317) for metrics and traces; empty: no export.</summary>
+    public string? OtlpEndpoint { get; set; }
+
+    /// <summary>Seconds between samples of the figures (metrics, status page chart, health).</summary>
+    public double SampleSeconds { get; set; } = 10;
+
+    /// <summary>Minutes between compaction checks (the policy decides whether anything is due).</summary>
+    public double CompactEveryMinutes { get; set; } = 30;
+
+    /// <summary>A page whose encoder attempt failed this many times is quarantined with its reason.</summary>
+    public int MaxAttempts { get; set; } = 5;
+
+    /// <summary>First retry delay after a failed encoder attempt; each further failure doubles it (capped at one hour).</summary>
+    public double RetryBaseSeconds { get; set; } = 30;
+
+    /// <summary>Health: a dead share of segment bytes above this is reported.</summary>
+    public double HealthDeadRatio { get; set; } = 0.5;
+
+    /// <summary>Health: free space on the index volume below this share is degraded; below half of it unhealthy.</summary>
+    public double HealthMinFreeShare { get; set; } = 0.1;
+}

@@ -1,0 +1,54 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>The daemon's part of <see cref="IndexKeeperOptionsValidator"/>: each failure names its setting.</summary>
+internal static class DaemonOptionsRules
+{
+    public static void Check(List<string> errors, DaemonOptions daemon)
+    {
+        if (!ListenAddress.TryParse(daemon.Listen, out var listen))
+        {
+            errors.Add($"Daemon:Listen: '{daemon.Listen}' is not HOST:PORT with an IP address or localhost (e.g. 127.0.0.1:7717, [::1]:7717).");
+        }
+        else if (!listen!.IsLoopback && string.IsNullOrWhiteSpace(daemon.Token) && string.IsNullOrWhiteSpace(daemon.TokenFile))
+        {
+            // Off loopback, anyone on the network could read the index and its document paths.
+            errors.Add($"Daemon:TokenFile: the API listens on '{daemon.Listen}', which is not a loopback address; set Daemon:TokenFile (or Daemon:Token, e.g. from INDEXKEEPER_Daemon__Token) so requests need a bearer token, or listen on 127.0.0.1.");
+        }
+
+        if (!string.IsNullOrWhiteSpace(daemon.TokenFile) && !File.Exists(daemon.TokenFile))
+        {
+            errors.Add($"Daemon:TokenFile: the file '{daemon.TokenFile}' does not exist.");
+        }
+
+        if (daemon.Token is { } token && token.Length is > 0 and < 16)
+        {
+            errors.Add("Daemon:Token: use at least 16 characters.");
+        }
+
+        if (daemon.LogFormat is not ("text" or "json"))
+        {
+            errors.Add($"Daemon:LogFormat: '{daemon.LogFormat}' is not allowed; use text or json.");
+        }
+
+        if (!string.IsNullOrWhiteSpace(daemon.OtlpEndpoint) && !Uri.TryCreate(daemon.OtlpEndpoint, UriKind.Absolute, out _))
+        {
+            errors.Add($"Daemon:OtlpEndpoint: '{daemon.OtlpEndpoint}' is not an absolute URL.");
+        }
+
+        Range(errors, "Daemon:ShutdownGraceSeconds", daemon.ShutdownGraceSeconds, 1, 3600);
+        Range(errors, "Daemon:SampleSeconds", daemon.SampleSeconds, 0.1, 3600);
+        Range(errors, "Daemon:CompactEveryMinutes", daemon.CompactEveryMinutes, 0.05, 7 * 24 * 60);
+        Range(errors, "Daemon:MaxAttempts", daemon.MaxAttempts, 1, 100);
+        Range(errors, "Daemon:RetryBaseSeconds", daemon.RetryBaseSeconds, 0.01, 86400);
+        Range(errors, "Daemon:HealthDeadRatio", daemon.HealthDeadRatio, 0.01, 1);
+        Range(errors, "Daemon:HealthMinFreeShare", daemon.HealthMinFreeShare, 0, 0.9);
+    }
+
+    private static void Range(List<string> errors, string name, double value, double min, double max)
+    {
+        if (double.IsNaN(value) || value < min || value > max)
+        {
+            errors.Add($"{name}: {value} is out of range; allowed {min} to {max}.");
+        }
+    }
+}

@@ -1,0 +1,113 @@
+using System.Globalization;
+using IndexKeeper.Core.Health;
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Planning;
+using IndexKeeper.Service.Querying;
+using Microsoft.AspNetCore.Builder;
+using Microsoft.AspNetCore.Http;
+using Microsoft.Extensions.Logging;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>The daemon's HTTP paths (DESIGN.md): metrics, health, the status page and the JSON API.</summary>
+internal static class DaemonApi
+{
+    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, string? token)
+    {
+        if (token is not null)
+        {
+            app.Use(async (context, next) =>
+            {
+                // The page itself holds no figures (it asks the API with the token the operator types in);
+                // everything else needs the token.
+                if (context.Request.Path == "/" || BearerTokens.Matches(context.Request.Headers.Authorization, token))
+                {
+                    await next(context).ConfigureAwait(false);
+                    return;
+                }
+
+                context.Response.StatusCode = StatusCodes.Status401Unauthorized;
+                context.Response.Headers.WWWAuthenticate = "Bearer realm=\"indexkeeper\"";
+                await context.Response.WriteAsync("a bearer token is required\n").ConfigureAwait(false);
+            });
+        }
+
+        app.Use(async (context, next) =>
+        {
+            try
+            {
+                await next(context).ConfigureAwait(false);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException && !context.Response.HasStarted)
+            {
+                // A failed question is the caller's answer, with its reason; the daemon goes on.
+                app.Logger.LogError(ex, "{Path} failed: {Message}", context.Request.Path, ex.Message);
+                context.Response.StatusCode = StatusCodes.Status500InternalServerError;
+                await context.Response.WriteAsJsonAsync(new { error = ex.Message }, ApiJson.Options).ConfigureAwait(false);
+            }
+        });
+        app.MapPrometheusScrapingEndpoint("/metrics");
+        app.MapGet("/health", () =>
+        {
+            var report = HealthRules.Evaluate(state.HealthSnapshot(), limits);
+            return Results.Json(report, ApiJson.Options, statusCode: report.Status == HealthStatus.Unhealthy ? 503 : 200);
+        });
+        app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
+        app.MapGet("/api/status", () => Results.Json(StatusReport.Build(session), ApiJson.Options));
+        app.MapGet("/api/daemon", () => Results.Json(Report(session, state, limits), ApiJson.Options));
+        app.MapGet("/api/search", (string? q, string? k, CancellationToken cancellationToken) =>
+        {
+            if (string.IsNullOrWhiteSpace(q))
+            {
+                return Results.Json(new { error = "q: give the query text, e.g. /api/search?q=valve+inspection&k=10" }, ApiJson.Options, statusCode: 400);
+            }
+
+            var top = 10;
+            if (k is not null && (!int.TryParse(k, NumberStyles.None, CultureInfo.InvariantCulture, out top) || top is < 1 or > 1000))
+            {
+                return Results.Json(new { error = "k: give a whole number from 1 to 1000" }, ApiJson.Options, statusCode: 400);
+            }
+
+            return Results.Json(PageSearcher.Search(session, q.Trim(), top, cancellationToken), ApiJson.Options);
+        });
+        app.MapGet("/api/plan", async (string? calibrate) =>
+        {
+            // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
+            var wantCalibration = calibrate is "1" or "true";
+            var report = await state.OnWorkLoop(() => PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
+            return Results.Json(report, ApiJson.Options);
+        });
+        app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
+            Results.Json(DocumentLister.List(session, root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
+    }
+
+    private static DaemonReport Report(IndexSession session, DaemonState state, HealthLimits limits)
+    {
+        var figures = state.Figures;
+        var allowance = state.Allowance;
+        return new DaemonReport
+        {
+            Started = state.Started,
+            LastFullWalk = state.LastFullWalk,
+            PagesPerSecond = Math.Round(state.PagesPerSecond, 3),
+            PagesEmbedded = state.PagesEmbedded,
+            WatcherOverflows = state.WatcherOverflows,
+            WindowOpen = allowance.WindowOpen,
+            WindowEnd = allowance.WindowEnd,
+            Windows = session.Options.Schedule.EffectiveWindows,
+            TimeZone = ScheduleSetup.Zone(session.Options.Schedule).Id,
+            QueuedFresh = figures.QueuedFresh,
+            QueuedMigration = figures.QueuedMigration,
+            QueuedCanary = figures.QueuedCanary,
+            Health = HealthRules.Evaluate(state.HealthSnapshot(), limits),
+            Roots = state.Roots,
+            QuarantinedPages = session.Catalog.QuarantinedPages().Take(200).Select(q =>
+            {
+                var page = session.Catalog.FindPage(q.Id);
+                return new QuarantinedPage(q.Id, page?.SourceRoot ?? string.Empty, page?.SourcePath ?? string.Empty, page?.SourcePage ?? 0, q.Attempts, q.LastError ?? string.Empty, q.QuarantinedUtc ?? q.EnqueuedUtc);
+            }).ToList(),
+            Samples = state.Samples.Snapshot(),
+        };
+    }
+}

@@ -1,0 +1,154 @@
+using IndexKeeper.Core.Health;
+using IndexKeeper.Core.Telemetry;
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Hosting;
+using Microsoft.AspNetCore.Builder;
+using Microsoft.AspNetCore.Hosting;
+using Microsoft.AspNetCore.Hosting.Server;
+using Microsoft.AspNetCore.Hosting.Server.Features;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Logging;
+using Microsoft.Extensions.Logging.Console;
+using OpenTelemetry.Exporter;
+using OpenTelemetry.Metrics;
+using OpenTelemetry.Resources;
+using OpenTelemetry.Trace;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>
+/// <c>indexkeeper run</c>: takes the index lock, then hosts the work loop and the HTTP API on the generic
+/// host, in a terminal, under systemd (Type=notify) or as a Windows service. A stop request (SIGTERM,
+/// service stop, Ctrl+C) gives the work loop Daemon:ShutdownGraceSeconds to finish its unit and seal.
+/// </summary>
+public static class DaemonHost
+{
+    public static async Task<int> RunAsync(IndexKeeperOptions options, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        ListenAddress.TryParse(options.Daemon.Listen, out var listen);
+        var token = BearerTokens.Resolve(options.Daemon);
+        using var session = IndexSession.Open(options, DaemonClient.LockPurpose);
+
+        // Built and repaired before any thread can race for them.
+        _ = session.Store;
+        _ = session.Encoder;
+        var app = Build(options, session, listen!, token);
+        var state = app.Services.GetRequiredService<DaemonState>();
+        var worker = app.Services.GetRequiredService<IndexWorker>();
+        var lifetime = app.Services.GetRequiredService<IHostApplicationLifetime>();
+        lifetime.ApplicationStarted.Register(() =>
+        {
+            var url = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()?.Addresses.FirstOrDefault() ?? listen!.ClientUrl;
+            new DaemonEndpoint(DaemonEndpoint.CurrentVersion, url.Replace("0.0.0.0", "127.0.0.1", StringComparison.Ordinal).Replace("[::]", "[::1]", StringComparison.Ordinal), Environment.ProcessId, token is not null)
+                .Write(session.IndexDirectory);
+            app.Logger.LogInformation("IndexKeeper is running: index {Index}, API at {Url}.", session.IndexDirectory, url);
+        });
+        try
+        {
+            await app.RunAsync(cancellationToken).ConfigureAwait(false);
+        }
+        catch (IOException ex) when (!lifetime.ApplicationStarted.IsCancellationRequested)
+        {
+            // Kestrel could not bind (port taken, address not on this machine): a setting to change.
+            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message}"]);
+        }
+        finally
+        {
+            DaemonEndpoint.Remove(session.IndexDirectory);
+
+            // The session closes only after the work loop's thread has ended: never under a writer.
+            if (await Task.WhenAny(worker.Completion, Task.Delay(TimeSpan.FromSeconds(options.Daemon.ShutdownGraceSeconds))).ConfigureAwait(false) != worker.Completion)
+            {
+                // Still writing after the grace period: exit without closing the catalog under it; the OS
+                // releases the lock and the next open recovers (nothing uncommitted is visible).
+                Environment.Exit(1);
+            }
+
+            await app.DisposeAsync().ConfigureAwait(false);
+        }
+
+        return state.HasWorkLoopFailed ? 1 : 0;
+    }
+
+    private static WebApplication Build(IndexKeeperOptions options, IndexSession session, ListenAddress listen, string? token)
+    {
+        var daemon = options.Daemon;
+        var builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions { ContentRootPath = AppContext.BaseDirectory, Args = [] });
+
+        // Settings come from IndexKeeper's own loader only; no appsettings.json or ASPNETCORE_* surprises.
+        builder.Configuration.Sources.Clear();
+        builder.Host.UseSystemd();
+        builder.Host.UseWindowsService(o => o.ServiceName = "IndexKeeper");
+        builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = TimeSpan.FromSeconds(daemon.ShutdownGraceSeconds));
+        builder.WebHost.ConfigureKestrel(k => k.Listen(listen.Address, listen.Port));
+
+        builder.Logging.ClearProviders();
+        builder.Logging.SetMinimumLevel(LogLevel.Information);
+        builder.Logging.AddFilter("Microsoft", LogLevel.Warning);
+        builder.Logging.AddFilter("Microsoft.Hosting.Lifetime", LogLevel.Information);
+        builder.Logging.AddConsole(o => o.LogToStandardErrorThreshold = LogLevel.Trace);
+        if (daemon.LogFormat == "json")
+        {
+            builder.Logging.AddJsonConsole(o =>
+            {
+                o.UseUtcTimestamp = true;
+                o.TimestampFormat = "yyyy-MM-ddTHH:mm:ss.fffZ";
+            });
+            builder.Services.Configure<ConsoleLoggerOptions>(o => o.FormatterName = ConsoleFormatterNames.Json);
+        }
+        else
+        {
+            builder.Logging.AddSimpleConsole(o =>
+            {
+                o.SingleLine = true;
+                o.UseUtcTimestamp = true;
+                o.TimestampFormat = "yyyy-MM-ddTHH:mm:ssZ ";
+            });
+        }
+
+        var otlp = string.IsNullOrWhiteSpace(daemon.OtlpEndpoint) ? null : new Uri(daemon.OtlpEndpoint);
+        var telemetry = builder.Services.AddOpenTelemetry().ConfigureResource(r => r.AddService("indexkeeper"));
+        telemetry.WithMetrics(m =>
+        {
+            m.AddMeter(CoreTelemetry.Name).AddPrometheusExporter();
+            if (otlp is not null)
+            {
+                m.AddOtlpExporter(o => o.Endpoint = otlp);
+            }
+        });
+        if (otlp is not null)
+        {
+            telemetry.WithTracing(t => t.AddSource(CoreTelemetry.Name).AddOtlpExporter(o =>
+            {
+                o.Endpoint = otlp;
+                o.Protocol = OtlpExportProtocol.Grpc;
+            }));
+        }
+
+        var ringCapacity = (int)Math.Clamp(TimeSpan.FromDays(1) / TimeSpan.FromSeconds(daemon.SampleSeconds), 16, 86_400);
+        builder.Services.AddSingleton(session);
+        builder.Services.AddSingleton(new DaemonState(TimeProvider.System, ringCapacity));
+        builder.Services.AddSingleton<IEmbedGate>(new ScheduledEmbedGate(ScheduleSetup.Gate(options.Schedule)));
+        builder.Services.AddSingleton(sp => new RootWatchers(
+            session.ScanSettings().Roots,
+            TimeSpan.FromSeconds(options.Detect.SettleSeconds),
+            options.Detect.MaxPendingPaths,
+            options.Detect.WatcherBufferKilobytes * 1024,
+            TimeSpan.FromHours(options.Detect.RootGoneGraceHours),
+            sp.GetRequiredService<DaemonState>(),
+            sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.Watch")));
+        builder.Services.AddSingleton<DaemonMetrics>();
+        builder.Services.AddSingleton<IndexWorker>();
+        builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
+
+        var app = builder.Build();
+
+        // Instruments exist before the first scrape.
+        _ = app.Services.GetRequiredService<DaemonMetrics>();
+        var limits = new HealthLimits(TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare);
+        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, token);
+        return app;
+    }
+}

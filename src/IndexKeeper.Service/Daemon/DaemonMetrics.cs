@@ -1,0 +1,67 @@
+using System.Diagnostics.Metrics;
+using IndexKeeper.Core.Telemetry;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>
+/// The daemon's observable instruments on the <c>IndexKeeper</c> meter, read from the sampled figures (a
+/// scrape never touches the catalog). The engine's own counters and histograms are in <see cref="CoreTelemetry"/>.
+/// Exposition names (Prometheus): dots become underscores, the unit is appended (<c>_seconds</c>, <c>_bytes</c>)
+/// and counters end in <c>_total</c>.
+/// </summary>
+internal sealed class DaemonMetrics : IDisposable
+{
+    private readonly Meter meter = new(CoreTelemetry.Name);
+
+    public DaemonMetrics(DaemonState state)
+    {
+        static KeyValuePair<string, object?> Tag(string key, string value) => new(key, value);
+
+        meter.CreateObservableGauge("indexkeeper.documents", () =>
+        {
+            var f = state.Figures;
+            return new[] { new Measurement<long>(f.DocumentsLive, Tag("state", "live")), new Measurement<long>(f.DocumentsQuarantined, Tag("state", "quarantined")) };
+        }, "{document}", "Documents by state.");
+        meter.CreateObservableGauge("indexkeeper.pages", () =>
+        {
+            var f = state.Figures;
+            return new[]
+            {
+                new Measurement<long>(f.Pages, Tag("state", "live")),
+                new Measurement<long>(f.PagesWithVectors, Tag("state", "embedded")),
+                new Measurement<long>(f.Queued, Tag("state", "queued")),
+                new Measurement<long>(f.PagesQuarantined, Tag("state", "quarantined")),
+            };
+        }, "{page}", "Distinct page keys by state.");
+        meter.CreateObservableGauge("indexkeeper.queue.depth", () =>
+        {
+            var f = state.Figures;
+            return new[]
+            {
+                new Measurement<long>(f.QueuedFresh, Tag("priority", "fresh")),
+                new Measurement<long>(f.QueuedMigration, Tag("priority", "migration")),
+                new Measurement<long>(f.QueuedCanary, Tag("priority", "canary")),
+            };
+        }, "{page}", "Queued pages by priority.");
+        meter.CreateObservableGauge("indexkeeper.embed.rate", () => state.PagesPerSecond, "{page}/s", "Pages embedded per second over the last sample interval.");
+        meter.CreateObservableGauge("indexkeeper.full_walk.age", () => state.LastFullWalk is { } at ? (state.Clock.GetUtcNow() - at).TotalSeconds : double.NaN, "s", "Time since the last completed full walk of every root.");
+        meter.CreateObservableCounter("indexkeeper.watcher.overflows", () => state.WatcherOverflows, "{overflow}", "Change notification overflows that fell back to a full walk.");
+        meter.CreateObservableGauge("indexkeeper.quarantine", () =>
+        {
+            var f = state.Figures;
+            return new[] { new Measurement<long>(f.DocumentsQuarantined, Tag("kind", "document")), new Measurement<long>(f.PagesQuarantined, Tag("kind", "page")) };
+        }, "{item}", "Quarantined documents (unreadable) and pages (encoder kept failing).");
+        meter.CreateObservableGauge("indexkeeper.segments", () =>
+        {
+            var f = state.Figures;
+            return new[] { new Measurement<long>(f.SegmentsOpen, Tag("state", "open")), new Measurement<long>(f.SegmentsSealed, Tag("state", "sealed")) };
+        }, "{segment}", "Segment files by state.");
+        meter.CreateObservableGauge("indexkeeper.dead.ratio", () => state.Figures.DeadRatio, "1", "Share of segment bytes no live vector set uses.");
+        meter.CreateObservableGauge("indexkeeper.disk.usage", () => state.Figures.BytesOnDisk, "By", "Bytes of the index directory on disk.");
+        meter.CreateObservableGauge("indexkeeper.pages.drifted", () => state.Figures.QueuedMigration, "{page}", "Pages waiting to be embedded again under the active encoder.");
+        meter.CreateObservableGauge("indexkeeper.window.open", () => state.Allowance.WindowOpen ? 1 : 0, "1", "1 while a work window is open, 0 outside windows (the budget applies).");
+        meter.CreateObservableGauge("indexkeeper.roots.missing", () => state.Roots.Count(r => r.MissingSinceUtc is not null), "{root}", "Roots that are gone (documents kept for their grace time).");
+    }
+
+    public void Dispose() => meter.Dispose();
+}

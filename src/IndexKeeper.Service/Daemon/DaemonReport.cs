@@ -1,0 +1,40 @@
+using IndexKeeper.Core.Health;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>What only a running daemon knows (<c>/api/daemon</c>): roots, walks, rates, the gate, health, the chart's samples, quarantined pages.</summary>
+public sealed class DaemonReport
+{
+    public DateTimeOffset Started { get; init; }
+
+    public DateTimeOffset? LastFullWalk { get; init; }
+
+    public double PagesPerSecond { get; init; }
+
+    public long PagesEmbedded { get; init; }
+
+    public long WatcherOverflows { get; init; }
+
+    public bool WindowOpen { get; init; }
+
+    public DateTimeOffset? WindowEnd { get; init; }
+
+    /// <summary>The windows in force, as configured (docs/scheduling.md), and the zone they are read in.</summary>
+    public IReadOnlyList<string> Windows { get; init; } = [];
+
+    public string TimeZone { get; init; } = string.Empty;
+
+    public long QueuedFresh { get; init; }
+
+    public long QueuedMigration { get; init; }
+
+    public long QueuedCanary { get; init; }
+
+    public required HealthReport Health { get; init; }
+
+    public IReadOnlyList<RootState> Roots { get; init; } = [];
+
+    public IReadOnlyList<QuarantinedPage> QuarantinedPages { get; init; } = [];
+
+    public IReadOnlyList<Sample> Samples { get; init; } = [];
+}

@@ -1,0 +1,154 @@
+using System.Collections.Concurrent;
+using System.Threading.Channels;
+using IndexKeeper.Core.Health;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>
+/// What the work loop, the watchers and the HTTP side share: the latest figures, root states, counters and
+/// the chart's samples. Written by the work loop and the watchers, read by HTTP threads and metrics; every
+/// member is safe to use from any thread.
+/// </summary>
+internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
+{
+    private readonly ConcurrentDictionary<string, RootState> roots = new(StringComparer.Ordinal);
+    private readonly ConcurrentQueue<(DateTimeOffset At, long Quarantined)> quarantineHistory = new();
+    private long watcherOverflows;
+    private long pagesEmbedded;
+    private long lastFullWalkTicks = -1;
+    private volatile bool workLoopRunning = true;
+    private volatile bool workLoopFailed;
+    private volatile DaemonFigures figures = DaemonFigures.Empty;
+    private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
+    private double pagesPerSecond;
+    private readonly Channel<Action> requests = Channel.CreateBounded<Action>(new BoundedChannelOptions(16) { SingleReader = true });
+    private readonly AutoResetEvent requestArrived = new(false);
+
+    public DateTimeOffset Started { get; } = clock.GetUtcNow();
+
+    public TimeProvider Clock => clock;
+
+    public SampleRing Samples { get; } = new(ringCapacity);
+
+    public DaemonFigures Figures => figures;
+
+    public EmbedAllowance Allowance
+    {
+        get => allowance;
+        set => allowance = value;
+    }
+
+    public double PagesPerSecond => Volatile.Read(ref pagesPerSecond);
+
+    public long WatcherOverflows => Interlocked.Read(ref watcherOverflows);
+
+    public long PagesEmbedded => Interlocked.Read(ref pagesEmbedded);
+
+    public bool WorkLoopRunning => workLoopRunning;
+
+    public DateTimeOffset? LastFullWalk => Interlocked.Read(ref lastFullWalkTicks) is var t and >= 0 ? new DateTimeOffset(t, TimeSpan.Zero) : null;
+
+    public IReadOnlyList<RootState> Roots => roots.Values.OrderBy(r => r.Name, StringComparer.Ordinal).ToList();
+
+    /// <summary>Set when a request for the work loop's thread arrives.</summary>
+    public WaitHandle RequestArrived => requestArrived;
+
+    /// <summary>
+    /// Runs <paramref name="work"/> on the work loop's thread between two units of work (the document reader
+    /// and the writer's state belong to that thread). Full (16 waiting) means busy: the caller says so.
+    /// </summary>
+    public Task<T> OnWorkLoop<T>(Func<T> work)
+    {
+        var done = new TaskCompletionSource<T>(TaskCreationOptions.RunContinuationsAsynchronously);
+        if (!workLoopRunning)
+        {
+            done.SetException(new InvalidOperationException("the work loop has stopped"));
+        }
+        else if (!requests.Writer.TryWrite(() =>
+        {
+            try
+            {
+                done.SetResult(work());
+            }
+            catch (Exception ex)
+            {
+                done.SetException(ex);
+            }
+        }))
+        {
+            done.SetException(new InvalidOperationException("the work loop has too many requests waiting; try again shortly"));
+        }
+
+        requestArrived.Set();
+        return done.Task;
+    }
+
+    /// <summary>Runs the waiting requests; called by the work loop only.</summary>
+    public void RunRequests()
+    {
+        while (requests.Reader.TryRead(out var request))
+        {
+            request();
+        }
+    }
+
+    public void SetRoot(RootState root) => roots[root.Name] = root;
+
+    public RootState? Root(string name) => roots.GetValueOrDefault(name);
+
+    public void CountOverflow() => Interlocked.Increment(ref watcherOverflows);
+
+    public void CountEmbedded(long pages) => Interlocked.Add(ref pagesEmbedded, pages);
+
+    public void FullWalkDone(DateTimeOffset at) => Interlocked.Exchange(ref lastFullWalkTicks, at.UtcTicks);
+
+    /// <summary>The loop ended (stop request or failure): health says so and requests are refused.</summary>
+    public void WorkLoopStopped() => workLoopRunning = false;
+
+    /// <summary>The loop ended on an error: the process exits with 1.</summary>
+    public void WorkLoopFailed() => workLoopFailed = true;
+
+    public bool HasWorkLoopFailed => workLoopFailed;
+
+    /// <summary>Takes a new sample of the figures; pages/s is the embedding rate since the previous sample.</summary>
+    public void Publish(DaemonFigures latest, long embeddedSincePrevious)
+    {
+        var previous = figures;
+        var seconds = previous.At == DateTimeOffset.MinValue ? 0 : (latest.At - previous.At).TotalSeconds;
+        var rate = seconds > 0 ? embeddedSincePrevious / seconds : 0;
+        Volatile.Write(ref pagesPerSecond, rate);
+        figures = latest;
+        Samples.Add(new Sample(latest.At, latest.Queued, Math.Round(rate, 3)));
+        var quarantined = latest.DocumentsQuarantined + latest.PagesQuarantined;
+        quarantineHistory.Enqueue((latest.At, quarantined));
+        while (quarantineHistory.TryPeek(out var oldest) && latest.At - oldest.At > TimeSpan.FromHours(1) && quarantineHistory.Count > 1)
+        {
+            quarantineHistory.TryDequeue(out _);
+        }
+    }
+
+    /// <summary>The snapshot the health rules judge.</summary>
+    public HealthSnapshot HealthSnapshot()
+    {
+        var now = clock.GetUtcNow();
+        var latest = figures;
+        long? earlier = quarantineHistory.TryPeek(out var oldest) && now - oldest.At >= TimeSpan.FromMinutes(55) ? oldest.Quarantined : null;
+        var rootStates = Roots;
+        var rate = PagesPerSecond;
+        var allowed = allowance;
+        DateTimeOffset? finish = latest.Queued > 0 && rate > 0 ? now + TimeSpan.FromSeconds(latest.Queued / rate) : null;
+        return new HealthSnapshot(
+            workLoopRunning,
+            now - Started,
+            rootStates.Where(r => r.MissingSinceUtc is not null).Select(r => r.Name).ToList(),
+            rootStates.Where(r => r.MissingSinceUtc is null && !r.Watching).Select(r => r.Name).ToList(),
+            LastFullWalk is { } walk ? now - walk : null,
+            finish,
+            allowed.WindowEnd,
+            latest.QueuedMigration,
+            latest.DeadRatio,
+            latest.FreeShare,
+            latest.DocumentsQuarantined + latest.PagesQuarantined,
+            earlier);
+    }
+}

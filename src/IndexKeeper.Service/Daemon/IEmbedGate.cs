@@ -1,0 +1,15 @@
+using IndexKeeper.Core.Scheduling;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>Decides how much queued work the encoder may take now (windows and the daytime budget).</summary>
+internal interface IEmbedGate
+{
+    EmbedAllowance Allowance(DateTimeOffset now, QueuedPages queued);
+
+    /// <summary>Tells the gate how many pages were just embedded under its last allowance (the budget spends them).</summary>
+    void Spent(DateTimeOffset now, long pages);
+
+    /// <summary>Budget grants still counting (for the plan's simulation).</summary>
+    IReadOnlyList<BudgetSpend> Spends { get; }
+}

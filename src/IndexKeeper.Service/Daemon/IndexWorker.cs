@@ -1,0 +1,377 @@
+using System.Diagnostics;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Scheduling;
+using IndexKeeper.Service.Hosting;
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Logging;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>
+/// The daemon's one writer: on a dedicated thread it walks, scans changed paths, embeds what the gate
+/// allows one batch at a time, compacts and samples figures. Between units of work it looks at the stop
+/// request; the unit in flight gets the rest of the grace period (and is abandoned, uncommitted, after it).
+/// On the way out it seals the open segments.
+/// </summary>
+/// <remarks>REQUIRES: the session's index lock is held for the worker's whole life; nothing else writes the index.</remarks>
+internal sealed class IndexWorker(
+    IndexSession session,
+    DaemonState state,
+    RootWatchers watchers,
+    IEmbedGate gate,
+    IHostApplicationLifetime lifetime,
+    ILogger<IndexWorker> log) : BackgroundService
+{
+    private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(session.Options.Detect.FullWalkMinutes);
+    private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(session.Options.Daemon.SampleSeconds);
+    private readonly TimeSpan compactInterval = TimeSpan.FromMinutes(session.Options.Daemon.CompactEveryMinutes);
+    private readonly TimeSpan grace = TimeSpan.FromSeconds(session.Options.Daemon.ShutdownGraceSeconds);
+    private readonly RetryPolicy retry = new(
+        session.Options.Daemon.MaxAttempts, TimeSpan.FromSeconds(session.Options.Daemon.RetryBaseSeconds), TimeSpan.FromHours(1));
+
+    private readonly CancellationTokenSource hardStop = new();
+    private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
+    private long embeddedSinceSample;
+
+    /// <summary>Completes when the loop's thread has ended (or never started): only then may the session be closed.</summary>
+    public Task Completion => completion.Task;
+
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        // Hard stop: a little before the host gives up, so sealing still fits in the grace period.
+        stoppingToken.Register(() =>
+        {
+            try
+            {
+                hardStop.CancelAfter(grace * 0.8);
+            }
+            catch (ObjectDisposedException)
+            {
+                // The loop is over and the worker disposed: nothing left to stop.
+            }
+        });
+        try
+        {
+            // Nothing is written before the host is up: a server that cannot bind never touches the index.
+            await Task.Delay(Timeout.Infinite, CancellationTokenSource.CreateLinkedTokenSource(stoppingToken, lifetime.ApplicationStarted).Token).ConfigureAwait(false);
+        }
+        catch (OperationCanceledException)
+        {
+        }
+
+        if (stoppingToken.IsCancellationRequested)
+        {
+            completion.TrySetResult();
+            return;
+        }
+
+        await Task.Factory.StartNew(
+            () =>
+            {
+                try
+                {
+                    Loop(stoppingToken);
+                }
+                finally
+                {
+                    completion.TrySetResult();
+                }
+            },
+            CancellationToken.None,
+            TaskCreationOptions.LongRunning,
+            TaskScheduler.Default).ConfigureAwait(false);
+    }
+
+    public override void Dispose()
+    {
+        hardStop.Dispose();
+        base.Dispose();
+    }
+
+    private void Loop(CancellationToken stopping)
+    {
+        var clock = state.Clock;
+        var nextFullWalk = DateTimeOffset.MinValue;
+        var nextSample = DateTimeOffset.MinValue;
+        var nextCompaction = clock.GetUtcNow() + compactInterval;
+        try
+        {
+            while (!stopping.IsCancellationRequested)
+            {
+                var now = clock.GetUtcNow();
+                foreach (var gone in watchers.CheckRoots())
+                {
+                    ForgetRoot(gone);
+                }
+
+                state.RunRequests();
+                var busy = false;
+                if (now >= nextFullWalk)
+                {
+                    // At start too: whatever changed while the daemon was down is found by this walk.
+                    FullWalk(session.ScanSettings().Roots.Where(IsPresent).ToList(), "run: full walk");
+                    state.FullWalkDone(clock.GetUtcNow());
+                    nextFullWalk = clock.GetUtcNow() + fullWalkInterval;
+                    busy = true;
+                }
+
+                var (walks, settled, nextSettle) = watchers.Take(clock.GetUtcNow().UtcDateTime);
+                if (walks.Count > 0)
+                {
+                    var specs = session.ScanSettings().Roots.Where(r => walks.Contains(r.Name) && IsPresent(r)).ToList();
+                    FullWalk(specs, "run: root walk");
+                    busy = true;
+                }
+
+                if (settled.Count > 0 && !stopping.IsCancellationRequested)
+                {
+                    Targeted(settled);
+                    busy = true;
+                }
+
+                if (!stopping.IsCancellationRequested)
+                {
+                    busy |= EmbedOneBatch();
+                }
+
+                now = clock.GetUtcNow();
+                if (now >= nextSample)
+                {
+                    Sample(now);
+                    nextSample = now + sampleInterval;
+                }
+
+                if (now >= nextCompaction && !stopping.IsCancellationRequested)
+                {
+                    Compact();
+                    nextCompaction = clock.GetUtcNow() + compactInterval;
+                }
+
+                SealByAge();
+                if (!busy)
+                {
+                    // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
+                    var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
+                    if (nextSettle is { } settle)
+                    {
+                        wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
+                    }
+
+                    WaitHandle.WaitAny([watchers.Wake, state.RequestArrived, stopping.WaitHandle], wait);
+                }
+            }
+        }
+        catch (OperationCanceledException) when (stopping.IsCancellationRequested)
+        {
+            log.LogWarning("The unit of work in flight did not finish within the grace period; it was abandoned uncommitted.");
+        }
+        catch (Exception ex)
+        {
+            // Health turns unhealthy; the HTTP side keeps answering so operators can see why.
+            state.WorkLoopFailed();
+            log.LogCritical(ex, "The work loop stopped: {Message}", ex.Message);
+            return;
+        }
+        finally
+        {
+            SealOnExit();
+            state.WorkLoopStopped();
+            state.RunRequests();
+        }
+
+        log.LogInformation("Work loop stopped cleanly.");
+    }
+
+    private bool IsPresent(RootSpec root) => state.Root(root.Name) is { MissingSinceUtc: null };
+
+    private void FullWalk(IReadOnlyList<RootSpec> roots, string command)
+    {
+        if (roots.Count == 0)
+        {
+            return;
+        }
+
+        var settings = session.ScanSettings() with { Roots = roots };
+        var summary = new ScanPass(session.Catalog, session.Reader, settings).Run(command, hardStop.Token);
+        Log(command, summary);
+    }
+
+    private void Targeted(IReadOnlyList<ChangedPath> settled)
+    {
+        // A folder event (created, moved in or out, deleted) is not worth untangling path by path: walk its root.
+        var files = new List<ChangedPath>();
+        var walk = new HashSet<string>(StringComparer.Ordinal);
+        var rootPaths = session.RootPaths;
+        foreach (var path in settled)
+        {
+            if (!rootPaths.TryGetValue(path.Root, out var rootPath))
+            {
+                continue;
+            }
+
+            var full = Path.Combine(rootPath, path.RelativePath.Replace('/', Path.DirectorySeparatorChar));
+            var kind = FileStatReader.Read(full).Kind;
+            if (kind == EntryKind.Directory || (kind == EntryKind.Missing && session.Catalog.FindDocument(path.Root, path.RelativePath) is null && !LooksLikeFile(path)))
+            {
+                walk.Add(path.Root);
+            }
+            else
+            {
+                files.Add(path);
+            }
+        }
+
+        if (files.Count > 0)
+        {
+            var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).RunPaths("run: changes", files, hardStop.Token);
+            Log("run: changes", summary);
+            if (summary.DocumentsDeferred > 0)
+            {
+                // Still being written: look again once they have been quiet.
+                watchers.NoteAgain(files);
+            }
+        }
+
+        foreach (var root in walk)
+        {
+            watchers.RequestWalk(root);
+        }
+    }
+
+    /// <summary>A vanished path with a document type's extension was a file nobody indexed (a temp file); with none it may have been a folder.</summary>
+    private static bool LooksLikeFile(ChangedPath path) => Path.HasExtension(path.RelativePath);
+
+    private bool EmbedOneBatch()
+    {
+        var now = state.Clock.GetUtcNow();
+        var allowance = gate.Allowance(now, session.Catalog.DueQueued(now.UtcDateTime));
+        state.Allowance = allowance;
+        if (allowance.MaxPages <= 0)
+        {
+            return false;
+        }
+
+        // A few batches per turn: changes and stop requests are looked at in between, and the embed
+        // history (one record per call, for the plan's throughput) does not get a record per batch.
+        var batch = Math.Min(allowance.MaxPages, session.Options.Encoder.BatchSize * 4L);
+        var summary = new ScanSummary();
+        var stopwatch = Stopwatch.StartNew();
+        var embedded = new EmbedPass(session.Catalog, session.Store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize, retry: retry)
+            .Run(summary, batch, allowance.LowestPriority, hardStop.Token);
+        foreach (var problem in summary.Problems)
+        {
+            log.LogWarning("Embed: {Problem}", problem);
+        }
+
+        if (embedded > 0)
+        {
+            gate.Spent(now, embedded);
+            state.CountEmbedded(embedded);
+            Interlocked.Add(ref embeddedSinceSample, embedded);
+            log.LogDebug("Embedded {Pages} page(s) in {Seconds:0.000} s.", embedded, stopwatch.Elapsed.TotalSeconds);
+        }
+
+        return embedded > 0 || summary.PagesFailed > 0;
+    }
+
+    private void ForgetRoot(string root)
+    {
+        if (!session.Catalog.DocumentsOfRoot(root).Any())
+        {
+            return;
+        }
+
+        log.LogWarning("Root {Root} has been gone longer than Detect:RootGoneGraceHours; removing its documents from the index.", root);
+        var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).RunForgetRoot("run: root gone", root, hardStop.Token);
+        Log("run: root gone", summary);
+    }
+
+    private void Compact()
+    {
+        var options = session.CompactionOptions();
+        if (!session.Store.CompactionDue(options))
+        {
+            return;
+        }
+
+        session.Store.SealAll();
+        var report = session.Store.Compact(options, hardStop.Token);
+        log.LogInformation(
+            "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed.", report.Jobs, report.SegmentsRewritten, report.BytesReclaimed);
+    }
+
+    private void SealByAge()
+    {
+        if (session.Store.OldestOpenSince() is { } since && state.Clock.GetUtcNow() - since >= TimeSpan.FromHours(session.Options.Storage.SealAtHours))
+        {
+            session.Store.SealAll();
+        }
+    }
+
+    private void Sample(DateTimeOffset now)
+    {
+        var catalog = session.Catalog;
+        var figures = catalog.Figures();
+        var depths = catalog.QueueDepths();
+        var segments = catalog.Segments();
+        var segmentBytes = segments.Sum(s => s.Length);
+        double? free = null;
+        try
+        {
+            var drive = new DriveInfo(session.IndexDirectory);
+            free = drive.TotalSize > 0 ? (double)drive.AvailableFreeSpace / drive.TotalSize : null;
+        }
+        catch (Exception ex) when (ex is IOException or ArgumentException or UnauthorizedAccessException)
+        {
+            log.LogDebug("Free space of the index volume unknown: {Message}", ex.Message);
+        }
+
+        var latest = new DaemonFigures(
+            now,
+            figures.Documents,
+            figures.QuarantinedDocuments,
+            figures.Pages,
+            catalog.CountVectorSets(liveOnly: true),
+            depths[QueuePriority.Fresh],
+            depths[QueuePriority.Migration],
+            depths[QueuePriority.Canary],
+            figures.Queued - depths.Values.Sum(),
+            segments.Count(s => !s.Sealed),
+            segments.Count(s => s.Sealed),
+            segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
+            DirectorySize.Of(session.IndexDirectory),
+            free);
+        state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
+    }
+
+    private void SealOnExit()
+    {
+        try
+        {
+            session.Store.SealAll();
+        }
+        catch (IOException ex)
+        {
+            // The open segment stays open; the next start reopens or repairs it.
+            log.LogWarning("Could not seal the open segment at shutdown: {Message}", ex.Message);
+        }
+    }
+
+    private void Log(string what, ScanSummary summary)
+    {
+        if (summary.DocumentsNew + summary.DocumentsChanged + summary.DocumentsDeleted + summary.DocumentsQuarantined > 0)
+        {
+            log.LogInformation(
+                "{What}: {New} new, {Changed} changed, {Deleted} deleted, {Moved} moved, {Quarantined} quarantined; {PagesNew} page(s) queued, {Seconds:0.00} s.",
+                what, summary.DocumentsNew, summary.DocumentsChanged, summary.DocumentsDeleted, summary.DocumentsMoved, summary.DocumentsQuarantined, summary.PagesNew, summary.ElapsedSeconds);
+        }
+
+        foreach (var problem in summary.Problems.Take(20))
+        {
+            log.LogWarning("{What}: {Problem}", what, problem);
+        }
+    }
+}

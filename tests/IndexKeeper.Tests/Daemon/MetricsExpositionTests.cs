@@ -1,0 +1,66 @@
+using System.Diagnostics;
+using IndexKeeper.Tests.EndToEnd;
+using IndexKeeper.Tests.Support;
+
+namespace IndexKeeper.Tests.Daemon;
+
+/// <summary>
+/// <c>/metrics</c> checked by Debian's <c>promtool check metrics</c> (package prometheus), the reference
+/// parser and linter of the Prometheus text exposition format.
+/// </summary>
+public sealed class MetricsExpositionTests
+{
+    private const string Promtool = "/usr/bin/promtool";
+
+    [PromtoolFact]
+    public void ScrapeOutputPassesPromtoolAndCarriesTheInstruments()
+    {
+        using var temp = new TempDirectory();
+        Directory.CreateDirectory(temp.Combine("store"));
+        File.WriteAllBytes(temp.Combine("store", "tide-tables.pdf"), StorePdfs.Document("Saltmarsh", 3));
+        using var daemon = RunningDaemon.Start(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:SampleSeconds=0.2", "--Schedule:Windows:0=Mon-Sun 00:00-24:00"]);
+        daemon.WaitUntil("the pages are embedded", () => daemon.GetJson("/api/status").GetProperty("liveVectorSets").GetInt64() == 3);
+        string metrics = string.Empty;
+        daemon.WaitUntil("the figures are sampled", () =>
+        {
+            metrics = daemon.GetText("/metrics");
+            return metrics.Contains("indexkeeper_documents{otel_scope_name=\"IndexKeeper\",state=\"live\"} 1", StringComparison.Ordinal);
+        });
+
+        var start = new ProcessStartInfo(Promtool, ["check", "metrics"]) { RedirectStandardInput = true, RedirectStandardOutput = true, RedirectStandardError = true };
+        using var promtool = Process.Start(start)!;
+        promtool.StandardInput.Write(metrics);
+        promtool.StandardInput.Close();
+        var output = promtool.StandardOutput.ReadToEnd() + promtool.StandardError.ReadToEnd();
+        promtool.WaitForExit();
+        Assert.True(promtool.ExitCode == 0, "promtool check metrics:\n" + output + "\n--- exposition ---\n" + metrics);
+
+        // Names our dashboards rely on; histograms in seconds with bounds that fit seconds.
+        foreach (var name in new[]
+        {
+            "indexkeeper_documents", "indexkeeper_pages", "indexkeeper_queue_depth", "indexkeeper_pages_embedded_total",
+            "indexkeeper_encoder_duration_seconds_bucket", "indexkeeper_embed_rate_per_second", "indexkeeper_scan_duration_seconds_bucket",
+            "indexkeeper_full_walk_age_seconds", "indexkeeper_watcher_overflows_total", "indexkeeper_quarantine", "indexkeeper_segments",
+            "indexkeeper_dead_ratio", "indexkeeper_disk_usage_bytes", "indexkeeper_pages_drifted", "indexkeeper_window_open",
+        })
+        {
+            Assert.Contains("\n" + name + "{", "\n" + metrics, StringComparison.Ordinal);
+        }
+
+        Assert.Contains("indexkeeper_encoder_duration_seconds_bucket{otel_scope_name=\"IndexKeeper\",le=\"0.005\"}", metrics, StringComparison.Ordinal);
+        Assert.Contains("indexkeeper_pages_embedded_total{otel_scope_name=\"IndexKeeper\"} 3", metrics, StringComparison.Ordinal);
+        Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
+    }
+
+    /// <summary>Skipped, saying so, only where promtool is not installed; CI installs it (the install script's package list).</summary>
+    private sealed class PromtoolFactAttribute : FactAttribute
+    {
+        public PromtoolFactAttribute()
+        {
+            if (!File.Exists(Promtool))
+            {
+                Skip = "promtool is not installed (Debian package prometheus; ./install adds it)";
+            }
+        }
+    }
+}

@@ -1,0 +1,123 @@
+using IndexKeeper.Core.Health;
+
+namespace IndexKeeper.Tests.Health;
+
+/// <summary>
+/// The health rules as a pure function: every rule alone at and around its threshold, and every
+/// combination of the rules' findings (2^n snapshots) giving the worst severity and exactly their codes.
+/// </summary>
+public sealed class HealthRulesTests
+{
+    private static readonly HealthLimits Limits = new(TimeSpan.FromMinutes(60), DeadRatio: 0.5, MinFreeShare: 0.1);
+    private static readonly DateTimeOffset Now = new(2026, 3, 29, 12, 0, 0, TimeSpan.Zero);
+
+    private static readonly HealthSnapshot Calm = new(
+        WorkLoopRunning: true,
+        Uptime: TimeSpan.FromHours(5),
+        RootsMissing: [],
+        WatchersLost: [],
+        LastFullWalkAge: TimeSpan.FromMinutes(30),
+        BacklogFinish: Now.AddHours(1),
+        WindowEnd: Now.AddHours(2),
+        MigrationQueued: 0,
+        DeadRatio: 0.1,
+        FreeShare: 0.5,
+        Quarantined: 3,
+        QuarantinedEarlier: 3);
+
+    /// <summary>Each rule: a snapshot that trips it alone, its code and severity.</summary>
+    private static readonly (string Code, HealthStatus Severity, Func<HealthSnapshot, HealthSnapshot> Trip)[] Rules =
+    [
+        ("work-loop-stopped", HealthStatus.Unhealthy, s => s with { WorkLoopRunning = false }),
+        ("disk-critical", HealthStatus.Unhealthy, s => s with { FreeShare = 0.04 }),
+        ("root-missing", HealthStatus.Degraded, s => s with { RootsMissing = ["drawings"] }),
+        ("watcher-lost", HealthStatus.Degraded, s => s with { WatchersLost = ["scans"] }),
+        ("full-walk-overdue", HealthStatus.Degraded, s => s with { LastFullWalkAge = TimeSpan.FromMinutes(121) }),
+        ("backlog-past-window", HealthStatus.Degraded, s => s with { BacklogFinish = Now.AddHours(3) }),
+        ("migration-running", HealthStatus.Degraded, s => s with { MigrationQueued = 1 }),
+        ("dead-ratio-high", HealthStatus.Degraded, s => s with { DeadRatio = 0.51 }),
+        ("quarantine-growing", HealthStatus.Degraded, s => s with { Quarantined = 4 }),
+    ];
+
+    [Fact]
+    public void ACalmSnapshotIsHealthyWithoutReasons()
+    {
+        var report = HealthRules.Evaluate(Calm, Limits);
+        Assert.Equal(HealthStatus.Healthy, report.Status);
+        Assert.Empty(report.Reasons);
+    }
+
+    [Fact]
+    public void EveryCombinationOfFindingsGivesTheWorstSeverityAndExactlyTheirCodes()
+    {
+        for (var mask = 0; mask < 1 << Rules.Length; mask++)
+        {
+            var snapshot = Calm;
+            var expected = new List<string>();
+            var worst = HealthStatus.Healthy;
+            for (var i = 0; i < Rules.Length; i++)
+            {
+                if ((mask & (1 << i)) != 0)
+                {
+                    snapshot = Rules[i].Trip(snapshot);
+                    expected.Add(Rules[i].Code);
+                    worst = (HealthStatus)Math.Max((int)worst, (int)Rules[i].Severity);
+                }
+            }
+
+            var report = HealthRules.Evaluate(snapshot, Limits);
+            Assert.Equal(expected.Order(StringComparer.Ordinal), report.Reasons.Select(r => r.Code).Order(StringComparer.Ordinal));
+            Assert.Equal(worst, report.Status);
+            Assert.All(report.Reasons, r => Assert.False(string.IsNullOrWhiteSpace(r.Message)));
+        }
+    }
+
+    [Theory]
+    [InlineData(0.10, null)]
+    [InlineData(0.0999, "disk-low")]
+    [InlineData(0.05, "disk-low")]
+    [InlineData(0.0499, "disk-critical")]
+    [InlineData(0.0, "disk-critical")]
+    public void FreeSpaceThresholds(double free, string? code)
+    {
+        var report = HealthRules.Evaluate(Calm with { FreeShare = free }, Limits);
+        Assert.Equal(code is null ? [] : new[] { code }, report.Reasons.Select(r => r.Code));
+        Assert.Equal(code switch { null => HealthStatus.Healthy, "disk-low" => HealthStatus.Degraded, _ => HealthStatus.Unhealthy }, report.Status);
+    }
+
+    [Fact]
+    public void UnknownFreeSpaceIsNoFinding() => Assert.Empty(HealthRules.Evaluate(Calm with { FreeShare = null }, Limits).Reasons);
+
+    [Theory]
+    [InlineData(120, false)]
+    [InlineData(120.01, true)]
+    public void AFullWalkIsOverdueAfterTwiceItsInterval(double minutes, bool overdue) =>
+        Assert.Equal(overdue, HealthRules.Evaluate(Calm with { LastFullWalkAge = TimeSpan.FromMinutes(minutes) }, Limits).Reasons.Any(r => r.Code == "full-walk-overdue"));
+
+    [Theory]
+    [InlineData(60, false)]
+    [InlineData(121, true)]
+    public void WithoutAFinishedWalkUptimeDecides(double uptimeMinutes, bool overdue) =>
+        Assert.Equal(overdue, HealthRules.Evaluate(Calm with { LastFullWalkAge = null, Uptime = TimeSpan.FromMinutes(uptimeMinutes) }, Limits).Reasons.Any(r => r.Code == "full-walk-overdue"));
+
+    [Theory]
+    [InlineData(0.5, false)]
+    [InlineData(0.5001, true)]
+    public void DeadRatioAboveTheLimit(double ratio, bool reported) =>
+        Assert.Equal(reported, HealthRules.Evaluate(Calm with { DeadRatio = ratio }, Limits).Reasons.Any(r => r.Code == "dead-ratio-high"));
+
+    [Fact]
+    public void BacklogRuleNeedsBothAFinishAndAWindowEnd()
+    {
+        Assert.Empty(HealthRules.Evaluate(Calm with { BacklogFinish = Now.AddDays(9), WindowEnd = null }, Limits).Reasons);
+        Assert.Empty(HealthRules.Evaluate(Calm with { BacklogFinish = null }, Limits).Reasons);
+        Assert.Empty(HealthRules.Evaluate(Calm with { BacklogFinish = Now.AddHours(2) }, Limits).Reasons);
+    }
+
+    [Fact]
+    public void QuarantineThatShrankOrHasNoHistoryIsNoFinding()
+    {
+        Assert.Empty(HealthRules.Evaluate(Calm with { Quarantined = 1 }, Limits).Reasons);
+        Assert.Empty(HealthRules.Evaluate(Calm with { Quarantined = 50, QuarantinedEarlier = null }, Limits).Reasons);
+    }
+}
