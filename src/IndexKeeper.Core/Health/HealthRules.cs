@@ -57,7 +57,12 @@ public static class HealthRules
 
         if (snapshot.MigrationQueued > 0)
         {
-            reasons.Add(new("migration-running", HealthStatus.Degraded, string.Create(c, $"{snapshot.MigrationQueued} page(s) wait to move to the active encoder; results mix nothing but miss those pages")));
+            reasons.Add(new("migration-running", HealthStatus.Degraded, string.Create(c, $"{snapshot.MigrationQueued} page(s) wait to move to the active encoder; searches rank with the previous encoder until the switch-over")));
+        }
+
+        if (snapshot.CanaryDrift is { } canaries)
+        {
+            reasons.Add(new("canary-drift", HealthStatus.Degraded, $"re-embedded canary pages no longer match their stored vectors ({canaries}); the encoder's outputs changed under the same id"));
         }
 
         if (snapshot.DeadRatio > limits.DeadRatio)

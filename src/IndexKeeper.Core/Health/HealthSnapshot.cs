@@ -8,6 +8,7 @@ namespace IndexKeeper.Core.Health;
 /// <param name="WindowEnd">The end of the current or next window; null when no windows are configured.</param>
 /// <param name="FreeShare">Free share of the index volume; null when it could not be read.</param>
 /// <param name="QuarantinedEarlier">Quarantined documents and pages an hour ago (null when the daemon is younger).</param>
+/// <param name="CanaryDrift">The figures of the last canary check when it found silent drift; null when it found none or none ran.</param>
 public sealed record HealthSnapshot(
     bool WorkLoopRunning,
     TimeSpan Uptime,
@@ -20,4 +21,5 @@ public sealed record HealthSnapshot(
     double DeadRatio,
     double? FreeShare,
     long Quarantined,
-    long? QuarantinedEarlier);
+    long? QuarantinedEarlier,
+    string? CanaryDrift = null);

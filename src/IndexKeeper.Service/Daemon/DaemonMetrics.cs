@@ -59,6 +59,9 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.dead.ratio", () => state.Figures.DeadRatio, "1", "Share of segment bytes no live vector set uses.");
         meter.CreateObservableGauge("indexkeeper.disk.usage", () => state.Figures.BytesOnDisk, "By", "Bytes of the index directory on disk.");
         meter.CreateObservableGauge("indexkeeper.pages.drifted", () => state.Figures.QueuedMigration, "{page}", "Pages waiting to be embedded again under the active encoder.");
+        meter.CreateObservableGauge("indexkeeper.canary.cosine", () => state.Canaries is { } c
+            ? new[] { new Measurement<double>(c.MeanCosine, Tag("statistic", "mean")), new Measurement<double>(c.MinimumCosine, Tag("statistic", "minimum")) }
+            : [], "1", "Cosine of re-embedded canary vectors against the stored ones at the last check (1: no drift).");
         meter.CreateObservableGauge("indexkeeper.window.open", () => state.Allowance.WindowOpen ? 1 : 0, "1", "1 while a work window is open, 0 outside windows (the budget applies).");
         meter.CreateObservableGauge("indexkeeper.roots.missing", () => state.Roots.Count(r => r.MissingSinceUtc is not null), "{root}", "Roots that are gone (documents kept for their grace time).");
     }

@@ -1,5 +1,6 @@
 using System.Collections.Concurrent;
 using System.Threading.Channels;
+using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Health;
 
 namespace IndexKeeper.Service.Daemon;
@@ -20,6 +21,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile bool workLoopFailed;
     private volatile DaemonFigures figures = DaemonFigures.Empty;
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
+    private volatile CanaryFigures? canaries;
     private double pagesPerSecond;
     private readonly Channel<Action> requests = Channel.CreateBounded<Action>(new BoundedChannelOptions(16) { SingleReader = true });
     private readonly AutoResetEvent requestArrived = new(false);
@@ -39,6 +41,13 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     }
 
     public double PagesPerSecond => Volatile.Read(ref pagesPerSecond);
+
+    /// <summary>The last canary check of this daemon's life (null before the first).</summary>
+    public CanaryFigures? Canaries
+    {
+        get => canaries;
+        set => canaries = value;
+    }
 
     public long WatcherOverflows => Interlocked.Read(ref watcherOverflows);
 
@@ -149,6 +158,9 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
             latest.DeadRatio,
             latest.FreeShare,
             latest.DocumentsQuarantined + latest.PagesQuarantined,
-            earlier);
+            earlier,
+            Canaries is { Drifted: true } c
+                ? string.Create(System.Globalization.CultureInfo.InvariantCulture, $"mean cosine {c.MeanCosine:0.0000}, minimum {c.MinimumCosine:0.0000} over {c.Pages} pages")
+                : null);
     }
 }

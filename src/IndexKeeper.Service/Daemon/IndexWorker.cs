@@ -12,7 +12,8 @@ namespace IndexKeeper.Service.Daemon;
 
 /// <summary>
 /// The daemon's one writer: on a dedicated thread it walks, scans changed paths, embeds what the gate
-/// allows one batch at a time, compacts and samples figures. Between units of work it looks at the stop
+/// allows one batch at a time, applies declared drift (migration queue, switch-over), checks canaries inside
+/// windows, compacts and samples figures. Between units of work it looks at the stop
 /// request; the unit in flight gets the rest of the grace period (and is abandoned, uncommitted, after it).
 /// On the way out it seals the open segments.
 /// </summary>
@@ -35,6 +36,7 @@ internal sealed class IndexWorker(
     private readonly CancellationTokenSource hardStop = new();
     private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long embeddedSinceSample;
+    private bool migrating;
 
     /// <summary>Completes when the loop's thread has ended (or never started): only then may the session be closed.</summary>
     public Task Completion => completion.Task;
@@ -137,6 +139,11 @@ internal sealed class IndexWorker(
                     busy |= EmbedOneBatch();
                 }
 
+                if (!busy && !stopping.IsCancellationRequested)
+                {
+                    busy |= CheckCanariesIfDue();
+                }
+
                 now = clock.GetUtcNow();
                 if (now >= nextSample)
                 {
@@ -197,6 +204,51 @@ internal sealed class IndexWorker(
         var settings = session.ScanSettings() with { Roots = roots };
         var summary = new ScanPass(session.Catalog, session.Reader, settings).Run(command, hardStop.Token);
         Log(command, summary);
+        ReconcileDrift();
+    }
+
+    /// <summary>
+    /// Records the active encoder and applies declared drift (docs/encoders.md): pages whose vectors are only
+    /// under the serving encoder are queued for migration; when none are left, the switch-over happens.
+    /// </summary>
+    private void ReconcileDrift()
+    {
+        var decision = session.ReconcileDrift();
+        if (decision.SwitchOver)
+        {
+            log.LogInformation("Migration complete: searches now rank with the active encoder {Encoder}.", session.Encoder.Identity.Id[..12]);
+        }
+        else if (decision.QueueForMigration.Count > 0)
+        {
+            log.LogInformation("Encoder changed: {Pages} page(s) queued for migration; searches keep the previous encoder until they are done.", decision.QueueForMigration.Count);
+        }
+
+        migrating = decision.Migrating;
+    }
+
+    /// <summary>Canaries are bulk work: only inside a window, only when the loop has nothing else to do.</summary>
+    private bool CheckCanariesIfDue()
+    {
+        var now = state.Clock.GetUtcNow();
+        if (!state.Allowance.WindowOpen || !session.CanariesDue(now.UtcDateTime))
+        {
+            return false;
+        }
+
+        var figures = session.CheckCanaries(hardStop.Token);
+        state.Canaries = figures;
+        if (figures.Drifted)
+        {
+            log.LogWarning(
+                "Canary check: silent drift — mean cosine {Mean:0.0000}, minimum {Minimum:0.0000} over {Pages} page(s), {Mismatched} with another vector count.",
+                figures.MeanCosine, figures.MinimumCosine, figures.Pages, figures.MismatchedPages);
+        }
+        else
+        {
+            log.LogInformation("Canary check: {Pages} page(s) match (mean cosine {Mean:0.0000}).", figures.Pages, figures.MeanCosine);
+        }
+
+        return true;
     }
 
     private void Targeted(IReadOnlyList<ChangedPath> settled)
@@ -272,6 +324,10 @@ internal sealed class IndexWorker(
             state.CountEmbedded(embedded);
             Interlocked.Add(ref embeddedSinceSample, embedded);
             log.LogDebug("Embedded {Pages} page(s) in {Seconds:0.000} s.", embedded, stopwatch.Elapsed.TotalSeconds);
+            if (migrating && session.Catalog.QueueDepths()[QueuePriority.Migration] == 0)
+            {
+                ReconcileDrift();
+            }
         }
 
         return embedded > 0 || summary.PagesFailed > 0;

@@ -23,7 +23,8 @@ public sealed class HealthRulesTests
         DeadRatio: 0.1,
         FreeShare: 0.5,
         Quarantined: 3,
-        QuarantinedEarlier: 3);
+        QuarantinedEarlier: 3,
+        CanaryDrift: null);
 
     /// <summary>Each rule: a snapshot that trips it alone, its code and severity.</summary>
     private static readonly (string Code, HealthStatus Severity, Func<HealthSnapshot, HealthSnapshot> Trip)[] Rules =
@@ -37,6 +38,7 @@ public sealed class HealthRulesTests
         ("migration-running", HealthStatus.Degraded, s => s with { MigrationQueued = 1 }),
         ("dead-ratio-high", HealthStatus.Degraded, s => s with { DeadRatio = 0.51 }),
         ("quarantine-growing", HealthStatus.Degraded, s => s with { Quarantined = 4 }),
+        ("canary-drift", HealthStatus.Degraded, s => s with { CanaryDrift = "mean cosine 0.912, minimum 0.4 over 16 pages" }),
     ];
 
     [Fact]
