@@ -48,6 +48,13 @@ public sealed partial class IndexCatalog : IDisposable
             catalog.vectorSets.EnsureIndex(v => v.PageKey);
             catalog.vectorSets.EnsureIndex(v => v.SegmentId);
             catalog.vectorSets.EnsureIndex(v => v.EncoderId);
+
+            // Every collection exists from the open on, before the daemon's HTTP threads read: LiteDB 5.0.21
+            // fails a read that races the transaction creating its collection ("page type must be collection
+            // page", LiteDB issue #2792). These indexes create the last three and serve their lookups.
+            catalog.segments.EnsureIndex(s => s.EncoderId);
+            catalog.encoders.EnsureIndex(e => e.Name);
+            catalog.scans.EnsureIndex(s => s.Command);
             return catalog;
         }
         catch

@@ -23,6 +23,24 @@ public sealed class IndexCatalogTests
         }
     }
 
+    /// <summary>
+    /// A reader thread must never meet a collection being created (LiteDB issue #2792: the read fails with
+    /// "page type must be collection page"), so a writable open creates every collection of docs/catalog.md.
+    /// </summary>
+    [Fact]
+    public void A_writable_open_creates_every_collection()
+    {
+        using var temp = new TempDirectory();
+        using (var held = IndexLock.Acquire(temp.Path, "test"))
+        using (IndexCatalog.Open(held))
+        {
+        }
+
+        using var db = new LiteDatabase(new ConnectionString { Filename = Path.Combine(temp.Path, CatalogSchema.FileName), Connection = ConnectionType.Direct });
+        string[] expected = [CatalogSchema.Meta, CatalogSchema.Documents, CatalogSchema.Pages, CatalogSchema.Queue, CatalogSchema.Scans, CatalogSchema.Encoders, CatalogSchema.Segments, CatalogSchema.VectorSets];
+        Assert.Equal(expected.Order(StringComparer.Ordinal), db.GetCollectionNames().Order(StringComparer.Ordinal));
+    }
+
     [Fact]
     public void Newer_schema_is_refused_and_the_file_is_left_untouched()
     {
