@@ -51,7 +51,7 @@ public static class PageImageEncoderFactory
         var vocabulary = File.ReadAllBytes(options.QueryVocabulary);
         var identity = Identify(options, SHA256.HashData(pageModel), SHA256.HashData(queryModel), SHA256.HashData(vocabulary), renderer.Version, TextTokenEncoderFactory.RuntimeVersion());
         var tokenizer = CreateTokenizer(vocabulary, options.QueryLowerCase);
-        using var sessionOptions = CreateSessionOptions(options.IntraOpThreads);
+        using var sessionOptions = CpuSessionOptions.Create(options.IntraOpThreads);
         var pageSession = OpenSession(nameof(options.PageModel), pageModel, sessionOptions);
         InferenceSession? querySession = null;
         try
@@ -171,23 +171,5 @@ public static class PageImageEncoderFactory
         {
             throw new InvalidOperationException($"QueryVocabulary: the file is not a WordPiece vocabulary with [CLS], [SEP], [UNK] and [PAD] ({e.Message}).", e);
         }
-    }
-
-    private static SessionOptions CreateSessionOptions(int intraOpThreads)
-    {
-        var options = new SessionOptions
-        {
-            ExecutionMode = ExecutionMode.ORT_SEQUENTIAL,
-            GraphOptimizationLevel = GraphOptimizationLevel.ORT_ENABLE_ALL,
-            InterOpNumThreads = 1,
-        };
-        if (intraOpThreads > 0)
-        {
-            options.IntraOpNumThreads = intraOpThreads;
-        }
-
-        // Idle worker threads sleep rather than spin: the machine is shared with the rest of the service.
-        options.AddSessionConfigEntry("session.intra_op.allow_spinning", "0");
-        return options;
     }
 }

@@ -42,7 +42,7 @@ public static class TextTokenEncoderFactory
         var tokenizer = CreateTokenizer(vocabulary);
         var projection = SeededProjection.Create(options.Dimensions, TextTokenEncoderOptions.HiddenSize, options.ProjectionSeed);
         var identity = Identify(options, SHA256.HashData(model), SHA256.HashData(vocabulary), RuntimeVersion(), TokenizerVersion());
-        using var sessionOptions = CreateSessionOptions(options.IntraOpThreads);
+        using var sessionOptions = CpuSessionOptions.Create(options.IntraOpThreads);
         var session = new InferenceSession(model, sessionOptions);
         return new TextTokenEncoder(identity, session, tokenizer, projection, options);
     }
@@ -90,23 +90,5 @@ public static class TextTokenEncoderFactory
             SplitOnSpecialTokens = false,
             MaxInputCharsPerWord = 100,
         });
-    }
-
-    private static SessionOptions CreateSessionOptions(int intraOpThreads)
-    {
-        var options = new SessionOptions
-        {
-            ExecutionMode = ExecutionMode.ORT_SEQUENTIAL,
-            GraphOptimizationLevel = GraphOptimizationLevel.ORT_ENABLE_ALL,
-            InterOpNumThreads = 1,
-        };
-        if (intraOpThreads > 0)
-        {
-            options.IntraOpNumThreads = intraOpThreads;
-        }
-
-        // Idle worker threads sleep rather than spin: the machine is shared with the rest of the service.
-        options.AddSessionConfigEntry("session.intra_op.allow_spinning", "0");
-        return options;
     }
 }
