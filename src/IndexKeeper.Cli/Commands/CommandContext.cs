@@ -10,6 +10,7 @@ internal sealed class CommandContext(ParsedArguments arguments)
 
     public bool Json => Arguments.Json;
 
-    public IndexKeeperOptions LoadOptions() =>
-        OptionsLoader.Load(new ConfigurationSources(Arguments.ConfigFile, Arguments.IndexDirectory, Arguments.Roots, Arguments.Overrides));
+    /// <param name="rootsRequired">False for commands that only read the index and its stored words.</param>
+    public IndexKeeperOptions LoadOptions(bool rootsRequired = true) =>
+        OptionsLoader.Load(new ConfigurationSources(Arguments.ConfigFile, Arguments.IndexDirectory, Arguments.Roots, Arguments.Overrides), rootsRequired);
 }

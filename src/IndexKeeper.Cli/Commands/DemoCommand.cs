@@ -78,7 +78,7 @@ internal sealed class DemoCommand : ICommand
         log.WriteLine(string.Create(
             CultureInfo.InvariantCulture,
             $"Index {status.IndexDirectory}: {status.Documents} documents, {status.Pages} pages, {status.LiveVectorSets} live vector sets of encoder {status.ActiveEncoder} in {status.Segments} segment(s), dead share {status.DeadRatio:P1}, {status.Quarantined} quarantined."));
-        log.WriteLine($"Try: indexkeeper search --index {status.IndexDirectory} {string.Join(' ', info.Roots.Select(r => "--root " + r.Path))} \"pump station maintenance\"");
+        log.WriteLine($"Try: indexkeeper search --index {status.IndexDirectory} \"pump station maintenance\"   (and: status, encoders; plan takes the roots too: {string.Join(' ', info.Roots.Select(r => "--root " + r.Path))})");
         if (context.Json)
         {
             JsonOutput.Write(new { store = storeDirectory, index = status.IndexDirectory, day1, changes, day2, truePagesNew = truth, search, status });

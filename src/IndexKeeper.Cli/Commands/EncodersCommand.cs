@@ -24,9 +24,11 @@ internal sealed class EncodersCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadOptions();
-        using var session = IndexSession.Open(options, "indexkeeper encoders");
         var check = context.Arguments.Flags.Contains(CheckCanaries);
+
+        // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
+        var options = context.LoadOptions(rootsRequired: check);
+        using var session = IndexSession.Open(options, "indexkeeper encoders");
         CanaryFigures? figures = null;
         if (check)
         {

@@ -30,7 +30,7 @@ internal sealed class SearchCommand : ICommand
             throw new UsageException($"-k {kText}: give a whole number from 1 to 1000.");
         }
 
-        var options = context.LoadOptions();
+        var options = context.LoadOptions(rootsRequired: false);
         var report = ThroughDaemon.Ask(options, () =>
         {
             using var session = IndexSession.Open(options, "indexkeeper search");

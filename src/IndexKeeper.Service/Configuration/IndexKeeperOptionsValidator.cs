@@ -12,7 +12,8 @@ public static partial class IndexKeeperOptionsValidator
     /// <summary>Encoder names this build knows.</summary>
     public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms", "minilm", "page-image"];
 
-    public static IReadOnlyList<string> Validate(IndexKeeperOptions options)
+    /// <param name="rootsRequired">False for commands that only read the index (status, search, encoders): they need no root.</param>
+    public static IReadOnlyList<string> Validate(IndexKeeperOptions options, bool rootsRequired = true)
     {
         ArgumentNullException.ThrowIfNull(options);
         var errors = new List<string>();
@@ -21,7 +22,7 @@ public static partial class IndexKeeperOptionsValidator
             errors.Add("IndexDirectory: must name a folder (use --index DIR).");
         }
 
-        if (options.Roots.Count == 0)
+        if (rootsRequired && options.Roots.Count == 0)
         {
             errors.Add("Roots: at least one root is needed (use --root DIR or a Roots list in the configuration file).");
         }

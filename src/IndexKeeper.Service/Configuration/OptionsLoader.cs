@@ -9,7 +9,7 @@ namespace IndexKeeper.Service.Configuration;
 /// </summary>
 public static class OptionsLoader
 {
-    public static IndexKeeperOptions Load(ConfigurationSources sources)
+    public static IndexKeeperOptions Load(ConfigurationSources sources, bool rootsRequired = true)
     {
         ArgumentNullException.ThrowIfNull(sources);
         var problems = new List<string>();
@@ -66,7 +66,7 @@ public static class OptionsLoader
             options.Roots = sources.Roots.Select((path, i) => new RootOptions { Name = RootNameFor(sources.Roots, i), Path = path }).ToList();
         }
 
-        var errors = IndexKeeperOptionsValidator.Validate(options);
+        var errors = IndexKeeperOptionsValidator.Validate(options, rootsRequired);
         if (errors.Count > 0)
         {
             throw new ConfigurationException(errors);

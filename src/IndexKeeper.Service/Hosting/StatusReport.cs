@@ -86,7 +86,7 @@ public sealed class StatusReport
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
             LastScanUtc = figures.LastScanUtc,
-            Roots = session.Options.Roots.Select(r => r.Name).ToList(),
+            Roots = session.Options.Roots.Count > 0 ? session.Options.Roots.Select(r => r.Name).ToList() : session.Catalog.RootNames().ToList(),
             Quarantine = session.Catalog.QuarantinedDocuments()
                 .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
                 .ToList(),
