@@ -62,7 +62,9 @@ public sealed partial class IndexCatalog
     {
         var known = encoders.FindAll().ToList();
         var pagesByEncoder = new Dictionary<string, IReadOnlySet<string>>(StringComparer.Ordinal);
-        foreach (var id in known.Select(e => e.Id).Concat(vectorSets.Query().Select(v => v.EncoderId).ToEnumerable()).Distinct(StringComparer.Ordinal))
+        // Every encoder that wrote a vector set is registered by the store's append (VectorStore), so the
+        // encoder records name them all without a pass over every vector set (status asks this on each call).
+        foreach (var id in known.Select(e => e.Id))
         {
             pagesByEncoder[id] = LivePageKeysOf(id);
         }

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Querying;
 
@@ -17,6 +18,8 @@ public sealed class DeclaredDriftTests : IDisposable
         "sluice gate inspection eastern walkway",
         "filter backwash interval at Ashby Road",
     ];
+
+    private static readonly Dictionary<string, string> NoRoots = [];
 
     private readonly DriftIndex index = new();
 
@@ -59,12 +62,7 @@ public sealed class DeclaredDriftTests : IDisposable
     [Fact]
     public void Fresh_pages_are_embedded_before_migrations()
     {
-        using (var first = index.Open(128))
-        {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
-            DriftIndex.Embed(first);
-            first.ReconcileDrift();
-        }
+        IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
         DriftIndex.AddDocument(second.Catalog, "reports/new.pdf", "reservoir level report for March");
@@ -77,20 +75,13 @@ public sealed class DeclaredDriftTests : IDisposable
     [Fact]
     public void Search_ranks_with_the_serving_encoder_only_while_migrating()
     {
-        string oldId;
-        using (var first = index.Open(128))
-        {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
-            DriftIndex.Embed(first);
-            first.ReconcileDrift();
-            oldId = first.Encoder.Identity.Id;
-        }
+        var oldId = IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
         second.ReconcileDrift();
         // Half a migration: one page gets vectors of the new encoder.
         var one = second.Catalog.FindPage(DriftIndex.KeyOf(Manual[0]))!;
-        var vectors = second.Encoder.EncodePages([ToEncode(one)], CancellationToken.None);
+        var vectors = second.Encoder.EncodePages([PageInput.From(one, NoRoots)], CancellationToken.None);
         second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(one.Id), vectors[0])]);
         Assert.True(second.ReconcileDrift().Migrating);
 
@@ -120,7 +111,7 @@ public sealed class DeclaredDriftTests : IDisposable
         using var second = index.Open(64);
         second.ReconcileDrift();
         var page = second.Catalog.FindPage(DriftIndex.KeyOf(Manual[1]))!;
-        second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Encoder.EncodePages([ToEncode(page)], CancellationToken.None)[0])]);
+        second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Encoder.EncodePages([PageInput.From(page, NoRoots)], CancellationToken.None)[0])]);
 
         var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
         Assert.StartsWith("hashed-terms " + second.Encoder.Identity.Id[..12], report.Encoder, StringComparison.Ordinal);
@@ -171,14 +162,7 @@ public sealed class DeclaredDriftTests : IDisposable
     [Fact]
     public void A_restored_page_does_not_bring_back_a_retired_encoders_vectors()
     {
-        string oldId;
-        using (var first = index.Open(128))
-        {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
-            DriftIndex.Embed(first);
-            first.ReconcileDrift();
-            oldId = first.Encoder.Identity.Id;
-        }
+        var oldId = IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
         second.ReconcileDrift();
@@ -223,11 +207,13 @@ public sealed class DeclaredDriftTests : IDisposable
 
     public void Dispose() => index.Dispose();
 
-    private static Core.Encoding.PageToEncode ToEncode(PageRecord page) => new(
-        Core.Documents.PageKey.Parse(page.Id),
-        string.Empty,
-        1,
-        page.Width,
-        page.Height,
-        page.Words.Select(w => new Core.Documents.PageWord(w.T, new Core.Documents.PageBox(w.L, w.B, w.R, w.U))).ToList());
+    /// <summary>The manual indexed and embedded with d = 128, drift reconciled; returns that encoder's id.</summary>
+    private string IndexTheManualWithTheFirstEncoder()
+    {
+        using var first = index.Open(128);
+        DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+        DriftIndex.Embed(first);
+        first.ReconcileDrift();
+        return first.Encoder.Identity.Id;
+    }
 }
