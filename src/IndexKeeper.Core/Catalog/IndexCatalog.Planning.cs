@@ -76,10 +76,6 @@ public sealed partial class IndexCatalog
     public IEnumerable<string> UnreferencedPageKeys() =>
         pages.Query().Where(p => p.References <= 0).Select(p => p.Id).ToEnumerable();
 
-    /// <summary>Page keys with a live vector set, and under which encoder.</summary>
-    public IEnumerable<(string PageKey, string EncoderId)> LiveVectorSetOwners() =>
-        vectorSets.Find(v => v.Live).Select(v => (v.PageKey, v.EncoderId));
-
     /// <summary>Vector sets and vectors under one encoder: the measured vectors per page.</summary>
     public (long VectorSets, long Vectors) VectorCounts(string encoderId)
     {

@@ -50,7 +50,8 @@ public static class PlanBuilder
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Fresh),
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Migration),
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Canary));
-        var drifted = DriftedPages(catalog, identity.Id, removed);
+        // The drift policy's own answer (docs/encoders.md), less the pages this scan would remove.
+        var drifted = session.ReadDrift().DriftedPages.Where(k => !removed.Contains(k)).ToHashSet(StringComparer.Ordinal);
         var queuedSet = queuedKeys.Select(q => q.PageKey).ToHashSet(StringComparer.Ordinal);
         var driftedNotQueued = drifted.Where(k => !queuedSet.Contains(k)).ToList();
         var work = new QueuedPages(scanToEmbed + queued.Fresh, queued.Migration + driftedNotQueued.Count, queued.Canary);
@@ -126,21 +127,6 @@ public static class PlanBuilder
             Notes = notes,
             ElapsedSeconds = stopwatch.Elapsed.TotalSeconds,
         };
-    }
-
-    /// <summary>Live pages with vectors under some other encoder and none under the active one.</summary>
-    private static HashSet<string> DriftedPages(IndexCatalog catalog, string activeEncoderId, IReadOnlySet<string> removed)
-    {
-        var withActive = new HashSet<string>(StringComparer.Ordinal);
-        var withOther = new HashSet<string>(StringComparer.Ordinal);
-        foreach (var (pageKey, encoderId) in catalog.LiveVectorSetOwners())
-        {
-            (encoderId == activeEncoderId ? withActive : withOther).Add(pageKey);
-        }
-
-        withOther.ExceptWith(withActive);
-        withOther.ExceptWith(removed);
-        return withOther;
     }
 
     private static (string Source, double? SecondsPerPage, double? VectorsPerPage) Throughput(
