@@ -3,7 +3,7 @@ using IndexKeeper.Core.Drift;
 namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
-/// What one scan pass found; the field names are the <c>scan --json</c> contract (DESIGN.md).
+/// What one scan pass found; the field names are the <c>scan --json</c> contract (docs/cli.md).
 /// Page figures: <see cref="PagesNew"/> + <see cref="PagesReused"/> = pages of new and changed documents.
 /// </summary>
 public sealed class ScanSummary

@@ -10,7 +10,7 @@ using Microsoft.Extensions.Logging;
 
 namespace IndexKeeper.Service.Daemon;
 
-/// <summary>The daemon's HTTP paths (DESIGN.md): metrics, health, the status page and the JSON API.</summary>
+/// <summary>The daemon's HTTP paths (docs/daemon.md): metrics, health, the status page and the JSON API.</summary>
 internal static class DaemonApi
 {
     public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, string? token)

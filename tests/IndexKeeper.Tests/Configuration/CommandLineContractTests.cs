@@ -4,7 +4,7 @@ using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Configuration;
 
-/// <summary>The command-line contract of DESIGN.md, checked on the real executable.</summary>
+/// <summary>The command-line contract of docs/cli.md, checked on the real executable.</summary>
 public sealed class CommandLineContractTests
 {
     [Theory]

@@ -1,7 +1,8 @@
-using System.Text;
 using System.Text.RegularExpressions;
-using IndexKeeper.Core.Documents;
+using System.Text;
 using IndexKeeper.Core.Documents.Pdf;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Documents;
 
@@ -83,7 +84,7 @@ public sealed partial class CanonicalFormTests : IDisposable
     [Fact]
     public void The_version_in_the_spec_matches_the_code()
     {
-        var spec = File.ReadAllText(Path.Combine(RepositoryRoot(), "docs", "page-keys.md"));
+        var spec = File.ReadAllText(Path.Combine(RepositoryRoot.Path, "docs", "page-keys.md"));
         var match = SpecVersion().Match(spec);
         Assert.True(match.Success, "docs/page-keys.md names no 'Canonical form version: N'");
         Assert.Equal(PageKeyFormat.Version.ToString(System.Globalization.CultureInfo.InvariantCulture), match.Groups[1].Value);
@@ -113,16 +114,6 @@ public sealed partial class CanonicalFormTests : IDisposable
 
     public void Dispose() => folder.Dispose();
 
-    internal static string RepositoryRoot()
-    {
-        var dir = new DirectoryInfo(AppContext.BaseDirectory);
-        while (dir is not null && !File.Exists(Path.Combine(dir.FullName, "IndexKeeper.sln")))
-        {
-            dir = dir.Parent;
-        }
-
-        return dir?.FullName ?? throw new InvalidOperationException("repository root not found");
-    }
 
     private string KeyOf(string content) => folder.Keys(OnePage(content)).Single();
 

@@ -1,12 +1,13 @@
 using System.Diagnostics;
 using System.Globalization;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Encoding;
 
 public sealed class TermNormalizerTests
 {
-    private static readonly string TablesPath = Path.Combine(RepositoryRoot(), "src", "IndexKeeper.Core", "Encoding", "UnicodeTables.cs");
+    private static readonly string TablesPath = Path.Combine(RepositoryRoot.Path, "src", "IndexKeeper.Core", "Encoding", "UnicodeTables.cs");
 
     [Fact]
     public void Checked_in_tables_match_the_unicode_character_database()
@@ -115,14 +116,4 @@ public sealed class TermNormalizerTests
 
     private static string Hex(string text) => string.Join(' ', text.EnumerateRunes().Select(r => r.Value.ToString("X4", CultureInfo.InvariantCulture)));
 
-    internal static string RepositoryRoot()
-    {
-        var directory = new DirectoryInfo(AppContext.BaseDirectory);
-        while (directory is not null && !File.Exists(Path.Combine(directory.FullName, "IndexKeeper.sln")))
-        {
-            directory = directory.Parent;
-        }
-
-        return directory?.FullName ?? throw new InvalidOperationException("repository root not found");
-    }
 }

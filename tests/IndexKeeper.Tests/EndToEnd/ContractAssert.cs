@@ -2,7 +2,7 @@ using System.Text.Json;
 
 namespace IndexKeeper.Tests.EndToEnd;
 
-/// <summary>Checks fields of a <c>--json</c> answer against DESIGN.md's contract, naming the step and every mismatch at once.</summary>
+/// <summary>Checks fields of a <c>--json</c> answer against the contract of docs/cli.md, naming the step and every mismatch at once.</summary>
 internal static class ContractAssert
 {
     public static void Counts(JsonElement answer, string step, params (string Field, long Value)[] expected)

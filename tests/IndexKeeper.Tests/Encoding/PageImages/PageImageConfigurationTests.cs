@@ -1,6 +1,7 @@
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Tests.Documents;
+using IndexKeeper.Tests.Support;
 using Microsoft.Extensions.Configuration;
 
 namespace IndexKeeper.Tests.Encoding.PageImages;
@@ -83,7 +84,7 @@ public sealed class PageImageConfigurationTests(PageImageModels models) : IClass
     [Fact]
     public void The_sample_configuration_block_binds_strictly_when_uncommented()
     {
-        var lines = File.ReadAllLines(Path.Combine(CanonicalFormTests.RepositoryRoot(), "config", "indexkeeper.sample.json"));
+        var lines = File.ReadAllLines(Path.Combine(RepositoryRoot.Path, "config", "indexkeeper.sample.json"));
         var start = Array.FindIndex(lines, l => l.Trim() == "// ,\"Encoder\": {");
         Assert.True(start > 0, "the commented page-image block is in the sample");
         var block = lines.Skip(start).TakeWhile(l => l.TrimStart().StartsWith("//", StringComparison.Ordinal)).Select(l => l.TrimStart()[2..]);
