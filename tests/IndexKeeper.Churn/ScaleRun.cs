@@ -2,7 +2,7 @@ using System.Diagnostics;
 using System.Globalization;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Churn.Strategies;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Querying;
 

@@ -1,6 +1,6 @@
 using System.Text;
 using System.Text.RegularExpressions;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Tests.Demo;
 
