@@ -28,43 +28,36 @@ internal static class DayTwoScript
         var pages = plan.ManualPages(spec).ToList();
         int index = pages.FindIndex(page => page.Kind == ManualPageKind.Text && page.Section >= 3);
         pages[index] = pages[index] with { Amended = true };
-        string path = Shared + folder + "/" + StorePlan.ManualFileName(spec);
-        // Written in place, as an editor that saves over the open file does: same file identity.
-        DemoFiles.Write(directory, path, ManualBuilder.Render(spec, pages, ManualBuilder.Info(spec)));
-        return new(
-            DemoChangeKind.PageEdited,
-            $"{spec.Code}: an amendment added to page {pages[index].Label} and the manual saved again",
-            path,
-            path,
-            [index + 1],
-            [index + 1]);
+        string path = SaveManual(directory, spec, folder, pages, inPlace: true);
+        string description = $"{spec.Code}: an amendment added to page {pages[index].Label} and the manual saved again";
+        return new(DemoChangeKind.PageEdited, description, path, path, [index + 1], [index + 1]);
     }
 
     private static DemoChange CopyReportToFinal(string directory, StorePlan plan)
     {
         var (spec, folder) = plan.Reports[6];
-        string from = Shared + folder + "/" + StorePlan.ReportFileName(spec);
-        string to = Shared + "reports/final/" + StorePlan.ReportFileName(spec);
-        DemoFiles.Copy(directory, from, to);
-        return new(DemoChangeKind.Copied, $"{spec.Title} copied into reports/final", from, to, [], []);
+        string name = StorePlan.ReportFileName(spec);
+        return Relocate(directory, DemoChangeKind.Copied, Shared + folder + "/" + name, Shared + "reports/final/" + name, $"{spec.Title} copied into reports/final");
     }
 
     private static DemoChange RenameForm(string directory, StorePlan plan)
     {
         var (spec, path) = plan.Forms[7];
         string from = Shared + path;
-        string to = from[..^".pdf".Length] + " (checked).pdf";
-        DemoFiles.Move(directory, from, to);
-        return new(DemoChangeKind.Renamed, $"Inspection form {spec.Code} renamed to mark it checked", from, to, [], []);
+        return Relocate(directory, DemoChangeKind.Renamed, from, from[..^".pdf".Length] + " (checked).pdf", $"Inspection form {spec.Code} renamed to mark it checked");
     }
 
     private static DemoChange MoveManual(string directory, StorePlan plan)
     {
         var (spec, folder) = plan.Manuals[5];
-        string from = Shared + folder + "/" + StorePlan.ManualFileName(spec);
-        string to = Shared + "manuals/archive/" + StorePlan.ManualFileName(spec);
-        DemoFiles.Move(directory, from, to);
-        return new(DemoChangeKind.Moved, $"{spec.Code} moved from {folder} to manuals/archive", from, to, [], []);
+        return Relocate(directory, DemoChangeKind.Moved, ManualPath(folder, spec), Shared + "manuals/archive/" + StorePlan.ManualFileName(spec), $"{spec.Code} moved from {folder} to manuals/archive");
+    }
+
+    /// <summary>A copy, rename or move: the same bytes under another path, so no page appears or goes.</summary>
+    private static DemoChange Relocate(string directory, DemoChangeKind kind, string from, string to, string description)
+    {
+        DemoFiles.Relocate(directory, from, to, keepSource: kind == DemoChangeKind.Copied);
+        return new(kind, description, from, to, [], []);
     }
 
     private static DemoChange DeleteDrawing(string directory, StorePlan plan)
@@ -96,7 +89,7 @@ internal static class DayTwoScript
         {
             Title = before.Title + " (approved)",
             Author = "Operations directorate",
-            ModifiedDate = "D:" + spec.Issued.AddDays(9).ToString("yyyyMMdd", System.Globalization.CultureInfo.InvariantCulture) + "113000Z",
+            ModifiedDate = DemoPdfInfo.Date(spec.Issued.AddDays(9), new TimeOnly(11, 30)),
         };
         string path = Shared + folder + "/" + StorePlan.ReportFileName(spec);
         DemoFiles.Replace(directory, path, plan.RenderReport(spec, after));
@@ -123,14 +116,28 @@ internal static class DayTwoScript
         var anchor = pages[after];
         var inserted = new ManualPage(anchor.Label + "A", ManualPageKind.Text, anchor.Section, anchor.SectionTitle, false, plan.Random("manual/" + spec.Code + "/addendum").NextUInt64());
         pages.Insert(after + 1, inserted);
-        string path = Shared + folder + "/" + StorePlan.ManualFileName(spec);
-        DemoFiles.Replace(directory, path, ManualBuilder.Render(spec, pages, ManualBuilder.Info(spec)));
-        return new(
-            DemoChangeKind.PagesReorderedAndInserted,
-            $"{spec.Code}: appendices moved behind the contents and addendum page {inserted.Label} inserted",
-            path,
-            path,
-            [after + 2],
-            []);
+        string path = SaveManual(directory, spec, folder, pages, inPlace: false);
+        string description = $"{spec.Code}: appendices moved behind the contents and addendum page {inserted.Label} inserted";
+        return new(DemoChangeKind.PagesReorderedAndInserted, description, path, path, [after + 2], []);
     }
+
+    /// <summary>Saves a manual again with another page list and returns its path: in place, as an editor that
+    /// saves over the open file does (same file identity), or as a new file renamed over the old one.</summary>
+    private static string SaveManual(string directory, ManualSpec spec, string folder, IReadOnlyList<ManualPage> pages, bool inPlace)
+    {
+        string path = ManualPath(folder, spec);
+        byte[] bytes = ManualBuilder.Render(spec, pages);
+        if (inPlace)
+        {
+            DemoFiles.Write(directory, path, bytes);
+        }
+        else
+        {
+            DemoFiles.Replace(directory, path, bytes);
+        }
+
+        return path;
+    }
+
+    private static string ManualPath(string folder, ManualSpec spec) => Shared + folder + "/" + StorePlan.ManualFileName(spec);
 }

@@ -22,17 +22,20 @@ internal static class DemoFiles
         File.Move(temporary, path, overwrite: true);
     }
 
-    public static void Move(string directory, string fromStorePath, string toStorePath)
+    /// <summary>Moves a file to another store path, or copies it there when the source is kept; makes the
+    /// target's folder if needed and never writes over a file.</summary>
+    public static void Relocate(string directory, string fromStorePath, string toStorePath, bool keepSource)
     {
+        string source = FullPath(directory, fromStorePath);
         string target = FullPath(directory, toStorePath);
         Directory.CreateDirectory(Path.GetDirectoryName(target)!);
-        File.Move(FullPath(directory, fromStorePath), target);
-    }
-
-    public static void Copy(string directory, string fromStorePath, string toStorePath)
-    {
-        string target = FullPath(directory, toStorePath);
-        Directory.CreateDirectory(Path.GetDirectoryName(target)!);
-        File.Copy(FullPath(directory, fromStorePath), target);
+        if (keepSource)
+        {
+            File.Copy(source, target);
+        }
+        else
+        {
+            File.Move(source, target);
+        }
     }
 }

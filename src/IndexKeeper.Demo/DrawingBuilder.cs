@@ -3,25 +3,23 @@ namespace IndexKeeper.Demo;
 /// <summary>A3 landscape drawings: a zoned frame, a title block, and a network plan or process schematic.</summary>
 internal static class DrawingBuilder
 {
-    private const double A3Width = 1191;
-    private const double A3Height = 842;
+    private static readonly PaperSize Sheet = PaperSize.A3.Landscape;
     private const double Border = 20;
 
     public static byte[] Render(DrawingSpec spec, DemoRandom random)
     {
-        string date = "D:" + spec.Date.ToString("yyyyMMdd", System.Globalization.CultureInfo.InvariantCulture) + "140000Z";
         var composer = new PdfComposer(
             "drawing/" + spec.Number,
-            new DemoPdfInfo(spec.Number + " " + spec.Title, spec.DrawnBy, "Drawing", date, date));
+            DemoPdfInfo.Issued(spec.Number + " " + spec.Title, spec.DrawnBy, "Drawing", spec.Date, new TimeOnly(14, 0)));
         for (int sheet = 1; sheet <= spec.Sheets; sheet++)
         {
-            var page = composer.AddPage(A3Width, A3Height);
+            var page = composer.AddPage(Sheet);
             Frame(page);
             TitleBlock(page, spec, sheet, random);
             double left = Border + 30;
             double bottom = Border + 150;
-            double width = A3Width - 2 * Border - 60;
-            double height = A3Height - bottom - Border - 30;
+            double width = Sheet.Width - 2 * Border - 60;
+            double height = Sheet.Height - bottom - Border - 30;
             if (sheet % 2 == 1)
             {
                 SchematicDrawer.Network(page, left, bottom, width, height, random);
@@ -39,36 +37,36 @@ internal static class DrawingBuilder
 
     private static void Frame(PageWriter page)
     {
-        page.Rectangle(Border, Border, A3Width - 2 * Border, A3Height - 2 * Border, 1.5);
-        page.Rectangle(Border + 12, Border + 12, A3Width - 2 * Border - 24, A3Height - 2 * Border - 24, 0.5);
+        page.Rectangle(Border, Border, Sheet.Width - 2 * Border, Sheet.Height - 2 * Border, 1.5);
+        page.Rectangle(Border + 12, Border + 12, Sheet.Width - 2 * Border - 24, Sheet.Height - 2 * Border - 24, 0.5);
         const int Columns = 8;
         const int Rows = 4;
-        double cellWidth = (A3Width - 2 * Border) / Columns;
-        double cellHeight = (A3Height - 2 * Border) / Rows;
+        double cellWidth = (Sheet.Width - 2 * Border) / Columns;
+        double cellHeight = (Sheet.Height - 2 * Border) / Rows;
         for (int column = 0; column < Columns; column++)
         {
             double x = Border + column * cellWidth;
-            page.TextCentred(DemoNumber.Integer(column + 1), x + cellWidth / 2, A3Height - Border - 9, 7);
+            page.TextCentred(DemoNumber.Integer(column + 1), x + cellWidth / 2, Sheet.Height - Border - 9, 7);
             page.TextCentred(DemoNumber.Integer(column + 1), x + cellWidth / 2, Border + 3, 7);
             if (column > 0)
             {
-                page.Line(x, A3Height - Border, x, A3Height - Border - 12, 0.5);
+                page.Line(x, Sheet.Height - Border, x, Sheet.Height - Border - 12, 0.5);
                 page.Line(x, Border, x, Border + 12, 0.5);
             }
         }
 
         for (int row = 0; row < Rows; row++)
         {
-            double y = A3Height - Border - (row + 1) * cellHeight;
+            double y = Sheet.Height - Border - (row + 1) * cellHeight;
             string letter = ((char)('A' + row)).ToString();
             page.TextCentred(letter, Border + 6, y + cellHeight / 2, 7);
-            page.TextCentred(letter, A3Width - Border - 6, y + cellHeight / 2, 7);
+            page.TextCentred(letter, Sheet.Width - Border - 6, y + cellHeight / 2, 7);
         }
     }
 
     private static void TitleBlock(PageWriter page, DrawingSpec spec, int sheet, DemoRandom random)
     {
-        double right = A3Width - Border - 12;
+        double right = Sheet.Width - Border - 12;
         double left = right - 380;
         double bottom = Border + 12;
         string[][] rows =

@@ -4,19 +4,15 @@ namespace IndexKeeper.Demo;
 /// and typed-in values, and on the second page defects, notes and signatures.</summary>
 internal static class FormBuilder
 {
-    private const double A4Width = 595;
-    private const double A4Height = 842;
-
     public static byte[] Render(FormSpec spec, DemoRandom random)
     {
-        string date = "D:" + spec.Date.ToString("yyyyMMdd", System.Globalization.CultureInfo.InvariantCulture) + "160000Z";
         var composer = new PdfComposer(
             "form/" + spec.Code,
-            new DemoPdfInfo(spec.Code + " " + spec.Title, spec.Inspector, "Inspection form", date, date));
+            DemoPdfInfo.Issued(spec.Code + " " + spec.Title, spec.Inspector, "Inspection form", spec.Date, new TimeOnly(16, 0)));
         var text = new DemoText(random, spec.Topic, spec.Site);
         for (int pageNumber = 1; pageNumber <= spec.PageCount; pageNumber++)
         {
-            var page = composer.AddPage(A4Width, A4Height);
+            var page = composer.AddPage(PaperSize.A4);
             page.Furniture(
                 "Harrowmere Water Authority",
                 "Form " + spec.Code,

@@ -4,15 +4,14 @@ namespace IndexKeeper.Demo;
 /// tables, schematics and photographs, and appendices.</summary>
 internal static class ManualBuilder
 {
-    private const double A4Width = 595;
-    private const double A4Height = 842;
+    public static byte[] Render(ManualSpec spec, IReadOnlyList<ManualPage> pages) => Render(spec, pages, Info(spec));
 
     public static byte[] Render(ManualSpec spec, IReadOnlyList<ManualPage> pages, DemoPdfInfo info)
     {
         var composer = new PdfComposer("manual/" + spec.Code, info);
         foreach (var page in pages)
         {
-            var writer = composer.AddPage(A4Width, A4Height);
+            var writer = composer.AddPage(PaperSize.A4);
             var random = new DemoRandom(page.Seed);
             var text = new DemoText(random, spec.Topic, spec.Site);
             if (page.Kind != ManualPageKind.Cover)
@@ -44,11 +43,8 @@ internal static class ManualBuilder
         return composer.Build();
     }
 
-    public static DemoPdfInfo Info(ManualSpec spec)
-    {
-        string date = "D:" + spec.Issued.ToString("yyyyMMdd", System.Globalization.CultureInfo.InvariantCulture) + "090000Z";
-        return new DemoPdfInfo(spec.Code + " " + spec.Title, spec.Author, "Operation and maintenance manual", date, date);
-    }
+    public static DemoPdfInfo Info(ManualSpec spec) =>
+        DemoPdfInfo.Issued(spec.Code + " " + spec.Title, spec.Author, "Operation and maintenance manual", spec.Issued, new TimeOnly(9, 0));
 
     private static void Cover(PageWriter page, ManualSpec spec, DemoRandom random)
     {

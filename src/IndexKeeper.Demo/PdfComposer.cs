@@ -4,6 +4,10 @@ namespace IndexKeeper.Demo;
 
 /// <summary>One PDF being written: the builder, its fonts and its metadata. Build() returns bytes that
 /// depend only on what was drawn.</summary>
+/// <remarks>PdfPig's builder writes the standard 14 fonts without embedding them, so what a page names
+/// depends only on what it draws, and a re-save changes no page. PDFsharp 6.2.4 was weighed: it embeds a
+/// subset of a TrueType font shared by every page under a new random tag on each save (and needs font
+/// files on Linux), which would give every page of a re-saved file a new page key.</remarks>
 internal sealed class PdfComposer
 {
     private readonly PdfDocumentBuilder builder = new();
@@ -25,10 +29,7 @@ internal sealed class PdfComposer
 
     public DemoFonts Fonts { get; }
 
-    public PageWriter AddPage(double width, double height)
-    {
-        return new PageWriter(builder.AddPage(width, height), Fonts);
-    }
+    public PageWriter AddPage(PaperSize size) => new(builder.AddPage(size.Width, size.Height), Fonts);
 
     public byte[] Build() => PdfTrailerId.MakeDeterministic(builder.Build(), identity);
 }

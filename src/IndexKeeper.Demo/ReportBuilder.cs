@@ -4,16 +4,10 @@ namespace IndexKeeper.Demo;
 /// incidents, maintenance and samples, and site notes.</summary>
 internal static class ReportBuilder
 {
-    private const double A4Width = 595;
-    private const double A4Height = 842;
-
     private static readonly string[] Zones = ["North zone", "Town zone", "Moorland zone"];
 
-    public static DemoPdfInfo Info(ReportSpec spec)
-    {
-        string date = "D:" + spec.Issued.ToString("yyyyMMdd", System.Globalization.CultureInfo.InvariantCulture) + "103000Z";
-        return new DemoPdfInfo(spec.Title, spec.Author, "Operations report " + spec.Code, date, date);
-    }
+    public static DemoPdfInfo Info(ReportSpec spec) =>
+        DemoPdfInfo.Issued(spec.Title, spec.Author, "Operations report " + spec.Code, spec.Issued, new TimeOnly(10, 30));
 
     public static byte[] Render(ReportSpec spec, DemoRandom random, DemoPdfInfo info)
     {
@@ -33,7 +27,7 @@ internal static class ReportBuilder
 
         for (int pageNumber = 1; pageNumber <= spec.PageCount; pageNumber++)
         {
-            var page = composer.AddPage(A4Width, A4Height);
+            var page = composer.AddPage(PaperSize.A4);
             var pageRandom = random.Fork();
             var topic = (DemoTopic)(pageNumber % 4);
             var text = new DemoText(pageRandom, topic, pageRandom.Pick(DemoVocabulary.Sites));

@@ -108,7 +108,7 @@ internal sealed class StorePlan
         foreach (var (spec, folder) in Manuals)
         {
             var pages = ManualPages(spec);
-            files.Add(new(SharedDrive, folder + "/" + ManualFileName(spec), pages.Count, () => ManualBuilder.Render(spec, pages, ManualBuilder.Info(spec))));
+            files.Add(new(SharedDrive, folder + "/" + ManualFileName(spec), pages.Count, () => ManualBuilder.Render(spec, pages)));
         }
 
         foreach (var (spec, path) in Forms)
