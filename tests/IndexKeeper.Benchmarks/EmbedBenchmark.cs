@@ -1,4 +1,4 @@
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;

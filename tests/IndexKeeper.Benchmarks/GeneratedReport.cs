@@ -1,5 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -38,7 +38,7 @@ internal static class GeneratedReport
         var leading = size * 1.3;
         for (var p = 0; p < pageRevisions.Count; p++)
         {
-            var page = composer.AddPage(595, 842);
+            var page = composer.AddPage(PaperSize.A4);
             page.Furniture("Harrowmere Water Authority", $"Works report {document}", $"revision {pageRevisions[p]}", $"page {p + 1}");
             page.Text($"Works report {document}, part {p + 1}", PageWriter.Margin, page.Top - 20, 13, page.Fonts.Bold);
             var lines = page.Wrap(string.Join(' ', Words(document, p, pageRevisions[p], wordsPerPage)), page.ContentWidth, size, page.Fonts.Regular);

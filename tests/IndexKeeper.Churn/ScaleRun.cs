@@ -2,7 +2,7 @@ using System.Diagnostics;
 using System.Globalization;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Churn.Strategies;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Querying;
 
@@ -87,7 +87,7 @@ internal sealed class ScaleRun(int pages, int seed, string workDirectory, Action
         var composer = new PdfComposer("scale/" + code, new DemoPdfInfo(code + " Site records, " + site, "Records office", "Site records", "D:20260101090000Z", "D:20260101090000Z"));
         for (var page = 0; page < count; page++)
         {
-            var writer = composer.AddPage(595, 842);
+            var writer = composer.AddPage(PaperSize.A4);
             var text = new DemoText(random.Fork(), (DemoTopic)random.Next(4), site);
             writer.Text(code + "  " + site + "  sheet " + (page + 1).ToString(CultureInfo.InvariantCulture), PageWriter.Margin, writer.Top, 10, writer.Fonts.Bold);
             new TextFlow(writer, writer.Top - 24).Paragraph(text.Paragraph(3));

@@ -1,6 +1,6 @@
 using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Configuration;

@@ -20,7 +20,7 @@ internal sealed class DeckDocument(DeckSpec spec, IEnumerable<ulong> slideSeeds)
 
     public override void Revise(string revisionName)
     {
-        var random = IndexKeeper.Cli.Demo.DemoRandom.For(0, "deck-revision/" + spec.Code + "/" + revisionName);
+        var random = IndexKeeper.Demo.DemoRandom.For(0, "deck-revision/" + spec.Code + "/" + revisionName);
         for (var i = 0; i < slides.Count; i++)
         {
             slides[i] = random.NextUInt64();

@@ -1,5 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Churn.Store;
 

@@ -1,5 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Churn.Store;
 
@@ -35,7 +35,7 @@ internal sealed class ManualDocument : SimDocument
             info = info with
             {
                 Title = info.Title + " (document control note " + MetadataRevision.ToString(CultureInfo.InvariantCulture) + ")",
-                ModifiedDate = "D:202603" + (MetadataRevision % 28 + 1).ToString("00", CultureInfo.InvariantCulture) + "120000Z",
+                ModifiedDate = DemoPdfInfo.Date(new DateOnly(2026, 3, MetadataRevision % 28 + 1), new TimeOnly(12, 0)),
             };
         }
 

@@ -1,5 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Churn.Store;
 
@@ -15,12 +15,11 @@ internal static class SlideDeckBuilder
 
     public static byte[] Render(DeckSpec spec, IReadOnlyList<ulong> slideSeeds, int metadataRevision)
     {
-        var date = "D:" + spec.Date.ToString("yyyyMMdd", CultureInfo.InvariantCulture) + "140000Z";
-        var info = new DemoPdfInfo(spec.Title + (metadataRevision > 0 ? " (reviewed " + metadataRevision.ToString(CultureInfo.InvariantCulture) + ")" : string.Empty), spec.Author, "Briefing " + spec.Code, date, date);
+        var info = DemoPdfInfo.Issued(spec.Title + (metadataRevision > 0 ? " (reviewed " + metadataRevision.ToString(CultureInfo.InvariantCulture) + ")" : string.Empty), spec.Author, "Briefing " + spec.Code, spec.Date, new TimeOnly(14, 0));
         var composer = new PdfComposer("deck/" + spec.Code, info);
         for (var index = 0; index < slideSeeds.Count; index++)
         {
-            var page = composer.AddPage(Width, Height);
+            var page = composer.AddPage(new PaperSize(Width, Height));
             var random = new DemoRandom(slideSeeds[index]);
             var text = new DemoText(random, spec.Topic, spec.Site);
             page.FillColour(20, 96, 110);

@@ -1,7 +1,7 @@
 using System.Diagnostics;
 using System.Runtime.InteropServices;
 using IndexKeeper.Churn.Report;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Querying;

@@ -1,7 +1,7 @@
 using System.Buffers.Binary;
 using System.Globalization;
 using System.Text.Json;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Support;

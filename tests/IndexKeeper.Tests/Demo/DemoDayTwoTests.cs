@@ -1,4 +1,4 @@
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using UglyToad.PdfPig;
 
 namespace IndexKeeper.Tests.Demo;

@@ -1,4 +1,4 @@
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Tests.Demo;
 

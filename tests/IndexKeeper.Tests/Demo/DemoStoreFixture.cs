@@ -1,5 +1,5 @@
 using System.Security.Cryptography;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Tests.Demo;
 

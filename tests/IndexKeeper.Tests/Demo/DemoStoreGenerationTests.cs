@@ -1,5 +1,5 @@
 using System.Text.RegularExpressions;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using SkiaSharp;
 using UglyToad.PdfPig;
 

@@ -1,6 +1,6 @@
 using System.Text;
 using System.Text.RegularExpressions;
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 
 namespace IndexKeeper.Tests.Demo;
 
@@ -44,7 +44,7 @@ public sealed partial class PdfTrailerIdTests
     private static byte[] Build(string identity, DemoPdfInfo info, string text)
     {
         var composer = new PdfComposer(identity, info);
-        composer.AddPage(595, 842).Text(text, 72, 720, 12);
+        composer.AddPage(PaperSize.A4).Text(text, 72, 720, 12);
         return composer.Build();
     }
 

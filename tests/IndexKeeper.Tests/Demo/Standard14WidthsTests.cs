@@ -1,4 +1,4 @@
-using IndexKeeper.Cli.Demo;
+using IndexKeeper.Demo;
 using UglyToad.PdfPig.Core;
 using UglyToad.PdfPig.Fonts.Standard14Fonts;
 using UglyToad.PdfPig.Writer;

@@ -1,8 +1,0 @@
-namespace IndexKeeper.Cli.Demo;
-
-internal enum ScanFormat
-{
-    Png,
-    Jpeg,
-    Tiff,
-}

@@ -1,0 +1,14 @@
+namespace IndexKeeper.Demo;
+
+internal enum ManualPageKind
+{
+    Cover,
+    Contents,
+    Text,
+    Procedure,
+    Table,
+    Schematic,
+    PhotoPng,
+    PhotoJpeg,
+    Appendix,
+}

@@ -1,0 +1,8 @@
+namespace IndexKeeper.Demo;
+
+internal enum ScanFormat
+{
+    Png,
+    Jpeg,
+    Tiff,
+}
