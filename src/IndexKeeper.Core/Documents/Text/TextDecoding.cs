@@ -40,7 +40,8 @@ internal static class TextDecoding
         }
     }
 
-    public static IEnumerable<string> Lines(string text) => text.ReplaceLineEndings("\n").Split('\n');
+    /// <summary>Lines ended by CR LF, CR or LF only: a form feed stays in its line as a page break.</summary>
+    public static IEnumerable<string> Lines(string text) => text.Replace("\r\n", "\n", StringComparison.Ordinal).Replace('\r', '\n').Split('\n');
 
     /// <summary>True when the bytes hold NUL bytes outside a UTF-16 text: a binary file, not text.</summary>
     public static bool LooksBinary(byte[] file)

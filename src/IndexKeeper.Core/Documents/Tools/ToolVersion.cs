@@ -8,7 +8,7 @@ internal static class ToolVersion
     // Only found programs are remembered: one installed while the worker runs is found on the next read.
     private static readonly ConcurrentDictionary<string, (string Path, string Version)> Known = new(StringComparer.Ordinal);
 
-    /// <summary>The program's full path and version line.</summary>
+    /// <summary>The program's full path and version line (asked with <c>--version</c>, poppler's tools with <c>-v</c>).</summary>
     /// <exception cref="DocumentReadException"><see cref="QuarantineReason.ToolMissing"/>, naming the Debian package.</exception>
     public static (string Path, string Version) Require(string program, string versionPrefix, string package, string purpose)
     {
@@ -39,7 +39,7 @@ internal static class ToolVersion
 
         try
         {
-            var run = ToolRunner.Run(path, ["--version"], TimeSpan.FromSeconds(60), null, 1 << 20, CancellationToken.None);
+            var run = ToolRunner.Run(path, [versionPrefix == "pdftoppm" ? "-v" : "--version"], TimeSpan.FromSeconds(60), null, 1 << 20, CancellationToken.None);
             var line = (run.OutputText + "\n" + run.Error).Split('\n', StringSplitOptions.TrimEntries | StringSplitOptions.RemoveEmptyEntries)
                 .FirstOrDefault(l => l.StartsWith(versionPrefix, StringComparison.OrdinalIgnoreCase));
             return line is null ? null : (path, line);
