@@ -7,7 +7,12 @@ internal static class DaemonOptionsRules
     {
         if (!ListenAddress.TryParse(daemon.Listen, out var listen))
         {
-            errors.Add($"Daemon:Listen: '{daemon.Listen}' is not HOST:PORT with an IP address or localhost (e.g. 127.0.0.1:7717, [::1]:7717).");
+            errors.Add($"Daemon:Listen: '{daemon.Listen}' is not HOST:PORT with an IP address or localhost, IPv6 in brackets (e.g. 127.0.0.1:7717, [::1]:7717).");
+        }
+        else if (listen!.Address.IsIPv4MappedToIPv6)
+        {
+            // Binding a socket to a mapped address fails (EINVAL on Linux); the IPv4 address itself is what is meant.
+            errors.Add($"Daemon:Listen: '{daemon.Listen}' is an IPv4-mapped IPv6 address; write the IPv4 address itself (e.g. {listen.Address.MapToIPv4()}:{listen.Port}).");
         }
         else if (!listen!.IsLoopback && string.IsNullOrWhiteSpace(daemon.Token) && string.IsNullOrWhiteSpace(daemon.TokenFile))
         {

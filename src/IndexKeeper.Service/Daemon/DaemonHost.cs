@@ -1,3 +1,4 @@
+using System.Net.Sockets;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Telemetry;
 using IndexKeeper.Service.Configuration;
@@ -49,10 +50,10 @@ public static class DaemonHost
         {
             await app.RunAsync(cancellationToken).ConfigureAwait(false);
         }
-        catch (IOException ex) when (!lifetime.ApplicationStarted.IsCancellationRequested)
+        catch (Exception ex) when (ex is IOException or SocketException && !lifetime.ApplicationStarted.IsCancellationRequested)
         {
             // Kestrel could not bind (port taken, address not on this machine): a setting to change.
-            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message}"]);
+            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message.TrimEnd('.')}; choose another address or port (--listen HOST:PORT)."]);
         }
         finally
         {
@@ -88,6 +89,10 @@ public static class DaemonHost
         builder.Logging.SetMinimumLevel(LogLevel.Information);
         builder.Logging.AddFilter("Microsoft", LogLevel.Warning);
         builder.Logging.AddFilter("Microsoft.Hosting.Lifetime", LogLevel.Information);
+
+        // A start that fails (the port is taken) is one line from RunAsync, not the host's stack trace; the
+        // work loop logs its own faults.
+        builder.Logging.AddFilter("Microsoft.Extensions.Hosting.Internal.Host", LogLevel.Critical);
         builder.Logging.AddConsole(o => o.LogToStandardErrorThreshold = LogLevel.Trace);
         if (daemon.LogFormat == "json")
         {

@@ -61,6 +61,8 @@ internal sealed class RunningDaemon : IDisposable
         {
             if (process.HasExited)
             {
+                // Without a timeout WaitForExit also waits for the last stderr lines to be delivered.
+                process.WaitForExit();
                 throw new InvalidOperationException($"indexkeeper run exited {process.ExitCode}:\n{string.Join('\n', errors)}");
             }
 
@@ -99,6 +101,13 @@ internal sealed class RunningDaemon : IDisposable
     }
 
     public string GetText(string path) => Client.GetStringAsync(path).GetAwaiter().GetResult();
+
+    /// <summary>The body of /health whatever its status (503 when unhealthy).</summary>
+    public string Health()
+    {
+        using var response = Client.GetAsync("/health").GetAwaiter().GetResult();
+        return response.Content.ReadAsStringAsync().GetAwaiter().GetResult();
+    }
 
     /// <summary>Polls until <paramref name="condition"/> holds, at most <see cref="Patience"/>; fails naming <paramref name="what"/>.</summary>
     public void WaitUntil(string what, Func<bool> condition)
