@@ -24,6 +24,11 @@ public sealed class DaemonSecurityTests
         using var temp = new TempDirectory();
         Directory.CreateDirectory(temp.Combine("store"));
         var tokenFile = temp.Write("token.txt", token + "\n");
+        if (!OperatingSystem.IsWindows())
+        {
+            File.SetUnixFileMode(tokenFile, UnixFileMode.UserRead | UnixFileMode.UserWrite);
+        }
+
         using var daemon = RunningDaemon.Start(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:TokenFile=" + tokenFile], token);
 
         // RFC 6750 section 3: a request without (or with a wrong) bearer token gets 401 and a WWW-Authenticate: Bearer challenge.
