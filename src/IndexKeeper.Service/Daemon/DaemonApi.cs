@@ -13,9 +13,27 @@ namespace IndexKeeper.Service.Daemon;
 /// <summary>The daemon's HTTP paths (DESIGN.md): metrics, health, the status page and the JSON API.</summary>
 internal static class DaemonApi
 {
-    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, string? token)
+    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, ListenAddress listen, string? token)
     {
-        if (token is not null)
+        if (token is null)
+        {
+            app.Use(async (context, next) =>
+            {
+                // Without a token the Host header is the defence against DNS rebinding (HostHeaderRule).
+                string? host = context.Request.Headers.Host;
+                if (HostHeaderRule.Names(host, listen))
+                {
+                    await next(context).ConfigureAwait(false);
+                    return;
+                }
+
+                // RFC 9112 section 3.2: a request without Host is answered 400; RFC 9110 section 15.5.20:
+                // 421 for an authority this server does not answer for.
+                context.Response.StatusCode = string.IsNullOrEmpty(host) ? StatusCodes.Status400BadRequest : StatusCodes.Status421MisdirectedRequest;
+                await context.Response.WriteAsync("this listener answers requests for localhost and its loopback address only\n").ConfigureAwait(false);
+            });
+        }
+        else
         {
             app.Use(async (context, next) =>
             {

@@ -153,7 +153,7 @@ public static class DaemonHost
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
         var limits = new HealthLimits(TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare);
-        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, token);
+        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, listen, token);
         return app;
     }
 }
