@@ -12,6 +12,15 @@ public sealed class DaemonOptions
     /// <summary>A file whose first line is the bearer token (readable by the service account only).</summary>
     public string? TokenFile { get; set; }
 
+    /// <summary>
+    /// Open HTTP connections at most; one past it is closed as soon as it is accepted, before any request is
+    /// read. Metrics scrapers, the status page and commands need a few.
+    /// </summary>
+    public int MaxConnections { get; set; } = 100;
+
+    /// <summary>A connection with no request in flight (before its first or between two) is closed after this long.</summary>
+    public double IdleTimeoutSeconds { get; set; } = 30;
+
     /// <summary>Time a stop request (SIGTERM, service stop, Ctrl+C) has to finish the batch in flight and seal.</summary>
     public double ShutdownGraceSeconds { get; set; } = 30;
 

@@ -40,6 +40,8 @@ internal static class DaemonOptionsRules
             errors.Add($"Daemon:OtlpEndpoint: '{daemon.OtlpEndpoint}' is not an absolute URL.");
         }
 
+        Range(errors, "Daemon:MaxConnections", daemon.MaxConnections, 1, 10_000);
+        Range(errors, "Daemon:IdleTimeoutSeconds", daemon.IdleTimeoutSeconds, 1, 3600);
         Range(errors, "Daemon:ShutdownGraceSeconds", daemon.ShutdownGraceSeconds, 1, 3600);
         Range(errors, "Daemon:SampleSeconds", daemon.SampleSeconds, 0.1, 3600);
         Range(errors, "Daemon:CompactEveryMinutes", daemon.CompactEveryMinutes, 0.05, 7 * 24 * 60);

@@ -7,6 +7,7 @@ using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
 using Microsoft.AspNetCore.Hosting.Server.Features;
+using Microsoft.AspNetCore.Server.Kestrel.Core;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
@@ -25,6 +26,9 @@ namespace IndexKeeper.Service.Daemon;
 /// </summary>
 public static class DaemonHost
 {
+    /// <summary>Time a client has to send a request's headers once it has begun (docs/daemon.md, "Connections").</summary>
+    private static readonly TimeSpan RequestHeadersTimeout = TimeSpan.FromSeconds(10);
+
     public static async Task<int> RunAsync(IndexKeeperOptions options, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(options);
@@ -83,7 +87,19 @@ public static class DaemonHost
         builder.Host.UseSystemd();
         builder.Host.UseWindowsService(o => o.ServiceName = "IndexKeeper");
         builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = TimeSpan.FromSeconds(daemon.ShutdownGraceSeconds));
-        builder.WebHost.ConfigureKestrel(k => k.Listen(listen.Address, listen.Port));
+        builder.WebHost.ConfigureKestrel(k =>
+        {
+            // Idle sockets cannot pile up (each costs a file handle the work loop needs): past the cap a
+            // connection is closed on accept; an idle one is closed after Daemon:IdleTimeoutSeconds; request
+            // headers must arrive within RequestHeadersTimeout. No path upgrades its connection (no WebSockets).
+            k.Limits.MaxConcurrentConnections = daemon.MaxConnections;
+            k.Limits.MaxConcurrentUpgradedConnections = 0;
+            k.Limits.KeepAliveTimeout = TimeSpan.FromSeconds(daemon.IdleTimeoutSeconds);
+            k.Limits.RequestHeadersTimeout = RequestHeadersTimeout;
+
+            // HTTP/1.1 only: what browsers, scrapers and the commands speak over plain HTTP.
+            k.Listen(listen.Address, listen.Port, o => o.Protocols = HttpProtocols.Http1);
+        });
 
         builder.Logging.ClearProviders();
         builder.Logging.SetMinimumLevel(LogLevel.Information);

@@ -58,10 +58,12 @@ public sealed class DaemonSettingsTests
             o.Daemon.LogFormat = "xml";
             o.Daemon.ShutdownGraceSeconds = 0;
             o.Daemon.MaxAttempts = 0;
+            o.Daemon.MaxConnections = 0;
+            o.Daemon.IdleTimeoutSeconds = 0.5;
             o.Detect.FullWalkMinutes = 0;
             o.Detect.WatcherBufferKilobytes = 1;
         }));
-        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
+        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Daemon:MaxConnections", "Daemon:IdleTimeoutSeconds", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
         {
             Assert.Contains(errors, e => e.StartsWith(name + ":", StringComparison.Ordinal));
         }
