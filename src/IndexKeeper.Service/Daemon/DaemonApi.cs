@@ -1,4 +1,3 @@
-using System.Globalization;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -74,21 +73,8 @@ internal static class DaemonApi
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
         app.MapGet("/api/status", () => Results.Json(StatusReport.Build(session), ApiJson.Options));
         app.MapGet("/api/daemon", () => Results.Json(Report(session, state, limits), ApiJson.Options));
-        app.MapGet("/api/search", (string? q, string? k, CancellationToken cancellationToken) =>
-        {
-            if (string.IsNullOrWhiteSpace(q))
-            {
-                return Results.Json(new { error = "q: give the query text, e.g. /api/search?q=valve+inspection&k=10" }, ApiJson.Options, statusCode: 400);
-            }
-
-            var top = 10;
-            if (k is not null && (!int.TryParse(k, NumberStyles.None, CultureInfo.InvariantCulture, out top) || top is < 1 or > 1000))
-            {
-                return Results.Json(new { error = "k: give a whole number from 1 to 1000" }, ApiJson.Options, statusCode: 400);
-            }
-
-            return Results.Json(PageSearcher.Search(session, q.Trim(), top, cancellationToken), ApiJson.Options);
-        });
+        app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
+            SearchEndpoint.Answer(context.Request.Query, session.Options.Query, (q, k, c) => PageSearcher.Search(session, q, k, c), cancellationToken));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
