@@ -47,6 +47,9 @@ internal static class DaemonOptionsRules
         Range(errors, "Daemon:CompactEveryMinutes", daemon.CompactEveryMinutes, 0.05, 7 * 24 * 60);
         Range(errors, "Daemon:MaxAttempts", daemon.MaxAttempts, 1, 100);
         Range(errors, "Daemon:RetryBaseSeconds", daemon.RetryBaseSeconds, 0.01, 86400);
+        Range(errors, "Daemon:FaultRetries", daemon.FaultRetries, 0, 1000);
+        Range(errors, "Daemon:FaultRetryBaseSeconds", daemon.FaultRetryBaseSeconds, 0.01, 300);
+        Range(errors, "Daemon:HealthSearchFailureMinutes", daemon.HealthSearchFailureMinutes, 0.1, 24 * 60);
         Range(errors, "Daemon:HealthDeadRatio", daemon.HealthDeadRatio, 0.01, 1);
         Range(errors, "Daemon:HealthMinFreeShare", daemon.HealthMinFreeShare, 0, 0.9);
     }

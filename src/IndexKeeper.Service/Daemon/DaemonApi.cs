@@ -74,7 +74,7 @@ internal static class DaemonApi
         app.MapGet("/api/status", () => Results.Json(StatusReport.Build(session), ApiJson.Options));
         app.MapGet("/api/daemon", () => Results.Json(Report(session, state, limits), ApiJson.Options));
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            SearchEndpoint.Answer(context.Request.Query, session.Options.Query, (q, k, c) => PageSearcher.Search(session, q, k, c), cancellationToken));
+            SearchEndpoint.Answer(context.Request.Query, session.Options.Query, (q, k, c) => PageSearcher.Search(session, q, k, c), state, cancellationToken));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.

@@ -168,7 +168,8 @@ public static class DaemonHost
 
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
-        var limits = new HealthLimits(TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare);
+        var limits = new HealthLimits(
+            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes));
         DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, listen, token);
         return app;
     }

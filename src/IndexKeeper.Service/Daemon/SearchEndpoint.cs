@@ -7,12 +7,15 @@ namespace IndexKeeper.Service.Daemon;
 
 /// <summary>
 /// <c>/api/search?q=TEXT&amp;k=N</c>: one q, at most one k, both within the caps (<see cref="QueryCaps"/>);
-/// anything else is a 400 naming the parameter or cap, before anything is encoded.
+/// anything else is a 400 naming the parameter or cap, before anything is encoded. Whether the search
+/// itself fails or succeeds goes to <see cref="DaemonState"/>: a daemon whose searches fail is not healthy.
 /// </summary>
 internal static class SearchEndpoint
 {
-    public static IResult Answer(IQueryCollection query, QueryOptions caps, Func<string, int, CancellationToken, SearchReport> search, CancellationToken cancellationToken)
+    public static IResult Answer(
+        IQueryCollection query, QueryOptions caps, Func<string, int, CancellationToken, SearchReport> search, DaemonState state, CancellationToken cancellationToken)
     {
+        ArgumentNullException.ThrowIfNull(state);
         ArgumentNullException.ThrowIfNull(query);
         ArgumentNullException.ThrowIfNull(search);
         var q = query["q"];
@@ -46,7 +49,20 @@ internal static class SearchEndpoint
             return BadRequest(problem);
         }
 
-        return Results.Json(search(text, k, cancellationToken), ApiJson.Options);
+        SearchReport report;
+        try
+        {
+            report = search(text, k, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            // The caller still gets the 500 with its reason (DaemonApi); health reports it from now on.
+            state.SearchFailed(ex.Message);
+            throw;
+        }
+
+        state.SearchSucceeded();
+        return Results.Json(report, ApiJson.Options);
     }
 
     private static IResult BadRequest(string error) => Results.Json(new { error }, ApiJson.Options, statusCode: StatusCodes.Status400BadRequest);

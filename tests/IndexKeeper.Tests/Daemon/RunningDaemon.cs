@@ -113,7 +113,7 @@ internal sealed class RunningDaemon : IDisposable
     public void WaitUntil(string what, Func<bool> condition)
     {
         var clock = Stopwatch.StartNew();
-        while (!condition())
+        while (!Holds(condition))
         {
             if (process.HasExited)
             {
@@ -129,11 +129,48 @@ internal sealed class RunningDaemon : IDisposable
         }
     }
 
+    /// <summary>Like <see cref="WaitUntil"/>, but the daemon exiting also ends the wait: true when it exited.</summary>
+    public bool WaitUntilOrExit(string what, Func<bool> condition)
+    {
+        var clock = Stopwatch.StartNew();
+        while (!process.HasExited && !Holds(condition))
+        {
+            if (clock.Elapsed > Patience)
+            {
+                Assert.Fail($"timed out after {Patience} waiting until {what} or the daemon exits:\n{Stderr}");
+            }
+
+            Thread.Sleep(100);
+        }
+
+        if (process.HasExited)
+        {
+            process.WaitForExit();
+        }
+
+        return process.HasExited;
+    }
+
+    public int ExitCode => process.ExitCode;
+
     /// <summary>Paths (root/path) of the hits of a search.</summary>
     public IReadOnlyList<string> SearchPaths(string query)
     {
         var report = GetJson("/api/search?q=" + Uri.EscapeDataString(query) + "&k=20");
         return report.GetProperty("hits").EnumerateArray().Select(h => h.GetProperty("root").GetString() + "/" + h.GetProperty("path").GetString()).ToList();
+    }
+
+    /// <summary>A condition the daemon did not answer (it is exiting, or has exited) is false; the waits then say why.</summary>
+    private static bool Holds(Func<bool> condition)
+    {
+        try
+        {
+            return condition();
+        }
+        catch (HttpRequestException)
+        {
+            return false;
+        }
     }
 
     /// <summary>Sends SIGTERM (what systemd sends on stop) and returns the exit code, or null when it did not exit in time.</summary>
