@@ -7,7 +7,7 @@ namespace IndexKeeper.Tests.Daemon;
 /// DNS rebinding: a page on another origin whose name the attacker re-points at 127.0.0.1 can reach a
 /// loopback listener from the operator's browser, but the browser still sends the page's own name in
 /// Host (RFC 9110 section 7.2). So a listener without a token answers only requests whose Host names
-/// the loopback address or localhost; with a token, the token is the defence.
+/// the loopback address or localhost (with a token, the token is the defence: DaemonSecurityTests).
 /// </summary>
 public sealed class DaemonHostHeaderTests
 {
@@ -33,22 +33,6 @@ public sealed class DaemonHostHeaderTests
             Assert.Equal(HttpStatusCode.OK, Status(daemon, "/api/status", host));
         }
 
-        Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
-    }
-
-    [Fact]
-    public void WithATokenAnyHostIsAnsweredOnceTheTokenMatches()
-    {
-        const string token = "heron-ledger-5521-slipway";
-        using var temp = new TempDirectory();
-        Directory.CreateDirectory(temp.Combine("store"));
-        var tokenFile = temp.Write("token.txt", token + "\n");
-        if (!OperatingSystem.IsWindows())
-        {
-            File.SetUnixFileMode(tokenFile, UnixFileMode.UserRead | UnixFileMode.UserWrite);
-        }
-        using var daemon = RunningDaemon.Start(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:TokenFile=" + tokenFile], token);
-        Assert.Equal(HttpStatusCode.OK, Status(daemon, "/api/status", "indexkeeper.internal.example:443"));
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 

@@ -1,6 +1,5 @@
 using System.Net;
 using System.Net.Sockets;
-using System.Runtime.Versioning;
 using IndexKeeper.Tests.Detect;
 using IndexKeeper.Tests.Support;
 
@@ -15,7 +14,6 @@ public sealed class DaemonStartRefusalTests
     private const string Token = "kestrel-quay-8812-lantern";
 
     [LinuxTheory]
-    [SupportedOSPlatform("linux")]
     [InlineData(UnixFileMode.UserRead | UnixFileMode.UserWrite | UnixFileMode.GroupRead | UnixFileMode.OtherRead, "644")]
     [InlineData(UnixFileMode.UserRead | UnixFileMode.UserWrite | UnixFileMode.GroupRead, "640")]
     [InlineData(UnixFileMode.UserRead | UnixFileMode.UserWrite | UnixFileMode.OtherWrite, "602")]
@@ -26,8 +24,7 @@ public sealed class DaemonStartRefusalTests
         // accessible by others").
         using var temp = new TempDirectory();
         Directory.CreateDirectory(temp.Combine("store"));
-        var tokenFile = temp.Write("token.txt", Token + "\n");
-        File.SetUnixFileMode(tokenFile, mode);
+        var tokenFile = RunningDaemon.WriteTokenFile(temp, Token, mode);
         var refusal = Refused(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:TokenFile=" + tokenFile]);
         Assert.Contains("Daemon:TokenFile", refusal, StringComparison.Ordinal);
         Assert.Contains("chmod 600", refusal, StringComparison.Ordinal);
@@ -36,13 +33,11 @@ public sealed class DaemonStartRefusalTests
     }
 
     [LinuxFact]
-    [SupportedOSPlatform("linux")]
     public void ATokenFileOnlyItsOwnerCanReadIsAccepted()
     {
         using var temp = new TempDirectory();
         Directory.CreateDirectory(temp.Combine("store"));
-        var tokenFile = temp.Write("token.txt", Token + "\n");
-        File.SetUnixFileMode(tokenFile, UnixFileMode.UserRead);
+        var tokenFile = RunningDaemon.WriteTokenFile(temp, Token, UnixFileMode.UserRead);
         using var daemon = RunningDaemon.Start(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:TokenFile=" + tokenFile], Token);
         Assert.Equal(0, daemon.GetJson("/api/status").GetProperty("documents").GetInt64());
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));

@@ -37,6 +37,18 @@ internal sealed class RunningDaemon : IDisposable
 
     public string Stderr => string.Join('\n', stderr);
 
+    /// <summary>Writes a token file into <paramref name="temp"/>, readable and writable by its owner only unless told otherwise (Unix modes).</summary>
+    public static string WriteTokenFile(TempDirectory temp, string token, UnixFileMode mode = UnixFileMode.UserRead | UnixFileMode.UserWrite)
+    {
+        var tokenFile = temp.Write("token.txt", token + "\n");
+        if (!OperatingSystem.IsWindows())
+        {
+            File.SetUnixFileMode(tokenFile, mode);
+        }
+
+        return tokenFile;
+    }
+
     /// <summary>Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c> and the given arguments, and waits for its API.</summary>
     public static RunningDaemon Start(string workingDirectory, IReadOnlyList<string> args, string? token = null)
     {
