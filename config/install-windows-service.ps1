@@ -12,7 +12,9 @@ if (-not (Test-Path $Config)) { throw "configuration $Config not found (start fr
 New-Service -Name "IndexKeeper" -DisplayName "IndexKeeper" `
     -Description "Keeps the page index true to the document store" `
     -BinaryPathName "`"$binary`" run --config `"$Config`"" -StartupType Automatic
-# Restart after a failure, as the systemd unit does.
+# Restart after a failure, as the systemd unit does. The failure flag makes a stop with a non-zero exit code
+# (the daemon's answer to a fault it cannot go past, docs/daemon.md "Faults") count as a failure too.
 sc.exe failure IndexKeeper reset= 86400 actions= restart/10000/restart/10000/restart/60000 | Out-Null
+sc.exe failureflag IndexKeeper 1 | Out-Null
 Start-Service IndexKeeper
 Write-Host "IndexKeeper is running; status page at http://127.0.0.1:7717/"

@@ -1,5 +1,6 @@
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Commands;
+using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Documents.Isolation;
@@ -42,46 +43,55 @@ internal static class Program
         {
             var parsed = ArgumentParser.Parse(args, Commands.ToDictionary(c => c.Name, c => c.Options), Commands.ToDictionary(c => c.Name, c => c.Flags));
             var command = Commands.Single(c => c.Name == parsed.Command);
+            if (!parsed.Json)
+            {
+                Console.SetOut(new TerminalSafeWriter(Console.Out));
+            }
+
             return command.Run(new CommandContext(parsed), cancellation.Token);
         }
         catch (UsageException ex)
         {
-            Console.Error.WriteLine($"indexkeeper: {ex.Message} (see indexkeeper --help)");
+            Error($"{ex.Message} (see indexkeeper --help)");
             return 2;
         }
         catch (ConfigurationException ex)
         {
-            Console.Error.WriteLine("indexkeeper: " + ex.Message);
+            Error(ex.Message);
             return 2;
         }
         catch (IndexLockedException ex) when (ex.HolderPurpose == DaemonClient.LockPurpose)
         {
-            Console.Error.WriteLine("indexkeeper: " + ex.Message + " It is the daemon: it keeps the index fresh itself; status, search and plan ask it, other commands need it stopped.");
+            Error(ex.Message + " It is the daemon: it keeps the index fresh itself; status, search and plan ask it, other commands need it stopped.");
             return 1;
         }
         catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException)
         {
-            Console.Error.WriteLine("indexkeeper: " + ex.Message);
+            Error(ex.Message);
             return 1;
         }
         catch (SegmentFormatException ex)
         {
-            Console.Error.WriteLine($"indexkeeper: a segment is damaged: {ex.Message} Run 'indexkeeper verify' to isolate it and queue its pages again.");
+            Error($"a segment is damaged: {ex.Message} Run 'indexkeeper verify' to isolate it and queue its pages again.");
             return 1;
         }
         catch (OperationCanceledException)
         {
-            Console.Error.WriteLine("indexkeeper: stopped; work committed so far is kept.");
+            Error("stopped; work committed so far is kept.");
             return 1;
         }
         catch (IOException ex)
         {
             // A full or failing disk under the catalog: the batch in flight is lost, committed work is not
             // (the catalog's write-ahead log); a partial failure by the exit-code contract, not a crash.
-            Console.Error.WriteLine($"indexkeeper: {ex.Message}; work committed so far is kept, run the command again once the disk has room.");
+            Error($"{ex.Message}; work committed so far is kept, run the command again once the disk has room.");
             return 1;
         }
     }
+
+    /// <summary>An error line on stderr; a message may name store paths, so each of its lines is escaped (TerminalText).</summary>
+    private static void Error(string message) =>
+        Console.Error.WriteLine("indexkeeper: " + string.Join(Environment.NewLine, message.Split(Environment.NewLine).Select(TerminalText.Escape)));
 
     private static void PrintHelp(TextWriter output)
     {

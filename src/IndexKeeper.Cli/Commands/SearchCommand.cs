@@ -24,13 +24,17 @@ internal sealed class SearchCommand : ICommand
         }
 
         var k = 10;
-        if (context.Arguments.Named.TryGetValue("k", out var kText) &&
-            (!int.TryParse(kText, NumberStyles.None, CultureInfo.InvariantCulture, out k) || k is < 1 or > 1000))
+        if (context.Arguments.Named.TryGetValue("k", out var kText) && !int.TryParse(kText, NumberStyles.None, CultureInfo.InvariantCulture, out k))
         {
-            throw new UsageException($"-k {kText}: give a whole number from 1 to 1000.");
+            throw new UsageException($"-k {kText}: give a whole number.");
         }
 
         var options = context.LoadOptions(rootsRequired: false);
+        if (QueryCaps.Problem(text, k, options.Query) is { } problem)
+        {
+            throw new UsageException(problem);
+        }
+
         var report = ThroughDaemon.Ask(options, () =>
         {
             using var session = IndexSession.Open(options, "indexkeeper search");

@@ -31,7 +31,7 @@ internal sealed class TerminalProgress : IProgress<ScanProgress>, IDisposable
             var width = 30;
             var filled = value.Total > 0 ? (int)(width * value.Done / value.Total) : 0;
             var bar = value.Total > 0 ? $"[{new string('#', filled)}{new string('.', width - filled)}] {value.Done}/{value.Total}" : value.Done > 0 ? $"{value.Done}" : string.Empty;
-            var line = $"{value.Phase,-9} {bar} {Shorten(value.Current, 40)}";
+            var line = $"{value.Phase,-9} {bar} {Shorten(TerminalText.Escape(value.Current), 40)}";
             var room = SafeWidth() - 1;
             Console.Error.Write("\r" + (line.Length >= room ? line[..room] : line.PadRight(room)));
             drawn = true;

@@ -4,4 +4,5 @@ namespace IndexKeeper.Core.Health;
 /// <param name="FullWalkInterval">How often the daemon walks every root; a walk older than twice this is overdue.</param>
 /// <param name="DeadRatio">A dead share of segment bytes above this is reported.</param>
 /// <param name="MinFreeShare">Free space below this share is degraded, below half of it unhealthy.</param>
-public sealed record HealthLimits(TimeSpan FullWalkInterval, double DeadRatio, double MinFreeShare);
+/// <param name="SearchFailureWindow">A search that failed less than this long ago is reported.</param>
+public sealed record HealthLimits(TimeSpan FullWalkInterval, double DeadRatio, double MinFreeShare, TimeSpan SearchFailureWindow);

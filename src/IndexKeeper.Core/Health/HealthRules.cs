@@ -5,7 +5,8 @@ namespace IndexKeeper.Core.Health;
 /// <summary>
 /// Decides the daemon's health from a snapshot of figures. Pure: plain data in, plain data out. Each rule
 /// adds at most one reason; the status is the worst severity found. Unhealthy (HTTP 503) is kept for
-/// states in which the index stops following its store: the work loop died, or the disk is about to fill.
+/// states in which the index stops following its store or stops serving: the work loop died, the disk is
+/// about to fill, or searches fail.
 /// </summary>
 public static class HealthRules
 {
@@ -18,6 +19,19 @@ public static class HealthRules
         if (!snapshot.WorkLoopRunning)
         {
             reasons.Add(new("work-loop-stopped", HealthStatus.Unhealthy, "the loop that scans and embeds has stopped; see the log"));
+        }
+
+        if (snapshot.WorkLoopFault is { } fault)
+        {
+            reasons.Add(new("work-loop-retrying", HealthStatus.Degraded, $"the loop that scans and embeds hit a fault and tries again after a back-off: {fault}"));
+        }
+
+        if (snapshot.SearchFailureAge is { } failedAgo && failedAgo < limits.SearchFailureWindow)
+        {
+            var reason = snapshot.SearchFailure ?? "no reason given";
+            reasons.Add(snapshot.SearchSucceededSince
+                ? new("search-failing", HealthStatus.Degraded, string.Create(c, $"a search failed {failedAgo.TotalMinutes:0} min ago ({reason}); searches since have succeeded"))
+                : new("search-failing", HealthStatus.Unhealthy, string.Create(c, $"searches fail: the last one {failedAgo.TotalMinutes:0} min ago: {reason}")));
         }
 
         if (snapshot.FreeShare is { } free)

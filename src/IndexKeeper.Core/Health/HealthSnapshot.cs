@@ -9,6 +9,10 @@ namespace IndexKeeper.Core.Health;
 /// <param name="FreeShare">Free share of the index volume; null when it could not be read.</param>
 /// <param name="QuarantinedEarlier">Quarantined documents and pages an hour ago (null when the daemon is younger).</param>
 /// <param name="CanaryDrift">The figures of the last canary check when it found silent drift; null when it found none or none ran.</param>
+/// <param name="WorkLoopFault">The fault the work loop is backing off from before it tries again; null when its last turn succeeded.</param>
+/// <param name="SearchFailureAge">Time since the last search that failed; null when none failed.</param>
+/// <param name="SearchFailure">Why the last failed search failed.</param>
+/// <param name="SearchSucceededSince">True when a search succeeded after the last one that failed.</param>
 public sealed record HealthSnapshot(
     bool WorkLoopRunning,
     TimeSpan Uptime,
@@ -22,4 +26,8 @@ public sealed record HealthSnapshot(
     double? FreeShare,
     long Quarantined,
     long? QuarantinedEarlier,
-    string? CanaryDrift = null);
+    string? CanaryDrift = null,
+    string? WorkLoopFault = null,
+    TimeSpan? SearchFailureAge = null,
+    string? SearchFailure = null,
+    bool SearchSucceededSince = false);

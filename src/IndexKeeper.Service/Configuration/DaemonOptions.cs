@@ -12,6 +12,15 @@ public sealed class DaemonOptions
     /// <summary>A file whose first line is the bearer token (readable by the service account only).</summary>
     public string? TokenFile { get; set; }
 
+    /// <summary>
+    /// Open HTTP connections at most; one past it is closed as soon as it is accepted, before any request is
+    /// read. Metrics scrapers, the status page and commands need a few.
+    /// </summary>
+    public int MaxConnections { get; set; } = 100;
+
+    /// <summary>A connection with no request in flight (before its first or between two) is closed after this long.</summary>
+    public double IdleTimeoutSeconds { get; set; } = 30;
+
     /// <summary>Time a stop request (SIGTERM, service stop, Ctrl+C) has to finish the batch in flight and seal.</summary>
     public double ShutdownGraceSeconds { get; set; } = 30;
 
@@ -32,6 +41,20 @@ public sealed class DaemonOptions
 
     /// <summary>First retry delay after a failed encoder attempt; each further failure doubles it (capped at one hour).</summary>
     public double RetryBaseSeconds { get; set; } = 30;
+
+    /// <summary>
+    /// The work loop retries a turn that failed on an I/O fault (disk full, too many open files) this many
+    /// times, waiting <see cref="FaultRetryBaseSeconds"/> first and twice as long each time (at most five
+    /// minutes); a fault that outlasts them, or any other fault, ends the process with exit code 1 so the
+    /// service manager starts it afresh.
+    /// </summary>
+    public int FaultRetries { get; set; } = 20;
+
+    /// <summary>The work loop's first wait after a failed turn.</summary>
+    public double FaultRetryBaseSeconds { get; set; } = 1;
+
+    /// <summary>Health: a search that failed less than this long ago is reported (unhealthy unless one has succeeded since).</summary>
+    public double HealthSearchFailureMinutes { get; set; } = 15;
 
     /// <summary>Health: a dead share of segment bytes above this is reported.</summary>
     public double HealthDeadRatio { get; set; } = 0.5;

@@ -7,7 +7,12 @@ internal static class DaemonOptionsRules
     {
         if (!ListenAddress.TryParse(daemon.Listen, out var listen))
         {
-            errors.Add($"Daemon:Listen: '{daemon.Listen}' is not HOST:PORT with an IP address or localhost (e.g. 127.0.0.1:7717, [::1]:7717).");
+            errors.Add($"Daemon:Listen: '{daemon.Listen}' is not HOST:PORT with an IP address or localhost, IPv6 in brackets (e.g. 127.0.0.1:7717, [::1]:7717).");
+        }
+        else if (listen!.Address.IsIPv4MappedToIPv6)
+        {
+            // Binding a socket to a mapped address fails (EINVAL on Linux); the IPv4 address itself is what is meant.
+            errors.Add($"Daemon:Listen: '{daemon.Listen}' is an IPv4-mapped IPv6 address; write the IPv4 address itself (e.g. {listen.Address.MapToIPv4()}:{listen.Port}).");
         }
         else if (!listen!.IsLoopback && string.IsNullOrWhiteSpace(daemon.Token) && string.IsNullOrWhiteSpace(daemon.TokenFile))
         {
@@ -35,11 +40,16 @@ internal static class DaemonOptionsRules
             errors.Add($"Daemon:OtlpEndpoint: '{daemon.OtlpEndpoint}' is not an absolute URL.");
         }
 
+        Range(errors, "Daemon:MaxConnections", daemon.MaxConnections, 1, 10_000);
+        Range(errors, "Daemon:IdleTimeoutSeconds", daemon.IdleTimeoutSeconds, 1, 3600);
         Range(errors, "Daemon:ShutdownGraceSeconds", daemon.ShutdownGraceSeconds, 1, 3600);
         Range(errors, "Daemon:SampleSeconds", daemon.SampleSeconds, 0.1, 3600);
         Range(errors, "Daemon:CompactEveryMinutes", daemon.CompactEveryMinutes, 0.05, 7 * 24 * 60);
         Range(errors, "Daemon:MaxAttempts", daemon.MaxAttempts, 1, 100);
         Range(errors, "Daemon:RetryBaseSeconds", daemon.RetryBaseSeconds, 0.01, 86400);
+        Range(errors, "Daemon:FaultRetries", daemon.FaultRetries, 0, 1000);
+        Range(errors, "Daemon:FaultRetryBaseSeconds", daemon.FaultRetryBaseSeconds, 0.01, 300);
+        Range(errors, "Daemon:HealthSearchFailureMinutes", daemon.HealthSearchFailureMinutes, 0.1, 24 * 60);
         Range(errors, "Daemon:HealthDeadRatio", daemon.HealthDeadRatio, 0.01, 1);
         Range(errors, "Daemon:HealthMinFreeShare", daemon.HealthMinFreeShare, 0, 0.9);
     }

@@ -22,6 +22,8 @@ public sealed class IndexKeeperOptions
 
     public DaemonOptions Daemon { get; set; } = new();
 
+    public QueryOptions Query { get; set; } = new();
+
     public ScheduleOptions Schedule { get; set; } = new();
 
     public DriftOptions Drift { get; set; } = new();

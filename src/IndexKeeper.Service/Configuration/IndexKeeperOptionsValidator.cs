@@ -96,6 +96,9 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Detect:MaxPendingPaths", options.Detect.MaxPendingPaths, 1, 10_000_000);
         Range(errors, "Detect:RootGoneGraceHours", options.Detect.RootGoneGraceHours, 0, 24 * 365);
         DaemonOptionsRules.Check(errors, options.Daemon);
+        Range(errors, "Query:MaxCharacters", options.Query.MaxCharacters, 1, 100_000);
+        Range(errors, "Query:MaxTerms", options.Query.MaxTerms, 1, 1024);
+        Range(errors, "Query:MaxResults", options.Query.MaxResults, 1, 10_000);
         CheckSchedule(errors, options.Schedule);
         var drift = options.Drift;
         Range(errors, "Drift:CanaryPages", drift.CanaryPages, 0, 10_000);

@@ -3,7 +3,7 @@ using System.Net;
 
 namespace IndexKeeper.Service.Configuration;
 
-/// <summary>The daemon's HTTP address: an IP literal (IPv6 in brackets) or <c>localhost</c>, and a port.</summary>
+/// <summary>The daemon's HTTP address: an IP literal (IPv6 in brackets, and only there) or <c>localhost</c>, and a port.</summary>
 public sealed record ListenAddress(IPAddress Address, int Port)
 {
     public bool IsLoopback => IPAddress.IsLoopback(Address);
@@ -33,14 +33,16 @@ public sealed record ListenAddress(IPAddress Address, int Port)
             return false;
         }
 
+        // An IPv6 literal goes in brackets (RFC 3986 section 3.2.2): "::1:7717" could be an address with no port.
         var host = text[..colon];
-        if (host.StartsWith('[') && host.EndsWith(']'))
+        var bracketed = host.StartsWith('[') && host.EndsWith(']');
+        if (bracketed)
         {
             host = host[1..^1];
         }
 
         IPAddress? ip = host.Equals("localhost", StringComparison.OrdinalIgnoreCase) ? IPAddress.Loopback : null;
-        if (ip is null && !IPAddress.TryParse(host, out ip))
+        if (ip is null && (!IPAddress.TryParse(host, out ip) || (ip.AddressFamily == System.Net.Sockets.AddressFamily.InterNetworkV6) != bracketed))
         {
             return false;
         }

@@ -1,4 +1,3 @@
-using System.Globalization;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -13,9 +12,27 @@ namespace IndexKeeper.Service.Daemon;
 /// <summary>The daemon's HTTP paths (docs/daemon.md): metrics, health, the status page and the JSON API.</summary>
 internal static class DaemonApi
 {
-    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, string? token)
+    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, ListenAddress listen, string? token)
     {
-        if (token is not null)
+        if (token is null)
+        {
+            app.Use(async (context, next) =>
+            {
+                // Without a token the Host header is the defence against DNS rebinding (HostHeaderRule).
+                string? host = context.Request.Headers.Host;
+                if (HostHeaderRule.Names(host, listen))
+                {
+                    await next(context).ConfigureAwait(false);
+                    return;
+                }
+
+                // RFC 9112 section 3.2: a request without Host is answered 400; RFC 9110 section 15.5.20:
+                // 421 for an authority this server does not answer for.
+                context.Response.StatusCode = string.IsNullOrEmpty(host) ? StatusCodes.Status400BadRequest : StatusCodes.Status421MisdirectedRequest;
+                await context.Response.WriteAsync("this listener answers requests for localhost and its loopback address only\n").ConfigureAwait(false);
+            });
+        }
+        else
         {
             app.Use(async (context, next) =>
             {
@@ -56,21 +73,8 @@ internal static class DaemonApi
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
         app.MapGet("/api/status", () => Results.Json(StatusReport.Build(session), ApiJson.Options));
         app.MapGet("/api/daemon", () => Results.Json(Report(session, state, limits), ApiJson.Options));
-        app.MapGet("/api/search", (string? q, string? k, CancellationToken cancellationToken) =>
-        {
-            if (string.IsNullOrWhiteSpace(q))
-            {
-                return Results.Json(new { error = "q: give the query text, e.g. /api/search?q=valve+inspection&k=10" }, ApiJson.Options, statusCode: 400);
-            }
-
-            var top = 10;
-            if (k is not null && (!int.TryParse(k, NumberStyles.None, CultureInfo.InvariantCulture, out top) || top is < 1 or > 1000))
-            {
-                return Results.Json(new { error = "k: give a whole number from 1 to 1000" }, ApiJson.Options, statusCode: 400);
-            }
-
-            return Results.Json(PageSearcher.Search(session, q.Trim(), top, cancellationToken), ApiJson.Options);
-        });
+        app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
+            SearchEndpoint.Answer(context.Request.Query, session.Options.Query, (q, k, c) => PageSearcher.Search(session, q, k, c), state, cancellationToken));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.

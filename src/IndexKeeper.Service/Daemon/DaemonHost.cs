@@ -1,3 +1,4 @@
+using System.Net.Sockets;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Telemetry;
 using IndexKeeper.Service.Configuration;
@@ -6,6 +7,7 @@ using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
 using Microsoft.AspNetCore.Hosting.Server.Features;
+using Microsoft.AspNetCore.Server.Kestrel.Core;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
@@ -24,6 +26,9 @@ namespace IndexKeeper.Service.Daemon;
 /// </summary>
 public static class DaemonHost
 {
+    /// <summary>Time a client has to send a request's headers once it has begun (docs/daemon.md, "Connections").</summary>
+    private static readonly TimeSpan RequestHeadersTimeout = TimeSpan.FromSeconds(10);
+
     public static async Task<int> RunAsync(IndexKeeperOptions options, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(options);
@@ -49,10 +54,10 @@ public static class DaemonHost
         {
             await app.RunAsync(cancellationToken).ConfigureAwait(false);
         }
-        catch (IOException ex) when (!lifetime.ApplicationStarted.IsCancellationRequested)
+        catch (Exception ex) when (ex is IOException or SocketException && !lifetime.ApplicationStarted.IsCancellationRequested)
         {
             // Kestrel could not bind (port taken, address not on this machine): a setting to change.
-            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message}"]);
+            throw new ConfigurationException([$"Daemon:Listen: cannot listen on '{options.Daemon.Listen}': {ex.Message.TrimEnd('.')}; choose another address or port (--listen HOST:PORT)."]);
         }
         finally
         {
@@ -82,12 +87,28 @@ public static class DaemonHost
         builder.Host.UseSystemd();
         builder.Host.UseWindowsService(o => o.ServiceName = "IndexKeeper");
         builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = TimeSpan.FromSeconds(daemon.ShutdownGraceSeconds));
-        builder.WebHost.ConfigureKestrel(k => k.Listen(listen.Address, listen.Port));
+        builder.WebHost.ConfigureKestrel(k =>
+        {
+            // Idle sockets cannot pile up (each costs a file handle the work loop needs): past the cap a
+            // connection is closed on accept; an idle one is closed after Daemon:IdleTimeoutSeconds; request
+            // headers must arrive within RequestHeadersTimeout. No path upgrades its connection (no WebSockets).
+            k.Limits.MaxConcurrentConnections = daemon.MaxConnections;
+            k.Limits.MaxConcurrentUpgradedConnections = 0;
+            k.Limits.KeepAliveTimeout = TimeSpan.FromSeconds(daemon.IdleTimeoutSeconds);
+            k.Limits.RequestHeadersTimeout = RequestHeadersTimeout;
+
+            // HTTP/1.1 only: what browsers, scrapers and the commands speak over plain HTTP.
+            k.Listen(listen.Address, listen.Port, o => o.Protocols = HttpProtocols.Http1);
+        });
 
         builder.Logging.ClearProviders();
         builder.Logging.SetMinimumLevel(LogLevel.Information);
         builder.Logging.AddFilter("Microsoft", LogLevel.Warning);
         builder.Logging.AddFilter("Microsoft.Hosting.Lifetime", LogLevel.Information);
+
+        // A start that fails (the port is taken) is one line from RunAsync, not the host's stack trace; the
+        // work loop logs its own faults.
+        builder.Logging.AddFilter("Microsoft.Extensions.Hosting.Internal.Host", LogLevel.Critical);
         builder.Logging.AddConsole(o => o.LogToStandardErrorThreshold = LogLevel.Trace);
         if (daemon.LogFormat == "json")
         {
@@ -147,8 +168,9 @@ public static class DaemonHost
 
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
-        var limits = new HealthLimits(TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare);
-        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, token);
+        var limits = new HealthLimits(
+            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes));
+        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, listen, token);
         return app;
     }
 }

@@ -22,6 +22,11 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile DaemonFigures figures = DaemonFigures.Empty;
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private volatile CanaryFigures? canaries;
+    private volatile string? workLoopFault;
+    private readonly Lock searchOutcomes = new();
+    private DateTimeOffset? lastSearchFailure;
+    private string? lastSearchFailureReason;
+    private DateTimeOffset? lastSearchSuccess;
     private double pagesPerSecond;
     private readonly Channel<Action> requests = Channel.CreateBounded<Action>(new BoundedChannelOptions(16) { SingleReader = true });
     private readonly AutoResetEvent requestArrived = new(false);
@@ -119,6 +124,29 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
 
     public bool HasWorkLoopFailed => workLoopFailed;
 
+    /// <summary>The loop hit a fault it backs off from and retries: health says degraded with this reason.</summary>
+    public void WorkLoopFaulted(string reason) => workLoopFault = reason;
+
+    /// <summary>A turn succeeded after a fault.</summary>
+    public void WorkLoopRecovered() => workLoopFault = null;
+
+    public void SearchFailed(string reason)
+    {
+        lock (searchOutcomes)
+        {
+            lastSearchFailure = clock.GetUtcNow();
+            lastSearchFailureReason = reason;
+        }
+    }
+
+    public void SearchSucceeded()
+    {
+        lock (searchOutcomes)
+        {
+            lastSearchSuccess = clock.GetUtcNow();
+        }
+    }
+
     /// <summary>Takes a new sample of the figures; pages/s is the embedding rate since the previous sample.</summary>
     public void Publish(DaemonFigures latest, long embeddedSincePrevious)
     {
@@ -146,6 +174,16 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
         var rate = PagesPerSecond;
         var allowed = allowance;
         DateTimeOffset? finish = latest.Queued > 0 && rate > 0 ? now + TimeSpan.FromSeconds(latest.Queued / rate) : null;
+        DateTimeOffset? searchFailed;
+        string? searchFailure;
+        bool succeededSince;
+        lock (searchOutcomes)
+        {
+            searchFailed = lastSearchFailure;
+            searchFailure = lastSearchFailureReason;
+            succeededSince = lastSearchSuccess > lastSearchFailure;
+        }
+
         return new HealthSnapshot(
             workLoopRunning,
             now - Started,
@@ -161,6 +199,10 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
             earlier,
             Canaries is { Drifted: true } c
                 ? string.Create(System.Globalization.CultureInfo.InvariantCulture, $"mean cosine {c.MeanCosine:0.0000}, minimum {c.MinimumCosine:0.0000} over {c.Pages} pages")
-                : null);
+                : null,
+            workLoopFault,
+            now - searchFailed,
+            searchFailure,
+            succeededSince);
     }
 }

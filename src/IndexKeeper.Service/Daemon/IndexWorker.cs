@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using System.ServiceProcess;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Pipeline;
@@ -24,6 +25,7 @@ internal sealed class IndexWorker(
     RootWatchers watchers,
     IEmbedGate gate,
     IHostApplicationLifetime lifetime,
+    IHostLifetime hostLifetime,
     ILogger<IndexWorker> log) : BackgroundService
 {
     private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(session.Options.Detect.FullWalkMinutes);
@@ -32,6 +34,9 @@ internal sealed class IndexWorker(
     private readonly TimeSpan grace = TimeSpan.FromSeconds(session.Options.Daemon.ShutdownGraceSeconds);
     private readonly RetryPolicy retry = new(
         session.Options.Daemon.MaxAttempts, TimeSpan.FromSeconds(session.Options.Daemon.RetryBaseSeconds), TimeSpan.FromHours(1));
+
+    private readonly WorkLoopSupervisor supervisor = new(
+        new RetryPolicy(session.Options.Daemon.FaultRetries + 1, TimeSpan.FromSeconds(session.Options.Daemon.FaultRetryBaseSeconds), TimeSpan.FromMinutes(5)), state, log);
 
     private readonly CancellationTokenSource hardStop = new();
     private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
@@ -94,6 +99,25 @@ internal sealed class IndexWorker(
     }
 
     private void Loop(CancellationToken stopping)
+    {
+        try
+        {
+            // After a fault the supervisor retries, a new pass begins: its first turn walks every root, so paths
+            // the failed turn had taken from the watchers are found.
+            while (!Pass(stopping))
+            {
+            }
+        }
+        finally
+        {
+            SealOnExit();
+            state.WorkLoopStopped();
+            state.RunRequests();
+        }
+    }
+
+    /// <summary>Turns of the loop until a stop request or a fault; false when the fault is to be retried with a new pass.</summary>
+    private bool Pass(CancellationToken stopping)
     {
         var clock = state.Clock;
         var nextFullWalk = DateTimeOffset.MinValue;
@@ -158,6 +182,7 @@ internal sealed class IndexWorker(
                 }
 
                 SealByAge();
+                supervisor.Succeeded();
                 if (!busy)
                 {
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
@@ -177,19 +202,27 @@ internal sealed class IndexWorker(
         }
         catch (Exception ex)
         {
-            // Health turns unhealthy; the HTTP side keeps answering so operators can see why.
-            state.WorkLoopFailed();
-            log.LogCritical(ex, "The work loop stopped: {Message}", ex.Message);
-            return;
-        }
-        finally
-        {
-            SealOnExit();
-            state.WorkLoopStopped();
-            state.RunRequests();
+            // A catalog read tells whether the index can still be used in this process (LiteDB answers every
+            // call with its failure once a write failed).
+            if (supervisor.Retry(ex, () => session.Catalog.Figures(), stopping))
+            {
+                return false;
+            }
+
+            // Exit 1 (DaemonHost): under systemd, Restart=on-failure starts a fresh process on the index. A
+            // Windows service reports its own exit code when it stops; non-zero, with "sc failureflag"
+            // (config/install-windows-service.ps1), makes the service manager's recovery restart it.
+            if (OperatingSystem.IsWindows() && hostLifetime is ServiceBase service)
+            {
+                service.ExitCode = 1;
+            }
+
+            lifetime.StopApplication();
+            return true;
         }
 
         log.LogInformation("Work loop stopped cleanly.");
+        return true;
     }
 
     private bool IsPresent(RootSpec root) => state.Root(root.Name) is { MissingSinceUtc: null };
@@ -409,9 +442,10 @@ internal sealed class IndexWorker(
         {
             session.Store.SealAll();
         }
-        catch (IOException ex)
+        catch (Exception ex)
         {
-            // The open segment stays open; the next start reopens or repairs it.
+            // The open segment stays open; the next start reopens or repairs it. After a fault the catalog may
+            // refuse any further use (LiteDB after a failed write); the loop's own outcome decides the exit.
             log.LogWarning("Could not seal the open segment at shutdown: {Message}", ex.Message);
         }
     }

@@ -28,6 +28,10 @@ public sealed class DaemonSettingsTests
     [InlineData("127.0.0.1:70000")]
     [InlineData("127.0.0.1:-1")]
     [InlineData("127.0.0.1:")]
+    [InlineData("::1:7717")] // RFC 3986 section 3.2.2: an IPv6 literal in a host:port goes in brackets.
+    [InlineData("[127.0.0.1]:7717")]
+    [InlineData("::ffff:127.0.0.1:7717")]
+    [InlineData("[::ffff:127.0.0.1]:7717")] // RFC 4291 section 2.5.5.2: an IPv4-mapped address; the IPv4 address is what is meant.
     public void BadListenAddressesAreNamed(string text)
     {
         var errors = IndexKeeperOptionsValidator.Validate(Valid(o => o.Daemon.Listen = text));
@@ -54,10 +58,12 @@ public sealed class DaemonSettingsTests
             o.Daemon.LogFormat = "xml";
             o.Daemon.ShutdownGraceSeconds = 0;
             o.Daemon.MaxAttempts = 0;
+            o.Daemon.MaxConnections = 0;
+            o.Daemon.IdleTimeoutSeconds = 0.5;
             o.Detect.FullWalkMinutes = 0;
             o.Detect.WatcherBufferKilobytes = 1;
         }));
-        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
+        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Daemon:MaxConnections", "Daemon:IdleTimeoutSeconds", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
         {
             Assert.Contains(errors, e => e.StartsWith(name + ":", StringComparison.Ordinal));
         }

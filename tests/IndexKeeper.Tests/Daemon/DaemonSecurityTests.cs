@@ -3,7 +3,7 @@ using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Daemon;
 
-/// <summary>Off loopback the API needs a bearer token (RFC 6750); without one configured the daemon refuses to start.</summary>
+/// <summary>Off loopback the API needs a bearer token (RFC 6750); without one configured the daemon refuses to start; with one, nothing else is checked.</summary>
 public sealed class DaemonSecurityTests
 {
     [Fact]
@@ -23,7 +23,7 @@ public sealed class DaemonSecurityTests
         const string token = "moorland-otter-4417-quay";
         using var temp = new TempDirectory();
         Directory.CreateDirectory(temp.Combine("store"));
-        var tokenFile = temp.Write("token.txt", token + "\n");
+        var tokenFile = RunningDaemon.WriteTokenFile(temp, token);
         using var daemon = RunningDaemon.Start(temp.Path, ["--root", "store", "--encoder", "hashed-terms", "--Daemon:TokenFile=" + tokenFile], token);
 
         // RFC 6750 section 3: a request without (or with a wrong) bearer token gets 401 and a WWW-Authenticate: Bearer challenge.
@@ -41,6 +41,12 @@ public sealed class DaemonSecurityTests
         Assert.Equal(HttpStatusCode.Unauthorized, wrongAnswer.StatusCode);
 
         Assert.Equal(0, daemon.GetJson("/api/status").GetProperty("documents").GetInt64());
+
+        // With a token the token is the defence: the Host check of a tokenless listener (DNS rebinding) does not apply.
+        using var foreignHost = new HttpRequestMessage(HttpMethod.Get, "/api/status");
+        foreignHost.Headers.Host = "indexkeeper.internal.example:443";
+        using var answer = await daemon.Client.SendAsync(foreignHost);
+        Assert.Equal(HttpStatusCode.OK, answer.StatusCode);
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 }

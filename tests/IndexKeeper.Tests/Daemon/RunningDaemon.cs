@@ -37,6 +37,18 @@ internal sealed class RunningDaemon : IDisposable
 
     public string Stderr => string.Join('\n', stderr);
 
+    /// <summary>Writes a token file into <paramref name="temp"/>, readable and writable by its owner only unless told otherwise (Unix modes).</summary>
+    public static string WriteTokenFile(TempDirectory temp, string token, UnixFileMode mode = UnixFileMode.UserRead | UnixFileMode.UserWrite)
+    {
+        var tokenFile = temp.Write("token.txt", token + "\n");
+        if (!OperatingSystem.IsWindows())
+        {
+            File.SetUnixFileMode(tokenFile, mode);
+        }
+
+        return tokenFile;
+    }
+
     /// <summary>Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c> and the given arguments, and waits for its API.</summary>
     public static RunningDaemon Start(string workingDirectory, IReadOnlyList<string> args, string? token = null)
     {
@@ -61,6 +73,8 @@ internal sealed class RunningDaemon : IDisposable
         {
             if (process.HasExited)
             {
+                // Without a timeout WaitForExit also waits for the last stderr lines to be delivered.
+                process.WaitForExit();
                 throw new InvalidOperationException($"indexkeeper run exited {process.ExitCode}:\n{string.Join('\n', errors)}");
             }
 
@@ -100,11 +114,18 @@ internal sealed class RunningDaemon : IDisposable
 
     public string GetText(string path) => Client.GetStringAsync(path).GetAwaiter().GetResult();
 
+    /// <summary>The body of /health whatever its status (503 when unhealthy).</summary>
+    public string Health()
+    {
+        using var response = Client.GetAsync("/health").GetAwaiter().GetResult();
+        return response.Content.ReadAsStringAsync().GetAwaiter().GetResult();
+    }
+
     /// <summary>Polls until <paramref name="condition"/> holds, at most <see cref="Patience"/>; fails naming <paramref name="what"/>.</summary>
     public void WaitUntil(string what, Func<bool> condition)
     {
         var clock = Stopwatch.StartNew();
-        while (!condition())
+        while (!Holds(condition))
         {
             if (process.HasExited)
             {
@@ -120,11 +141,48 @@ internal sealed class RunningDaemon : IDisposable
         }
     }
 
+    /// <summary>Like <see cref="WaitUntil"/>, but the daemon exiting also ends the wait: true when it exited.</summary>
+    public bool WaitUntilOrExit(string what, Func<bool> condition)
+    {
+        var clock = Stopwatch.StartNew();
+        while (!process.HasExited && !Holds(condition))
+        {
+            if (clock.Elapsed > Patience)
+            {
+                Assert.Fail($"timed out after {Patience} waiting until {what} or the daemon exits:\n{Stderr}");
+            }
+
+            Thread.Sleep(100);
+        }
+
+        if (process.HasExited)
+        {
+            process.WaitForExit();
+        }
+
+        return process.HasExited;
+    }
+
+    public int ExitCode => process.ExitCode;
+
     /// <summary>Paths (root/path) of the hits of a search.</summary>
     public IReadOnlyList<string> SearchPaths(string query)
     {
         var report = GetJson("/api/search?q=" + Uri.EscapeDataString(query) + "&k=20");
         return report.GetProperty("hits").EnumerateArray().Select(h => h.GetProperty("root").GetString() + "/" + h.GetProperty("path").GetString()).ToList();
+    }
+
+    /// <summary>A condition the daemon did not answer (it is exiting, or has exited) is false; the waits then say why.</summary>
+    private static bool Holds(Func<bool> condition)
+    {
+        try
+        {
+            return condition();
+        }
+        catch (HttpRequestException)
+        {
+            return false;
+        }
     }
 
     /// <summary>Sends SIGTERM (what systemd sends on stop) and returns the exit code, or null when it did not exit in time.</summary>

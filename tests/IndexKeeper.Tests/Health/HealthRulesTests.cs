@@ -8,7 +8,7 @@ namespace IndexKeeper.Tests.Health;
 /// </summary>
 public sealed class HealthRulesTests
 {
-    private static readonly HealthLimits Limits = new(TimeSpan.FromMinutes(60), DeadRatio: 0.5, MinFreeShare: 0.1);
+    private static readonly HealthLimits Limits = new(TimeSpan.FromMinutes(60), DeadRatio: 0.5, MinFreeShare: 0.1, SearchFailureWindow: TimeSpan.FromMinutes(15));
     private static readonly DateTimeOffset Now = new(2026, 3, 29, 12, 0, 0, TimeSpan.Zero);
 
     private static readonly HealthSnapshot Calm = new(
@@ -39,6 +39,8 @@ public sealed class HealthRulesTests
         ("dead-ratio-high", HealthStatus.Degraded, s => s with { DeadRatio = 0.51 }),
         ("quarantine-growing", HealthStatus.Degraded, s => s with { Quarantined = 4 }),
         ("canary-drift", HealthStatus.Degraded, s => s with { CanaryDrift = "mean cosine 0.912, minimum 0.4 over 16 pages" }),
+        ("work-loop-retrying", HealthStatus.Degraded, s => s with { WorkLoopFault = "No space left on device (retry 2 of 20 at 12:00:04Z)" }),
+        ("search-failing", HealthStatus.Unhealthy, s => s with { SearchFailureAge = TimeSpan.FromMinutes(1), SearchFailure = "a segment record failed its checksum" }),
     ];
 
     [Fact]
@@ -122,4 +124,22 @@ public sealed class HealthRulesTests
         Assert.Empty(HealthRules.Evaluate(Calm with { Quarantined = 1 }, Limits).Reasons);
         Assert.Empty(HealthRules.Evaluate(Calm with { Quarantined = 50, QuarantinedEarlier = null }, Limits).Reasons);
     }
+
+    [Theory]
+    [InlineData(0, false, "search-failing", HealthStatus.Unhealthy)]
+    [InlineData(14.99, false, "search-failing", HealthStatus.Unhealthy)]
+    [InlineData(14.99, true, "search-failing", HealthStatus.Degraded)]
+    [InlineData(15, false, null, HealthStatus.Healthy)]
+    [InlineData(60, true, null, HealthStatus.Healthy)]
+    public void AFailedSearchIsReportedForItsWindowAndLessSoOnceOneSucceeded(double minutesAgo, bool succeededSince, string? code, HealthStatus status)
+    {
+        var report = HealthRules.Evaluate(Calm with { SearchFailureAge = TimeSpan.FromMinutes(minutesAgo), SearchFailure = "catalog read failed", SearchSucceededSince = succeededSince }, Limits);
+        Assert.Equal(code is null ? [] : new[] { code }, report.Reasons.Select(r => r.Code));
+        Assert.Equal(status, report.Status);
+        Assert.All(report.Reasons, r => Assert.Contains("catalog read failed", r.Message, StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void NoFailedSearchIsNoFinding() =>
+        Assert.Empty(HealthRules.Evaluate(Calm with { SearchFailureAge = null, SearchSucceededSince = true }, Limits).Reasons);
 }

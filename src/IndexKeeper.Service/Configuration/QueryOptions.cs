@@ -1,0 +1,18 @@
+namespace IndexKeeper.Service.Configuration;
+
+/// <summary>
+/// Caps on one search (the command and the API alike): a query past them is refused with a message naming
+/// the cap, so no query can make a huge answer. Each hit carries one match per query vector, so an answer
+/// grows with terms × k.
+/// </summary>
+public sealed class QueryOptions
+{
+    /// <summary>Characters of query text at most.</summary>
+    public int MaxCharacters { get; set; } = 1000;
+
+    /// <summary>Terms (words between white space) at most; every encoder makes at least one query vector of each.</summary>
+    public int MaxTerms { get; set; } = 32;
+
+    /// <summary>The largest k (pages in one answer).</summary>
+    public int MaxResults { get; set; } = 100;
+}
