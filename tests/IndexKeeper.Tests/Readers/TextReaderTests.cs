@@ -43,10 +43,10 @@ public sealed class TextReaderTests : IDisposable
     [Fact]
     public void Markdown_paragraphs_rewrapped_in_the_source_keep_their_keys()
     {
-        var one = Keys("a.md", "# Dredging\n\nThe eastern quay closes\nfrom 3 May.\n\n- berth 4\n- berth 5\n"u8.ToArray());
-        var two = Keys("b.md", "Dredging\n========\n\nThe eastern quay\ncloses from 3 May.\n\n* berth 4\n* berth 5\n"u8.ToArray());
+        var one = Keys("a.markdown", "# Dredging\n\nThe eastern quay closes\nfrom 3 May.\n\n- berth 4\n- berth 5\n"u8.ToArray());
+        var two = Keys("b.markdown", "Dredging\n========\n\nThe eastern quay\ncloses from 3 May.\n\n* berth 4\n* berth 5\n"u8.ToArray());
         Assert.Equal(one, two);
-        var content = Read("c.md", "# Dredging\n\n| Berth | Fee |\n|---|---|\n| 4 | 37 |\n"u8.ToArray());
+        var content = Read("c.markdown", "# Dredging\n\n| Berth | Fee |\n|---|---|\n| 4 | 37 |\n"u8.ToArray());
         Assert.Equal(DocumentKind.Markdown, content.Kind);
         Assert.Contains(content.Pages[0].Words, w => w.Text == "Fee");
     }

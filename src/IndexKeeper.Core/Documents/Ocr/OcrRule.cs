@@ -9,6 +9,14 @@ internal static class OcrRule
 {
     public const int MinimumTextLayerLetters = 20;
 
-    public static bool Needs(PageContent page) =>
-        page.Words.Sum(w => w.Text.Count(char.IsLetterOrDigit)) < MinimumTextLayerLetters;
+    public static bool Needs(PageContent page) => Letters(page.Words) < MinimumTextLayerLetters;
+
+    /// <summary>
+    /// OCR words replace a page's text-layer words only when they hold more letters and digits: a short
+    /// but real text layer (a drawing's title) is exact, and OCR of it can only be worse.
+    /// </summary>
+    public static IReadOnlyList<PageWord> Better(IReadOnlyList<PageWord> textLayer, IReadOnlyList<PageWord> recognised) =>
+        Letters(recognised) > Letters(textLayer) ? recognised : textLayer;
+
+    private static int Letters(IEnumerable<PageWord> words) => words.Sum(w => w.Text.Count(char.IsLetterOrDigit));
 }

@@ -51,7 +51,7 @@ internal sealed class PageOcr(ReaderSettings settings)
                 cache?.Put(page.Key, words);
             }
 
-            pages.Add(page with { Words = words });
+            pages.Add(page with { Words = OcrRule.Better(page.Words, words) });
         }
 
         return content with { Pages = pages };
@@ -69,7 +69,7 @@ internal sealed class PageOcr(ReaderSettings settings)
         var cached = content.Pages.Select(p => cache?.TryGet(p.Key)).ToList();
         if (cached.All(w => w is not null))
         {
-            return content with { Pages = content.Pages.Select((p, i) => p with { Words = cached[i]! }).ToList() };
+            return content with { Pages = content.Pages.Select((p, i) => p with { Words = OcrRule.Better(p.Words, cached[i]!) }).ToList() };
         }
 
         using var scratch = new ScratchDirectory();
@@ -82,7 +82,7 @@ internal sealed class PageOcr(ReaderSettings settings)
                 .Select(w => new PageWord(w.Text, new PageBox(w.Left, page.Height - w.Top - w.Height, w.Left + w.Width, page.Height - w.Top)))
                 .ToList();
             cache?.Put(page.Key, words);
-            return page with { Words = words };
+            return page with { Words = OcrRule.Better(page.Words, words) };
         }).ToList();
         return content with { Pages = pages };
     }
