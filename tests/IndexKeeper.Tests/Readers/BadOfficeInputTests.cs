@@ -52,19 +52,13 @@ public sealed class BadOfficeInputTests : IDisposable
     {
         // [MS-OFFCRYPTO] §2.3.4.4: an encrypted OOXML file is an OLE2 compound file ([MS-CFB] signature
         // D0 CF 11 E0 A1 B1 1A E1) holding an "EncryptedPackage" stream; its name is UTF-16LE in the directory.
-        var file = new byte[4096];
-        new byte[] { 0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1 }.CopyTo(file, 0);
-        System.Text.Encoding.Unicode.GetBytes("EncryptedPackage\0").CopyTo(file, 1024);
-        Assert.Equal(QuarantineReason.Encrypted, folder.ReadFails(file).Reason);
+        Assert.Equal(QuarantineReason.Encrypted, folder.ReadFails(Compound("EncryptedPackage")).Reason);
     }
 
     [Fact]
     public void A_damaged_legacy_word_file_fails_conversion()
     {
-        var file = new byte[8192];
-        new byte[] { 0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1 }.CopyTo(file, 0);
-        System.Text.Encoding.Unicode.GetBytes("WordDocument\0").CopyTo(file, 1024);
-        var failure = folder.ReadFails(file);
+        var failure = folder.ReadFails(Compound("WordDocument"));
         Assert.Equal(QuarantineReason.ConversionFailed, failure.Reason);
         Assert.Contains("doc", failure.Message, StringComparison.Ordinal);
     }
@@ -85,6 +79,15 @@ public sealed class BadOfficeInputTests : IDisposable
     }
 
     public void Dispose() => folder.Dispose();
+
+    /// <summary>Not a valid compound file: its signature and one UTF-16LE stream name, the rest zeros.</summary>
+    private static byte[] Compound(string streamName)
+    {
+        var file = new byte[8192];
+        new byte[] { 0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1 }.CopyTo(file, 0);
+        System.Text.Encoding.Unicode.GetBytes(streamName + "\0").CopyTo(file, 1024);
+        return file;
+    }
 
     private static byte[] Zip(params (string Name, byte[] Data)[] entries)
     {
