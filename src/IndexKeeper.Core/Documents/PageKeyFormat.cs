@@ -17,4 +17,10 @@ internal static class PageKeyFormat
 
     /// <summary>A page of decoded pixels (PNG, JPEG, TIFF frame). Never change.</summary>
     public const byte PixelPage = (byte)'X';
+
+    /// <summary>A PDF page a converter drew from another format, salted with the converter's version. Never change.</summary>
+    public const byte ConvertedPage = (byte)'C';
+
+    /// <summary>A page of text laid out by the text page rule (plain text, Markdown, HTML, e-mail). Never change.</summary>
+    public const byte TextPage = (byte)'T';
 }

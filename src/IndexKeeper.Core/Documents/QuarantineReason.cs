@@ -15,4 +15,13 @@ public enum QuarantineReason
 
     /// <summary>The reader ran out of memory (its worker process has a heap cap) reading this document.</summary>
     ReaderOutOfMemory = 10,
+
+    /// <summary>A program the reader needs for this kind (LibreOffice, Tesseract, pdftoppm) is not installed.</summary>
+    ToolMissing = 11,
+
+    /// <summary>An e-mail nests messages deeper, or carries more parts, than the reader's bounds.</summary>
+    TooManyParts = 12,
+
+    /// <summary>The converter (LibreOffice) or the OCR program failed on this document.</summary>
+    ConversionFailed = 13,
 }

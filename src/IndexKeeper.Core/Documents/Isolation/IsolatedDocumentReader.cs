@@ -10,6 +10,7 @@ internal sealed class IsolatedDocumentReader : IIsolatedDocumentReader
 {
     private readonly ReaderWorkerCommand command;
     private readonly long? memoryLimitBytes;
+    private readonly ReaderSettings settings;
     private readonly TimeSpan startTimeout;
     private readonly TimeSpan killGrace;
     private readonly ILogger logger;
@@ -21,10 +22,11 @@ internal sealed class IsolatedDocumentReader : IIsolatedDocumentReader
     private volatile bool disposed;
     private int workerStarts;
 
-    public IsolatedDocumentReader(ReaderWorkerCommand command, long? memoryLimitBytes, TimeSpan startTimeout, TimeSpan killGrace, ILogger logger)
+    public IsolatedDocumentReader(ReaderWorkerCommand command, long? memoryLimitBytes, ReaderSettings settings, TimeSpan startTimeout, TimeSpan killGrace, ILogger logger)
     {
         this.command = command;
         this.memoryLimitBytes = memoryLimitBytes;
+        this.settings = settings;
         this.startTimeout = startTimeout;
         this.killGrace = killGrace;
         this.logger = logger;
@@ -132,7 +134,7 @@ internal sealed class IsolatedDocumentReader : IIsolatedDocumentReader
 
     private WorkerProcess StartWorker(CancellationToken cancellationToken)
     {
-        var started = WorkerProcess.Start(command, memoryLimitBytes, startTimeout, logger, cancellationToken);
+        var started = WorkerProcess.Start(command, memoryLimitBytes, settings, startTimeout, logger, cancellationToken);
         Interlocked.Increment(ref workerStarts);
         return started;
     }

@@ -17,6 +17,7 @@ public static class IsolatedReaderFactory
         return new IsolatedDocumentReader(
             options.WorkerCommand ?? ReaderWorkerCommand.ForThisInstallation(),
             options.WorkerMemoryLimitBytes,
+            options.ReaderSettings,
             options.StartTimeout,
             options.KillGrace,
             logger ?? NullLogger.Instance);

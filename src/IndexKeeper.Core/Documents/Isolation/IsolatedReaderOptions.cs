@@ -32,6 +32,9 @@ public sealed class IsolatedReaderOptions
         }
     }
 
+    /// <summary>The worker's programs (LibreOffice, Tesseract, pdftoppm), OCR and e-mail bounds. Default <see cref="ReaderSettings.Default"/>.</summary>
+    public ReaderSettings ReaderSettings { get; set; } = ReaderSettings.Default;
+
     /// <summary>How long a new worker may take to announce itself. Default 30 s.</summary>
     public TimeSpan StartTimeout
     {

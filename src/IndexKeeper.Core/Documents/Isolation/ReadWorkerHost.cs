@@ -33,7 +33,18 @@ public static class ReadWorkerHost
 
         // Anything a library prints must not land among the frames.
         Console.SetOut(Console.Error);
-        return Run(input, output, DocumentReaderFactory.Create(), CancellationToken.None);
+        ReaderSettings settings;
+        try
+        {
+            settings = ReaderSettingsCodec.FromEnvironment();
+        }
+        catch (ReaderProtocolException e)
+        {
+            Console.Error.WriteLine($"read-worker: {e.Message}");
+            return ExitProtocolError;
+        }
+
+        return Run(input, output, DocumentReaderFactory.Create(settings), CancellationToken.None);
     }
 
     private static async Task<int> RunAsync(Stream input, Stream output, IDocumentReader reader, CancellationToken cancellationToken)

@@ -33,7 +33,7 @@ internal sealed class WorkerProcess : IDisposable
 
     /// <summary>Starts the worker and waits for its hello frame.</summary>
     /// <exception cref="InvalidOperationException">The worker could not be started or did not announce itself.</exception>
-    public static WorkerProcess Start(ReaderWorkerCommand command, long? memoryLimitBytes, TimeSpan startTimeout, ILogger logger, CancellationToken cancellationToken)
+    public static WorkerProcess Start(ReaderWorkerCommand command, long? memoryLimitBytes, ReaderSettings settings, TimeSpan startTimeout, ILogger logger, CancellationToken cancellationToken)
     {
         var info = new ProcessStartInfo(command.FileName)
         {
@@ -55,6 +55,7 @@ internal sealed class WorkerProcess : IDisposable
             info.Environment.Remove("DOTNET_GCHeapHardLimitPercent");
         }
 
+        info.Environment[ReaderSettingsCodec.Variable] = ReaderSettingsCodec.Encode(settings);
         Process process;
         try
         {

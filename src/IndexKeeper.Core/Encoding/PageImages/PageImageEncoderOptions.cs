@@ -1,3 +1,5 @@
+using IndexKeeper.Core.Documents.Tools;
+
 namespace IndexKeeper.Core.Encoding.PageImages;
 
 /// <summary>

@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using IndexKeeper.Core.Documents.Tools;
 
 namespace IndexKeeper.Core.Encoding.PageImages;
 

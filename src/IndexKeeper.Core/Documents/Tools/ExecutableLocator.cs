@@ -1,4 +1,4 @@
-namespace IndexKeeper.Core.Encoding.PageImages;
+namespace IndexKeeper.Core.Documents.Tools;
 
 /// <summary>Finds an external program as the shell would: a path as given, a bare name on PATH.</summary>
 internal static class ExecutableLocator
