@@ -87,7 +87,7 @@ public sealed class ChurnBenchmark : IBenchmark
             var label = $"round {round,2}";
             context.Report($"{label}: space amplification before compaction", beforeCompaction, "x");
             context.Report($"{label}: space amplification after compaction", space, "x");
-            context.Report($"{label}: segments after compaction", session.Catalog.Segments().Count, "segments");
+            context.Report($"{label}: segments after compaction", session.Catalog.Segments.All().Count, "segments");
             context.Report($"{label}: bytes written by compaction", report.BytesWritten / 1e6, "MB");
             context.Report($"{label}: sync time", sync.Seconds, "s");
             context.Report($"{label}: compaction time (seal + policy + rewrite)", compacted, "s");
@@ -113,7 +113,7 @@ public sealed class ChurnBenchmark : IBenchmark
     /// <summary>One sync (scan, then embed every queued page); Ingested = segment bytes it appended.</summary>
     private static (ScanSummary Summary, long Ingested, double Seconds) Sync(IndexSession session, VectorStore store)
     {
-        var before = session.Catalog.Segments().Sum(s => s.Length);
+        var before = session.Catalog.Segments.All().Sum(s => s.Length);
         ScanSummary summary = null!;
         var (seconds, _) = Measure.Once(() =>
         {
@@ -125,11 +125,11 @@ public sealed class ChurnBenchmark : IBenchmark
             throw new InvalidOperationException($"sync: {summary.PagesFailed} pages failed, {summary.DocumentsQuarantined} quarantined, {summary.DocumentsDeferred} deferred");
         }
 
-        return (summary, session.Catalog.Segments().Sum(s => s.Length) - before, seconds);
+        return (summary, session.Catalog.Segments.All().Sum(s => s.Length) - before, seconds);
     }
 
     private static long Live(IndexSession session) =>
-        session.Catalog.LiveVectorSets(session.Encoder.Identity.Id).Sum(v => (long)v.Length);
+        session.Catalog.VectorSets.Live(session.Encoder.Identity.Id).Sum(v => (long)v.Length);
 
     private static long OnDisk(VectorStore store) =>
         new DirectoryInfo(store.Directory).EnumerateFiles(SegmentFileNames.SearchPattern).Sum(f => f.Length);

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Demo;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
@@ -44,7 +45,7 @@ public sealed class EmbedBenchmark : IBenchmark
 
         var (append, appendCpu, bytes) = AppendAgain(Path.Combine(context.WorkDirectory, "replay"), encoder);
         var keys = encoder.Batches.SelectMany(b => b).Select(p => p.Key.Hex).ToList();
-        var (pageReads, _) = Measure.Once(() => keys.ForEach(k => _ = session.Catalog.FindPage(k) ?? throw new InvalidOperationException(k)));
+        var (pageReads, _) = Measure.Once(() => keys.ForEach(k => _ = session.Catalog.Pages.Find(k) ?? throw new InvalidOperationException(k)));
         var (queueDrain, _) = Measure.Once(() => DrainAgain(session.Catalog, keys, options.Encoder.BatchSize));
         var total = scan + embed;
         context.Report("documents", summary.DocumentsSeen, "files");
@@ -98,9 +99,9 @@ public sealed class EmbedBenchmark : IBenchmark
         var now = DateTime.UtcNow;
         edit.Enqueue.AddRange(keys.Select(k => new QueueRecord { Id = k, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now }));
         catalog.Apply(edit);
-        while (catalog.NextQueued(batchSize, now) is { Count: > 0 } batch)
+        while (catalog.Queue.Next(batchSize, now) is { Count: > 0 } batch)
         {
-            catalog.Dequeue(batch.Select(q => q.Id));
+            catalog.Queue.Remove(batch.Select(q => q.Id));
         }
     }
 
@@ -111,6 +112,6 @@ public sealed class EmbedBenchmark : IBenchmark
         using var catalog = IndexCatalog.Open(heldLock);
         using var store = VectorStore.Open(catalog, indexDirectory);
         var (wall, cpu) = Measure.Once(() => encoder.Batches.ForEach(batch => store.AppendAndCommit(encoder.Identity, batch)));
-        return (wall, cpu, catalog.Segments().Sum(s => s.Length));
+        return (wall, cpu, catalog.Segments.All().Sum(s => s.Length));
     }
 }

@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Planning;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;

@@ -60,8 +60,8 @@ public sealed class ScanBenchmark : IBenchmark
 
         // Where a no-change rescan spends its time: the catalog calls it makes, each timed alone.
         var ids = files.Select(f => Path.GetRelativePath(root, f).Replace(Path.DirectorySeparatorChar, '/')).ToList();
-        var (lookups, _) = Measure.Median(Repeats, () => ids.ForEach(id => _ = catalog.FindDocument("store", id) ?? throw new InvalidOperationException(id)));
-        var (listing, _) = Measure.Median(Repeats, () => _ = catalog.DocumentsOfRoot("store").Count());
+        var (lookups, _) = Measure.Median(Repeats, () => ids.ForEach(id => _ = catalog.Documents.Find("store", id) ?? throw new InvalidOperationException(id)));
+        var (listing, _) = Measure.Median(Repeats, () => _ = catalog.Documents.OfRoot("store").Count());
         var (unreferenced, _) = Measure.Median(Repeats, () => _ = catalog.RemoveUnreferencedPages());
         var (listed, listedCpu) = Measure.Median(Repeats, () => QuickCheckAgainstListing(catalog, spec, documents));
 
@@ -125,7 +125,7 @@ public sealed class ScanBenchmark : IBenchmark
     /// </summary>
     private static void QuickCheckAgainstListing(IndexCatalog catalog, RootSpec spec, int documents)
     {
-        var stored = catalog.DocumentsOfRoot(spec.Name).ToDictionary(d => d.Path, StoredState.Of, StringComparer.Ordinal);
+        var stored = catalog.Documents.OfRoot(spec.Name).ToDictionary(d => d.Path, StoredState.Of, StringComparer.Ordinal);
         var unchanged = RootWalker.Create().Walk(spec, p => throw new InvalidOperationException($"walk problem: {p.Kind} {p.RelativePath}"))
             .Count(f => QuickCheck.BeforeHash(stored.GetValueOrDefault(f.RelativePath), f.Stat).Verdict == QuickCheckVerdict.Unchanged);
         if (unchanged != documents)

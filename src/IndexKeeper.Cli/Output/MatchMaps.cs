@@ -19,7 +19,7 @@ internal static class MatchMaps
         foreach (var hit in report.Hits)
         {
             rank++;
-            if (session.Catalog.FindPage(hit.PageKey) is not { Width: > 0, Height: > 0 } page)
+            if (session.Catalog.Pages.Find(hit.PageKey) is not { Width: > 0, Height: > 0 } page)
             {
                 continue;
             }

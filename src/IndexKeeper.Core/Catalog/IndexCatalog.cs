@@ -1,60 +1,72 @@
+using IndexKeeper.Core.Drift;
+using IndexKeeper.Core.Queue;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
 
 /// <summary>
-/// The catalog of one index directory (LiteDB; schema in docs/catalog.md). It is the source of truth
-/// for what is live. REQUIRES: the caller holds the index's <see cref="IndexLock"/> for the catalog's lifetime.
+/// The catalog of one index directory (LiteDB; schema in docs/catalog.md), the source of truth for what is
+/// live. Each concept is a table of its own (<see cref="Documents"/>, <see cref="Pages"/>, <see cref="Queue"/>,
+/// <see cref="Encoders"/>, <see cref="Segments"/>, <see cref="VectorSets"/>, <see cref="History"/>); the
+/// changes that span tables are here, each one transaction.
+/// REQUIRES: the caller holds the index's <see cref="IndexLock"/> for the catalog's lifetime.
 /// </summary>
-public sealed partial class IndexCatalog : IDisposable
+public sealed class IndexCatalog : IDisposable
 {
-    private readonly LiteDatabase database;
-    private readonly ILiteCollection<DocumentRecord> documents;
-    private readonly ILiteCollection<PageRecord> pages;
-    private readonly ILiteCollection<QueueRecord> queue;
-    private readonly ILiteCollection<ScanRecord> scans;
-    private readonly ILiteCollection<EncoderRecord> encoders;
-    private readonly ILiteCollection<SegmentRecord> segments;
-    private readonly ILiteCollection<VectorSetRecord> vectorSets;
+    private readonly CatalogStore store;
 
     private IndexCatalog(LiteDatabase database)
     {
-        this.database = database;
-        documents = database.GetCollection<DocumentRecord>(CatalogSchema.Documents);
-        pages = database.GetCollection<PageRecord>(CatalogSchema.Pages);
-        queue = database.GetCollection<QueueRecord>(CatalogSchema.Queue);
-        scans = database.GetCollection<ScanRecord>(CatalogSchema.Scans);
-        encoders = database.GetCollection<EncoderRecord>(CatalogSchema.Encoders);
-        segments = database.GetCollection<SegmentRecord>(CatalogSchema.Segments);
-        vectorSets = database.GetCollection<VectorSetRecord>(CatalogSchema.VectorSets);
+        store = new CatalogStore(database);
+        Documents = new DocumentTable(store);
+        Pages = new PageTable(store);
+        Queue = new QueueTable(store);
+        Encoders = new EncoderTable(store);
+        Segments = new SegmentTable(store);
+        VectorSets = new VectorSetTable(store);
+        History = new HistoryTable(store);
     }
+
+    public DocumentTable Documents { get; }
+
+    public PageTable Pages { get; }
+
+    public QueueTable Queue { get; }
+
+    public EncoderTable Encoders { get; }
+
+    public SegmentTable Segments { get; }
+
+    public VectorSetTable VectorSets { get; }
+
+    public HistoryTable History { get; }
 
     /// <summary>Opens or creates the catalog in the locked directory; refuses a newer schema without writing.</summary>
     public static IndexCatalog Open(IndexLock heldLock)
     {
         ArgumentNullException.ThrowIfNull(heldLock);
         var path = Path.Combine(heldLock.Directory, CatalogSchema.FileName);
-        var mapper = new BsonMapper { EnumAsInteger = true };
-        var database = new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct }, mapper);
+        var database = new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct }, Mapper());
         try
         {
             CheckSchema(database, path);
             var catalog = new IndexCatalog(database);
-            catalog.documents.EnsureIndex(d => d.FileHash);
-            catalog.documents.EnsureIndex(d => d.Root);
-            catalog.queue.EnsureIndex(q => q.Priority);
-            catalog.pages.EnsureIndex(p => p.References);
-            catalog.documents.EnsureIndex("pageKeys", "$.PageKeys[*]");
-            catalog.vectorSets.EnsureIndex(v => v.PageKey);
-            catalog.vectorSets.EnsureIndex(v => v.SegmentId);
-            catalog.vectorSets.EnsureIndex(v => v.EncoderId);
+            var s = catalog.store;
+            s.Documents.EnsureIndex(d => d.FileHash);
+            s.Documents.EnsureIndex(d => d.Root);
+            s.Queue.EnsureIndex(q => q.Priority);
+            s.Pages.EnsureIndex(p => p.References);
+            s.Documents.EnsureIndex("pageKeys", "$.PageKeys[*]");
+            s.VectorSets.EnsureIndex(v => v.PageKey);
+            s.VectorSets.EnsureIndex(v => v.SegmentId);
+            s.VectorSets.EnsureIndex(v => v.EncoderId);
 
             // Every collection exists from the open on, before the daemon's HTTP threads read: LiteDB 5.0.21
             // fails a read that races the transaction creating its collection ("page type must be collection
             // page", LiteDB issue #2792). These indexes create the last three and serve their lookups.
-            catalog.segments.EnsureIndex(s => s.EncoderId);
-            catalog.encoders.EnsureIndex(e => e.Name);
-            catalog.scans.EnsureIndex(s => s.Command);
+            s.Segments.EnsureIndex(x => x.EncoderId);
+            s.Encoders.EnsureIndex(e => e.Name);
+            s.Scans.EnsureIndex(x => x.Command);
             return catalog;
         }
         catch
@@ -64,38 +76,39 @@ public sealed partial class IndexCatalog : IDisposable
         }
     }
 
-    public DocumentRecord? FindDocument(string root, string path) => documents.FindById(DocumentRecord.MakeId(root, path));
-
-    /// <summary>Live documents whose bytes hash to <paramref name="fileHash"/>: a new path with one of these is a copy.</summary>
-    public IReadOnlyList<DocumentRecord> FindLiveByFileHash(string fileHash) =>
-        documents.Find(d => d.FileHash == fileHash && d.State == DocumentState.Live).ToList();
-
-    public IEnumerable<DocumentRecord> DocumentsOfRoot(string root) => documents.Find(d => d.Root == root);
-
-    public IEnumerable<DocumentRecord> QuarantinedDocuments() => documents.Find(d => d.State == DocumentState.Quarantined);
-
-    public PageRecord? FindPage(string pageKey) => pages.FindById(pageKey);
-
-    public IEnumerable<DocumentRecord> AllDocuments() => documents.FindAll();
-
-    public IEnumerable<PageRecord> AllPages() => pages.FindAll();
-
-    public IEnumerable<string> RootNames() => documents.Query().Select(d => d.Root).ToEnumerable().Distinct(StringComparer.Ordinal);
-
-    public IEnumerable<QueueRecord> QueueInOrder() => queue.Query().OrderBy(q => q.Priority).ToEnumerable();
-
-    /// <summary>Up to <paramref name="count"/> queued pages that may be tried now, highest priority first.</summary>
-    public IReadOnlyList<QueueRecord> NextQueued(int count, DateTime nowUtc) =>
-        queue.Query().Where(q => q.NotBeforeUtc <= nowUtc).OrderBy(q => q.Priority).Limit(count).ToList();
-
-    /// <summary>Queued pages by priority, quarantined pages apart (they wait for their document to change).</summary>
-    public IReadOnlyDictionary<QueuePriority, long> QueueDepths()
+    /// <summary>
+    /// Opens the catalog for reading only: no schema record, no index, no checkpoint is written, so the
+    /// file's bytes stay as they are. A directory without a catalog reads as an empty one (in memory).
+    /// REQUIRES: the caller holds the index lock (no writer can be half-way through a transaction).
+    /// </summary>
+    public static IndexCatalog OpenReadOnly(IndexLock heldLock)
     {
-        return Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => queue.LongCount(q => q.Priority == p && q.QuarantinedUtc == null));
-    }
+        ArgumentNullException.ThrowIfNull(heldLock);
+        var path = Path.Combine(heldLock.Directory, CatalogSchema.FileName);
+        if (!File.Exists(path))
+        {
+            return new IndexCatalog(new LiteDatabase(new MemoryStream(), Mapper()));
+        }
 
-    /// <summary>Pages quarantined after repeated encoder failures, with their last error.</summary>
-    public IReadOnlyList<QueueRecord> QuarantinedPages() => queue.Find(q => q.QuarantinedUtc != null).ToList();
+        var database = new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct, ReadOnly = true }, Mapper());
+        try
+        {
+            var schema = database.GetCollection(CatalogSchema.Meta).FindById(CatalogSchema.SchemaMetaId);
+            var version = schema?["version"].AsInt32 ?? 0;
+            if (version is < 1 or > CatalogSchema.Version)
+            {
+                throw new CatalogVersionException(
+                    $"The catalog '{path}' has schema version {version}; this build reads versions 1 to {CatalogSchema.Version}. Nothing was changed.");
+            }
+
+            return new IndexCatalog(database);
+        }
+        catch
+        {
+            database.Dispose();
+            throw;
+        }
+    }
 
     /// <summary>Applies every change of <paramref name="edit"/> in one transaction.</summary>
     public void Apply(CatalogEdit edit)
@@ -106,16 +119,15 @@ public sealed partial class IndexCatalog : IDisposable
             return;
         }
 
-        database.BeginTrans();
-        try
+        store.InTransaction(() =>
         {
             foreach (var id in edit.DeleteDocuments)
             {
-                documents.Delete(id);
+                store.Documents.Delete(id);
             }
 
-            documents.Upsert(edit.PutDocuments);
-            pages.Upsert(edit.AddPages);
+            store.Documents.Upsert(edit.PutDocuments);
+            store.Pages.Upsert(edit.AddPages);
             foreach (var page in edit.AddPages)
             {
                 // A page key back within the life of its old vectors (a restored file) costs no encoder call.
@@ -124,58 +136,265 @@ public sealed partial class IndexCatalog : IDisposable
 
             foreach (var (key, references) in edit.SetReferences)
             {
-                if (pages.FindById(key) is { } page)
+                if (store.Pages.FindById(key) is { } page)
                 {
                     page.References = references;
-                    pages.Update(page);
+                    store.Pages.Update(page);
                 }
             }
 
-            queue.Upsert(edit.Enqueue);
-            database.Commit();
-        }
-        catch
-        {
-            database.Rollback();
-            throw;
-        }
+            store.Queue.Upsert(edit.Enqueue);
+        });
     }
 
     /// <summary>Removes pages no live document holds, with their queue entries; returns how many.</summary>
-    public int RemoveUnreferencedPages()
+    public int RemoveUnreferencedPages() => store.InTransaction(() =>
     {
-        database.BeginTrans();
-        try
+        var keys = store.Pages.Find(p => p.References <= 0).Select(p => p.Id).ToList();
+        foreach (var key in keys)
         {
-            var keys = pages.Find(p => p.References <= 0).Select(p => p.Id).ToList();
-            foreach (var key in keys)
+            store.Pages.Delete(key);
+            store.Queue.Delete(key);
+            SetVectorSetsLive(key, live: false);
+        }
+
+        return keys.Count;
+    });
+
+    /// <summary>
+    /// Makes a batch of vector sets live in one transaction: the segment's committed length and counts,
+    /// the new vector sets, and the queue entries they satisfy. REQUIRES: the segment bytes up to
+    /// <paramref name="segment"/>.Length are durable.
+    /// </summary>
+    public void CommitEmbedded(SegmentRecord segment, IReadOnlyList<VectorSetRecord> added, IReadOnlyList<string> dequeued)
+    {
+        ArgumentNullException.ThrowIfNull(segment);
+        ArgumentNullException.ThrowIfNull(added);
+        ArgumentNullException.ThrowIfNull(dequeued);
+        store.InTransaction(() =>
+        {
+            foreach (var set in added)
             {
-                pages.Delete(key);
-                queue.Delete(key);
-                SetVectorSetsLive(key, live: false);
+                // A key whose last page location went away while it was being encoded is born dead.
+                set.Live = Pages.ReferencesOf(set.PageKey) > 0;
+                segment.RecordCount++;
+                if (set.Live)
+                {
+                    segment.LiveBytes += set.Length;
+                    segment.LiveRecordCount++;
+                }
             }
 
-            database.Commit();
-            return keys.Count;
-        }
-        catch
-        {
-            database.Rollback();
-            throw;
-        }
+            store.Segments.Upsert(segment);
+            store.VectorSets.Upsert(added);
+            foreach (var key in dequeued)
+            {
+                store.Queue.Delete(key);
+            }
+        });
     }
 
-    public void AddScan(ScanRecord scan) => scans.Insert(scan);
+    /// <summary>
+    /// Swaps compaction outputs in at once: the moved vector sets point into the new segments, dead vector
+    /// sets of the old segments are forgotten, the old segments leave the catalog. The old files may be
+    /// deleted only after this commit.
+    /// </summary>
+    public void SwapCompacted(IReadOnlyList<long> oldSegmentIds, IReadOnlyList<SegmentRecord> newSegments, IReadOnlyDictionary<(long SegmentId, long Offset), (long SegmentId, long Offset)> moves)
+    {
+        ArgumentNullException.ThrowIfNull(oldSegmentIds);
+        ArgumentNullException.ThrowIfNull(newSegments);
+        ArgumentNullException.ThrowIfNull(moves);
+        store.InTransaction(() =>
+        {
+            foreach (var oldId in oldSegmentIds)
+            {
+                foreach (var set in store.VectorSets.Find(v => v.SegmentId == oldId).ToList())
+                {
+                    if (set.Live && moves.TryGetValue((set.SegmentId, set.Offset), out var to))
+                    {
+                        set.SegmentId = to.SegmentId;
+                        set.Offset = to.Offset;
+                        store.VectorSets.Update(set);
+                    }
+                    else if (set.Live)
+                    {
+                        throw new InvalidOperationException($"compaction lost the live vector set {set.Id}; nothing was swapped.");
+                    }
+                    else
+                    {
+                        store.VectorSets.Delete(set.Id);
+                    }
+                }
+
+                store.Segments.Delete(oldId);
+            }
+
+            store.Segments.Upsert(newSegments);
+        });
+    }
+
+    /// <summary>
+    /// Forgets vector sets whose bytes are lost or damaged, fixes the counts of their segments, and queues
+    /// again every page a live document still holds; with <paramref name="dropSegments"/> the segments'
+    /// records go too. Returns the number of pages queued again.
+    /// </summary>
+    public int ForgetVectorSets(IReadOnlyList<VectorSetRecord> lost, IReadOnlyCollection<long> dropSegments)
+    {
+        ArgumentNullException.ThrowIfNull(lost);
+        ArgumentNullException.ThrowIfNull(dropSegments);
+        var now = DateTime.UtcNow;
+        return store.InTransaction(() =>
+        {
+            var requeued = 0;
+            foreach (var set in lost)
+            {
+                store.VectorSets.Delete(set.Id);
+                if (store.Segments.FindById(set.SegmentId) is { } segment)
+                {
+                    segment.RecordCount--;
+                    if (set.Live)
+                    {
+                        segment.LiveRecordCount--;
+                        segment.LiveBytes -= set.Length;
+                    }
+
+                    store.Segments.Update(segment);
+                }
+
+                if (set.Live && Pages.ReferencesOf(set.PageKey) > 0)
+                {
+                    store.Queue.Upsert(new QueueRecord { Id = set.PageKey, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now });
+                    requeued++;
+                }
+            }
+
+            foreach (var id in dropSegments)
+            {
+                store.Segments.Delete(id);
+            }
+
+            return requeued;
+        });
+    }
+
+    /// <summary>What <see cref="DriftPolicy"/> needs, read from the catalog.</summary>
+    public DriftFacts ReadDriftFacts(string activeEncoderId)
+    {
+        var known = store.Encoders.FindAll().ToList();
+        var pagesByEncoder = new Dictionary<string, IReadOnlySet<string>>(StringComparer.Ordinal);
+        // Every encoder that wrote a vector set is registered by the store's append (VectorStore), so the
+        // encoder records name them all without a pass over every vector set (status asks this on each call).
+        foreach (var id in known.Select(e => e.Id))
+        {
+            pagesByEncoder[id] = VectorSets.LivePageKeysOf(id);
+        }
+
+        return new DriftFacts(
+            activeEncoderId,
+            Encoders.ServingId(),
+            pagesByEncoder,
+            store.Queue.Query().Select(q => q.Id).ToEnumerable().ToHashSet(StringComparer.Ordinal),
+            known.Where(e => e.Retired).Select(e => e.Id).ToHashSet(StringComparer.Ordinal));
+    }
+
+    /// <summary>
+    /// Applies a drift decision in one transaction: migration queue entries, retired encoders' vector sets
+    /// made dead (segment counts with them, so compaction reclaims the bytes), and the serving encoder. A
+    /// switch-over is therefore atomic: before the commit searches use the old vectors, after it the new.
+    /// </summary>
+    public void ApplyDrift(DriftDecision decision, DateTime nowUtc)
+    {
+        ArgumentNullException.ThrowIfNull(decision);
+        if (decision.QueueForMigration.Count == 0 && decision.RetireEncoders.Count == 0 && !decision.RecordServing)
+        {
+            return;
+        }
+
+        store.InTransaction(() =>
+        {
+            store.Queue.Upsert(decision.QueueForMigration.Select(key => new QueueRecord
+            {
+                Id = key,
+                Priority = QueuePriority.Migration,
+                EnqueuedUtc = nowUtc,
+                NotBeforeUtc = nowUtc,
+            }));
+            foreach (var encoderId in decision.RetireEncoders)
+            {
+                Retire(encoderId, nowUtc);
+            }
+
+            if (decision.RecordServing)
+            {
+                store.Meta.Upsert(new BsonDocument
+                {
+                    ["_id"] = CatalogSchema.ServingEncoderMetaId,
+                    ["encoderId"] = decision.ServingEncoderId,
+                    ["sinceUtc"] = nowUtc,
+                });
+            }
+        });
+    }
 
     public CatalogFigures Figures()
     {
-        var live = documents.Count(d => d.State == DocumentState.Live);
-        var quarantined = documents.Count(d => d.State == DocumentState.Quarantined);
-        var locations = pages.Query().Select(p => p.References).ToEnumerable().Sum(r => (long)r);
-        return new CatalogFigures(live, quarantined, pages.LongCount(p => p.References > 0), locations, queue.LongCount(), LastScanUtc());
+        var live = store.Documents.Count(d => d.State == DocumentState.Live);
+        var quarantined = store.Documents.Count(d => d.State == DocumentState.Quarantined);
+        var locations = store.Pages.Query().Select(p => p.References).ToEnumerable().Sum(r => (long)r);
+        return new CatalogFigures(live, quarantined, store.Pages.LongCount(p => p.References > 0), locations, store.Queue.LongCount(), History.LastScanUtc());
     }
 
-    public void Dispose() => database.Dispose();
+    public void Dispose() => store.Dispose();
+
+    private static BsonMapper Mapper() => new() { EnumAsInteger = true };
+
+    /// <summary>REQUIRES: inside a transaction of the caller.</summary>
+    private void Retire(string encoderId, DateTime nowUtc)
+    {
+        foreach (var set in store.VectorSets.Find(v => v.EncoderId == encoderId && v.Live).ToList())
+        {
+            set.Live = false;
+            store.VectorSets.Update(set);
+            AdjustLive(set, -1);
+        }
+
+        var record = store.Encoders.FindById(encoderId) ?? new EncoderRecord { Id = encoderId, Name = "unknown", FirstUsedUtc = nowUtc };
+        record.Retired = true;
+        record.RetiredUtc = nowUtc;
+        store.Encoders.Upsert(record);
+    }
+
+    /// <summary>REQUIRES: inside a transaction of the caller.</summary>
+    private void SetVectorSetsLive(string pageKey, bool live)
+    {
+        HashSet<string>? retired = null;
+        foreach (var set in store.VectorSets.Find(v => v.PageKey == pageKey && v.Live != live).ToList())
+        {
+            // A restored page brings back only vectors of encoders still in use; a retired encoder's stay dead.
+            retired ??= live ? Encoders.RetiredIds() : [];
+            if ((live && retired.Contains(set.EncoderId)) || !AdjustLive(set, live ? 1 : -1))
+            {
+                continue;
+            }
+
+            set.Live = live;
+            store.VectorSets.Update(set);
+        }
+    }
+
+    /// <summary>Moves a vector set's bytes into or out of its segment's live counts; false when the segment is unknown.</summary>
+    private bool AdjustLive(VectorSetRecord set, int sign)
+    {
+        if (store.Segments.FindById(set.SegmentId) is not { } segment)
+        {
+            return false;
+        }
+
+        segment.LiveBytes += sign * set.Length;
+        segment.LiveRecordCount += sign;
+        store.Segments.Update(segment);
+        return true;
+    }
 
     private static void CheckSchema(LiteDatabase database, string path)
     {

@@ -1,3 +1,5 @@
+using IndexKeeper.Core.Queue;
+
 namespace IndexKeeper.Core.Catalog;
 
 /// <summary>A page key waiting for vectors under the active encoder (collection <c>queue</c>).</summary>

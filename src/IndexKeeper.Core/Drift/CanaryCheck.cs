@@ -32,9 +32,9 @@ public static class CanaryCheck
         var encoderId = encoder.Identity.Id;
         var records = new List<VectorSetRecord>();
         var pages = new List<PageToEncode>();
-        foreach (var key in CanarySelection.Choose(catalog.LivePageKeysOf(encoderId), settings.Pages))
+        foreach (var key in CanarySelection.Choose(catalog.VectorSets.LivePageKeysOf(encoderId), settings.Pages))
         {
-            if (catalog.FindVectorSet(encoderId, key) is { Live: true } record && catalog.FindPage(key) is { } page)
+            if (catalog.VectorSets.Find(encoderId, key) is { Live: true } record && catalog.Pages.Find(key) is { } page)
             {
                 records.Add(record);
                 pages.Add(PageInput.From(page, rootPaths));
@@ -54,7 +54,7 @@ public static class CanaryCheck
         }
 
         var figures = comparison.Result();
-        var encoderRecord = catalog.FindEncoder(encoderId) ?? new EncoderRecord
+        var encoderRecord = catalog.Encoders.Find(encoderId) ?? new EncoderRecord
         {
             Id = encoderId,
             Name = encoder.Identity.Name,
@@ -68,7 +68,7 @@ public static class CanaryCheck
         encoderRecord.CanaryMeanCosine = figures.MeanCosine;
         encoderRecord.CanaryMinimumCosine = figures.MinimumCosine;
         encoderRecord.CanaryDrifted = figures.Drifted;
-        catalog.PutEncoder(encoderRecord);
+        catalog.Encoders.Put(encoderRecord);
         return figures;
     }
 }

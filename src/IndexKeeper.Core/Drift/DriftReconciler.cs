@@ -15,7 +15,7 @@ public static class DriftReconciler
     {
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(active);
-        catalog.RegisterEncoder(active, settings);
+        catalog.Encoders.Register(active, settings);
         var decision = DriftPolicy.Decide(catalog.ReadDriftFacts(active.Id));
         catalog.ApplyDrift(decision, nowUtc);
         return decision;

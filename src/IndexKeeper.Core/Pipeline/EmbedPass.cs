@@ -50,7 +50,7 @@ public sealed class EmbedPass(
         var allowed = Enum.GetValues<QueuePriority>().Where(p => p <= lowestPriority).ToList();
         while (!cancellationToken.IsCancellationRequested && embedded < maxPages)
         {
-            var queued = catalog.NextQueued((int)Math.Min(batchSize, maxPages - embedded), started, allowed);
+            var queued = catalog.Queue.Next((int)Math.Min(batchSize, maxPages - embedded), started, allowed);
             if (queued.Count == 0)
             {
                 break;
@@ -60,8 +60,8 @@ public sealed class EmbedPass(
             var satisfied = new List<string>();
             foreach (var entry in queued)
             {
-                var page = catalog.FindPage(entry.Id);
-                if (page is null || page.References <= 0 || catalog.FindVectorSet(encoder.Identity.Id, entry.Id) is { Live: true })
+                var page = catalog.Pages.Find(entry.Id);
+                if (page is null || page.References <= 0 || catalog.VectorSets.Find(encoder.Identity.Id, entry.Id) is { Live: true })
                 {
                     satisfied.Add(entry.Id);
                     continue;
@@ -70,7 +70,7 @@ public sealed class EmbedPass(
                 batch.Add(PageInput.From(page, rootPaths));
             }
 
-            catalog.Dequeue(satisfied);
+            catalog.Queue.Remove(satisfied);
             if (batch.Count == 0)
             {
                 continue;
@@ -88,7 +88,7 @@ public sealed class EmbedPass(
         if (embedded > 0)
         {
             // The measured throughput of this encoder, kept for the plan's estimates.
-            catalog.RecordEmbedding(encoder.Identity.Id, started, stopwatchRun.Elapsed.TotalSeconds, embedded, summary.VectorsWritten - vectorsBefore, summary.EncoderSeconds - secondsBefore);
+            catalog.History.RecordEmbedding(encoder.Identity.Id, started, stopwatchRun.Elapsed.TotalSeconds, embedded, summary.VectorsWritten - vectorsBefore, summary.EncoderSeconds - secondsBefore);
         }
 
         return embedded;
@@ -111,7 +111,7 @@ public sealed class EmbedPass(
             summary.Problems.Add($"a batch of {batch.Count} pages failed and stays queued: {ex.Message}");
             foreach (var page in batch)
             {
-                catalog.DeferQueued(page.Key.Hex, DateTime.UtcNow + retryPolicy.BaseDelay);
+                catalog.Queue.Defer(page.Key.Hex, DateTime.UtcNow + retryPolicy.BaseDelay);
             }
 
             activity?.SetStatus(ActivityStatusCode.Error, ex.Message);
@@ -140,7 +140,7 @@ public sealed class EmbedPass(
             {
                 summary.PagesFailed++;
                 summary.Problems.Add($"page {page.Key.Hex[..12]} failed and stays queued: {ex.Message}");
-                catalog.DeferQueued(page.Key.Hex, DateTime.UtcNow + retryPolicy.BaseDelay);
+                catalog.Queue.Defer(page.Key.Hex, DateTime.UtcNow + retryPolicy.BaseDelay);
                 return (embedded, true);
             }
             catch (Exception ex) when (IsPageFailure(ex))
@@ -170,7 +170,7 @@ public sealed class EmbedPass(
         summary.PagesFailed++;
         CoreTelemetry.PagesFailed.Add(1);
         var now = DateTime.UtcNow;
-        var attempts = catalog.RecordFailure(page.Key.Hex, a => retryPolicy.NextTry(a, now), ex.Message, now);
+        var attempts = catalog.Queue.RecordFailure(page.Key.Hex, a => retryPolicy.NextTry(a, now), ex.Message, now);
         summary.Problems.Add(attempts >= retryPolicy.MaxAttempts
             ? $"page {page.Key.Hex[..12]} of {page.SourcePath} failed {attempts} times and is quarantined: {ex.Message}"
             : $"page {page.Key.Hex[..12]} of {page.SourcePath} failed (attempt {attempts}) and stays queued: {ex.Message}");

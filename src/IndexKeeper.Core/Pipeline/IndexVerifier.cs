@@ -32,7 +32,7 @@ public static class IndexVerifier
     {
         var held = new List<string>();
         var counts = new Dictionary<string, int>(StringComparer.Ordinal);
-        foreach (var document in catalog.AllDocuments())
+        foreach (var document in catalog.Documents.All())
         {
             report.DocumentsChecked++;
             if (document.State != DocumentState.Live)
@@ -46,7 +46,7 @@ public static class IndexVerifier
             }
         }
 
-        foreach (var page in catalog.AllPages())
+        foreach (var page in catalog.Pages.All())
         {
             report.PagesChecked++;
             var expected = counts.GetValueOrDefault(page.Id);
@@ -72,7 +72,7 @@ public static class IndexVerifier
 
     private static void CheckSegments(IndexCatalog catalog, string directory, VerifyReport report, CancellationToken cancellationToken)
     {
-        var known = catalog.Segments().ToDictionary(s => s.Id);
+        var known = catalog.Segments.All().ToDictionary(s => s.Id);
         foreach (var path in Directory.EnumerateFiles(directory))
         {
             if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !known.ContainsKey(id))
@@ -86,7 +86,7 @@ public static class IndexVerifier
             cancellationToken.ThrowIfCancellationRequested();
             report.SegmentsChecked++;
             var path = SegmentFileNames.PathOf(directory, segment.Id);
-            var sets = catalog.VectorSetsOfSegment(segment.Id);
+            var sets = catalog.VectorSets.OfSegment(segment.Id);
             var damage = CheckSegment(segment, path, sets, report);
             if (damage is not null)
             {
@@ -169,14 +169,14 @@ public static class IndexVerifier
             return;
         }
 
-        var queued = catalog.QueueInOrder().Select(q => q.Id).ToHashSet(StringComparer.Ordinal);
+        var queued = catalog.Queue.InOrder().Select(q => q.Id).ToHashSet(StringComparer.Ordinal);
 
         // During a migration the serving encoder's live vectors cover a page too (docs/encoders.md, "Drift and migration").
-        var serving = catalog.ServingEncoderId() is { } id && id != activeEncoderId ? id : null;
+        var serving = catalog.Encoders.ServingId() is { } id && id != activeEncoderId ? id : null;
         foreach (var key in held)
         {
-            if (catalog.FindVectorSet(activeEncoderId, key) is not { Live: true } &&
-                (serving is null || catalog.FindVectorSet(serving, key) is not { Live: true }) &&
+            if (catalog.VectorSets.Find(activeEncoderId, key) is not { Live: true } &&
+                (serving is null || catalog.VectorSets.Find(serving, key) is not { Live: true }) &&
                 !queued.Contains(key))
             {
                 report.Problems.Add($"page {key} has no live vectors under the active or serving encoder and is not queued");

@@ -3,6 +3,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Diff;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Pipeline;
@@ -48,7 +49,7 @@ public sealed class ScanPass
     {
         var state = Pass(command: null, dryRun: true, cancellationToken);
         var removed = state.Ledger.TakeTouched().Where(t => t.ExistedBefore && t.References <= 0).Select(t => t.Key.Hex).ToHashSet(StringComparer.Ordinal);
-        removed.UnionWith(catalog.UnreferencedPageKeys());
+        removed.UnionWith(catalog.Pages.UnreferencedKeys());
         state.Summary.PagesRemoved = removed.Count;
         return new ScanPreview(
             state.Summary,
@@ -214,7 +215,7 @@ public sealed class ScanPass
         var started = clock.GetUtcNow().UtcDateTime;
         var stopwatch = Stopwatch.StartNew();
         var state = new PassState(catalog, dryRun: false);
-        foreach (var document in catalog.DocumentsOfRoot(rootName).ToList())
+        foreach (var document in catalog.Documents.OfRoot(rootName).ToList())
         {
             cancellationToken.ThrowIfCancellationRequested();
             Delete(state, document);
@@ -238,7 +239,7 @@ public sealed class ScanPass
         state.Summary.ElapsedSeconds = stopwatch.Elapsed.TotalSeconds;
         if (!state.DryRun)
         {
-            catalog.AddScan(ToRecord(command!, started, state.Summary));
+            catalog.History.Add(ToRecord(command!, started, state.Summary));
             CoreTelemetry.ScanDuration.Record(state.Summary.ElapsedSeconds);
         }
 
@@ -550,7 +551,7 @@ public sealed class ScanPass
             }
         }
 
-        public PageLedger Ledger { get; } = new(key => catalog.FindPage(key.Hex)?.References);
+        public PageLedger Ledger { get; } = new(key => catalog.Pages.Find(key.Hex)?.References);
 
         public CatalogEdit Edit { get; set; } = new();
 
@@ -575,7 +576,7 @@ public sealed class ScanPass
 
             if (!SingleLookups.TryGetValue(id, out var document))
             {
-                document = catalog.FindDocument(root, id[(root.Length + 1)..]);
+                document = catalog.Documents.Find(root, id[(root.Length + 1)..]);
                 SingleLookups[id] = document;
             }
 
@@ -588,7 +589,7 @@ public sealed class ScanPass
         {
             if (!KnownByRoot.TryGetValue(root, out var known))
             {
-                known = catalog.DocumentsOfRoot(root).ToDictionary(d => d.Id, StringComparer.Ordinal);
+                known = catalog.Documents.OfRoot(root).ToDictionary(d => d.Id, StringComparer.Ordinal);
                 KnownByRoot[root] = known;
             }
 
@@ -624,7 +625,7 @@ public sealed class ScanPass
 
         public HashSet<string> DeletedHashes { get; } = new(StringComparer.Ordinal);
 
-        public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.FindPage(key.Hex) is not null;
+        public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.Pages.Find(key.Hex) is not null;
 
         public DocumentRecord? FindCopySource(string hash)
         {
@@ -633,7 +634,7 @@ public sealed class ScanPass
                 return known.State == DocumentState.Live ? known : null;
             }
 
-            return catalog.FindLiveByFileHash(hash).FirstOrDefault();
+            return catalog.Documents.LiveWithFileHash(hash).FirstOrDefault();
         }
     }
 }

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Queue;
 
 namespace IndexKeeper.Core.Scheduling;
 

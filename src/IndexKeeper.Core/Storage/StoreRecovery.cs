@@ -13,7 +13,7 @@ internal static class StoreRecovery
     public static IReadOnlyList<string> Run(IndexCatalog catalog, string directory)
     {
         var repairs = new List<string>();
-        var known = catalog.Segments().ToDictionary(s => s.Id);
+        var known = catalog.Segments.All().ToDictionary(s => s.Id);
         foreach (var path in System.IO.Directory.EnumerateFiles(directory))
         {
             var name = Path.GetFileName(path);
@@ -36,7 +36,7 @@ internal static class StoreRecovery
             var length = File.Exists(path) ? new FileInfo(path).Length : -1;
             if (length < segment.Length)
             {
-                var lost = catalog.VectorSetsOfSegment(segment.Id).Where(v => v.Offset + v.Length > Math.Max(length, 0)).ToList();
+                var lost = catalog.VectorSets.OfSegment(segment.Id).Where(v => v.Offset + v.Length > Math.Max(length, 0)).ToList();
                 var requeued = catalog.ForgetVectorSets(lost, length < 0 ? [segment.Id] : []);
                 repairs.Add(length < 0
                     ? $"segment {segment.Id} is missing: {lost.Count} vector sets forgotten, {requeued} pages queued again"
@@ -45,7 +45,7 @@ internal static class StoreRecovery
                 {
                     segment.Length = length;
                     segment.Sealed = false;
-                    catalog.PutSegment(segment);
+                    catalog.Segments.Put(segment);
                 }
             }
             else if (!segment.Sealed && length > segment.Length)
@@ -61,7 +61,7 @@ internal static class StoreRecovery
     /// <summary>After a failed append: cuts every open segment back to what the catalog committed.</summary>
     public static void CutToCommitted(IndexCatalog catalog, string directory)
     {
-        foreach (var segment in catalog.Segments().Where(s => !s.Sealed))
+        foreach (var segment in catalog.Segments.All().Where(s => !s.Sealed))
         {
             var path = SegmentFileNames.PathOf(directory, segment.Id);
             if (File.Exists(path) && new FileInfo(path).Length > segment.Length)

@@ -77,7 +77,7 @@ public sealed class VectorStore : IDisposable
     private void AppendAndCommitLocked(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
     {
         var writer = WriterFor(encoder);
-        var segment = catalog.FindSegment(writer.SegmentId) ?? new SegmentRecord
+        var segment = catalog.Segments.Find(writer.SegmentId) ?? new SegmentRecord
         {
             Id = writer.SegmentId,
             EncoderId = encoder.Id,
@@ -141,7 +141,7 @@ public sealed class VectorStore : IDisposable
     private void SealAllLocked()
     {
         // A segment left open by an earlier process (each command is one) has no writer here yet.
-        foreach (var open in catalog.Segments().Where(s => !s.Sealed && !writers.ContainsKey(s.EncoderId)))
+        foreach (var open in catalog.Segments.All().Where(s => !s.Sealed && !writers.ContainsKey(s.EncoderId)))
         {
             var path = SegmentFileNames.PathOf(Directory, open.Id);
             if (File.Exists(path))
@@ -165,7 +165,7 @@ public sealed class VectorStore : IDisposable
         FlushWritersForReaders();
         lock (swapGate)
         {
-            var records = catalog.LiveVectorSets(encoderId);
+            var records = catalog.VectorSets.Live(encoderId);
             return new LiveVectors(files.OpenSource(encoderId, records.Select(ToLocation).ToList()), records);
         }
     }
@@ -194,34 +194,40 @@ public sealed class VectorStore : IDisposable
     }
 
     /// <summary>
-    /// Whether the policy would find work if the open segments were sealed now: the daemon then seals them
-    /// first (compaction touches only sealed segments) and compacts.
+    /// Whether the policy finds work (docs/compaction.md, "When compaction is due"): the same figures
+    /// <c>plan</c> reports, open segments counted as sealed because <see cref="Compact"/> seals them first.
     /// </summary>
     public bool CompactionDue(CompactionOptions options)
     {
         ArgumentNullException.ThrowIfNull(options);
-        var stats = catalog.Segments().Select(s => new SegmentStats(
-            s.Id, s.EncoderId, true, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
-        return CompactionPolicy.Plan(stats, options).Count > 0;
+        return CompactionPolicy.Plan(catalog.Segments.Stats(), options).Count > 0;
     }
 
-    /// <summary>Runs the compaction policy and every job it asks for; returns what was done.</summary>
+    /// <summary>
+    /// Runs the compaction policy and every job it asks for; returns what was done. When there is work the
+    /// open segments are sealed first (compaction rewrites only immutable files), so the jobs are those
+    /// <see cref="CompactionDue"/> and <c>plan</c> saw.
+    /// </summary>
     public CompactionReport Compact(CompactionOptions options, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(options);
-        var stats = catalog.Segments().Select(s => new SegmentStats(
-            s.Id, s.EncoderId, s.Sealed, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
-        var jobs = CompactionPolicy.Plan(stats, options);
+        var jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
+        if (jobs.Count > 0)
+        {
+            SealAll();
+            jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
+        }
+
         using var activity = jobs.Count > 0 ? CoreTelemetry.Traces.StartActivity("compaction") : null;
         activity?.SetTag("indexkeeper.jobs", jobs.Count);
-        var compactor = new SegmentCompactor(Directory, catalog.AllocateSegmentId, options);
+        var compactor = new SegmentCompactor(Directory, catalog.Segments.AllocateId, options);
         long read = 0, written = 0, reclaimed = 0;
         foreach (var job in jobs)
         {
             cancellationToken.ThrowIfCancellationRequested();
-            var live = job.SegmentIds.SelectMany(catalog.VectorSetsOfSegment).Where(v => v.Live).Select(ToLocation).ToList();
+            var live = job.SegmentIds.SelectMany(catalog.VectorSets.OfSegment).Where(v => v.Live).Select(ToLocation).ToList();
             var result = compactor.Run(job, live, cancellationToken);
-            var dimensions = catalog.FindSegment(job.SegmentIds[0])!.Dimensions;
+            var dimensions = catalog.Segments.Find(job.SegmentIds[0])!.Dimensions;
             var newSegments = result.NewSegments.Select(n => new SegmentRecord
             {
                 Id = n.SegmentId,
@@ -294,14 +300,14 @@ public sealed class VectorStore : IDisposable
             return writer;
         }
 
-        catalog.RegisterEncoder(encoder);
-        if (catalog.FindOpenSegment(encoder.Id) is { } open && File.Exists(SegmentFileNames.PathOf(Directory, open.Id)))
+        catalog.Encoders.Register(encoder);
+        if (catalog.Segments.FindOpen(encoder.Id) is { } open && File.Exists(SegmentFileNames.PathOf(Directory, open.Id)))
         {
             writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions);
         }
         else
         {
-            var header = new SegmentHeader(catalog.AllocateSegmentId(), encoder.Id, encoder.Dimensions, DateTimeOffset.UtcNow);
+            var header = new SegmentHeader(catalog.Segments.AllocateId(), encoder.Id, encoder.Dimensions, DateTimeOffset.UtcNow);
             writer = SegmentWriter.Create(Directory, header, writerOptions);
         }
 
@@ -318,7 +324,7 @@ public sealed class VectorStore : IDisposable
 
         using (writer)
         {
-            if (catalog.FindSegment(writer.SegmentId) is not { } segment)
+            if (catalog.Segments.Find(writer.SegmentId) is not { } segment)
             {
                 // Nothing was ever committed to it: an orphan that recovery removes.
                 return;
@@ -327,7 +333,7 @@ public sealed class VectorStore : IDisposable
             var sealedSegment = writer.Seal();
             segment.Sealed = true;
             segment.Length = sealedSegment.Length;
-            catalog.PutSegment(segment);
+            catalog.Segments.Put(segment);
         }
     }
 

@@ -106,9 +106,9 @@ internal static class DaemonApi
             QueuedCanary = figures.QueuedCanary,
             Health = HealthRules.Evaluate(state.HealthSnapshot(), limits),
             Roots = state.Roots,
-            QuarantinedPages = session.Catalog.QuarantinedPages().Take(200).Select(q =>
+            QuarantinedPages = session.Catalog.Queue.Quarantined().Take(200).Select(q =>
             {
-                var page = session.Catalog.FindPage(q.Id);
+                var page = session.Catalog.Pages.Find(q.Id);
                 return new QuarantinedPage(q.Id, page?.SourceRoot ?? string.Empty, page?.SourcePath ?? string.Empty, page?.SourcePage ?? 0, q.Attempts, q.LastError ?? string.Empty, q.QuarantinedUtc ?? q.EnqueuedUtc);
             }).ToList(),
             Samples = state.Samples.Snapshot(),

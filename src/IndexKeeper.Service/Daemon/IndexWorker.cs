@@ -299,7 +299,7 @@ internal sealed class IndexWorker(
 
             var full = Path.Combine(rootPath, path.RelativePath.Replace('/', Path.DirectorySeparatorChar));
             var kind = FileStatReader.Read(full).Kind;
-            if (kind == EntryKind.Directory || (kind == EntryKind.Missing && session.Catalog.FindDocument(path.Root, path.RelativePath) is null && !LooksLikeFile(path)))
+            if (kind == EntryKind.Directory || (kind == EntryKind.Missing && session.Catalog.Documents.Find(path.Root, path.RelativePath) is null && !LooksLikeFile(path)))
             {
                 walk.Add(path.Root);
             }
@@ -332,7 +332,7 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        var allowance = gate.Allowance(now, session.Catalog.DueQueued(now.UtcDateTime));
+        var allowance = gate.Allowance(now, session.Catalog.Queue.Due(now.UtcDateTime));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {
@@ -357,7 +357,7 @@ internal sealed class IndexWorker(
             state.CountEmbedded(embedded);
             Interlocked.Add(ref embeddedSinceSample, embedded);
             log.LogDebug("Embedded {Pages} page(s) in {Seconds:0.000} s.", embedded, stopwatch.Elapsed.TotalSeconds);
-            if (migrating && session.Catalog.QueueDepths()[QueuePriority.Migration] == 0)
+            if (migrating && session.Catalog.Queue.Depths()[QueuePriority.Migration] == 0)
             {
                 ReconcileDrift();
             }
@@ -368,7 +368,7 @@ internal sealed class IndexWorker(
 
     private void ForgetRoot(string root)
     {
-        if (!session.Catalog.DocumentsOfRoot(root).Any())
+        if (!session.Catalog.Documents.OfRoot(root).Any())
         {
             return;
         }
@@ -404,8 +404,8 @@ internal sealed class IndexWorker(
     {
         var catalog = session.Catalog;
         var figures = catalog.Figures();
-        var depths = catalog.QueueDepths();
-        var segments = catalog.Segments();
+        var depths = catalog.Queue.Depths();
+        var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         double? free = null;
         try
@@ -423,7 +423,7 @@ internal sealed class IndexWorker(
             figures.Documents,
             figures.QuarantinedDocuments,
             figures.Pages,
-            catalog.CountVectorSets(liveOnly: true),
+            catalog.VectorSets.Count(liveOnly: true),
             depths[QueuePriority.Fresh],
             depths[QueuePriority.Migration],
             depths[QueuePriority.Canary],

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 
 namespace IndexKeeper.Service.Daemon;

@@ -26,8 +26,8 @@ public sealed class EncodersReport
         ArgumentNullException.ThrowIfNull(session);
         var activeId = session.Encoder.Identity.Id;
         DriftDecision drift = session.ReadDrift();
-        var counts = session.Catalog.VectorSetCountsByEncoder();
-        var records = session.Catalog.Encoders().ToDictionary(e => e.Id, StringComparer.Ordinal);
+        var counts = session.Catalog.VectorSets.CountsByEncoder();
+        var records = session.Catalog.Encoders.All().ToDictionary(e => e.Id, StringComparer.Ordinal);
         var ids = records.Keys.Concat(counts.Keys).Append(activeId).Distinct(StringComparer.Ordinal);
         var migrating = drift.ServingEncoderId != activeId;
         var entries = new List<EncoderReportEntry>();

@@ -83,7 +83,7 @@ public sealed class IndexSession : IDisposable
     /// <summary>Whether the active encoder's canaries are due for a check (<c>Drift:CanaryIntervalHours</c>); off when <c>Drift:CanaryPages</c> is 0.</summary>
     public bool CanariesDue(DateTime nowUtc) =>
         Options.Drift.CanaryPages > 0 &&
-        CanarySchedule.IsDue(Catalog.FindEncoder(Encoder.Identity.Id)?.CanaryCheckedUtc?.ToUniversalTime(), TimeSpan.FromHours(Options.Drift.CanaryIntervalHours), nowUtc);
+        CanarySchedule.IsDue(Catalog.Encoders.Find(Encoder.Identity.Id)?.CanaryCheckedUtc?.ToUniversalTime(), TimeSpan.FromHours(Options.Drift.CanaryIntervalHours), nowUtc);
 
     /// <summary>The drift state as <see cref="ReconcileDrift"/> would see it, without writing.</summary>
     public DriftDecision ReadDrift() => DriftReconciler.Read(Catalog, Encoder.Identity.Id);

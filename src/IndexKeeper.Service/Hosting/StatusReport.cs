@@ -61,18 +61,18 @@ public sealed class StatusReport
     {
         ArgumentNullException.ThrowIfNull(session);
         var figures = session.Catalog.Figures();
-        var segments = session.Catalog.Segments();
+        var segments = session.Catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         var drift = session.ReadDrift();
-        var canary = CanaryReport.Of(session.Catalog.FindEncoder(session.Encoder.Identity.Id));
+        var canary = CanaryReport.Of(session.Catalog.Encoders.Find(session.Encoder.Identity.Id));
         return new StatusReport
         {
             IndexDirectory = session.IndexDirectory,
             Documents = figures.Documents,
             Pages = figures.Pages,
             PageLocations = figures.PageLocations,
-            VectorSets = session.Catalog.CountVectorSets(liveOnly: false),
-            LiveVectorSets = session.Catalog.CountVectorSets(liveOnly: true),
+            VectorSets = session.Catalog.VectorSets.Count(liveOnly: false),
+            LiveVectorSets = session.Catalog.VectorSets.Count(liveOnly: true),
             Segments = segments.Count,
             DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             ActiveEncoder = session.Options.Encoder.Name,
@@ -86,8 +86,8 @@ public sealed class StatusReport
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
             LastScanUtc = figures.LastScanUtc,
-            Roots = session.Options.Roots.Count > 0 ? session.Options.Roots.Select(r => r.Name).ToList() : session.Catalog.RootNames().ToList(),
-            Quarantine = session.Catalog.QuarantinedDocuments()
+            Roots = session.Options.Roots.Count > 0 ? session.Options.Roots.Select(r => r.Name).ToList() : session.Catalog.Documents.RootNames().ToList(),
+            Quarantine = session.Catalog.Documents.Quarantined()
                 .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
                 .ToList(),
         };

@@ -16,7 +16,7 @@ internal static class EncoderCalibration
     public static (double SecondsPerPage, double VectorsPerPage)? Run(IndexSession session, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
     {
         var catalog = session.Catalog;
-        var sample = catalog.ReferencedPageKeys().Take(SampleSize).Select(catalog.FindPage).OfType<PageRecord>()
+        var sample = catalog.Pages.ReferencedKeys().Take(SampleSize).Select(catalog.Pages.Find).OfType<PageRecord>()
             .Concat(pendingPages).Take(SampleSize)
             .Select(p => PageInput.From(p, session.RootPaths)).ToList();
         if (sample.Count == 0)

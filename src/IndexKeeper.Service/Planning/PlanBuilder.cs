@@ -4,6 +4,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Planning;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
@@ -41,11 +42,11 @@ public static class PlanBuilder
         var removed = preview.RemovedKeys;
 
         // A page key back within the life of its old vectors is made live again, not embedded.
-        var activeCounts = catalog.VectorCounts(identity.Id);
-        var revived = activeCounts.VectorSets == 0 ? 0 : preview.NewKeys.Count(k => catalog.FindVectorSet(identity.Id, k) is not null);
+        var activeCounts = catalog.VectorSets.VectorCounts(identity.Id);
+        var revived = activeCounts.VectorSets == 0 ? 0 : preview.NewKeys.Count(k => catalog.VectorSets.Find(identity.Id, k) is not null);
         var scanToEmbed = preview.NewKeys.Count - revived;
 
-        var queuedKeys = catalog.QueuedKeys().Where(q => !removed.Contains(q.PageKey)).ToList();
+        var queuedKeys = catalog.Queue.Keys().Where(q => !removed.Contains(q.PageKey)).ToList();
         var queued = new QueuedPages(
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Fresh),
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Migration),
@@ -95,7 +96,7 @@ public static class PlanBuilder
             TimeZone = zone.Id,
             ActiveEncoder = identity.Name,
             ActiveEncoderId = identity.Id,
-            LastScanUtc = catalog.LastScanUtc(),
+            LastScanUtc = catalog.History.LastScanUtc(),
             DocumentsNew = preview.Changes.LongCount(c => c.Kind == ChangeKind.New),
             DocumentsChanged = preview.Changes.LongCount(c => c.Kind == ChangeKind.Changed),
             DocumentsCopied = preview.Changes.LongCount(c => c.Kind == ChangeKind.Copied),
@@ -142,7 +143,7 @@ public static class PlanBuilder
             notes.Add("Nothing to calibrate on: neither the index nor the pending changes hold a page.");
         }
 
-        var history = session.Catalog.EmbedHistory(session.Encoder.Identity.Id, HistoryRuns);
+        var history = session.Catalog.History.Embeds(session.Encoder.Identity.Id, HistoryRuns);
         var pages = history.Sum(h => h.Counts.GetValueOrDefault("pagesEmbedded"));
         if (pages > 0)
         {
@@ -160,9 +161,7 @@ public static class PlanBuilder
 
     private static PlanCompaction Compaction(IndexCatalog catalog, CompactionOptions options)
     {
-        var stats = catalog.Segments().Select(s => new SegmentStats(
-            s.Id, s.EncoderId, s.Sealed, s.Length, s.LiveBytes, s.RecordCount, s.LiveRecordCount, new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
-        var jobs = CompactionPolicy.Plan(stats, options);
+        var jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
         return new PlanCompaction
         {
             Jobs = jobs.Count,
@@ -216,7 +215,7 @@ public static class PlanBuilder
         var looked = 0;
         foreach (var key in pendingKeys)
         {
-            if (looked++ < AttributionLimit && catalog.FindPage(key) is { } page)
+            if (looked++ < AttributionLimit && catalog.Pages.Find(key) is { } page)
             {
                 Row(page.SourceRoot, page.SourcePath).PagesToEmbed++;
             }

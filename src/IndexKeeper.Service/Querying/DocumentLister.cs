@@ -9,7 +9,7 @@ public static class DocumentLister
     public static DocumentListReport List(IndexSession session, string? root, int skip, int take)
     {
         ArgumentNullException.ThrowIfNull(session);
-        var documents = (root is null ? session.Catalog.AllDocuments() : session.Catalog.DocumentsOfRoot(root))
+        var documents = (root is null ? session.Catalog.Documents.All() : session.Catalog.Documents.OfRoot(root))
             .OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal).ToList();
         return new DocumentListReport
         {

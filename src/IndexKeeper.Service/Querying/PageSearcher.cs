@@ -28,7 +28,7 @@ public static class PageSearcher
                 continue;
             }
 
-            var page = session.Catalog.FindPage(hit.Key.Hex);
+            var page = session.Catalog.Pages.Find(hit.Key.Hex);
             hits.Add(new SearchReportHit
             {
                 Root = locations[0].Root,
@@ -59,7 +59,7 @@ public static class PageSearcher
     private static List<PageLocation> Locate(IndexCatalog catalog, string pageKey)
     {
         var locations = new List<PageLocation>();
-        foreach (var document in catalog.DocumentsHolding(pageKey).OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal))
+        foreach (var document in catalog.Documents.Holding(pageKey).OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal))
         {
             for (var i = 0; i < document.PageKeys.Count; i++)
             {

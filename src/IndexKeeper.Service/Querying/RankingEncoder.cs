@@ -33,13 +33,13 @@ internal sealed class RankingEncoder : IDisposable
     {
         var active = session.Encoder;
         // A catalog that never recorded one (made before drift tracking) gets the policy's inference.
-        var serving = session.Catalog.ServingEncoderId() ?? session.ReadDrift().ServingEncoderId;
+        var serving = session.Catalog.Encoders.ServingId() ?? session.ReadDrift().ServingEncoderId;
         if (serving == active.Identity.Id)
         {
             return new RankingEncoder(active, null, serving, null);
         }
 
-        var record = session.Catalog.FindEncoder(serving);
+        var record = session.Catalog.Encoders.Find(serving);
         var why = "the catalog does not know it";
         // A record made before settings were recorded: its name and d with no pooling are the likely
         // settings, and the id check below makes a wrong guess harmless.
@@ -72,7 +72,7 @@ internal sealed class RankingEncoder : IDisposable
             (rebuilt as IDisposable)?.Dispose();
         }
 
-        var migrated = session.Catalog.LivePageKeysOf(active.Identity.Id).Count;
+        var migrated = session.Catalog.VectorSets.LivePageKeysOf(active.Identity.Id).Count;
         return new RankingEncoder(
             active,
             null,

@@ -16,8 +16,8 @@ internal sealed class IndexAudit
 
     public AuditResult Check(IndexSession session, IReadOnlyDictionary<string, IReadOnlyList<ulong>> truth, IReadOnlySet<ulong> changed)
     {
-        var documents = session.Catalog.DocumentsOfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, StringComparer.Ordinal);
-        var live = session.Catalog.LiveVectorSets(session.Encoder.Identity.Id).ToDictionary(v => v.PageKey, v => (long)v.Length, StringComparer.Ordinal);
+        var documents = session.Catalog.Documents.OfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, StringComparer.Ordinal);
+        var live = session.Catalog.VectorSets.Live(session.Encoder.Identity.Id).ToDictionary(v => v.PageKey, v => (long)v.Length, StringComparer.Ordinal);
         long misses = 0, unserved = 0, rebound = 0, servedBytes = 0;
         var bytesByPath = new Dictionary<string, long>(StringComparer.Ordinal);
         var held = new HashSet<string>(StringComparer.Ordinal);

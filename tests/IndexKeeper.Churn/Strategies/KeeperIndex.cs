@@ -70,5 +70,5 @@ internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
     public long SegmentBytesOnDisk() =>
         new DirectoryInfo(Path.Combine(indexDirectory, VectorStore.SegmentsFolder)).EnumerateFiles(SegmentFileNames.SearchPattern).Sum(f => f.Length);
 
-    private static long SegmentBytes(IndexSession session) => session.Catalog.Segments().Sum(s => s.Length);
+    private static long SegmentBytes(IndexSession session) => session.Catalog.Segments.All().Sum(s => s.Length);
 }

@@ -15,7 +15,7 @@ internal static class MiniLmTiming
 {
     public static (double SecondsPerPage, int Pages) Measure(IndexSession session, int sample)
     {
-        var pages = session.Catalog.AllPages().Where(p => p.References > 0 && p.Words.Count > 0).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
+        var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 0).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
         var step = Math.Max(1, pages.Count / Math.Max(1, sample));
         var chosen = pages.Where((_, i) => i % step == 0).Take(sample + 1).Select(p => new PageToEncode(
             PageKey.Parse(p.Id), string.Empty, p.SourcePage, p.Width, p.Height, p.Words.Select(w => new PageWord(w.T, new PageBox(w.L, w.B, w.R, w.U))).ToList())).ToList();

@@ -34,13 +34,13 @@ internal static class RebuildComparer
         using var kept = incremental.Open(dimensions, "churn comparison");
         using var fresh = rebuild.Open(dimensions, "churn comparison");
 
-        var keptKeys = kept.Catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
-        var freshKeys = fresh.Catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
+        var keptKeys = kept.Catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
+        var freshKeys = fresh.Catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
         var onlyInOne = keptKeys.Except(freshKeys).Concat(freshKeys.Except(keptKeys)).ToList();
         onlyInOne.Take(5).ToList().ForEach(k => Note($"page key {k[..12]} is in one index only"));
 
-        var keptDocuments = kept.Catalog.DocumentsOfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, d => d.PageKeys, StringComparer.Ordinal);
-        var freshDocuments = fresh.Catalog.DocumentsOfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, d => d.PageKeys, StringComparer.Ordinal);
+        var keptDocuments = kept.Catalog.Documents.OfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, d => d.PageKeys, StringComparer.Ordinal);
+        var freshDocuments = fresh.Catalog.Documents.OfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, d => d.PageKeys, StringComparer.Ordinal);
         var documentsDiffering = 0L;
         foreach (var path in keptDocuments.Keys.Union(freshDocuments.Keys))
         {
@@ -112,7 +112,7 @@ internal static class RebuildComparer
     /// <summary>Queries of two to four words taken from pages of the store, chosen by the seed.</summary>
     private static List<string> Queries(IndexSession session, int count, int seed)
     {
-        var pages = session.Catalog.AllPages().Where(p => p.References > 0 && p.Words.Count > 4).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
+        var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 4).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
         var random = DemoRandom.For(seed, "queries");
         var queries = new List<string>(count);
         while (queries.Count < count && pages.Count > 0)

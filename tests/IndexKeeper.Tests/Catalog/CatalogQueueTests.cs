@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Tests.Support;
 
@@ -21,11 +22,11 @@ public sealed class CatalogQueueTests
         edit.Enqueue.Add(new QueueRecord { Id = "c1", Priority = QueuePriority.Canary, NotBeforeUtc = now });
         catalog.Apply(edit);
 
-        Assert.Equal(new QueuedPages(1, 1, 1), catalog.DueQueued(now));
-        Assert.Equal(new QueuedPages(2, 1, 1), catalog.DueQueued(now.AddMinutes(5)));
-        Assert.Equal(["f1"], catalog.NextQueued(10, now, [QueuePriority.Fresh]).Select(q => q.Id));
-        Assert.Equal(["f1", "m1", "c1"], catalog.NextQueued(10, now, [QueuePriority.Fresh, QueuePriority.Migration, QueuePriority.Canary]).Select(q => q.Id));
-        Assert.Equal(["f1", "m1"], catalog.NextQueued(2, now, [QueuePriority.Fresh, QueuePriority.Migration, QueuePriority.Canary]).Select(q => q.Id));
-        Assert.Empty(catalog.NextQueued(10, now, []));
+        Assert.Equal(new QueuedPages(1, 1, 1), catalog.Queue.Due(now));
+        Assert.Equal(new QueuedPages(2, 1, 1), catalog.Queue.Due(now.AddMinutes(5)));
+        Assert.Equal(["f1"], catalog.Queue.Next(10, now, [QueuePriority.Fresh]).Select(q => q.Id));
+        Assert.Equal(["f1", "m1", "c1"], catalog.Queue.Next(10, now, [QueuePriority.Fresh, QueuePriority.Migration, QueuePriority.Canary]).Select(q => q.Id));
+        Assert.Equal(["f1", "m1"], catalog.Queue.Next(2, now, [QueuePriority.Fresh, QueuePriority.Migration, QueuePriority.Canary]).Select(q => q.Id));
+        Assert.Empty(catalog.Queue.Next(10, now, []));
     }
 }

@@ -95,7 +95,7 @@ public sealed class IndexCatalogTests
         edit.Enqueue.Add(new QueueRecord { Id = "k1" });
         edit.Enqueue.Add(null!);
         Assert.ThrowsAny<Exception>(() => catalog.Apply(edit));
-        Assert.Null(catalog.FindDocument("r", "a.pdf"));
-        Assert.Null(catalog.FindPage("k1"));
+        Assert.Null(catalog.Documents.Find("r", "a.pdf"));
+        Assert.Null(catalog.Pages.Find("k1"));
     }
 }

@@ -14,17 +14,17 @@ public sealed class ReadOnlyCatalogTests
         using (var held = IndexLock.Acquire(temp.Path, "writer"))
         using (var catalog = IndexCatalog.Open(held))
         {
-            catalog.RecordEmbedding("enc-a", DateTime.UtcNow, 2.0, pagesEmbedded: 10, vectorsWritten: 40, encoderSeconds: 1.5);
+            catalog.History.RecordEmbedding("enc-a", DateTime.UtcNow, 2.0, pagesEmbedded: 10, vectorsWritten: 40, encoderSeconds: 1.5);
         }
 
         var before = Hashes(temp.Path);
         using (var held = IndexLock.Acquire(temp.Path, "plan"))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
-            var history = Assert.Single(catalog.EmbedHistory("enc-a", 20));
+            var history = Assert.Single(catalog.History.Embeds("enc-a", 20));
             Assert.Equal((10L, 1.5), (history.Counts["pagesEmbedded"], history.EncoderSeconds));
-            Assert.Empty(catalog.EmbedHistory("enc-b", 20));
-            Assert.Null(catalog.LastScanUtc());
+            Assert.Empty(catalog.History.Embeds("enc-b", 20));
+            Assert.Null(catalog.History.LastScanUtc());
         }
 
         Assert.Equal(before, Hashes(temp.Path));
@@ -41,7 +41,7 @@ public sealed class ReadOnlyCatalogTests
         using (var held = IndexLock.Acquire(live, "writer"))
         using (var catalog = IndexCatalog.Open(held))
         {
-            catalog.RecordEmbedding("enc-a", DateTime.UtcNow, 1.0, pagesEmbedded: 3, vectorsWritten: 9, encoderSeconds: 0.75);
+            catalog.History.RecordEmbedding("enc-a", DateTime.UtcNow, 1.0, pagesEmbedded: 3, vectorsWritten: 9, encoderSeconds: 0.75);
             foreach (var file in Directory.GetFiles(live, "catalog*"))
             {
                 File.Copy(file, Path.Combine(copy, Path.GetFileName(file)));
@@ -53,7 +53,7 @@ public sealed class ReadOnlyCatalogTests
         using (var held = IndexLock.Acquire(copy, "plan"))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
-            Assert.Equal(3, Assert.Single(catalog.EmbedHistory("enc-a", 20)).Counts["pagesEmbedded"]);
+            Assert.Equal(3, Assert.Single(catalog.History.Embeds("enc-a", 20)).Counts["pagesEmbedded"]);
         }
 
         Assert.Equal(before, Hashes(copy));
@@ -66,7 +66,7 @@ public sealed class ReadOnlyCatalogTests
         using (var held = IndexLock.Acquire(temp.Path, "plan"))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
-            Assert.Empty(catalog.QueuedKeys());
+            Assert.Empty(catalog.Queue.Keys());
             Assert.Equal(0, catalog.Figures().Documents);
         }
 

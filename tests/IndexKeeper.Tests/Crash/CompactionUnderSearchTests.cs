@@ -40,12 +40,12 @@ public sealed class CompactionUnderSearchTests(ITestOutputHelper output)
             Add(catalog, store, Enumerable.Range(next, 80).ToList());
             var appendMilliseconds = clock.ElapsedMilliseconds;
             next += 80;
-            var live = catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToList();
+            var live = catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToList();
             Kill(catalog, live.Where(_ => random.NextDouble() < 0.3).ToList());
             store.SealAll();
 
             var expected = SearchAll(store, queries);
-            var before = catalog.Segments().Select(s => s.Id).ToHashSet();
+            var before = catalog.Segments.All().Select(s => s.Id).ToHashSet();
             using var heldAcross = store.OpenLive(Encoder.Id);
 
             var failures = new List<string>();
@@ -113,7 +113,7 @@ public sealed class CompactionUnderSearchTests(ITestOutputHelper output)
             Assert.True(failures.Count == 0, string.Join("\n", failures));
             Assert.True(report.SegmentsRewritten > 0, "the policy found nothing to compact: the test set-up gives it no work");
 
-            var retired = before.Except(catalog.Segments().Select(s => s.Id)).ToList();
+            var retired = before.Except(catalog.Segments.All().Select(s => s.Id)).ToList();
             Assert.NotEmpty(retired);
 
             // The reader opened before compaction still holds every retired file and still gets the old answers.
@@ -121,7 +121,7 @@ public sealed class CompactionUnderSearchTests(ITestOutputHelper output)
             Assert.Equal(expected, Search(heldAcross, queries));
             heldAcross.Dispose();
             Assert.All(retired, id => Assert.False(File.Exists(SegmentFileNames.PathOf(store.Directory, id)), $"segment {id} outlived its last reader"));
-            Assert.Equal(catalog.Segments().Select(s => SegmentFileNames.PathOf(store.Directory, s.Id)).Order(), Directory.GetFiles(store.Directory).Order());
+            Assert.Equal(catalog.Segments.All().Select(s => SegmentFileNames.PathOf(store.Directory, s.Id)).Order(), Directory.GetFiles(store.Directory).Order());
             Assert.Equal(expected, SearchAll(store, queries));
         }
     }

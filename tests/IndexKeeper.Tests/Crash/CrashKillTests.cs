@@ -169,8 +169,8 @@ public sealed class CrashKillTests(ITestOutputHelper output)
 
         using var indexLock = IndexLock.Acquire(index, "crash test check");
         using var catalog = IndexCatalog.Open(indexLock);
-        var live = catalog.Encoders().SelectMany(e => catalog.LiveVectorSets(e.Id)).Select(v => v.PageKey).ToHashSet(StringComparer.Ordinal);
-        return (live, catalog.AllPages().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal));
+        var live = catalog.Encoders.All().SelectMany(e => catalog.VectorSets.Live(e.Id)).Select(v => v.PageKey).ToHashSet(StringComparer.Ordinal);
+        return (live, catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal));
     }
 
     /// <summary>

@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Storage;
 

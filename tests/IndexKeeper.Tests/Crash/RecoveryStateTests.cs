@@ -21,12 +21,12 @@ public sealed class RecoveryStateTests
         }
 
         using var index = new OpenIndex(directory.Path);
-        var id = Assert.Single(index.Catalog.Segments()).Id;
+        var id = Assert.Single(index.Catalog.Segments.All()).Id;
         Assert.Equal([$"cut {SegmentFormat.SealRecordLength} uncommitted bytes from open segment {id}"], index.Store.Repairs);
         Assert.True(OperatingSystem.IsWindows() || (File.GetUnixFileMode(segment) & UnixFileMode.UserWrite) != 0, "the cut segment is still read-only, so the store cannot append to it");
         AssertServes(index, committed: 8, queued: 4);
         index.Commit(Enumerable.Range(8, 4));
-        Assert.Equal(id, Assert.Single(index.Catalog.Segments()).Id);
+        Assert.Equal(id, Assert.Single(index.Catalog.Segments.All()).Id);
         AssertServes(index, committed: 12, queued: 0);
     }
 
@@ -62,7 +62,7 @@ public sealed class RecoveryStateTests
         var torn = File.ReadAllBytes(segment);
         File.WriteAllBytes(segment, torn[..(whole.Length + ((torn.Length - whole.Length) / 2))]);
         using var index = new OpenIndex(directory.Path);
-        Assert.Equal([$"cut {(torn.Length - whole.Length) / 2} uncommitted bytes from open segment {Assert.Single(index.Catalog.Segments()).Id}"], index.Store.Repairs);
+        Assert.Equal([$"cut {(torn.Length - whole.Length) / 2} uncommitted bytes from open segment {Assert.Single(index.Catalog.Segments.All()).Id}"], index.Store.Repairs);
         AssertServes(index, committed: 8, queued: 4);
     }
 
@@ -80,7 +80,7 @@ public sealed class RecoveryStateTests
         Assert.Equal(
             [$"removed segment {SegmentFileNames.Name(900)}, which no catalog commit references", $"removed unfinished compaction output {SegmentFileNames.TempName(901)}"],
             index.Store.Repairs.Order(StringComparer.Ordinal));
-        Assert.Equal([SegmentFileNames.PathOf(segments, index.Catalog.Segments()[0].Id)], Directory.GetFiles(segments));
+        Assert.Equal([SegmentFileNames.PathOf(segments, index.Catalog.Segments.All()[0].Id)], Directory.GetFiles(segments));
         AssertServes(index, committed: 8, queued: 0);
     }
 
@@ -94,7 +94,7 @@ public sealed class RecoveryStateTests
             index.Commit(batch);
         }
 
-        var segment = Assert.Single(index.Catalog.Segments());
+        var segment = Assert.Single(index.Catalog.Segments.All());
         Assert.False(segment.Sealed);
         return SegmentFileNames.PathOf(index.Store.Directory, segment.Id);
     }

@@ -20,7 +20,7 @@ public sealed class CanaryCheckTests : IDisposable
         Assert.False(figures.Drifted);
         Assert.Equal(4, figures.Pages);
         Assert.True(figures.MinimumCosine > 0.9999, $"minimum {figures.MinimumCosine}");
-        var record = session.Catalog.FindEncoder(session.Encoder.Identity.Id)!;
+        var record = session.Catalog.Encoders.Find(session.Encoder.Identity.Id)!;
         Assert.Equal(Now, record.CanaryCheckedUtc!.Value.ToUniversalTime());
         Assert.False(record.CanaryDrifted);
         Assert.Equal(figures.MeanCosine, record.CanaryMeanCosine);
@@ -37,7 +37,7 @@ public sealed class CanaryCheckTests : IDisposable
         Assert.True(figures.MeanCosine < 0.999, $"mean {figures.MeanCosine}");
         Assert.True(figures.MinimumCosine < figures.MeanCosine);
         Assert.True(figures.Vectors > 4);
-        var record = session.Catalog.FindEncoder(session.Encoder.Identity.Id)!;
+        var record = session.Catalog.Encoders.Find(session.Encoder.Identity.Id)!;
         Assert.True(record.CanaryDrifted);
         Assert.Equal(figures.MinimumCosine, record.CanaryMinimumCosine);
     }
@@ -46,7 +46,7 @@ public sealed class CanaryCheckTests : IDisposable
     public void The_canaries_are_the_lowest_page_keys()
     {
         using var session = Indexed();
-        var live = session.Catalog.LivePageKeysOf(session.Encoder.Identity.Id);
+        var live = session.Catalog.VectorSets.LivePageKeysOf(session.Encoder.Identity.Id);
         Assert.Equal(live.Order(StringComparer.Ordinal).Take(2), CanarySelection.Choose(live, 2));
         Assert.Equal(2, CanaryCheck.Run(session.Catalog, session.Store, session.Encoder, session.RootPaths, new CanarySettings(2), Now, CancellationToken.None).Pages);
     }

@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Querying;
 
@@ -33,7 +34,7 @@ public sealed class DeclaredDriftTests : IDisposable
             DriftIndex.Embed(first);
             Assert.False(first.ReconcileDrift().Migrating);
             oldId = first.Encoder.Identity.Id;
-            Assert.Equal(oldId, first.Catalog.ServingEncoderId());
+            Assert.Equal(oldId, first.Catalog.Encoders.ServingId());
         }
 
         using var second = index.Open(64);
@@ -43,20 +44,20 @@ public sealed class DeclaredDriftTests : IDisposable
 
         Assert.Equal(oldId, decision.ServingEncoderId);
         Assert.Equal(Manual.Select(DriftIndex.KeyOf).Order(StringComparer.Ordinal), decision.DriftedPages);
-        var queue = second.Catalog.QueueInOrder().ToDictionary(q => q.Id, q => q.Priority);
+        var queue = second.Catalog.Queue.InOrder().ToDictionary(q => q.Id, q => q.Priority);
         Assert.Equal(4, queue.Count);
         Assert.All(Manual.Select(DriftIndex.KeyOf), key => Assert.Equal(QueuePriority.Migration, queue[key]));
         Assert.Equal(QueuePriority.Fresh, queue[DriftIndex.KeyOf("reservoir level report for March")]);
 
         // The old vectors stay live and servable until the migration is complete.
-        Assert.Equal(3, second.Catalog.LiveVectorSets(oldId).Count);
-        var record = second.Catalog.FindEncoder(second.Encoder.Identity.Id)!;
+        Assert.Equal(3, second.Catalog.VectorSets.Live(oldId).Count);
+        var record = second.Catalog.Encoders.Find(second.Encoder.Identity.Id)!;
         Assert.Equal("64", record.Settings["Dimensions"]);
 
         // Reconciling again changes nothing.
         var again = second.ReconcileDrift();
         Assert.Empty(again.QueueForMigration);
-        Assert.Equal(4, second.Catalog.QueueInOrder().Count());
+        Assert.Equal(4, second.Catalog.Queue.InOrder().Count());
     }
 
     [Fact]
@@ -67,7 +68,7 @@ public sealed class DeclaredDriftTests : IDisposable
         using var second = index.Open(64);
         DriftIndex.AddDocument(second.Catalog, "reports/new.pdf", "reservoir level report for March");
         second.ReconcileDrift();
-        var order = second.Catalog.NextQueued(10, DateTime.UtcNow.AddMinutes(1));
+        var order = second.Catalog.Queue.Next(10, DateTime.UtcNow.AddMinutes(1));
         Assert.Equal(DriftIndex.KeyOf("reservoir level report for March"), order[0].Id);
         Assert.All(order.Skip(1), q => Assert.Equal(QueuePriority.Migration, q.Priority));
     }
@@ -80,7 +81,7 @@ public sealed class DeclaredDriftTests : IDisposable
         using var second = index.Open(64);
         second.ReconcileDrift();
         // Half a migration: one page gets vectors of the new encoder.
-        var one = second.Catalog.FindPage(DriftIndex.KeyOf(Manual[0]))!;
+        var one = second.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[0]))!;
         var vectors = second.Encoder.EncodePages([PageInput.From(one, NoRoots)], CancellationToken.None);
         second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(one.Id), vectors[0])]);
         Assert.True(second.ReconcileDrift().Migrating);
@@ -103,14 +104,14 @@ public sealed class DeclaredDriftTests : IDisposable
             first.ReconcileDrift();
 
             // As if the old encoder's inputs had changed since: its recorded settings now build another id.
-            var record = first.Catalog.FindEncoder(first.Encoder.Identity.Id)!;
+            var record = first.Catalog.Encoders.Find(first.Encoder.Identity.Id)!;
             record.Settings["PoolFactor"] = "2";
-            first.Catalog.PutEncoder(record);
+            first.Catalog.Encoders.Put(record);
         }
 
         using var second = index.Open(64);
         second.ReconcileDrift();
-        var page = second.Catalog.FindPage(DriftIndex.KeyOf(Manual[1]))!;
+        var page = second.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[1]))!;
         second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Encoder.EncodePages([PageInput.From(page, NoRoots)], CancellationToken.None)[0])]);
 
         var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
@@ -141,21 +142,21 @@ public sealed class DeclaredDriftTests : IDisposable
         Assert.Equal(3, embedded.PagesEmbedded);
 
         // Everything migrated, not yet switched: the old encoder still serves, its vectors live.
-        Assert.Equal(oldId, second.Catalog.ServingEncoderId());
-        Assert.Equal(3, second.Catalog.LiveVectorSets(oldId).Count);
+        Assert.Equal(oldId, second.Catalog.Encoders.ServingId());
+        Assert.Equal(3, second.Catalog.VectorSets.Live(oldId).Count);
 
         var decision = second.ReconcileDrift();
         Assert.True(decision.SwitchOver);
-        Assert.Equal(newId, second.Catalog.ServingEncoderId());
-        Assert.Empty(second.Catalog.LiveVectorSets(oldId));
-        Assert.True(second.Catalog.FindEncoder(oldId)!.Retired);
-        Assert.All(second.Catalog.Segments().Where(s => s.EncoderId == oldId), s => Assert.Equal(0, s.LiveBytes));
+        Assert.Equal(newId, second.Catalog.Encoders.ServingId());
+        Assert.Empty(second.Catalog.VectorSets.Live(oldId));
+        Assert.True(second.Catalog.Encoders.Find(oldId)!.Retired);
+        Assert.All(second.Catalog.Segments.All().Where(s => s.EncoderId == oldId), s => Assert.Equal(0, s.LiveBytes));
         Assert.Equal(newId, PageSearcher.Search(second, "sluice gate", 3, CancellationToken.None).ServingEncoderId);
 
         second.Store.SealAll();
         var compaction = second.Store.Compact(second.CompactionOptions(), CancellationToken.None);
         Assert.True(compaction.BytesReclaimed > 0);
-        Assert.DoesNotContain(second.Catalog.Segments(), s => s.EncoderId == oldId);
+        Assert.DoesNotContain(second.Catalog.Segments.All(), s => s.EncoderId == oldId);
         Assert.False(File.Exists(SegmentFileNames.PathOf(second.Store.Directory, 1)));
     }
 
@@ -176,8 +177,8 @@ public sealed class DeclaredDriftTests : IDisposable
         second.Catalog.Apply(edit);
         second.Catalog.RemoveUnreferencedPages();
         DriftIndex.AddDocument(second.Catalog, "manuals/intake.pdf", Manual);
-        Assert.Equal(3, second.Catalog.LiveVectorSets(second.Encoder.Identity.Id).Count);
-        Assert.Empty(second.Catalog.LiveVectorSets(oldId));
+        Assert.Equal(3, second.Catalog.VectorSets.Live(second.Encoder.Identity.Id).Count);
+        Assert.Empty(second.Catalog.VectorSets.Live(oldId));
     }
 
     [Fact]
@@ -190,8 +191,8 @@ public sealed class DeclaredDriftTests : IDisposable
             DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
             DriftIndex.Embed(first);
             oldId = first.Encoder.Identity.Id;
-            Assert.Null(first.Catalog.ServingEncoderId());
-            Assert.Empty(first.Catalog.FindEncoder(oldId)!.Settings);
+            Assert.Null(first.Catalog.Encoders.ServingId());
+            Assert.Empty(first.Catalog.Encoders.Find(oldId)!.Settings);
         }
 
         using var second = index.Open(64);
@@ -201,7 +202,7 @@ public sealed class DeclaredDriftTests : IDisposable
         Assert.Equal(3, report.PagesScanned);
 
         var decision = second.ReconcileDrift();
-        Assert.Equal(oldId, second.Catalog.ServingEncoderId());
+        Assert.Equal(oldId, second.Catalog.Encoders.ServingId());
         Assert.Equal(3, decision.QueueForMigration.Count);
     }
 

@@ -2,6 +2,7 @@ using System.Security.Cryptography;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Tests.Support;

@@ -25,7 +25,7 @@ public sealed class EmbedRetryTests
         var summary = new ScanSummary();
         Assert.Equal(5, pass.Run(summary, long.MaxValue, QueuePriority.Canary, CancellationToken.None));
         Assert.Equal(1, summary.PagesFailed);
-        var entry = index.Catalog.QueueInOrder().Single();
+        var entry = index.Catalog.Queue.InOrder().Single();
         Assert.Equal(bad.Hex, entry.Id);
         Assert.Equal(1, entry.Attempts);
         Assert.Equal("page refused", entry.LastError);
@@ -37,12 +37,12 @@ public sealed class EmbedRetryTests
             Assert.Equal(0, pass.Run(new ScanSummary(), long.MaxValue, QueuePriority.Canary, CancellationToken.None));
         }
 
-        var quarantined = Assert.Single(index.Catalog.QuarantinedPages());
+        var quarantined = Assert.Single(index.Catalog.Queue.Quarantined());
         Assert.Equal(3, quarantined.Attempts);
-        Assert.Equal(0, index.Catalog.QueueDepths()[QueuePriority.Fresh]);
+        Assert.Equal(0, index.Catalog.Queue.Depths()[QueuePriority.Fresh]);
         Thread.Sleep(5);
         Assert.Equal(0, pass.Run(new ScanSummary(), long.MaxValue, QueuePriority.Canary, CancellationToken.None));
-        Assert.Equal(3, index.Catalog.QuarantinedPages().Single().Attempts);
+        Assert.Equal(3, index.Catalog.Queue.Quarantined().Single().Attempts);
         Assert.Equal(5, index.Readable().Count);
     }
 
@@ -54,7 +54,7 @@ public sealed class EmbedRetryTests
         Add(index, [1, 2, 3, 4, 5]);
         var pass = new EmbedPass(index.Catalog, index.Store, new PickyEncoder(null), new Dictionary<string, string>(), batchSize: 2);
         Assert.Equal(3, pass.Run(new ScanSummary(), 3, QueuePriority.Fresh, CancellationToken.None));
-        Assert.Equal(2, index.Catalog.QueueDepths()[QueuePriority.Fresh]);
+        Assert.Equal(2, index.Catalog.Queue.Depths()[QueuePriority.Fresh]);
     }
 
     /// <summary>One document holding the pages, each queued, as a scan leaves them.</summary>

@@ -37,7 +37,7 @@ public sealed class ScanPassTests : IDisposable
         Assert.Equal(4, s.PagesNew);
         Assert.Equal(1, s.PagesReused);
         Assert.Equal(0, s.PagesEmbedded);
-        Assert.Equal(4, catalog.QueueInOrder().Count());
+        Assert.Equal(4, catalog.Queue.InOrder().Count());
         Assert.Equal(5, catalog.Figures().PageLocations);
     }
 
@@ -96,8 +96,8 @@ public sealed class ScanPassTests : IDisposable
         Assert.Equal((0L, 0L), (s.PagesNew, s.PagesRemoved));
         Assert.Equal(reads, reader.Reads);
         Assert.Equal(3, catalog.Figures().Pages);
-        Assert.NotNull(catalog.FindDocument("b", "f2.txt"));
-        Assert.Null(catalog.FindDocument("a", "f2.txt"));
+        Assert.NotNull(catalog.Documents.Find("b", "f2.txt"));
+        Assert.Null(catalog.Documents.Find("a", "f2.txt"));
     }
 
     [Fact]
@@ -109,9 +109,9 @@ public sealed class ScanPassTests : IDisposable
         File.Delete(temp.Combine("a/f1.txt"));
         var s = Scan();
         Assert.Equal((1L, 1L), (s.DocumentsDeleted, s.PagesRemoved));
-        Assert.Null(catalog.FindPage(PageKey.Of("k1"u8).Hex));
-        Assert.Equal(1, catalog.FindPage(PageKey.Of("k2"u8).Hex)!.References);
-        Assert.DoesNotContain(catalog.QueueInOrder(), q => q.Id == PageKey.Of("k1"u8).Hex);
+        Assert.Null(catalog.Pages.Find(PageKey.Of("k1"u8).Hex));
+        Assert.Equal(1, catalog.Pages.Find(PageKey.Of("k2"u8).Hex)!.References);
+        Assert.DoesNotContain(catalog.Queue.InOrder(), q => q.Id == PageKey.Of("k1"u8).Hex);
     }
 
     [Fact]
@@ -122,7 +122,7 @@ public sealed class ScanPassTests : IDisposable
         File.WriteAllText(path, "s3\ns1\nINSERTED\ns2\ns4");
         var s = Scan();
         Assert.Equal((1L, 1L, 4L, 0L), (s.DocumentsChanged, s.PagesNew, s.PagesReused, s.PagesRemoved));
-        var keys = catalog.FindDocument("a", "manual.txt")!.PageKeys;
+        var keys = catalog.Documents.Find("a", "manual.txt")!.PageKeys;
         Assert.Equal(PageKey.Of("INSERTED"u8).Hex, keys[2]);
     }
 
@@ -143,7 +143,7 @@ public sealed class ScanPassTests : IDisposable
         temp.Write("a/good.txt", "g1");
         var s = Scan();
         Assert.Equal((1L, 1L), (s.DocumentsQuarantined, s.DocumentsNew - 1));
-        var record = catalog.FindDocument("a", "broken.txt")!;
+        var record = catalog.Documents.Find("a", "broken.txt")!;
         Assert.Equal((DocumentState.Quarantined, QuarantineReason.Corrupt), (record.State, record.QuarantineReason!.Value));
         var reads = reader.Reads;
         Assert.Equal(0, Scan().DocumentsQuarantined);
@@ -151,7 +151,7 @@ public sealed class ScanPassTests : IDisposable
         File.WriteAllText(path, "fixed1\nfixed2");
         s = Scan();
         Assert.Equal((1L, 2L), (s.DocumentsChanged, s.PagesNew));
-        Assert.Equal(DocumentState.Live, catalog.FindDocument("a", "broken.txt")!.State);
+        Assert.Equal(DocumentState.Live, catalog.Documents.Find("a", "broken.txt")!.State);
     }
 
     [Fact]
@@ -165,10 +165,10 @@ public sealed class ScanPassTests : IDisposable
         };
         var s = Scan();
         Assert.Equal((1L, 0L), (s.DocumentsDeferred, s.DocumentsNew));
-        Assert.Null(catalog.FindDocument("a", "live.txt"));
+        Assert.Null(catalog.Documents.Find("a", "live.txt"));
         s = Scan();
         Assert.Equal(1, s.DocumentsNew);
-        Assert.Equal(PageKey.Of("v2 longer text"u8).Hex, catalog.FindDocument("a", "live.txt")!.PageKeys.Single());
+        Assert.Equal(PageKey.Of("v2 longer text"u8).Hex, catalog.Documents.Find("a", "live.txt")!.PageKeys.Single());
         Assert.True(File.Exists(path));
     }
 
@@ -182,7 +182,7 @@ public sealed class ScanPassTests : IDisposable
         var s = Scan();
         Assert.Equal(["b"], s.RootsMissing);
         Assert.Equal(0, s.DocumentsDeleted);
-        Assert.NotNull(catalog.FindDocument("b", "f2.txt"));
+        Assert.NotNull(catalog.Documents.Find("b", "f2.txt"));
     }
 
     [Fact]
@@ -203,7 +203,7 @@ public sealed class ScanPassTests : IDisposable
 
         var s = Scan(batchSize: 3);
         Assert.Equal((21L, 19L), (s.PagesNew, s.PagesReused));
-        Assert.Equal(20, catalog.FindPage(PageKey.Of("common"u8).Hex)!.References);
+        Assert.Equal(20, catalog.Pages.Find(PageKey.Of("common"u8).Hex)!.References);
         foreach (var i in Enumerable.Range(0, 20))
         {
             File.Move(temp.Combine($"a/d{i:00}.txt"), temp.Combine($"a/moved-{i:00}.txt"));
@@ -211,7 +211,7 @@ public sealed class ScanPassTests : IDisposable
 
         s = Scan(batchSize: 3);
         Assert.Equal((0L, 0L, 20L), (s.PagesNew, s.PagesRemoved, s.DocumentsMoved));
-        Assert.Equal(20, catalog.FindPage(PageKey.Of("common"u8).Hex)!.References);
+        Assert.Equal(20, catalog.Pages.Find(PageKey.Of("common"u8).Hex)!.References);
     }
 
     public void Dispose()

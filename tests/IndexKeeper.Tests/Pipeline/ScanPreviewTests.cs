@@ -94,9 +94,9 @@ public sealed class ScanPreviewTests : IDisposable
 
     private string Snapshot()
     {
-        var documents = catalog.AllDocuments().OrderBy(d => d.Id, StringComparer.Ordinal).Select(d => $"{d.Id}:{d.FileHash}:{d.ModifiedTicksUtc}:{string.Join(',', d.PageKeys)}");
-        var pages = catalog.AllPages().OrderBy(p => p.Id, StringComparer.Ordinal).Select(p => $"{p.Id}:{p.References}");
-        var queue = catalog.QueueInOrder().OrderBy(q => q.Id, StringComparer.Ordinal).Select(q => q.Id);
+        var documents = catalog.Documents.All().OrderBy(d => d.Id, StringComparer.Ordinal).Select(d => $"{d.Id}:{d.FileHash}:{d.ModifiedTicksUtc}:{string.Join(',', d.PageKeys)}");
+        var pages = catalog.Pages.All().OrderBy(p => p.Id, StringComparer.Ordinal).Select(p => $"{p.Id}:{p.References}");
+        var queue = catalog.Queue.InOrder().OrderBy(q => q.Id, StringComparer.Ordinal).Select(q => q.Id);
         return string.Join('\n', documents.Concat(pages).Concat(queue)) + $"\nscans:{catalog.Figures().LastScanUtc}";
     }
 }

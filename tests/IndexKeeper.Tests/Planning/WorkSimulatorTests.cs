@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Planning;
+using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 
 namespace IndexKeeper.Tests.Planning;

@@ -1,6 +1,4 @@
-using IndexKeeper.Core.Catalog;
-
-namespace IndexKeeper.Core.Scheduling;
+namespace IndexKeeper.Core.Queue;
 
 /// <summary>Pages waiting in the queue (and due, past any back-off), by priority.</summary>
 public readonly record struct QueuedPages(long Fresh, long Migration, long Canary)

@@ -1,4 +1,4 @@
-namespace IndexKeeper.Core.Catalog;
+namespace IndexKeeper.Core.Queue;
 
 /// <summary>Order in which queued pages are embedded (lower first). Numbers reach the catalog: never change them.</summary>
 public enum QueuePriority

@@ -1,0 +1,29 @@
+using LiteDB;
+
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>The catalog's documents: one record per file under a root, with the page keys it shows.</summary>
+public sealed class DocumentTable
+{
+    private readonly ILiteCollection<DocumentRecord> documents;
+
+    internal DocumentTable(CatalogStore store) => documents = store.Documents;
+
+    public DocumentRecord? Find(string root, string path) => documents.FindById(DocumentRecord.MakeId(root, path));
+
+    /// <summary>Live documents whose bytes hash to <paramref name="fileHash"/>: a new path with one of these is a copy.</summary>
+    public IReadOnlyList<DocumentRecord> LiveWithFileHash(string fileHash) =>
+        documents.Find(d => d.FileHash == fileHash && d.State == DocumentState.Live).ToList();
+
+    public IEnumerable<DocumentRecord> OfRoot(string root) => documents.Find(d => d.Root == root);
+
+    public IEnumerable<DocumentRecord> Quarantined() => documents.Find(d => d.State == DocumentState.Quarantined);
+
+    public IEnumerable<DocumentRecord> All() => documents.FindAll();
+
+    public IEnumerable<string> RootNames() => documents.Query().Select(d => d.Root).ToEnumerable().Distinct(StringComparer.Ordinal);
+
+    /// <summary>Live documents holding a page key: where a search hit is shown.</summary>
+    public IReadOnlyList<DocumentRecord> Holding(string pageKey) =>
+        documents.Find(BsonExpression.Create("$.PageKeys[*] ANY = @0", new BsonValue(pageKey))).ToList();
+}

@@ -1,0 +1,36 @@
+using LiteDB;
+
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>What passes and embed runs did: one record each, for status and the plan's measured throughput.</summary>
+public sealed class HistoryTable
+{
+    /// <summary>The <see cref="ScanRecord.Command"/> of an embed record. Reaches the catalog: never change it.</summary>
+    public const string EmbedCommand = "embed";
+
+    private readonly ILiteCollection<ScanRecord> scans;
+
+    internal HistoryTable(CatalogStore store) => scans = store.Scans;
+
+    public void Add(ScanRecord scan) => scans.Insert(scan);
+
+    /// <summary>Records what one embed run cost under one encoder, for the plan's throughput estimate.</summary>
+    public void RecordEmbedding(string encoderId, DateTime startedUtc, double elapsedSeconds, long pagesEmbedded, long vectorsWritten, double encoderSeconds) =>
+        scans.Insert(new ScanRecord
+        {
+            StartedUtc = startedUtc,
+            ElapsedSeconds = elapsedSeconds,
+            Command = EmbedCommand,
+            EncoderId = encoderId,
+            EncoderSeconds = encoderSeconds,
+            Counts = new Dictionary<string, long> { ["pagesEmbedded"] = pagesEmbedded, ["vectorsWritten"] = vectorsWritten },
+        });
+
+    /// <summary>The latest embed records of one encoder, newest first.</summary>
+    public IReadOnlyList<ScanRecord> Embeds(string encoderId, int count) =>
+        scans.Query().Where(s => s.Command == EmbedCommand && s.EncoderId == encoderId).OrderByDescending(s => s.Id).Limit(count).ToList();
+
+    /// <summary>When the last scan pass (not an embed record) started.</summary>
+    public DateTime? LastScanUtc() =>
+        scans.Query().Where(s => s.Command != EmbedCommand).OrderByDescending(s => s.Id).Limit(1).FirstOrDefault()?.StartedUtc.ToUniversalTime();
+}

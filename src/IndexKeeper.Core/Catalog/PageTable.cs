@@ -1,0 +1,27 @@
+using LiteDB;
+
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>The catalog's pages: one record per page key, with its words and how many locations hold it.</summary>
+public sealed class PageTable
+{
+    private readonly ILiteCollection<PageRecord> pages;
+
+    internal PageTable(CatalogStore store) => pages = store.Pages;
+
+    public PageRecord? Find(string pageKey) => pages.FindById(pageKey);
+
+    public IEnumerable<PageRecord> All() => pages.FindAll();
+
+    /// <summary>Page keys that live documents hold.</summary>
+    public IEnumerable<string> ReferencedKeys() =>
+        pages.Query().Where(p => p.References > 0).Select(p => p.Id).ToEnumerable();
+
+    /// <summary>Page keys no live document holds (left by an interrupted pass; the next pass removes them).</summary>
+    public IEnumerable<string> UnreferencedKeys() =>
+        pages.Query().Where(p => p.References <= 0).Select(p => p.Id).ToEnumerable();
+
+    /// <summary>A page's reference count (0 when it has no record), read without deserialising its words.</summary>
+    internal int ReferencesOf(string pageKey) =>
+        pages.Query().Where(p => p.Id == pageKey).Select(p => p.References).ToEnumerable().FirstOrDefault();
+}
