@@ -2,7 +2,6 @@ using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Demo;
 using IndexKeeper.Cli.Output;
-using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Querying;

@@ -1,10 +1,8 @@
 using System.Diagnostics;
 using System.ServiceProcess;
-using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
-using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Hosting;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;

@@ -5,6 +5,7 @@ using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;

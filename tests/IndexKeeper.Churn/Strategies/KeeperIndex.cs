@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.Globalization;
-using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
