@@ -15,7 +15,7 @@ internal sealed class CompactCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadOptions();
+        var options = context.LoadForExistingIndex();
         using var session = IndexSession.Open(options, "indexkeeper compact");
         session.Store.SealAll();
         var report = session.Store.Compact(session.CompactionOptions(), cancellationToken);

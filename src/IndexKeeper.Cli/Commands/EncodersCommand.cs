@@ -27,7 +27,7 @@ internal sealed class EncodersCommand : ICommand
         var check = context.Arguments.Flags.Contains(CheckCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
-        var options = context.LoadOptions(rootsRequired: check);
+        var options = context.LoadForExistingIndex(rootsRequired: check);
         using var session = IndexSession.Open(options, "indexkeeper encoders");
         CanaryFigures? figures = null;
         if (check)

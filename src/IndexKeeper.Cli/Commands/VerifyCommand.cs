@@ -15,7 +15,7 @@ internal sealed class VerifyCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadOptions();
+        var options = context.LoadForExistingIndex();
         using var session = IndexSession.Open(options, "indexkeeper verify");
         var report = IndexVerifier.Verify(session.Catalog, session.Store, session.Encoder.Identity.Id, cancellationToken);
         if (context.Json)

@@ -22,7 +22,7 @@ namespace IndexKeeper.Core.Index;
 /// </remarks>
 public sealed class VectorStore : IDisposable
 {
-    public const string SegmentsFolder = "segments";
+    public const string SegmentsFolder = ExistingIndex.SegmentsFolder;
 
     private readonly IndexCatalog catalog;
     private readonly SegmentWriterOptions writerOptions;
