@@ -68,7 +68,7 @@ public sealed class RecoveryStateTests
     }
 
     [Fact]
-    public void Orphan_segments_and_unfinished_compaction_outputs_are_removed()
+    public void Orphan_segments_are_set_aside_and_unfinished_compaction_outputs_removed()
     {
         using var directory = new Support.TempDirectory();
         Prepare(directory.Path, committed: 8, queued: 0);
@@ -79,9 +79,10 @@ public sealed class RecoveryStateTests
         File.WriteAllBytes(SegmentFileNames.TempPathOf(segments, 901), new SegmentHeader(901, OpenIndex.Encoder.Id, 64, DateTimeOffset.UtcNow).Encode());
         using var index = new OpenIndex(directory.Path);
         Assert.Equal(
-            [$"removed segment {SegmentFileNames.Name(900)}, which no catalog commit references", $"removed unfinished compaction output {SegmentFileNames.TempName(901)}"],
+            [$"moved segment {SegmentFileNames.Name(900)}, which no catalog commit references, to orphaned/{SegmentFileNames.Name(900)}", $"removed unfinished compaction output {SegmentFileNames.TempName(901)}"],
             index.Store.Repairs.Order(StringComparer.Ordinal));
         Assert.Equal([SegmentFileNames.PathOf(segments, index.Catalog.Segments.All()[0].Id)], Directory.GetFiles(segments));
+        Assert.Equal([Path.Combine(segments, "orphaned", SegmentFileNames.Name(900))], Directory.GetFiles(Path.Combine(segments, "orphaned")));
         AssertServes(index, committed: 8, queued: 0);
     }
 
