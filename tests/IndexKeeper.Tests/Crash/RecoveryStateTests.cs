@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Storage;
@@ -84,6 +85,38 @@ public sealed class RecoveryStateTests
         Assert.Equal([SegmentFileNames.PathOf(segments, index.Catalog.Segments.All()[0].Id)], Directory.GetFiles(segments));
         Assert.Equal([Path.Combine(segments, "orphaned", SegmentFileNames.Name(900))], Directory.GetFiles(Path.Combine(segments, "orphaned")));
         AssertServes(index, committed: 8, queued: 0);
+    }
+
+    [Fact]
+    public void A_store_opened_for_reading_repairs_nothing_and_still_serves()
+    {
+        using var directory = new Support.TempDirectory();
+        var segment = Prepare(directory.Path, committed: 8, queued: 4);
+        var segments = Path.GetDirectoryName(segment)!;
+
+        // What a crash leaves: an uncommitted tail and an orphan. A reader must see the committed state and change no byte.
+        using (var writer = SegmentWriter.Reopen(segment))
+        {
+            writer.Append(TestVectors.Key(8), TestVectors.Set(8, 12));
+        }
+
+        SegmentWriter.Create(segments, new SegmentHeader(900, OpenIndex.Encoder.Id, 64, DateTimeOffset.UtcNow)).Dispose();
+        var before = Directory.GetFiles(segments).Order(StringComparer.Ordinal).Select(f => (f, Convert.ToHexString(File.ReadAllBytes(f)))).ToList();
+        using (var held = IndexLock.Acquire(directory.Path, "reading test"))
+        using (var catalog = IndexCatalog.OpenReadOnly(held))
+        using (var store = VectorStore.OpenForReading(catalog, directory.Path))
+        {
+            Assert.Empty(store.Repairs);
+            using (var live = store.OpenLive(OpenIndex.Encoder.Id))
+            {
+                Assert.Equal(8, live.Source.Count);
+            }
+
+            Assert.Throws<InvalidOperationException>(() => store.AppendAndCommit(OpenIndex.Encoder, [(TestVectors.Key(9), TestVectors.Set(9, 12))]));
+            Assert.Throws<InvalidOperationException>(store.SealAll);
+        }
+
+        Assert.Equal(before, Directory.GetFiles(segments).Order(StringComparer.Ordinal).Select(f => (f, Convert.ToHexString(File.ReadAllBytes(f)))).ToList());
     }
 
     /// <summary>Pages 0.. of which the first <paramref name="committed"/> get vectors; returns the open segment's path, closed cleanly.</summary>
