@@ -2,6 +2,7 @@ using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Commands;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Faults;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Service.Configuration;
@@ -30,6 +31,13 @@ internal static class Program
         {
             PrintHelp(Console.Out);
             return args.Length == 0 ? 2 : 0;
+        }
+
+        // A test facility (docs/fault-matrix.md): a malformed arming is a usage error, never ignored.
+        if (FaultInjection.Problem is { } faultProblem)
+        {
+            Error(faultProblem);
+            return 2;
         }
 
         using var cancellation = new CancellationTokenSource();

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Faults;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
@@ -41,7 +42,9 @@ internal sealed class CatalogStore(LiteDatabase database) : IDisposable
         try
         {
             var result = change();
+            FaultInjection.Reach(FaultPoints.CatalogCommitBefore);
             Database.Commit();
+            FaultInjection.Reach(FaultPoints.CatalogCommitAfter);
             return result;
         }
         catch

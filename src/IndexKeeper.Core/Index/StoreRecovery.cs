@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Faults;
 using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Core.Index;
@@ -30,6 +31,7 @@ internal static class StoreRecovery
             if (isTemp)
             {
                 // A compaction output before its swap: a copy of vectors its inputs still hold.
+                FaultInjection.Reach(FaultPoints.RecoveryDeleteTemp);
                 MakeWritable(path);
                 File.Delete(path);
                 repairs.Add($"removed unfinished compaction output {name}");
@@ -85,15 +87,21 @@ internal static class StoreRecovery
 
     private static void Cut(string path, long length)
     {
+        FaultInjection.Reach(FaultPoints.RecoveryCutBefore);
         MakeWritable(path);
-        using var stream = new FileStream(path, FileMode.Open, FileAccess.Write, FileShare.Read);
-        stream.SetLength(length);
-        stream.Flush(flushToDisk: true);
+        using (var stream = new FileStream(path, FileMode.Open, FileAccess.Write, FileShare.Read))
+        {
+            stream.SetLength(length);
+            stream.Flush(flushToDisk: true);
+        }
+
+        FaultInjection.Reach(FaultPoints.RecoveryCutAfter);
     }
 
     /// <summary>Moves a file into the orphaned folder under a name not yet taken there; returns that name.</summary>
     private static string SetAside(string directory, string path)
     {
+        FaultInjection.Reach(FaultPoints.RecoverySetAside);
         var folder = Path.Combine(directory, OrphanedFolder);
         System.IO.Directory.CreateDirectory(folder);
         var name = Path.GetFileName(path);

@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Faults;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
 
@@ -261,6 +262,7 @@ public sealed class VectorStore : IDisposable
             {
                 try
                 {
+                    FaultInjection.Reach(FaultPoints.CompactionSwapBeforeCommit);
                     catalog.SwapCompacted(
                         job.SegmentIds,
                         newSegments,
@@ -272,6 +274,7 @@ public sealed class VectorStore : IDisposable
                     throw;
                 }
 
+                FaultInjection.Reach(FaultPoints.CompactionSwapAfterCommit);
                 foreach (var old in job.SegmentIds)
                 {
                     files.Retire(old);

@@ -1,4 +1,5 @@
 using System.Runtime.InteropServices;
+using IndexKeeper.Core.Faults;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -19,6 +20,7 @@ internal static partial class DirectorySync
             return;
         }
 
+        FaultInjection.Reach(FaultPoints.DirectoryFsyncBefore);
         var fd = Open(directory, ReadOnly);
         if (fd < 0)
         {
@@ -36,6 +38,8 @@ internal static partial class DirectorySync
         {
             _ = Close(fd);
         }
+
+        FaultInjection.Reach(FaultPoints.DirectoryFsyncAfter);
     }
 
     [LibraryImport("libc", EntryPoint = "open", SetLastError = true, StringMarshalling = StringMarshalling.Utf8)]

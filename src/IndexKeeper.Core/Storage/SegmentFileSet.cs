@@ -1,5 +1,6 @@
 using System.Collections.Concurrent;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Faults;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -252,8 +253,10 @@ public sealed class SegmentFileSet : IDisposable
             File.SetAttributes(path, File.GetAttributes(path) & ~FileAttributes.ReadOnly);
         }
 
-        // A delete that a crash undoes is harmless: restart removes files the catalog does not name.
+        // A delete that a crash undoes is harmless: restart sets aside files the catalog does not name.
+        FaultInjection.Reach(FaultPoints.CompactionDeleteBefore);
         File.Delete(path);
+        FaultInjection.Reach(FaultPoints.CompactionDeleteAfter);
     }
 
     private Entry EntryOf(long segmentId)

@@ -3,6 +3,7 @@ using System.Buffers.Binary;
 using System.Runtime.InteropServices;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Faults;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -137,6 +138,7 @@ public sealed class SegmentWriter : IDisposable
         var location = new RecordLocation(SegmentId, Length, record.Length, BinaryPrimitives.ReadUInt32LittleEndian(record));
         try
         {
+            FaultInjection.Reach(FaultPoints.CompactionOutputWrite);
             Write(record);
         }
         catch
@@ -155,7 +157,16 @@ public sealed class SegmentWriter : IDisposable
         var output = OpenStream();
         try
         {
+            if (durable)
+            {
+                FaultInjection.Reach(FaultPoints.SegmentAppendBeforeFsync);
+            }
+
             output.Flush(flushToDisk: durable);
+            if (durable)
+            {
+                FaultInjection.Reach(FaultPoints.SegmentAppendAfterFsync);
+            }
         }
         catch
         {
@@ -173,6 +184,7 @@ public sealed class SegmentWriter : IDisposable
         var output = OpenStream();
         try
         {
+            FaultInjection.Reach(FaultPoints.SegmentSealBefore);
             var sealedChecksum = fileChecksum;
             Span<byte> seal = stackalloc byte[SegmentFormat.SealRecordLength];
             var crc = RecordCodec.BeginFrame(seal, SegmentFormat.RecordTypeSeal, SegmentFormat.SealBodyLength);
@@ -184,17 +196,21 @@ public sealed class SegmentWriter : IDisposable
             RecordCodec.EndFrame(seal, Crc32C.Append(crc, body));
             Write(seal);
             output.Flush(flushToDisk: true);
+            FaultInjection.Reach(FaultPoints.SegmentSealAfterFsync);
             output.Dispose();
             stream = null;
             IsSealed = true;
             MakeReadOnly(Path);
             if (publishPath is not null)
             {
+                FaultInjection.Reach(FaultPoints.SegmentRenameBefore);
                 File.Move(Path, publishPath, overwrite: false);
                 Path = publishPath;
+                FaultInjection.Reach(FaultPoints.SegmentRenameAfter);
             }
 
             DirectorySync.Flush(System.IO.Path.GetDirectoryName(System.IO.Path.GetFullPath(Path))!);
+            FaultInjection.Reach(FaultPoints.SegmentSealAfter);
             return new SealedSegment(SegmentId, Path, Length, RecordCount, sealedChecksum);
         }
         catch

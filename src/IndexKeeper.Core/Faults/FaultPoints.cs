@@ -1,0 +1,78 @@
+namespace IndexKeeper.Core.Faults;
+
+/// <summary>
+/// The named I/O points of the write path where a crash test can stop or fail the process
+/// (<see cref="FaultInjection"/>, docs/fault-matrix.md). Names are our own; a test reads <see cref="All"/>
+/// and fails if any point was never reached, so a point added here must be reachable by a command.
+/// </summary>
+internal static class FaultPoints
+{
+    /// <summary>An embed batch is appended (in the writer's buffer or the page cache), not yet fsynced: nothing of it is committed.</summary>
+    public const string SegmentAppendBeforeFsync = "segment.append.before-fsync";
+
+    /// <summary>The batch's bytes are durable, the catalog commit that references them has not run: an uncommitted tail.</summary>
+    public const string SegmentAppendAfterFsync = "segment.append.after-fsync";
+
+    /// <summary>Before the seal record is written: the segment is still open.</summary>
+    public const string SegmentSealBefore = "segment.seal.before";
+
+    /// <summary>The seal record is written and fsynced; the file is not yet read-only, renamed or recorded as sealed.</summary>
+    public const string SegmentSealAfterFsync = "segment.seal.after-fsync";
+
+    /// <summary>A sealed compaction output still has its temp name.</summary>
+    public const string SegmentRenameBefore = "segment.rename.before";
+
+    /// <summary>A compaction output has its real name, the directory is not yet fsynced.</summary>
+    public const string SegmentRenameAfter = "segment.rename.after";
+
+    /// <summary>The seal is durable with its directory entry; the catalog does not yet record the segment as sealed.</summary>
+    public const string SegmentSealAfter = "segment.seal.after";
+
+    /// <summary>A compaction copies a record into its temp-named output (before the write).</summary>
+    public const string CompactionOutputWrite = "compaction.output.write";
+
+    /// <summary>Before a directory is fsynced (after a segment is created, sealed or renamed).</summary>
+    public const string DirectoryFsyncBefore = "directory.fsync.before";
+
+    /// <summary>After a directory is fsynced.</summary>
+    public const string DirectoryFsyncAfter = "directory.fsync.after";
+
+    /// <summary>A catalog transaction is complete but not committed (the one transaction helper, every kind of edit).</summary>
+    public const string CatalogCommitBefore = "catalog.commit.before";
+
+    /// <summary>A catalog transaction has committed; the caller has not yet seen it return.</summary>
+    public const string CatalogCommitAfter = "catalog.commit.after";
+
+    /// <summary>Compaction outputs are sealed under their real names; the swap's catalog transaction has not run.</summary>
+    public const string CompactionSwapBeforeCommit = "compaction.swap.before-commit";
+
+    /// <summary>The swap is committed; the old segments are not yet retired.</summary>
+    public const string CompactionSwapAfterCommit = "compaction.swap.after-commit";
+
+    /// <summary>An old segment no reader holds is about to be deleted after a committed swap.</summary>
+    public const string CompactionDeleteBefore = "compaction.delete.before";
+
+    /// <summary>An old segment was deleted.</summary>
+    public const string CompactionDeleteAfter = "compaction.delete.after";
+
+    /// <summary>Recovery (at open, or after a failed append) is about to cut an open segment to its committed length.</summary>
+    public const string RecoveryCutBefore = "recovery.cut.before";
+
+    /// <summary>Recovery cut an open segment and fsynced it.</summary>
+    public const string RecoveryCutAfter = "recovery.cut.after";
+
+    /// <summary>Recovery at open is about to delete an unfinished compaction output (a temp file).</summary>
+    public const string RecoveryDeleteTemp = "recovery.delete-temp";
+
+    /// <summary>Recovery at open is about to set a segment no catalog commit references aside in <c>segments/orphaned/</c>.</summary>
+    public const string RecoverySetAside = "recovery.set-aside";
+
+    /// <summary>Every point, in the order of the write path.</summary>
+    public static IReadOnlyList<string> All { get; } =
+    [
+        SegmentAppendBeforeFsync, SegmentAppendAfterFsync, SegmentSealBefore, SegmentSealAfterFsync, SegmentRenameBefore,
+        SegmentRenameAfter, SegmentSealAfter, CompactionOutputWrite, DirectoryFsyncBefore, DirectoryFsyncAfter,
+        CatalogCommitBefore, CatalogCommitAfter, CompactionSwapBeforeCommit, CompactionSwapAfterCommit,
+        CompactionDeleteBefore, CompactionDeleteAfter, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
+    ];
+}
