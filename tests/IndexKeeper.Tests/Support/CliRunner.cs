@@ -36,9 +36,18 @@ internal static class CliRunner
 
     public static Result Run(string workingDirectory, params string[] args) => Run(workingDirectory, shippedEncoder: false, args);
 
-    public static Result Run(string workingDirectory, bool shippedEncoder, params string[] args)
+    public static Result Run(string workingDirectory, bool shippedEncoder, params string[] args) =>
+        Run(workingDirectory, new Dictionary<string, string>(), shippedEncoder, args);
+
+    /// <summary>Runs with extra environment variables (a fault armed for a crash test).</summary>
+    public static Result Run(string workingDirectory, IReadOnlyDictionary<string, string> environment, bool shippedEncoder, params string[] args)
     {
         var start = StartInfo(workingDirectory, args, shippedEncoder);
+        foreach (var (name, value) in environment)
+        {
+            start.Environment[name] = value;
+        }
+
         using var process = Process.Start(start)!;
         var stdout = process.StandardOutput.ReadToEndAsync();
         var stderr = process.StandardError.ReadToEndAsync();

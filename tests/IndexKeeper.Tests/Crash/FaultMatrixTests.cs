@@ -1,0 +1,281 @@
+using System.Globalization;
+using System.Text;
+using System.Text.Json;
+using System.Text.RegularExpressions;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Faults;
+using IndexKeeper.Tests.Support;
+using Xunit.Abstractions;
+
+namespace IndexKeeper.Tests.Crash;
+
+/// <summary>
+/// Crash tests by fault injection, never by timing: the real executable runs <c>sync</c> or <c>compact</c>
+/// with a fault armed at the Nth reach of a named I/O point (<see cref="FaultPoints"/>): <c>exit</c> ends
+/// the process there as a kill would, <c>enospc</c> and <c>eio</c> fail the I/O as a full or failing disk
+/// does. After each: the command's exit code and message are honest (no stack trace), <c>verify</c> passes
+/// with only the repairs a crash may need, every vector set committed before is still live unless its page
+/// is gone, a search serves, the next <c>sync</c> completes and <c>verify</c> is then clean. Every point must
+/// fire at least once. The rows make docs/fault-matrix.md; the test fails when the committed document
+/// differs (write it again with <c>IK_WRITE_FAULT_MATRIX=1 dotnet test … --filter FaultMatrixTests</c>).
+/// </summary>
+public sealed partial class FaultMatrixTests(ITestOutputHelper output)
+{
+    public const string WriteVariable = "IK_WRITE_FAULT_MATRIX";
+
+    // Repairs a crash may leave for recovery; anything else ("forgotten", "isolated") means a committed vector set was lost.
+    private static readonly string[] AllowedRepairs =
+    [
+        "at open: removed unfinished compaction output ",
+        "at open: moved segment ",
+        "at open: cut ",
+    ];
+
+    // One sync segment seals after a few pages; compaction outputs up to 16 MiB; every segment counts as
+    // small and a low dead share gives compaction work (as the demo's crash settings did before).
+    private static readonly string[] SyncSettings = ["--Storage:SealAtMegabytes=1", "--Encoder:BatchSize=4", "--Detect:SettleSeconds=0"];
+    private static readonly string[] CompactSettings = ["--Storage:SealAtMegabytes=16", "--Storage:SmallSegmentMegabytes=16", "--Storage:CompactDeadShare=0.05"];
+
+    private sealed record Row(FaultScenario Scenario, bool Fired, int ExitCode, string Message, int LiveBefore, int LiveAfter, string Repairs, long QueuedAfterNextSync);
+
+    [Fact]
+    public void Every_fault_point_with_every_fault_leaves_an_index_that_verifies_serves_and_syncs()
+    {
+        using var scratch = new TempDirectory();
+        var template = scratch.Combine("template");
+        var (known, pending) = BuildTemplate(template);
+
+        var scenarios = FaultScenario.All;
+        var rows = new Row[scenarios.Count];
+
+        // Two at a time: each scenario has a copy of its own, and the outcome of one never depends on timing.
+        Parallel.For(0, scenarios.Count, new ParallelOptions { MaxDegreeOfParallelism = 2 }, i =>
+            rows[i] = Run(scenarios[i], template, scratch.Combine("s" + i.ToString("000", CultureInfo.InvariantCulture)), known, pending));
+
+        foreach (var row in rows)
+        {
+            output.WriteLine($"{row.Scenario.Name}: {(row.Fired ? "fired" : "not reached")}, exit {row.ExitCode}, live {row.LiveBefore} → {row.LiveAfter}, repairs: {row.Repairs}, queued after next sync {row.QueuedAfterNextSync}; {row.Message}");
+        }
+
+        var reached = rows.Where(r => r.Fired).Select(r => r.Scenario.Point).ToHashSet(StringComparer.Ordinal);
+        var never = FaultPoints.All.Where(p => !reached.Contains(p)).ToList();
+        Assert.True(never.Count == 0, "fault points no scenario reached: " + string.Join(", ", never));
+
+        var document = Render(rows);
+        var path = Path.Combine(RepositoryRoot.Path, "docs", "fault-matrix.md");
+        if (Environment.GetEnvironmentVariable(WriteVariable) == "1")
+        {
+            File.WriteAllText(path, document);
+        }
+
+        var committed = File.Exists(path) ? File.ReadAllText(path).ReplaceLineEndings("\n") : "";
+        Assert.True(
+            committed == document,
+            $"docs/fault-matrix.md differs from what this run produced; write it again with {WriteVariable}=1 dotnet test IndexKeeper.sln -c Release --no-build --filter FullyQualifiedName~FaultMatrixTests");
+    }
+
+    /// <summary>
+    /// A synced store with dead vector sets (compaction has work) and new documents not yet synced (sync has
+    /// work). Returns a phrase of a synced page and one of a pending page, each with its document and page.
+    /// </summary>
+    private static ((string Phrase, string Path, int Page) Known, (string Phrase, string Path, int Page) Pending) BuildTemplate(string template)
+    {
+        var store = Path.Combine(template, "store");
+        var churn = new StoreChurn(store, 31337);
+        for (var i = 0; i < 8; i++)
+        {
+            churn.Add(3);
+        }
+
+        var known = churn.LastUnique!.Value;
+        string[] common = ["--index", Path.Combine(template, "index"), "--root", store];
+        MustSucceed(CliRunner.Run(template, ["sync", .. common, .. SyncSettings]));
+
+        // Two documents go and one comes: their vector sets die inside sealed segments.
+        File.Delete(Path.Combine(store, "reports", "churn", "HWA-CR-000 field note.pdf"));
+        File.Delete(Path.Combine(store, "reports", "churn", "HWA-CR-001 field note.pdf"));
+        churn.Add(3);
+        MustSucceed(CliRunner.Run(template, ["sync", .. common, .. SyncSettings]));
+
+        churn.Add(3);
+        churn.Add(3);
+        return (known, churn.LastUnique!.Value);
+    }
+
+    private Row Run(FaultScenario scenario, string template, string directory, (string Phrase, string Path, int Page) known, (string Phrase, string Path, int Page) pending)
+    {
+        CopyDirectory(template, directory);
+        var index = Path.Combine(directory, "index");
+        string[] common = ["--index", index, "--root", Path.Combine(directory, "store")];
+        if (scenario.Prelude is { } prelude)
+        {
+            var stopped = Faulted(directory, prelude, common);
+            Assert.True(stopped.ExitCode == FaultInjection.ExitCode, $"{scenario.Name}: the prelude did not stop at its point:\n{stopped.Stdout}\n{stopped.Stderr}");
+        }
+
+        var before = Catalogued(index);
+        var faulted = Faulted(directory, scenario, common);
+        var fired = faulted.Stderr.Contains(FaultInjection.FiredMarker, StringComparison.Ordinal);
+        var message = CheckHonest(scenario, faulted, fired);
+
+        var verify = CliRunner.Run(directory, ["verify", .. common, "--json"]);
+        var report = JsonDocument.Parse(verify.Stdout).RootElement;
+        var repairs = Strings(report, "repairs");
+        Assert.True(verify.ExitCode == 0 && Strings(report, "problems").Count == 0, $"{scenario.Name}: verify after the fault:\n{verify.Stdout}\n{verify.Stderr}");
+        foreach (var repair in repairs)
+        {
+            Assert.True(AllowedRepairs.Any(a => repair.StartsWith(a, StringComparison.Ordinal)), $"{scenario.Name}: a repair that loses committed data: {repair}");
+        }
+
+        var after = Catalogued(index);
+        var lost = before.Live.Where(after.Referenced.Contains).Where(k => !after.Live.Contains(k)).ToList();
+        Assert.True(lost.Count == 0, $"{scenario.Name}: {lost.Count} committed vector sets of pages still held were lost, e.g. {lost.FirstOrDefault()}");
+        AssertTopHit(scenario, directory, common, known);
+
+        var next = CliRunner.Run(directory, ["sync", .. common, .. SyncSettings]);
+        Assert.True(next.ExitCode == 0, $"{scenario.Name}: the next sync failed:\n{next.Stdout}\n{next.Stderr}");
+        var clean = CliRunner.Run(directory, ["verify", .. common, "--json"]);
+        var cleanReport = JsonDocument.Parse(clean.Stdout).RootElement;
+        Assert.True(clean.ExitCode == 0 && Strings(cleanReport, "problems").Count == 0 && Strings(cleanReport, "repairs").Count == 0, $"{scenario.Name}: verify after the next sync:\n{clean.Stdout}");
+
+        // Pages a failed batch left wait out their back-off in the queue; none is without vectors and unqueued.
+        var status = JsonDocument.Parse(CliRunner.Run(directory, ["status", .. common, "--json"]).Stdout).RootElement;
+        var queued = status.GetProperty("queued").GetInt64();
+        Assert.Equal(status.GetProperty("pages").GetInt64(), status.GetProperty("liveVectorSets").GetInt64() + queued);
+        if (queued == 0)
+        {
+            AssertTopHit(scenario, directory, common, pending);
+        }
+
+        Directory.Delete(directory, recursive: true);
+        return new Row(scenario, fired, faulted.ExitCode, message, before.Live.Count, after.Live.Count, Summary(repairs), queued);
+    }
+
+    private static CliRunner.Result Faulted(string directory, FaultScenario scenario, string[] common)
+    {
+        string[] args = [scenario.Command, .. common, .. scenario.Command == "compact" ? CompactSettings : SyncSettings];
+        return CliRunner.Run(directory, new Dictionary<string, string> { [FaultInjection.Variable] = scenario.Arming }, false, args);
+    }
+
+    /// <summary>Checks the faulted command's exit code and message; returns the message for the matrix.</summary>
+    private static string CheckHonest(FaultScenario scenario, CliRunner.Result result, bool fired)
+    {
+        var all = result.Stderr + "\n" + result.Stdout;
+        Assert.False(StackFrame().IsMatch(all) || all.Contains("Unhandled exception", StringComparison.Ordinal), $"{scenario.Name}: a stack trace:\n{all}");
+        if (!fired)
+        {
+            Assert.True(result.ExitCode == 0, $"{scenario.Name}: not reached, yet exit {result.ExitCode}:\n{all}");
+            return "not reached";
+        }
+
+        if (scenario.Action == "exit")
+        {
+            Assert.Equal(FaultInjection.ExitCode, result.ExitCode);
+            return "stopped";
+        }
+
+        Assert.True(result.ExitCode == 1, $"{scenario.Name}: exit {result.ExitCode} after an I/O error:\n{all}");
+        var line = all.Split('\n').Select(l => l.Trim()).FirstOrDefault(l => l.Contains("fault injected at", StringComparison.Ordinal) && !l.StartsWith(FaultInjection.FiredMarker, StringComparison.Ordinal));
+        Assert.True(line is not null, $"{scenario.Name}: the I/O error is not reported:\n{all}");
+        return Regex.Replace(line, @"(/[^\s'""]+)+", "…").Replace("|", "\\|", StringComparison.Ordinal);
+    }
+
+    private static void AssertTopHit(FaultScenario scenario, string directory, string[] common, (string Phrase, string Path, int Page) expected)
+    {
+        var search = CliRunner.Run(directory, ["search", .. common, expected.Phrase, "-k", "3", "--json"]);
+        Assert.True(search.ExitCode == 0, $"{scenario.Name}: search failed:\n{search.Stdout}\n{search.Stderr}");
+        var top = JsonDocument.Parse(search.Stdout).RootElement.GetProperty("hits")[0];
+        Assert.Equal((expected.Path, expected.Page), (top.GetProperty("path").GetString(), top.GetProperty("page").GetInt32()));
+    }
+
+    private static string Render(IReadOnlyList<Row> rows)
+    {
+        var text = new StringBuilder();
+        text.Append("""
+            # Fault matrix
+
+            Generated by `tests/IndexKeeper.Tests/Crash/FaultMatrixTests.cs`; do not edit by hand. To write it
+            again after a change of the write path:
+            `IK_WRITE_FAULT_MATRIX=1 dotnet test IndexKeeper.sln -c Release --no-build --filter FullyQualifiedName~FaultMatrixTests`
+            (the test fails while this file differs from what the run produced).
+
+            Each row runs the real `indexkeeper` on a copy of one small store (ten three-page PDF field notes,
+            the hashed-term encoder, segments sealed at 1 MiB, batches of four pages), synced twice with two
+            documents deleted in between, with two new documents not yet synced. The fault is armed with the
+            environment variable `IK_FAULT_INJECTION=point:action[:nth]`, a test facility that is ignored unless
+            set and that no configuration file or `INDEXKEEPER_` variable can set (`src/IndexKeeper.Core/Faults`).
+            It fires at the nth reach of the point:
+
+            - `exit`: the process ends at once with exit code 86, as a kill would (no finally blocks, no flush of
+              buffered writes; what the page cache holds stays, as after SIGKILL).
+            - `enospc`: the I/O throws the error a full disk throws ("No space left on device").
+            - `eio`: the I/O throws the error a failing disk throws ("Input/output error").
+
+            Points (`FaultPoints`, in the order of the write path): a segment append before and after its fsync;
+            a seal before its record, after its fsync, after the directory fsync (not yet recorded by the catalog);
+            a compaction output's temp-file write, its rename (before, after); every directory fsync (before,
+            after); every catalog transaction's commit (before, after; the one transaction helper); a compaction
+            swap before and after its catalog commit; an old segment's delete (before, after); recovery's cut of
+            an uncommitted tail (before, after), its deletion of an unfinished compaction output and its setting
+            aside of a segment no commit references.
+
+            After each faulted command the test requires: exit 86 for `exit`, else exit 1 with a message that
+            names the I/O error and no stack trace; `verify` exit 0 with no problems and only the repairs a crash
+            may need (cut an uncommitted tail, set an unreferenced segment aside, remove a temp file); every
+            vector set live before the command still live unless its page is gone; a search that finds a page
+            synced before; the next `sync` exit 0 and `verify` then clean with nothing to repair; every page
+            either live or queued. Columns: the command's exit code and message; live vector sets before and
+            after the fault (after `verify`'s open); what recovery repaired at the next open; pages still queued
+            after the next `sync` (a batch that failed on an I/O error waits out its back-off).
+
+            | command | point | fault | nth | exit | message | live before → after | repaired at next open | queued after next sync |
+            |---|---|---|---|---|---|---|---|---|
+
+            """);
+        foreach (var row in rows)
+        {
+            var command = row.Scenario.Prelude is { } prelude ? $"{row.Scenario.Command} after {prelude.Command} stopped at `{prelude.Point}`" : row.Scenario.Command;
+            text.Append(CultureInfo.InvariantCulture, $"| {command} | `{row.Scenario.Point}` | {row.Scenario.Action} | {row.Scenario.Nth} | {(row.Fired ? row.ExitCode.ToString(CultureInfo.InvariantCulture) : "0")} | {row.Message} | {row.LiveBefore} → {row.LiveAfter} | {row.Repairs} | {row.QueuedAfterNextSync} |\n");
+        }
+
+        return text.ToString();
+    }
+
+    /// <summary>Page keys with a live vector set, and page keys some live document holds, read from the catalog itself.</summary>
+    private static (HashSet<string> Live, HashSet<string> Referenced) Catalogued(string index)
+    {
+        using var indexLock = IndexLock.Acquire(index, "fault matrix check");
+        using var catalog = IndexCatalog.OpenReadOnly(indexLock);
+        var live = catalog.Encoders.All().SelectMany(e => catalog.VectorSets.Live(e.Id)).Select(v => v.PageKey).ToHashSet(StringComparer.Ordinal);
+        return (live, catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal));
+    }
+
+    private static void CopyDirectory(string from, string to)
+    {
+        foreach (var file in Directory.EnumerateFiles(from, "*", SearchOption.AllDirectories))
+        {
+            var target = Path.Combine(to, Path.GetRelativePath(from, file));
+            Directory.CreateDirectory(Path.GetDirectoryName(target)!);
+            File.Copy(file, target);
+        }
+    }
+
+    private static void MustSucceed(CliRunner.Result result) => Assert.True(result.ExitCode == 0, result.Stdout + result.Stderr);
+
+    private static List<string> Strings(JsonElement report, string name) =>
+        [.. report.GetProperty(name).EnumerateArray().Select(e => e.GetString()!)];
+
+    /// <summary>Kinds of repair, by the words before the first number, each with its count.</summary>
+    private static string Summary(IEnumerable<string> repairs)
+    {
+        var kinds = repairs
+            .Select(r => new string(r.TakeWhile(c => !char.IsDigit(c)).ToArray()).Replace("at open: ", "", StringComparison.Ordinal).Trim())
+            .GroupBy(k => k)
+            .Select(g => g.Count() == 1 ? g.Key : $"{g.Key} (×{g.Count()})")
+            .ToList();
+        return kinds.Count == 0 ? "nothing" : string.Join("; ", kinds);
+    }
+
+    [GeneratedRegex(@"^\s+at \S+\(", RegexOptions.Multiline)]
+    private static partial Regex StackFrame();
+}
