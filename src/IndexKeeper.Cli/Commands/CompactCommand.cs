@@ -1,6 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Output;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
@@ -15,21 +14,10 @@ internal sealed class CompactCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadOptions();
-        using var session = IndexSession.Open(options, "indexkeeper compact");
-        session.Store.SealAll();
-        var report = session.Store.Compact(session.CompactionOptions(), cancellationToken);
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-        }
-        else
-        {
-            Console.Out.WriteLine(string.Create(
-                CultureInfo.InvariantCulture,
-                $"Compaction: {report.Jobs} job(s), {report.SegmentsRewritten} segment(s) rewritten, {report.BytesWritten / 1048576.0:0.0} MiB written, {report.BytesReclaimed / 1048576.0:0.0} MiB reclaimed."));
-        }
-
-        return 0;
+        using var composed = context.Open(Name);
+        var report = composed.Get<CompactOperation>().Run(cancellationToken);
+        return context.Print(report, (o, r) => o.WriteLine(string.Create(
+            CultureInfo.InvariantCulture,
+            $"Compaction: {r.Jobs} job(s), {r.SegmentsRewritten} segment(s) rewritten, {r.BytesWritten / 1048576.0:0.0} MiB written, {r.BytesReclaimed / 1048576.0:0.0} MiB reclaimed.")));
     }
 }

@@ -1,6 +1,6 @@
 using System.Globalization;
-using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Drift;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
@@ -27,27 +27,12 @@ internal sealed class EncodersCommand : ICommand
         var check = context.Arguments.Flags.Contains(CheckCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
-        var options = context.LoadOptions(rootsRequired: check);
-        using var session = IndexSession.Open(options, "indexkeeper encoders");
-        CanaryFigures? figures = null;
-        if (check)
-        {
-            session.ReconcileDrift();
-            figures = session.CheckCanaries(cancellationToken);
-        }
-
-        var report = EncodersReport.Build(session, check);
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-        }
-        else
-        {
-            Write(Console.Out, report);
-        }
+        using var composed = context.Open(Name, rootsRequired: check);
+        var encoders = composed.Get<EncodersOperation>();
+        CanaryFigures? figures = check ? encoders.CheckCanaries(cancellationToken) : null;
 
         // Silent drift found now is a problem found, as verify reports one.
-        return figures is { Drifted: true } ? 1 : 0;
+        return context.Print(encoders.Read(check), Write, figures is { Drifted: true } ? 1 : 0);
     }
 
     private static void Write(TextWriter o, EncodersReport report)

@@ -1,6 +1,6 @@
 using System.Globalization;
 using IndexKeeper.Cli.Output;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Planning;
 
 namespace IndexKeeper.Cli.Commands;
@@ -24,21 +24,11 @@ internal sealed class PlanCommand : ICommand
         var calibrate = context.Arguments.Flags.Contains("calibrate");
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.OpenReadOnly(options, "indexkeeper plan");
-            using var progress = new TerminalProgress();
-            return PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken);
+            using var composed = IndexComposition.OpenReadOnly(options, "indexkeeper " + Name);
+            return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken));
         }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-        }
-        else
-        {
-            Write(Console.Out, report);
-        }
-
-        return 0;
+        return context.Print(report, Write);
     }
 
     private static void Write(TextWriter o, PlanReport r)

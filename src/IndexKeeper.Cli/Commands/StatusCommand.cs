@@ -1,5 +1,5 @@
 using System.Globalization;
-using IndexKeeper.Cli.Output;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
@@ -18,17 +18,15 @@ internal sealed class StatusCommand : ICommand
         var options = context.LoadOptions(rootsRequired: false);
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.Open(options, "indexkeeper status");
-            return StatusReport.Build(session);
+            using var composed = CommandContext.Open(options, Name);
+            return composed.Get<StatusOperation>().Read();
         }, daemon => daemon.Get<StatusReport>("/api/status"));
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-            return 0;
-        }
+        return context.Print(report, Write);
+    }
 
+    private static void Write(TextWriter o, StatusReport report)
+    {
         var c = CultureInfo.InvariantCulture;
-        var o = Console.Out;
         o.WriteLine($"Index {report.IndexDirectory}");
         o.WriteLine(string.Create(c, $"  documents    {report.Documents} live, {report.Quarantined} quarantined"));
         o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
@@ -55,7 +53,5 @@ internal sealed class StatusCommand : ICommand
                 o.WriteLine($"  {q.Root}/{q.Path}  {q.Reason}: {q.Message}");
             }
         }
-
-        return 0;
     }
 }
