@@ -65,7 +65,12 @@ internal static class Program
             Error(ex.Message + " It is the daemon: it keeps the index fresh itself; status, search and plan ask it, other commands need it stopped.");
             return 1;
         }
-        catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException)
+        catch (IndexMissingException ex)
+        {
+            Error(ex.Message);
+            return 2;
+        }
+        catch (Exception ex) when (ex is IndexLockedException or CatalogVersionException or CatalogDamagedException)
         {
             Error(ex.Message);
             return 1;

@@ -1,4 +1,6 @@
 using System.Globalization;
+using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;

@@ -1,8 +1,8 @@
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Demo;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 

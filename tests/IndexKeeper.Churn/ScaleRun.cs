@@ -3,7 +3,6 @@ using System.Globalization;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Churn.Strategies;
 using IndexKeeper.Demo;
-using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Churn;

@@ -1,5 +1,6 @@
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Output;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 
@@ -16,8 +17,22 @@ internal sealed class CommandContext(ParsedArguments arguments)
     public IndexKeeperOptions LoadOptions(bool rootsRequired = true) =>
         OptionsLoader.Load(new ConfigurationSources(Arguments.ConfigFile, Arguments.IndexDirectory, Arguments.Roots, Arguments.Overrides), rootsRequired);
 
-    /// <summary>Loads the settings and opens the index for <paramref name="command"/>, its use cases wired.</summary>
-    public IndexComposition Open(string command, bool rootsRequired = true) => Open(LoadOptions(rootsRequired), command);
+    /// <summary>
+    /// Settings for a command that reads or tends an index that must already exist: a mistyped --index or a
+    /// lost catalog is an error (exit 2) and nothing is created (<see cref="ExistingIndex"/>).
+    /// </summary>
+    public IndexKeeperOptions LoadForExistingIndex(bool rootsRequired = false)
+    {
+        var options = LoadOptions(rootsRequired);
+        ExistingIndex.Require(options.IndexDirectory);
+        return options;
+    }
+
+    /// <summary>Loads the settings and opens (or creates) the index for <paramref name="command"/>, its use cases wired.</summary>
+    public IndexComposition Open(string command) => Open(LoadOptions(), command);
+
+    /// <summary>As <see cref="Open(string)"/>, for an index that must already exist (<see cref="LoadForExistingIndex"/>).</summary>
+    public IndexComposition OpenExisting(string command, bool rootsRequired = false) => Open(LoadForExistingIndex(rootsRequired), command);
 
     public static IndexComposition Open(IndexKeeperOptions options, string command) => IndexComposition.Open(options, "indexkeeper " + command);
 

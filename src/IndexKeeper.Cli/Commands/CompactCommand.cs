@@ -14,7 +14,7 @@ internal sealed class CompactCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        using var composed = context.Open(Name);
+        using var composed = context.OpenExisting(Name);
         var report = composed.Get<CompactOperation>().Run(cancellationToken);
         return context.Print(report, (o, r) => o.WriteLine(string.Create(
             CultureInfo.InvariantCulture,

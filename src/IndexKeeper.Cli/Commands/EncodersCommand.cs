@@ -27,7 +27,7 @@ internal sealed class EncodersCommand : ICommand
         var check = context.Arguments.Flags.Contains(CheckCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
-        using var composed = context.Open(Name, rootsRequired: check);
+        using var composed = context.OpenExisting(Name, rootsRequired: check);
         var encoders = composed.Get<EncodersOperation>();
         CanaryFigures? figures = check ? encoders.CheckCanaries(cancellationToken) : null;
 

@@ -29,7 +29,7 @@ internal sealed class SearchCommand : ICommand
             throw new UsageException($"-k {kText}: give a whole number.");
         }
 
-        var options = context.LoadOptions(rootsRequired: false);
+        var options = context.LoadForExistingIndex();
         if (QueryCaps.Problem(text, k, options.Query) is { } problem)
         {
             throw new UsageException(problem);

@@ -15,7 +15,7 @@ internal sealed class StatusCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadOptions(rootsRequired: false);
+        var options = context.LoadForExistingIndex();
         var report = ThroughDaemon.Ask(options, () =>
         {
             using var composed = CommandContext.Open(options, Name);

@@ -14,7 +14,7 @@ internal sealed class VerifyCommand : ICommand
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        using var composed = context.Open(Name);
+        using var composed = context.OpenExisting(Name);
         var report = composed.Get<VerifyOperation>().Run(cancellationToken);
         return context.Print(report, Write, report.Clean ? 0 : 1);
     }

@@ -46,10 +46,10 @@ public sealed class IndexCatalog : IDisposable
     {
         ArgumentNullException.ThrowIfNull(heldLock);
         var path = Path.Combine(heldLock.Directory, CatalogSchema.FileName);
-        var database = new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct }, Mapper());
+        var database = Damaged(path, () => new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct }, Mapper()));
         try
         {
-            CheckSchema(database, path);
+            Damaged(path, () => CheckSchema(database, path));
             var catalog = new IndexCatalog(database);
             var s = catalog.store;
             s.Documents.EnsureIndex(d => d.FileHash);
@@ -90,10 +90,10 @@ public sealed class IndexCatalog : IDisposable
             return new IndexCatalog(new LiteDatabase(new MemoryStream(), Mapper()));
         }
 
-        var database = new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct, ReadOnly = true }, Mapper());
+        var database = Damaged(path, () => new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct, ReadOnly = true }, Mapper()));
         try
         {
-            var schema = database.GetCollection(CatalogSchema.Meta).FindById(CatalogSchema.SchemaMetaId);
+            var schema = Damaged(path, () => database.GetCollection(CatalogSchema.Meta).FindById(CatalogSchema.SchemaMetaId));
             var version = schema?["version"].AsInt32 ?? 0;
             if (version is < 1 or > CatalogSchema.Version)
             {
@@ -347,6 +347,32 @@ public sealed class IndexCatalog : IDisposable
     public void Dispose() => store.Dispose();
 
     private static BsonMapper Mapper() => new() { EnumAsInteger = true };
+
+    /// <summary>
+    /// Opens or reads the file, turning any complaint of LiteDB about bytes it cannot parse into an error that
+    /// names the file and the way back (docs/recovery.md) instead of a stack trace. Nothing is repaired here.
+    /// </summary>
+    private static T Damaged<T>(string path, Func<T> open)
+    {
+        try
+        {
+            return open();
+        }
+        catch (Exception ex) when (ex is not (IOException or UnauthorizedAccessException or OutOfMemoryException or CatalogVersionException))
+        {
+            // LiteDB reports bytes it cannot parse in many ways (its own exception, a date out of range, a bad
+            // cast); at open every one of them means the file is not a readable catalog.
+            throw new CatalogDamagedException(
+                $"The catalog '{path}' cannot be read ({ex.Message}). Nothing was changed. Keep a copy of it, then restore it from a backup or rebuild it from the segments and the roots (docs/recovery.md).",
+                ex);
+        }
+    }
+
+    private static void Damaged(string path, Action read) => Damaged(path, () =>
+    {
+        read();
+        return true;
+    });
 
     /// <summary>REQUIRES: inside a transaction of the caller.</summary>
     private void Retire(string encoderId, DateTime nowUtc)

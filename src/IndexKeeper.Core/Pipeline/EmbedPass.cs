@@ -1,9 +1,8 @@
 using System.Diagnostics;
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Queue;
-using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Pipeline;

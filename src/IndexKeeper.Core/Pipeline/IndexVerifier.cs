@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Core.Pipeline;

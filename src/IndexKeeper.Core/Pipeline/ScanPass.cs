@@ -56,16 +56,14 @@ public sealed class ScanPass
             state.Changes,
             state.NewPages.Keys.Select(k => k.Hex).ToList(),
             removed,
-            state.NewPages.Values.Where(p => !ReferenceEquals(p, PassState.Placeholder)).ToList());
+            state.NewPages.Values.Where(p => !ReferenceEquals(p, ScanPassState.Placeholder)).ToList());
     }
 
-    private PassState Pass(string? command, bool dryRun, CancellationToken cancellationToken)
+    private ScanPassState Pass(string? command, bool dryRun, CancellationToken cancellationToken)
     {
         using var activity = CoreTelemetry.Traces.StartActivity("scan");
         activity?.SetTag("indexkeeper.scan.kind", "full");
-        var started = clock.GetUtcNow().UtcDateTime;
-        var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog, dryRun);
+        var state = Begin(dryRun);
         var found = new List<FoundFile>();
         var walkedRoots = new List<RootSpec>();
         foreach (var root in settings.Roots)
@@ -97,26 +95,7 @@ public sealed class ScanPass
             state.Known(root.Name);
         }
 
-        var settling = new List<FoundFile>();
-        var done = 0L;
-        foreach (var file in found)
-        {
-            cancellationToken.ThrowIfCancellationRequested();
-            state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
-            if (!dryRun && IsSettling(file.Stat))
-            {
-                settling.Add(file);
-            }
-            else
-            {
-                Process(state, file, cancellationToken);
-            }
-
-            progress?.Report(new ScanProgress("checking", ++done, found.Count, file.RelativePath));
-            FlushIfFull(state);
-        }
-
-        ProcessSettled(state, settling, cancellationToken);
+        ProcessFound(state, found, reportProgress: true, cancellationToken);
         foreach (var root in walkedRoots)
         {
             foreach (var gone in state.Known(root.Name).Values.Where(d => !state.Seen.Contains(d.Id) && !state.IsUnknown(d)).ToList())
@@ -126,7 +105,7 @@ public sealed class ScanPass
             }
         }
 
-        return Finish(state, command, started, stopwatch);
+        return Finish(state, command);
     }
 
     /// <summary>
@@ -141,9 +120,7 @@ public sealed class ScanPass
         using var activity = CoreTelemetry.Traces.StartActivity("scan");
         activity?.SetTag("indexkeeper.scan.kind", "targeted");
         activity?.SetTag("indexkeeper.paths", paths.Count);
-        var started = clock.GetUtcNow().UtcDateTime;
-        var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog, dryRun: false);
+        var state = Begin(dryRun: false);
         var found = new List<FoundFile>();
         var gone = new List<DocumentRecord>();
         foreach (var path in paths.Distinct())
@@ -177,24 +154,7 @@ public sealed class ScanPass
         }
 
         state.Summary.DocumentsSeen = found.Count;
-        var settling = new List<FoundFile>();
-        foreach (var file in found)
-        {
-            cancellationToken.ThrowIfCancellationRequested();
-            state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
-            if (IsSettling(file.Stat))
-            {
-                settling.Add(file);
-            }
-            else
-            {
-                Process(state, file, cancellationToken);
-            }
-
-            FlushIfFull(state);
-        }
-
-        ProcessSettled(state, settling, cancellationToken);
+        ProcessFound(state, found, reportProgress: false, cancellationToken);
 
         // New paths first, deletions after: a move's new path then finds the old one as a copy source.
         foreach (var document in gone)
@@ -203,7 +163,7 @@ public sealed class ScanPass
             FlushIfFull(state);
         }
 
-        return Finish(state, command, started, stopwatch).Summary;
+        return Finish(state, command).Summary;
     }
 
     /// <summary>
@@ -212,9 +172,7 @@ public sealed class ScanPass
     /// </summary>
     public ScanSummary RunForgetRoot(string command, string rootName, CancellationToken cancellationToken)
     {
-        var started = clock.GetUtcNow().UtcDateTime;
-        var stopwatch = Stopwatch.StartNew();
-        var state = new PassState(catalog, dryRun: false);
+        var state = Begin(dryRun: false);
         foreach (var document in catalog.Documents.OfRoot(rootName).ToList())
         {
             cancellationToken.ThrowIfCancellationRequested();
@@ -222,10 +180,44 @@ public sealed class ScanPass
             FlushIfFull(state);
         }
 
-        return Finish(state, command, started, stopwatch).Summary;
+        return Finish(state, command).Summary;
     }
 
-    private PassState Finish(PassState state, string? command, DateTime started, Stopwatch stopwatch)
+    private ScanPassState Begin(bool dryRun) => new(catalog, dryRun, clock.GetUtcNow().UtcDateTime);
+
+    /// <summary>
+    /// Checks and reads every found file (both kinds of pass): files still being written are put aside and
+    /// taken once they have been quiet for the settle time; a dry run does not wait for them.
+    /// </summary>
+    private void ProcessFound(ScanPassState state, IReadOnlyList<FoundFile> found, bool reportProgress, CancellationToken cancellationToken)
+    {
+        var settling = new List<FoundFile>();
+        var done = 0L;
+        foreach (var file in found)
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            state.Seen.Add(DocumentRecord.MakeId(file.Root, file.RelativePath));
+            if (!state.DryRun && IsSettling(file.Stat))
+            {
+                settling.Add(file);
+            }
+            else
+            {
+                Process(state, file, cancellationToken);
+            }
+
+            if (reportProgress)
+            {
+                progress?.Report(new ScanProgress("checking", ++done, found.Count, file.RelativePath));
+            }
+
+            FlushIfFull(state);
+        }
+
+        ProcessSettled(state, settling, cancellationToken);
+    }
+
+    private ScanPassState Finish(ScanPassState state, string? command)
     {
         Flush(state);
         state.Summary.PagesNew = state.Ledger.PagesNew;
@@ -236,10 +228,10 @@ public sealed class ScanPass
             state.Summary.PagesRemoved = catalog.RemoveUnreferencedPages();
         }
 
-        state.Summary.ElapsedSeconds = stopwatch.Elapsed.TotalSeconds;
+        state.Summary.ElapsedSeconds = state.Stopwatch.Elapsed.TotalSeconds;
         if (!state.DryRun)
         {
-            catalog.History.Add(ToRecord(command!, started, state.Summary));
+            catalog.History.Add(ToRecord(command!, state.StartedUtc, state.Summary));
             CoreTelemetry.ScanDuration.Record(state.Summary.ElapsedSeconds);
         }
 
@@ -281,7 +273,7 @@ public sealed class ScanPass
         settings.Settle > TimeSpan.Zero && clock.GetUtcNow().UtcTicks - stat.ModifiedTicksUtc < settings.Settle.Ticks;
 
     /// <summary>Waits once for the youngest file to be quiet for the settle time, then takes those that stayed still.</summary>
-    private void ProcessSettled(PassState state, List<FoundFile> settling, CancellationToken cancellationToken)
+    private void ProcessSettled(ScanPassState state, List<FoundFile> settling, CancellationToken cancellationToken)
     {
         if (settling.Count == 0)
         {
@@ -308,7 +300,7 @@ public sealed class ScanPass
         }
     }
 
-    private void Process(PassState state, FoundFile file, CancellationToken cancellationToken)
+    private void Process(ScanPassState state, FoundFile file, CancellationToken cancellationToken)
     {
         var summary = state.Summary;
         var existing = state.Find(file.Root, DocumentRecord.MakeId(file.Root, file.RelativePath));
@@ -399,7 +391,7 @@ public sealed class ScanPass
             foreach (var page in document.Pages.Where(p => fresh.Remove(p.Key)))
             {
                 // A dry run never writes pages: it keeps words only for the few it may time the encoder on.
-                state.NewPages[page.Key] = !state.DryRun || state.NewPages.Count < ScanPreview.SampleSize ? PageRecords.From(page, file, now) : PassState.Placeholder;
+                state.NewPages[page.Key] = !state.DryRun || state.NewPages.Count < ScanPreview.SampleSize ? PageRecords.From(page, file, now) : ScanPassState.Placeholder;
             }
         }
 
@@ -431,7 +423,7 @@ public sealed class ScanPass
     }
 
     /// <summary>Reads a document; null when it changed while being read (deferred to the next pass).</summary>
-    private (DocumentContent? Content, DocumentReadException? Quarantine)? Read(PassState state, FoundFile file, FileStat hashedStat, CancellationToken cancellationToken)
+    private (DocumentContent? Content, DocumentReadException? Quarantine)? Read(ScanPassState state, FoundFile file, FileStat hashedStat, CancellationToken cancellationToken)
     {
         if (file.Stat.Size > settings.Limits.MaxFileBytes)
         {
@@ -461,7 +453,7 @@ public sealed class ScanPass
         return result;
     }
 
-    private void Delete(PassState state, DocumentRecord gone)
+    private void Delete(ScanPassState state, DocumentRecord gone)
     {
         var keys = gone.State == DocumentState.Live ? gone.PageKeys.Select(PageKey.Parse).ToList() : [];
         state.Ledger.Replace(keys, []);
@@ -474,7 +466,7 @@ public sealed class ScanPass
         }
     }
 
-    private void FlushIfFull(PassState state)
+    private void FlushIfFull(ScanPassState state)
     {
         if (state.Edit.PutDocuments.Count + state.Edit.DeleteDocuments.Count >= settings.BatchSize)
         {
@@ -482,7 +474,7 @@ public sealed class ScanPass
         }
     }
 
-    private void Flush(PassState state)
+    private void Flush(ScanPassState state)
     {
         if (state.DryRun)
         {
@@ -529,112 +521,4 @@ public sealed class ScanPass
             ["pagesRemoved"] = summary.PagesRemoved,
         },
     };
-
-    /// <summary>Mutable state of one pass; never shared between passes.</summary>
-    private sealed class PassState(IndexCatalog catalog, bool dryRun)
-    {
-        /// <summary>Stands in for the pages of a dry run beyond the timing sample.</summary>
-        public static PageRecord Placeholder { get; } = new();
-
-        public bool DryRun { get; } = dryRun;
-
-        public ScanSummary Summary { get; } = new();
-
-        /// <summary>Per-document changes, kept only in a dry run (the plan's breakdown).</summary>
-        public List<PreviewChange> Changes { get; } = [];
-
-        public void Note(FoundFile file, ChangeKind kind, int pages, int freshPages)
-        {
-            if (DryRun)
-            {
-                Changes.Add(new PreviewChange(file.Root, file.RelativePath, kind, freshPages, pages - freshPages));
-            }
-        }
-
-        public PageLedger Ledger { get; } = new(key => catalog.Pages.Find(key.Hex)?.References);
-
-        public CatalogEdit Edit { get; set; } = new();
-
-        public HashSet<string> Seen { get; } = new(StringComparer.Ordinal);
-
-        private Dictionary<string, Dictionary<string, DocumentRecord>> KnownByRoot { get; } = new(StringComparer.Ordinal);
-
-        /// <summary>
-        /// The catalog's documents of a root as they were when the pass began, read once: one lookup
-        /// per file costs more than the stat of the quick check. Each document is looked at once per pass.
-        /// </summary>
-        /// <summary>
-        /// The catalog's document at an id: from the root's documents when a full pass has read them,
-        /// else looked up alone (a targeted pass touches a few paths of a large root).
-        /// </summary>
-        public DocumentRecord? Find(string root, string id)
-        {
-            if (KnownByRoot.TryGetValue(root, out var known))
-            {
-                return known.GetValueOrDefault(id);
-            }
-
-            if (!SingleLookups.TryGetValue(id, out var document))
-            {
-                document = catalog.Documents.Find(root, id[(root.Length + 1)..]);
-                SingleLookups[id] = document;
-            }
-
-            return document;
-        }
-
-        private Dictionary<string, DocumentRecord?> SingleLookups { get; } = new(StringComparer.Ordinal);
-
-        public Dictionary<string, DocumentRecord> Known(string root)
-        {
-            if (!KnownByRoot.TryGetValue(root, out var known))
-            {
-                known = catalog.Documents.OfRoot(root).ToDictionary(d => d.Id, StringComparer.Ordinal);
-                KnownByRoot[root] = known;
-            }
-
-            return known;
-        }
-
-        /// <summary>Paths the walk could not see (permissions, vanished folders): their documents are kept.</summary>
-        public List<WalkProblem> Unknown { get; } = [];
-
-        /// <summary>Records a walk problem; true when it means the whole root is missing.</summary>
-        public bool Report(WalkProblem problem)
-        {
-            Summary.Problems.Add($"{problem.Root}/{problem.RelativePath}: {problem.Kind}: {problem.Detail}");
-            if (problem.LeavesUnknown)
-            {
-                Unknown.Add(problem);
-            }
-
-            return problem.Kind is WalkProblemKind.RootMissing or WalkProblemKind.RootInaccessible;
-        }
-
-        public bool IsUnknown(DocumentRecord document) => Unknown.Any(u =>
-            u.Root == document.Root && (u.RelativePath == document.Path || (u.CoversSubtree && (u.RelativePath.Length == 0 || document.Path.StartsWith(u.RelativePath + "/", StringComparison.Ordinal)))));
-
-
-        /// <summary>Pages first seen in this pass, waiting for the flush that adds them.</summary>
-        public Dictionary<PageKey, PageRecord> NewPages { get; } = [];
-
-        /// <summary>Documents written in this pass by file hash, so a second copy in the same batch is not read again.</summary>
-        public Dictionary<string, DocumentRecord> KnownHashes { get; } = new(StringComparer.Ordinal);
-
-        public HashSet<string> NewHashes { get; } = new(StringComparer.Ordinal);
-
-        public HashSet<string> DeletedHashes { get; } = new(StringComparer.Ordinal);
-
-        public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.Pages.Find(key.Hex) is not null;
-
-        public DocumentRecord? FindCopySource(string hash)
-        {
-            if (KnownHashes.TryGetValue(hash, out var known))
-            {
-                return known.State == DocumentState.Live ? known : null;
-            }
-
-            return catalog.Documents.LiveWithFileHash(hash).FirstOrDefault();
-        }
-    }
 }

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Drift;
+using IndexKeeper.Core.Pipeline;
 
 namespace IndexKeeper.Service.Application;
 

@@ -1,5 +1,4 @@
 using IndexKeeper.Core.Compaction;
-using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Service.Application;
 

@@ -2,7 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Core.Encoding;
-using IndexKeeper.Core.Storage;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Application;

@@ -1,10 +1,8 @@
 using System.Diagnostics;
 using System.ServiceProcess;
-using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
-using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;

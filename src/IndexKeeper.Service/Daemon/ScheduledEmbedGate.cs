@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 

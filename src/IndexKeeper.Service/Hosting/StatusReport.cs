@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Catalog;
 
 namespace IndexKeeper.Service.Hosting;
 

@@ -1,5 +1,4 @@
 using IndexKeeper.Core.Queue;
-using IndexKeeper.Core.Scheduling;
 
 namespace IndexKeeper.Service.Planning;
 

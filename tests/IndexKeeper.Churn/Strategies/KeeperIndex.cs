@@ -1,7 +1,8 @@
 using System.Diagnostics;
 using System.Globalization;
+using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Application;

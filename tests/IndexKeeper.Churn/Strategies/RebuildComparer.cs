@@ -1,8 +1,8 @@
 using System.Diagnostics;
 using System.Runtime.InteropServices;
 using IndexKeeper.Churn.Report;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Demo;
-using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Querying;
 

@@ -1,6 +1,5 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Queue;
-using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Catalog;

@@ -1,6 +1,7 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Storage;

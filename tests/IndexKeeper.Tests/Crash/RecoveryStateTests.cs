@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Storage;
 

@@ -1,4 +1,3 @@
-using System.Text;
 using IndexKeeper.Core.Detect;
 
 namespace IndexKeeper.Tests.Detect;

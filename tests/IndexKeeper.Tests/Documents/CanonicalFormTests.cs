@@ -1,5 +1,4 @@
 using System.Text.RegularExpressions;
-using System.Text;
 using IndexKeeper.Core.Documents.Pdf;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Tests.Support;

@@ -1,5 +1,4 @@
 using System.IO.Compression;
-using System.Text;
 using IndexKeeper.Core.Documents;
 
 namespace IndexKeeper.Tests.Documents;

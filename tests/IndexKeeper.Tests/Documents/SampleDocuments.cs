@@ -1,5 +1,4 @@
 using System.Globalization;
-using System.Text;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 using UglyToad.PdfPig.Content;

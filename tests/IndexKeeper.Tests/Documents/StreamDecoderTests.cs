@@ -1,5 +1,4 @@
 using System.IO.Compression;
-using System.Text;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Pdf;
 using IndexKeeper.Core.Documents.Pdf.Filters;

@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Documents;
 using UglyToad.PdfPig.Content;
 using UglyToad.PdfPig.Core;
 using UglyToad.PdfPig.Fonts.Standard14Fonts;

@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Service.Application;
+using IndexKeeper.Core.Pipeline;
 
 namespace IndexKeeper.Tests.Drift;
 

@@ -1,7 +1,7 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Search;
-using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Storage;
 
 namespace IndexKeeper.Tests.Search;

@@ -1,4 +1,3 @@
-using System.Text;
 using IndexKeeper.Core.Documents;
 
 namespace IndexKeeper.Tests.Support;

@@ -1,6 +1,5 @@
 using System.Buffers.Binary;
 using System.Security.Cryptography;
-using System.Text;
 using TextEncoding = System.Text.Encoding;
 
 namespace IndexKeeper.Core.Documents.Ocr;

@@ -1,6 +1,5 @@
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
-using IndexKeeper.Tests.Documents;
 using IndexKeeper.Tests.Support;
 using Microsoft.Extensions.Configuration;
 

@@ -2,9 +2,10 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
 
-namespace IndexKeeper.Core.Storage;
+namespace IndexKeeper.Core.Index;
 
 /// <summary>
 /// The segments of one index joined to its catalog: appends vector sets and commits them, opens live
@@ -21,7 +22,7 @@ namespace IndexKeeper.Core.Storage;
 /// </remarks>
 public sealed class VectorStore : IDisposable
 {
-    public const string SegmentsFolder = "segments";
+    public const string SegmentsFolder = ExistingIndex.SegmentsFolder;
 
     private readonly IndexCatalog catalog;
     private readonly SegmentWriterOptions writerOptions;

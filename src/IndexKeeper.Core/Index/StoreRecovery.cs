@@ -1,6 +1,7 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Storage;
 
-namespace IndexKeeper.Core.Storage;
+namespace IndexKeeper.Core.Index;
 
 /// <summary>
 /// Brings the segment folder back in line with the catalog after a crash (run at every open, cheap when

@@ -1,9 +1,10 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Encoding;
-using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 
-namespace IndexKeeper.Core.Drift;
+namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
 /// Silent drift (docs/encoders.md, "Canaries"): re-embeds the canary pages with the active encoder and

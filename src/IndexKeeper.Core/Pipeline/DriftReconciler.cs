@@ -1,7 +1,8 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Encoding;
 
-namespace IndexKeeper.Core.Drift;
+namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
 /// Joins <see cref="DriftPolicy"/> to the catalog: records the active encoder, reads the facts, applies the
