@@ -5,12 +5,16 @@ namespace IndexKeeper.Core.Index;
 
 /// <summary>
 /// Brings the segment folder back in line with the catalog after a crash (run at every open, cheap when
-/// clean): removes temp files and segments the catalog never committed, cuts bytes past an open segment's
+/// clean): removes unfinished compaction outputs, sets segments the catalog never committed aside in
+/// <c>segments/orphaned/</c> (never deletes them: the catalog may be an older copy), cuts bytes past an open segment's
 /// committed length (a torn or uncommitted tail, or a seal the catalog never recorded), and queues again
 /// the pages of vector sets whose bytes are gone.
 /// </summary>
 internal static class StoreRecovery
 {
+    /// <summary>The folder inside <c>segments/</c> where files no catalog commit references are set aside.</summary>
+    public const string OrphanedFolder = "orphaned";
+
     public static IReadOnlyList<string> Run(IndexCatalog catalog, string directory)
     {
         var repairs = new List<string>();
@@ -23,11 +27,18 @@ internal static class StoreRecovery
                 continue;
             }
 
-            if (isTemp || !known.ContainsKey(id))
+            if (isTemp)
             {
+                // A compaction output before its swap: a copy of vectors its inputs still hold.
                 MakeWritable(path);
                 File.Delete(path);
-                repairs.Add(isTemp ? $"removed unfinished compaction output {name}" : $"removed segment {name}, which no catalog commit references");
+                repairs.Add($"removed unfinished compaction output {name}");
+            }
+            else if (!known.ContainsKey(id))
+            {
+                // Most often a segment a crash left before its first commit; but after a catalog restored from
+                // an older backup it holds real vectors, so it is set aside, never deleted on that guess.
+                repairs.Add($"moved segment {name}, which no catalog commit references, to {OrphanedFolder}/{SetAside(directory, path)}");
             }
         }
 
@@ -78,6 +89,21 @@ internal static class StoreRecovery
         using var stream = new FileStream(path, FileMode.Open, FileAccess.Write, FileShare.Read);
         stream.SetLength(length);
         stream.Flush(flushToDisk: true);
+    }
+
+    /// <summary>Moves a file into the orphaned folder under a name not yet taken there; returns that name.</summary>
+    private static string SetAside(string directory, string path)
+    {
+        var folder = Path.Combine(directory, OrphanedFolder);
+        System.IO.Directory.CreateDirectory(folder);
+        var name = Path.GetFileName(path);
+        for (var n = 1; File.Exists(Path.Combine(folder, name)); n++)
+        {
+            name = Path.GetFileName(path) + "." + n.ToString(System.Globalization.CultureInfo.InvariantCulture);
+        }
+
+        File.Move(path, Path.Combine(folder, name));
+        return name;
     }
 
     private static void MakeWritable(string path)

@@ -55,12 +55,26 @@ public sealed class VectorStore : IDisposable
     }
 
     /// <summary>
+    /// Opens the segments for reading only (search, status): no folder is created, nothing is repaired, and
+    /// every method that would write refuses. What a crash left is repaired by the next writing open.
+    /// </summary>
+    public static VectorStore OpenForReading(IndexCatalog catalog, string indexDirectory)
+    {
+        ArgumentNullException.ThrowIfNull(catalog);
+        return new VectorStore(catalog, Path.Combine(indexDirectory, SegmentsFolder), new SegmentWriterOptions()) { ReadOnly = true };
+    }
+
+    /// <summary>Opened by <see cref="OpenForReading"/>: appends, seals and compaction refuse.</summary>
+    public bool ReadOnly { get; private init; }
+
+    /// <summary>
     /// Appends a batch of vector sets of one encoder, makes the bytes durable, then commits them to the
     /// catalog with the queue entries they satisfy. On an I/O failure (disk full) nothing of the batch is
     /// committed and the open segment is cut back to its committed length at the next append.
     /// </summary>
     public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
     {
+        RefuseIfReadOnly();
         ArgumentNullException.ThrowIfNull(encoder);
         ArgumentNullException.ThrowIfNull(batch);
         if (batch.Count == 0)
@@ -123,6 +137,7 @@ public sealed class VectorStore : IDisposable
     /// <summary>Seals every open segment (at shutdown, or before compaction takes them).</summary>
     public void SealAll()
     {
+        RefuseIfReadOnly();
         lock (writerGate)
         {
             SealAllLocked();
@@ -211,6 +226,7 @@ public sealed class VectorStore : IDisposable
     /// </summary>
     public CompactionReport Compact(CompactionOptions options, CancellationToken cancellationToken)
     {
+        RefuseIfReadOnly();
         ArgumentNullException.ThrowIfNull(options);
         var jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
         if (jobs.Count > 0)
@@ -290,6 +306,14 @@ public sealed class VectorStore : IDisposable
         }
 
         files.Dispose();
+    }
+
+    private void RefuseIfReadOnly()
+    {
+        if (ReadOnly)
+        {
+            throw new InvalidOperationException("This segment store was opened for reading only; a command that writes opens it with Open.");
+        }
     }
 
     private static RecordLocation ToLocation(VectorSetRecord v) => new(v.SegmentId, v.Offset, v.Length, unchecked((uint)v.Checksum));

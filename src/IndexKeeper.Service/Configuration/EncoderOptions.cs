@@ -1,3 +1,5 @@
+using IndexKeeper.Core.Encoding.PageImages;
+
 namespace IndexKeeper.Service.Configuration;
 
 /// <summary>Which encoder is active, and its settings. A change of any setting is a new encoder id.</summary>
@@ -23,5 +25,5 @@ public sealed class EncoderOptions
     public int IntraOpThreads { get; set; }
 
     /// <summary>Settings of the <c>page-image</c> encoder; read only when it is the active one.</summary>
-    public PageImageOptions PageImage { get; set; } = new();
+    public PageImageModelOptions PageImage { get; set; } = new();
 }

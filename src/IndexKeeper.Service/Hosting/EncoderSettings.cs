@@ -43,7 +43,7 @@ public static class EncoderSettings
         {
             try
             {
-                pageImage = JsonSerializer.Deserialize<PageImageOptions>(pageImageJson) ?? pageImage;
+                pageImage = JsonSerializer.Deserialize<PageImageModelOptions>(pageImageJson) ?? pageImage;
             }
             catch (JsonException)
             {

@@ -28,7 +28,7 @@ public sealed class CrashKillTests(ITestOutputHelper output)
     private static readonly string[] AllowedRepairs =
     [
         "at open: removed unfinished compaction output ",
-        "at open: removed segment ",
+        "at open: moved segment ",
         "at open: cut ",
     ];
 
@@ -112,6 +112,14 @@ public sealed class CrashKillTests(ITestOutputHelper output)
             var verifyClock = System.Diagnostics.Stopwatch.StartNew();
             var verify = CliRunner.Run(scratch.Path, ["verify", .. common, "--json"]);
             var verifySeconds = verifyClock.Elapsed.TotalSeconds;
+            if (verify.ExitCode == 2 && verify.Stderr.Contains("There is no index", StringComparison.Ordinal))
+            {
+                // Killed before the first catalog existed: verify creates no index, and nothing was committed yet.
+                Assert.Empty(liveBefore);
+                output.WriteLine($"round {round,2}: {target}: killed before the index existed");
+                continue;
+            }
+
             var report = JsonDocument.Parse(verify.Stdout).RootElement;
             var repairs = Strings(report, "repairs");
             var problems = Strings(report, "problems");

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Storage;
@@ -68,7 +69,7 @@ public sealed class RecoveryStateTests
     }
 
     [Fact]
-    public void Orphan_segments_and_unfinished_compaction_outputs_are_removed()
+    public void Orphan_segments_are_set_aside_and_unfinished_compaction_outputs_removed()
     {
         using var directory = new Support.TempDirectory();
         Prepare(directory.Path, committed: 8, queued: 0);
@@ -79,10 +80,43 @@ public sealed class RecoveryStateTests
         File.WriteAllBytes(SegmentFileNames.TempPathOf(segments, 901), new SegmentHeader(901, OpenIndex.Encoder.Id, 64, DateTimeOffset.UtcNow).Encode());
         using var index = new OpenIndex(directory.Path);
         Assert.Equal(
-            [$"removed segment {SegmentFileNames.Name(900)}, which no catalog commit references", $"removed unfinished compaction output {SegmentFileNames.TempName(901)}"],
+            [$"moved segment {SegmentFileNames.Name(900)}, which no catalog commit references, to orphaned/{SegmentFileNames.Name(900)}", $"removed unfinished compaction output {SegmentFileNames.TempName(901)}"],
             index.Store.Repairs.Order(StringComparer.Ordinal));
         Assert.Equal([SegmentFileNames.PathOf(segments, index.Catalog.Segments.All()[0].Id)], Directory.GetFiles(segments));
+        Assert.Equal([Path.Combine(segments, "orphaned", SegmentFileNames.Name(900))], Directory.GetFiles(Path.Combine(segments, "orphaned")));
         AssertServes(index, committed: 8, queued: 0);
+    }
+
+    [Fact]
+    public void A_store_opened_for_reading_repairs_nothing_and_still_serves()
+    {
+        using var directory = new Support.TempDirectory();
+        var segment = Prepare(directory.Path, committed: 8, queued: 4);
+        var segments = Path.GetDirectoryName(segment)!;
+
+        // What a crash leaves: an uncommitted tail and an orphan. A reader must see the committed state and change no byte.
+        using (var writer = SegmentWriter.Reopen(segment))
+        {
+            writer.Append(TestVectors.Key(8), TestVectors.Set(8, 12));
+        }
+
+        SegmentWriter.Create(segments, new SegmentHeader(900, OpenIndex.Encoder.Id, 64, DateTimeOffset.UtcNow)).Dispose();
+        var before = Directory.GetFiles(segments).Order(StringComparer.Ordinal).Select(f => (f, Convert.ToHexString(File.ReadAllBytes(f)))).ToList();
+        using (var held = IndexLock.Acquire(directory.Path, "reading test"))
+        using (var catalog = IndexCatalog.OpenReadOnly(held))
+        using (var store = VectorStore.OpenForReading(catalog, directory.Path))
+        {
+            Assert.Empty(store.Repairs);
+            using (var live = store.OpenLive(OpenIndex.Encoder.Id))
+            {
+                Assert.Equal(8, live.Source.Count);
+            }
+
+            Assert.Throws<InvalidOperationException>(() => store.AppendAndCommit(OpenIndex.Encoder, [(TestVectors.Key(9), TestVectors.Set(9, 12))]));
+            Assert.Throws<InvalidOperationException>(store.SealAll);
+        }
+
+        Assert.Equal(before, Directory.GetFiles(segments).Order(StringComparer.Ordinal).Select(f => (f, Convert.ToHexString(File.ReadAllBytes(f)))).ToList());
     }
 
     /// <summary>Pages 0.. of which the first <paramref name="committed"/> get vectors; returns the open segment's path, closed cleanly.</summary>

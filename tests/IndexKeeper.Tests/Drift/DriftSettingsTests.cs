@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Encoding.PageImages;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 
@@ -32,8 +33,8 @@ public sealed class DriftSettingsTests
         Assert.Null(EncoderSettings.Rebuild(new Dictionary<string, string> { ["Name"] = "hashed-terms" }, new EncoderOptions()));
 
         // The page-image settings travel whole: the recorded model, not the one configured now, is rebuilt.
-        var image = new EncoderOptions { Name = "page-image", PageImage = new PageImageOptions { PageModel = "/srv/models/pages-v1.onnx", PixelMean = [0.5, 0.5, 0.5], RenderDpi = 96 } };
-        var rebuiltImage = EncoderSettings.Rebuild(EncoderSettings.Record(image), new EncoderOptions { PageImage = new PageImageOptions { PageModel = "/srv/models/pages-v2.onnx" } })!;
+        var image = new EncoderOptions { Name = "page-image", PageImage = new PageImageModelOptions { PageModel = "/srv/models/pages-v1.onnx", PixelMean = [0.5, 0.5, 0.5], RenderDpi = 96 } };
+        var rebuiltImage = EncoderSettings.Rebuild(EncoderSettings.Record(image), new EncoderOptions { PageImage = new PageImageModelOptions { PageModel = "/srv/models/pages-v2.onnx" } })!;
         Assert.Equal("/srv/models/pages-v1.onnx", rebuiltImage.PageImage.PageModel);
         Assert.Equal([0.5, 0.5, 0.5], rebuiltImage.PageImage.PixelMean);
         Assert.Equal(96, rebuiltImage.PageImage.RenderDpi);

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Encoding.PageImages;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using IndexKeeper.Tests.Support;
@@ -115,7 +116,7 @@ public sealed class PageImageConfigurationTests(PageImageModels models) : IClass
         Encoder = new EncoderOptions
         {
             Name = "page-image",
-            PageImage = new PageImageOptions
+            PageImage = new PageImageModelOptions
             {
                 PageModel = models.PageModel,
                 PageInput = PageImageModels.PageInput,
