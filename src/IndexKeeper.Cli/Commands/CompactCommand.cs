@@ -4,15 +4,11 @@ using IndexKeeper.Service.Application;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>compact</c>: run the compaction policy now and rewrite what it picks.</summary>
-internal sealed class CompactCommand : ICommand
+internal sealed class CompactCommand() : CommandBase(
+    "compact",
+    "rewrite segments whose dead share or small size makes it worthwhile, now")
 {
-    public string Name => "compact";
-
-    public string Summary => "rewrite segments whose dead share or small size makes it worthwhile, now";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         using var composed = context.OpenExisting(Name);
         var report = composed.Get<CompactOperation>().Run(cancellationToken);

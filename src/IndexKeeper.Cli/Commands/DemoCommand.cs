@@ -13,17 +13,13 @@ namespace IndexKeeper.Cli.Commands;
 /// plays a day of typical changes (an edit, a copy, a rename, a move, a delete, a touch, a metadata-only
 /// save, a new report, reordered pages), indexes again, and shows what each pass cost.
 /// </summary>
-internal sealed class DemoCommand : ICommand
+internal sealed class DemoCommand() : CommandBase(
+    "demo",
+    "builds a demo document store (an invented water utility) and runs the main job on it", "output")
 {
     private const string Marker = ".indexkeeper-demo";
 
-    public string Name => "demo";
-
-    public string Summary => "builds a demo document store (an invented water utility) and runs the main job on it";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string> { "output" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var directory = Path.GetFullPath(context.Arguments.Named.GetValueOrDefault("output", "indexkeeper-demo"));
         Prepare(directory);

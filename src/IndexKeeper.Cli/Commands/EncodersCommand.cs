@@ -10,24 +10,22 @@ namespace IndexKeeper.Cli.Commands;
 /// active (configured) or serving (ranks searches), migration progress and the last canary figures.
 /// <c>--check-canaries</c> re-embeds the canary pages with the active encoder first (docs/encoders.md).
 /// </summary>
-internal sealed class EncodersCommand : ICommand
+internal sealed class EncodersCommand() : CommandBase(
+    "encoders",
+    "encoder ids in the index: counts, active/serving, migration, canaries; --check-canaries checks now")
 {
     private const string CheckCanaries = "check-canaries";
 
-    public string Name => "encoders";
+    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { CheckCanaries };
 
-    public string Summary => "encoder ids in the index: counts, active/serving, migration, canaries; --check-canaries checks now";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public IReadOnlySet<string> Flags { get; } = new HashSet<string> { CheckCanaries };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var check = context.Arguments.Flags.Contains(CheckCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
-        using var composed = context.OpenExisting(Name, rootsRequired: check);
+        // Without a check nothing is written: the index is opened for reading only.
+        var options = context.LoadForExistingIndex(rootsRequired: check);
+        using var composed = check ? CommandContext.Open(options, Name) : CommandContext.OpenForReading(options, Name);
         var encoders = composed.Get<EncodersOperation>();
         CanaryFigures? figures = check ? encoders.CheckCanaries(cancellationToken) : null;
 

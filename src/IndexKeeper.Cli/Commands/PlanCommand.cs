@@ -6,25 +6,21 @@ using IndexKeeper.Service.Planning;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>plan [--calibrate]</c>: read-only — what the next run would do, its cost, and when it would be done.</summary>
-internal sealed class PlanCommand : ICommand
+internal sealed class PlanCommand() : CommandBase(
+    "plan",
+    "read-only: what the next run would do, its cost and finish time under the windows; --calibrate times a few pages")
 {
     private static readonly CultureInfo C = CultureInfo.InvariantCulture;
 
-    public string Name => "plan";
+    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
 
-    public string Summary => "read-only: what the next run would do, its cost and finish time under the windows; --calibrate times a few pages";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions();
         var calibrate = context.Arguments.Flags.Contains("calibrate");
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = IndexComposition.OpenReadOnly(options, "indexkeeper " + Name);
+            using var composed = CommandContext.OpenForReading(options, Name);
             return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken));
         }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 

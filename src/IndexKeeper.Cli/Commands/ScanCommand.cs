@@ -4,15 +4,11 @@ using IndexKeeper.Service.Application;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>scan</c>: detect, read and diff every root; queues new page keys and drifted pages, embeds nothing.</summary>
-internal sealed class ScanCommand : ICommand
+internal sealed class ScanCommand() : CommandBase(
+    "scan",
+    "detect, read and diff only: queues pages that need vectors, embeds nothing")
 {
-    public string Name => "scan";
-
-    public string Summary => "detect, read and diff only: queues pages that need vectors, embeds nothing";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         using var composed = context.Open(Name);
         var summary = TerminalProgress.Around(progress => composed.Get<ScanOperation>().Run(Name, progress, cancellationToken));

@@ -7,15 +7,11 @@ using IndexKeeper.Service.Querying;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>search "text" [-k N] [--maps DIR]</c>: top-k pages by late interaction, with what matched where.</summary>
-internal sealed class SearchCommand : ICommand
+internal sealed class SearchCommand() : CommandBase(
+    "search",
+    "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps", "k", "maps")
 {
-    public string Name => "search";
-
-    public string Summary => "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string> { "k", "maps" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var text = string.Join(' ', context.Arguments.Positional).Trim();
         if (text.Length == 0)
@@ -37,7 +33,7 @@ internal sealed class SearchCommand : ICommand
 
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = CommandContext.Open(options, Name);
+            using var composed = CommandContext.OpenForReading(options, Name);
             var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
             if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
             {

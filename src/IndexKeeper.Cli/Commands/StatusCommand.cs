@@ -5,20 +5,16 @@ using IndexKeeper.Service.Hosting;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>status</c>: figures of the index and its quarantine list.</summary>
-internal sealed class StatusCommand : ICommand
+internal sealed class StatusCommand() : CommandBase(
+    "status",
+    "figures of the index: documents, pages, vector sets, segments, queue, quarantine")
 {
-    public string Name => "status";
-
-    public string Summary => "figures of the index: documents, pages, vector sets, segments, queue, quarantine";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadForExistingIndex();
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = CommandContext.Open(options, Name);
+            using var composed = CommandContext.OpenForReading(options, Name);
             return composed.Get<StatusOperation>().Read();
         }, daemon => daemon.Get<StatusReport>("/api/status"));
         return context.Print(report, Write);

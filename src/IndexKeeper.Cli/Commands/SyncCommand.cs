@@ -4,15 +4,11 @@ using IndexKeeper.Service.Application;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>sync</c>: one foreground pass — detect, read, diff, embed everything queued, commit.</summary>
-internal sealed class SyncCommand : ICommand
+internal sealed class SyncCommand() : CommandBase(
+    "sync",
+    "one pass in the foreground: scan, then embed every queued page and commit")
 {
-    public string Name => "sync";
-
-    public string Summary => "one pass in the foreground: scan, then embed every queued page and commit";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         using var composed = context.Open(Name);
         var summary = TerminalProgress.Around(progress => composed.Get<SyncOperation>().Run(Name, progress, cancellationToken));

@@ -4,15 +4,11 @@ using IndexKeeper.Service.Application;
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>verify</c>: integrity of catalog and segments; exit 1 with the list of problems when any.</summary>
-internal sealed class VerifyCommand : ICommand
+internal sealed class VerifyCommand() : CommandBase(
+    "verify",
+    "integrity check of catalog and segments; exit 1 on any problem (damaged segments are isolated)")
 {
-    public string Name => "verify";
-
-    public string Summary => "integrity check of catalog and segments; exit 1 on any problem (damaged segments are isolated)";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         using var composed = context.OpenExisting(Name);
         var report = composed.Get<VerifyOperation>().Run(cancellationToken);

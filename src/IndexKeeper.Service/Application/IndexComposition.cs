@@ -26,7 +26,7 @@ public sealed class IndexComposition : IDisposable
 
     public static IndexComposition Open(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: false);
 
-    /// <summary>For the plan: the catalog is opened read-only and the store not at all.</summary>
+    /// <summary>For the commands that only read (plan, status, search, encoders): catalog and segments opened read-only.</summary>
     public static IndexComposition OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
 
     /// <summary>The use case of type <typeparamref name="T"/>, built with its dependencies.</summary>

@@ -28,7 +28,7 @@ public sealed class OpenIndex : IDisposable
         ReadOnly = readOnly;
     }
 
-    /// <summary>Opened by <see cref="OpenReadOnly"/>: the catalog cannot be written and the store is not opened.</summary>
+    /// <summary>Opened by <see cref="OpenReadOnly"/>: neither the catalog nor the segments can be written.</summary>
     public bool ReadOnly { get; }
 
     public IndexCatalog Catalog { get; }
@@ -37,17 +37,20 @@ public sealed class OpenIndex : IDisposable
 
     public string Directory => indexLock.Directory;
 
-    /// <summary>The segment store, opened (and repaired after a crash) on first use: commands that only read never open it.</summary>
-    public VectorStore Store => ReadOnly
-        ? throw new InvalidOperationException("A read-only index does not open the segment store (opening repairs and writes).")
-        : store ??= VectorStore.Open(Catalog, Directory, settings.Segments);
+    /// <summary>
+    /// The segment store, opened on first use: for writing it is repaired after a crash first; a read-only
+    /// index opens it for reading only (nothing created, nothing repaired, every write refused).
+    /// </summary>
+    public VectorStore Store => store ??= ReadOnly
+        ? VectorStore.OpenForReading(Catalog, Directory)
+        : VectorStore.Open(Catalog, Directory, settings.Segments);
 
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
     public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(settings.Encoder);
 
     public static OpenIndex Open(IndexSettings settings, string purpose) => Open(settings, purpose, readOnly: false);
 
-    /// <summary>Opens for reading only (the plan): the lock is taken, the catalog file's bytes are never changed.</summary>
+    /// <summary>Opens for reading only (plan, status, search, encoders): the lock is taken, no byte of the index is changed.</summary>
     public static OpenIndex OpenReadOnly(IndexSettings settings, string purpose) => Open(settings, purpose, readOnly: true);
 
     private static OpenIndex Open(IndexSettings settings, string purpose, bool readOnly)
