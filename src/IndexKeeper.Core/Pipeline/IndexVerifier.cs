@@ -8,8 +8,10 @@ namespace IndexKeeper.Core.Pipeline;
 /// <summary>
 /// The integrity check of an index: page reference counts against the documents that hold them, every
 /// segment's header and records against the catalog, every live vector set read back with its checksum,
-/// no files the catalog does not know. A damaged segment is isolated: moved to <c>segments/damaged/</c>,
-/// its vector sets forgotten and their pages queued again, never read as data.
+/// no files the catalog does not know. Damage stays local: a record that does not read back costs its own
+/// vector set (forgotten, its page queued again); a bad closing record with intact records loses nothing; only
+/// a segment that cannot be read at all (missing, header damaged or of another encoder) is isolated in
+/// <c>segments/damaged/</c> with all its vector sets. Nothing damaged is ever read as data.
 /// </summary>
 /// <remarks>REQUIRES: the index lock is held and the store was opened (recovery ran).</remarks>
 public static class IndexVerifier
@@ -89,48 +91,82 @@ public static class IndexVerifier
             var path = SegmentFileNames.PathOf(directory, segment.Id);
             var sets = catalog.VectorSets.OfSegment(segment.Id);
             var damage = CheckSegment(segment, path, sets, report);
-            if (damage is not null)
+            foreach (var problem in damage.Problems)
             {
-                report.Problems.Add($"segment {segment.Id}: {damage}");
+                report.Problems.Add($"segment {segment.Id}: {problem}");
+            }
+
+            if (damage.Whole)
+            {
                 Isolate(catalog, directory, segment, path, sets, report);
+            }
+            else if (damage.Lost.Count > 0)
+            {
+                // Each record carries its own checksum: a bad one costs that vector set, never its neighbours.
+                var requeued = catalog.ForgetVectorSets(damage.Lost, []);
+                report.Repairs.Add($"segment {segment.Id}: {damage.Lost.Count} damaged vector set(s) forgotten, {requeued} page(s) queued again; its other {sets.Count - damage.Lost.Count} read back and are kept");
             }
         }
     }
 
-    /// <summary>Returns what is wrong with one segment, or null when every record the catalog names reads back.</summary>
-    private static string? CheckSegment(SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
+    /// <summary>What is wrong with one segment: problems to report, and either the whole file (it cannot be read as this segment at all) or the vector sets whose records do not read back.</summary>
+    private sealed record SegmentDamage(IReadOnlyList<string> Problems, bool Whole, IReadOnlyList<VectorSetRecord> Lost)
+    {
+        public static SegmentDamage Of(string wholeProblem) => new([wholeProblem], true, []);
+    }
+
+    private static SegmentDamage CheckSegment(SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
     {
         if (!File.Exists(path))
         {
-            return "its file is missing";
+            return SegmentDamage.Of($"its file is missing: {sets.Count} vector set(s) cannot be read");
         }
 
+        SegmentReader reader;
         try
         {
-            using var reader = SegmentReader.Open(path);
+            reader = SegmentReader.Open(path);
+        }
+        catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
+        {
+            return SegmentDamage.Of(ex.Message);
+        }
+
+        using (reader)
+        {
             if (reader.Header.EncoderId != segment.EncoderId || reader.Header.Dimensions != segment.Dimensions)
             {
-                return $"its header says encoder {reader.Header.EncoderId} d={reader.Header.Dimensions}, the catalog {segment.EncoderId} d={segment.Dimensions}";
+                return SegmentDamage.Of($"its header says encoder {reader.Header.EncoderId} d={reader.Header.Dimensions}, the catalog {segment.EncoderId} d={segment.Dimensions}");
             }
 
+            var problems = new List<string>();
             var scan = reader.Scan();
             var expectedEnd = segment.Sealed ? SegmentEnd.Sealed : SegmentEnd.Open;
-            if (scan.End != expectedEnd)
+            if (scan.End != expectedEnd || scan.ValidLength != segment.Length)
             {
-                return $"it ends {scan.End} at byte {scan.ValidLength} of {scan.FileLength}, the catalog expects {expectedEnd}{(scan.Problem is null ? string.Empty : ": " + scan.Problem)}";
+                // The closing record or a stretch between records: the committed records are proven by their own
+                // checksums below, so this alone loses nothing (docs/recovery.md).
+                problems.Add($"it ends {scan.End} at byte {scan.ValidLength} of {scan.FileLength}, the catalog expects {expectedEnd} at {segment.Length}{(scan.Problem is null ? string.Empty : ": " + scan.Problem)}");
             }
 
-            if (scan.ValidLength != segment.Length)
-            {
-                return $"its valid length is {scan.ValidLength} bytes, the catalog committed {segment.Length}";
-            }
-
+            var lost = new List<VectorSetRecord>();
             foreach (var set in sets)
             {
-                var stored = reader.Read(new RecordLocation(set.SegmentId, set.Offset, set.Length, unchecked((uint)set.Checksum)));
-                if (stored.Key != PageKey.Parse(set.PageKey) || stored.Count != set.VectorCount)
+                try
                 {
-                    return $"the record at {set.Offset} holds page {stored.Key} with {stored.Count} vectors, the catalog expects {set.PageKey} with {set.VectorCount}";
+                    var stored = reader.Read(new RecordLocation(set.SegmentId, set.Offset, set.Length, unchecked((uint)set.Checksum)));
+                    if (stored.Key != PageKey.Parse(set.PageKey) || stored.Count != set.VectorCount)
+                    {
+                        problems.Add($"the record at {set.Offset} holds page {stored.Key} with {stored.Count} vectors, the catalog expects {set.PageKey} with {set.VectorCount}");
+                        lost.Add(set);
+                        continue;
+                    }
+                }
+                catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
+                {
+                    problems.Add($"the record of page {set.PageKey} at {set.Offset} does not read back: {ex.Message}");
+                    lost.Add(set);
+                    continue;
                 }
 
                 report.VectorSetsChecked++;
@@ -139,14 +175,10 @@ public static class IndexVerifier
             var live = sets.Where(s => s.Live).ToList();
             if (live.Count != segment.LiveRecordCount || live.Sum(s => (long)s.Length) != segment.LiveBytes || sets.Count != segment.RecordCount)
             {
-                return $"its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})";
+                problems.Add($"its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})");
             }
 
-            return null;
-        }
-        catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
-        {
-            return ex.Message;
+            return new SegmentDamage(problems, false, lost);
         }
     }
 
