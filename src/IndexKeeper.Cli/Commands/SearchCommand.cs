@@ -37,7 +37,7 @@ internal sealed class SearchCommand : ICommand
 
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.Open(options, "indexkeeper search");
+            using var session = IndexSession.OpenReadOnly(options, "indexkeeper search");
             var found = PageSearcher.Search(session, text, k, cancellationToken);
             if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
             {
@@ -49,10 +49,17 @@ internal sealed class SearchCommand : ICommand
             ? throw new UsageException("--maps draws from the index itself, which the running daemon holds; search without --maps, or stop the daemon.")
             : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 
+        // A search that could not read every vector set is a partial failure (exit 1), said on stderr.
+        var exitCode = report.VectorSetsUnreadable > 0 ? 1 : 0;
+        if (exitCode != 0)
+        {
+            Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture, $"warning: {report.VectorSetsUnreadable} vector set(s) could not be read, so their pages could not be found; run `indexkeeper verify` (docs/recovery.md)."));
+        }
+
         if (context.Json)
         {
             JsonOutput.Write(report);
-            return 0;
+            return exitCode;
         }
 
         var c = CultureInfo.InvariantCulture;
@@ -73,6 +80,6 @@ internal sealed class SearchCommand : ICommand
             }
         }
 
-        return 0;
+        return exitCode;
     }
 }

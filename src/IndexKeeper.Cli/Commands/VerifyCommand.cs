@@ -9,15 +9,15 @@ internal sealed class VerifyCommand : ICommand
 {
     public string Name => "verify";
 
-    public string Summary => "integrity check of catalog and segments; exit 1 on any problem (damaged segments are isolated)";
+    public string Summary => "integrity check of catalog and segments; reads only; exit 1 on any problem, naming what each damaged file costs";
 
     public IReadOnlySet<string> Options { get; } = new HashSet<string>();
 
     public int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadForExistingIndex();
-        using var session = IndexSession.Open(options, "indexkeeper verify");
-        var report = IndexVerifier.Verify(session.Catalog, session.Store, session.Encoder.Identity.Id, cancellationToken);
+        using var session = IndexSession.OpenReadOnly(options, "indexkeeper verify");
+        var report = IndexVerifier.Verify(session.Catalog, session.Store.Directory, session.Encoder.Identity.Id, cancellationToken);
         if (context.Json)
         {
             JsonOutput.Write(report);
@@ -26,17 +26,12 @@ internal sealed class VerifyCommand : ICommand
         {
             var o = Console.Out;
             o.WriteLine($"Checked {report.DocumentsChecked} documents, {report.PagesChecked} pages, {report.SegmentsChecked} segments, {report.VectorSetsChecked} vector sets.");
-            foreach (var repair in report.Repairs)
-            {
-                o.WriteLine("  repaired: " + repair);
-            }
-
             foreach (var problem in report.Problems)
             {
                 o.WriteLine("  problem: " + problem);
             }
 
-            o.WriteLine(report.Clean ? "The index is consistent." : $"{report.Problems.Count} problem(s) found.");
+            o.WriteLine(report.Clean ? "The index is consistent." : $"{report.Problems.Count} problem(s) found; nothing was changed. `indexkeeper repair` drops what cannot be read and queues its pages again (docs/recovery.md).");
         }
 
         return report.Clean ? 0 : 1;

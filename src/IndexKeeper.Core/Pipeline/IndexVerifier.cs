@@ -1,5 +1,4 @@
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 
@@ -7,23 +6,20 @@ namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
 /// The integrity check of an index: page reference counts against the documents that hold them, every
-/// segment's header and records against the catalog, every live vector set read back with its checksum,
-/// no files the catalog does not know. A damaged segment is isolated: moved to <c>segments/damaged/</c>,
-/// its vector sets forgotten and their pages queued again, never read as data.
+/// segment's header against the catalog, every vector set the catalog names read back and proven by its own
+/// checksum, every seal, no files the catalog does not know. It only reads: damage is reported per file with
+/// what it costs (docs/recovery.md); the repair is the explicit <c>repair</c> command.
 /// </summary>
-/// <remarks>REQUIRES: the index lock is held and the store was opened (recovery ran).</remarks>
+/// <remarks>REQUIRES: the index lock is held (no writer is half-way through a commit).</remarks>
 public static class IndexVerifier
 {
-    public const string DamagedFolder = "damaged";
-
-    public static VerifyReport Verify(IndexCatalog catalog, VectorStore store, string? activeEncoderId, CancellationToken cancellationToken)
+    public static VerifyReport Verify(IndexCatalog catalog, string segmentsDirectory, string? activeEncoderId, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(catalog);
-        ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(segmentsDirectory);
         var report = new VerifyReport();
-        report.Repairs.AddRange(store.Repairs.Select(r => "at open: " + r));
         var held = CheckReferences(catalog, report);
-        CheckSegments(catalog, store.Directory, report, cancellationToken);
+        CheckSegments(catalog, segmentsDirectory, activeEncoderId, report, cancellationToken);
         CheckCoverage(catalog, activeEncoderId, held, report);
         return report;
     }
@@ -71,96 +67,52 @@ public static class IndexVerifier
         return held;
     }
 
-    private static void CheckSegments(IndexCatalog catalog, string directory, VerifyReport report, CancellationToken cancellationToken)
+    private static void CheckSegments(IndexCatalog catalog, string directory, string? activeEncoderId, VerifyReport report, CancellationToken cancellationToken)
     {
-        var known = catalog.Segments.All().ToDictionary(s => s.Id);
-        foreach (var path in Directory.EnumerateFiles(directory))
+        var known = catalog.Segments.All();
+        var ids = known.Select(s => s.Id).ToHashSet();
+        if (Directory.Exists(directory))
         {
-            if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !known.ContainsKey(id))
+            foreach (var path in Directory.EnumerateFiles(directory))
             {
-                report.Problems.Add($"file {Path.GetFileName(path)} in the segment folder is not referenced by the catalog");
-            }
-        }
-
-        foreach (var segment in known.Values)
-        {
-            cancellationToken.ThrowIfCancellationRequested();
-            report.SegmentsChecked++;
-            var path = SegmentFileNames.PathOf(directory, segment.Id);
-            var sets = catalog.VectorSets.OfSegment(segment.Id);
-            var damage = CheckSegment(segment, path, sets, report);
-            if (damage is not null)
-            {
-                report.Problems.Add($"segment {segment.Id}: {damage}");
-                Isolate(catalog, directory, segment, path, sets, report);
-            }
-        }
-    }
-
-    /// <summary>Returns what is wrong with one segment, or null when every record the catalog names reads back.</summary>
-    private static string? CheckSegment(SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
-    {
-        if (!File.Exists(path))
-        {
-            return "its file is missing";
-        }
-
-        try
-        {
-            using var reader = SegmentReader.Open(path);
-            if (reader.Header.EncoderId != segment.EncoderId || reader.Header.Dimensions != segment.Dimensions)
-            {
-                return $"its header says encoder {reader.Header.EncoderId} d={reader.Header.Dimensions}, the catalog {segment.EncoderId} d={segment.Dimensions}";
-            }
-
-            var scan = reader.Scan();
-            var expectedEnd = segment.Sealed ? SegmentEnd.Sealed : SegmentEnd.Open;
-            if (scan.End != expectedEnd)
-            {
-                return $"it ends {scan.End} at byte {scan.ValidLength} of {scan.FileLength}, the catalog expects {expectedEnd}{(scan.Problem is null ? string.Empty : ": " + scan.Problem)}";
-            }
-
-            if (scan.ValidLength != segment.Length)
-            {
-                return $"its valid length is {scan.ValidLength} bytes, the catalog committed {segment.Length}";
-            }
-
-            foreach (var set in sets)
-            {
-                var stored = reader.Read(new RecordLocation(set.SegmentId, set.Offset, set.Length, unchecked((uint)set.Checksum)));
-                if (stored.Key != PageKey.Parse(set.PageKey) || stored.Count != set.VectorCount)
+                if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !ids.Contains(id))
                 {
-                    return $"the record at {set.Offset} holds page {stored.Key} with {stored.Count} vectors, the catalog expects {set.PageKey} with {set.VectorCount}";
+                    report.Problems.Add($"file {Path.GetFileName(path)} in the segment folder is not referenced by the catalog");
                 }
-
-                report.VectorSetsChecked++;
             }
+        }
 
+        var serving = catalog.Encoders.ServingId() ?? activeEncoderId;
+        report.Damage = DamageSurvey.Run(catalog, directory, serving, readRecords: true, cancellationToken);
+        var damaged = report.Damage.Segments.ToDictionary(d => d.SegmentId);
+        foreach (var damage in report.Damage.Segments)
+        {
+            report.Problems.Add(Describe(damage));
+        }
+
+        foreach (var segment in known)
+        {
+            report.SegmentsChecked++;
+            var sets = catalog.VectorSets.OfSegment(segment.Id);
+            report.VectorSetsChecked += sets.Count - (damaged.TryGetValue(segment.Id, out var d) ? d.VectorSetsUnreadable.Count : 0);
             var live = sets.Where(s => s.Live).ToList();
             if (live.Count != segment.LiveRecordCount || live.Sum(s => (long)s.Length) != segment.LiveBytes || sets.Count != segment.RecordCount)
             {
-                return $"its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})";
+                report.Problems.Add($"segment {segment.Id}: its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})");
             }
-
-            return null;
-        }
-        catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
-        {
-            return ex.Message;
         }
     }
 
-    private static void Isolate(IndexCatalog catalog, string directory, SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
+    /// <summary>One line per damaged file: what is wrong and what it costs.</summary>
+    private static string Describe(SegmentDamage damage)
     {
-        if (File.Exists(path))
-        {
-            var damaged = Path.Combine(directory, DamagedFolder);
-            Directory.CreateDirectory(damaged);
-            File.Move(path, Path.Combine(damaged, Path.GetFileName(path) + "." + DateTime.UtcNow.ToString("yyyyMMddHHmmss", System.Globalization.CultureInfo.InvariantCulture)), overwrite: true);
-        }
-
-        var requeued = catalog.ForgetVectorSets(sets, [segment.Id]);
-        report.Repairs.Add($"isolated segment {segment.Id} in {DamagedFolder}/: {sets.Count} vector sets forgotten, {requeued} pages queued again");
+        var what = damage.FileProblem ?? (damage.VectorSetsUnreadable.Count > 0
+            ? string.Join("; ", damage.VectorSetsUnreadable.Select(u => u.Problem).Distinct(StringComparer.Ordinal).Take(3))
+            : "seal: " + damage.SealProblem);
+        var cost = damage.VectorSetsUnreadable.Count == 0
+            ? "nothing lost (every record is proven by its own checksum); `repair` re-seals it"
+            : $"{damage.VectorSetsUnreadable.Count} vector set(s) unreadable ({damage.VectorSetsUnreadable.Count(u => u.Live)} live), {damage.Pages.Count} page(s) without those vectors, {damage.Documents.Count} document(s) affected{(damage.Documents.Count == 0 ? string.Empty : ": " + string.Join(", ", damage.Documents.Take(5)) + (damage.Documents.Count > 5 ? ", …" : string.Empty))}";
+        return $"segment {damage.SegmentId} ({damage.File}{(damage.Missing ? ", missing" : string.Empty)}): {what} — {cost}";
     }
 
     private static void CheckCoverage(IndexCatalog catalog, string? activeEncoderId, IReadOnlyList<string> held, VerifyReport report)

@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.ServiceProcess;
 using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Service.Hosting;
@@ -430,7 +431,8 @@ internal sealed class IndexWorker(
             segments.Count(s => s.Sealed),
             segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             DirectorySize.Of(session.IndexDirectory),
-            free);
+            free,
+            DamageSurvey.Run(catalog, session.Store.Directory, catalog.Encoders.ServingId() ?? session.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }
 

@@ -42,9 +42,9 @@ public sealed class IndexSession : IDisposable
 
     public string IndexDirectory => indexLock.Directory;
 
-    /// <summary>The segment store, opened (and repaired after a crash) on first use.</summary>
+    /// <summary>The segment store, opened on first use: for reading only in a read-only session (nothing repaired), else repaired after a crash.</summary>
     public VectorStore Store => ReadOnly
-        ? throw new InvalidOperationException("A read-only session does not open the segment store (opening repairs and writes).")
+        ? store ??= VectorStore.OpenForReading(Catalog, IndexDirectory)
         : store ??= VectorStore.Open(Catalog, IndexDirectory, new SegmentWriterOptions
     {
         SealAtBytes = Options.Storage.SealAtMegabytes * 1024 * 1024,

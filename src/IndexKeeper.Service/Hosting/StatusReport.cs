@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Hosting;
 
@@ -44,6 +45,15 @@ public sealed class StatusReport
     /// <summary>The last canary check of the active encoder; null when never checked.</summary>
     public CanaryReport? Canary { get; init; }
 
+    /// <summary>Segment files the catalog names that are not there (their vector sets are counted in <see cref="VectorSetsUnreadable"/>).</summary>
+    public long SegmentsMissing { get; init; }
+
+    /// <summary>Live vector sets whose bytes cannot be read: file missing, bad header, or a file shorter than the record (status does not read vectors; verify checks every checksum).</summary>
+    public long VectorSetsUnreadable { get; init; }
+
+    /// <summary>Pages a live document holds without a readable live vector set of the serving encoder, queued ones included.</summary>
+    public long PagesWithoutVectors { get; init; }
+
     public long Queued { get; init; }
 
     public long Quarantined { get; init; }
@@ -63,6 +73,7 @@ public sealed class StatusReport
         var segments = session.Catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         var drift = session.ReadDrift();
+        var damage = DamageSurvey.Run(session.Catalog, session.Store.Directory, drift.ServingEncoderId, readRecords: false, CancellationToken.None);
         var canary = CanaryReport.Of(session.Catalog.Encoders.Find(session.Encoder.Identity.Id));
         return new StatusReport
         {
@@ -81,6 +92,9 @@ public sealed class StatusReport
             PagesMigrated = drift.MigratedPages,
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
+            SegmentsMissing = damage.SegmentsMissing,
+            VectorSetsUnreadable = damage.VectorSetsUnreadable,
+            PagesWithoutVectors = damage.PagesWithoutVectors,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = DirectorySize.Of(session.IndexDirectory),

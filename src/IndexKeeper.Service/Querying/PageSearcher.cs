@@ -53,6 +53,7 @@ public static class PageSearcher
             CandidatesReranked = result.CandidatesReranked,
             ElapsedMilliseconds = Math.Round(stopwatch.Elapsed.TotalMilliseconds, 2),
             Hits = hits,
+            VectorSetsUnreadable = live.Unreadable.Count,
         };
     }
 

@@ -56,7 +56,7 @@ internal sealed class OpenIndex : IDisposable
     public void Commit(IEnumerable<int> pages) =>
         Store.AppendAndCommit(Encoder, pages.Select(p => (TestVectors.Key(p), TestVectors.Set(p, 12))).ToList());
 
-    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Store, Encoder.Id, CancellationToken.None);
+    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Store.Directory, Encoder.Id, CancellationToken.None);
 
     /// <summary>Page keys (hex) with a live vector set whose bytes read back.</summary>
     public HashSet<string> Readable()
