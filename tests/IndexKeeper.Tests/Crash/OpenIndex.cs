@@ -20,11 +20,12 @@ internal sealed class OpenIndex : IDisposable
 
     private readonly IndexLock indexLock;
 
-    public OpenIndex(string directory, SegmentWriterOptions? writerOptions = null)
+    /// <param name="readOnlyStore">Open the store as read commands do: nothing repaired at open.</param>
+    public OpenIndex(string directory, SegmentWriterOptions? writerOptions = null, bool readOnlyStore = false)
     {
         indexLock = IndexLock.Acquire(directory, "crash recovery test");
         Catalog = IndexCatalog.Open(indexLock);
-        Store = VectorStore.Open(Catalog, directory, writerOptions);
+        Store = readOnlyStore ? VectorStore.OpenForReading(Catalog, directory) : VectorStore.Open(Catalog, directory, writerOptions);
     }
 
     public IndexCatalog Catalog { get; }
