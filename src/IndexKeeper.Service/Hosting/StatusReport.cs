@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Hosting;
 
@@ -44,6 +45,15 @@ public sealed class StatusReport
     /// <summary>The last canary check of the active encoder; null when never checked.</summary>
     public CanaryReport? Canary { get; init; }
 
+    /// <summary>Segment files the catalog names that are not there (their vector sets are counted in <see cref="VectorSetsUnreadable"/>).</summary>
+    public long SegmentsMissing { get; init; }
+
+    /// <summary>Live vector sets whose bytes cannot be read: file missing, bad header, or a file shorter than the record (status does not read vectors; verify checks every checksum).</summary>
+    public long VectorSetsUnreadable { get; init; }
+
+    /// <summary>Pages a live document holds without a readable live vector set of the serving encoder, queued ones included.</summary>
+    public long PagesWithoutVectors { get; init; }
+
     public long Queued { get; init; }
 
     public long Quarantined { get; init; }
@@ -55,40 +65,4 @@ public sealed class StatusReport
     public IReadOnlyList<string> Roots { get; init; } = [];
 
     public IReadOnlyList<QuarantineEntry> Quarantine { get; init; } = [];
-
-    public static StatusReport Build(IndexSession session)
-    {
-        ArgumentNullException.ThrowIfNull(session);
-        var figures = session.Catalog.Figures();
-        var segments = session.Catalog.Segments.All();
-        var segmentBytes = segments.Sum(s => s.Length);
-        var drift = session.ReadDrift();
-        var canary = CanaryReport.Of(session.Catalog.Encoders.Find(session.Encoder.Identity.Id));
-        return new StatusReport
-        {
-            IndexDirectory = session.IndexDirectory,
-            Documents = figures.Documents,
-            Pages = figures.Pages,
-            PageLocations = figures.PageLocations,
-            VectorSets = session.Catalog.VectorSets.Count(liveOnly: false),
-            LiveVectorSets = session.Catalog.VectorSets.Count(liveOnly: true),
-            Segments = segments.Count,
-            DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
-            ActiveEncoder = session.Options.Encoder.Name,
-            ActiveEncoderId = session.Encoder.Identity.Id,
-            ServingEncoderId = drift.ServingEncoderId,
-            PagesDrifted = drift.DriftedPages.Count,
-            PagesMigrated = drift.MigratedPages,
-            CanaryDrifted = canary?.Drifted ?? false,
-            Canary = canary,
-            Queued = figures.Queued,
-            Quarantined = figures.QuarantinedDocuments,
-            BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
-            LastScanUtc = figures.LastScanUtc,
-            Roots = session.Options.Roots.Count > 0 ? session.Options.Roots.Select(r => r.Name).ToList() : session.Catalog.Documents.RootNames().ToList(),
-            Quarantine = session.Catalog.Documents.Quarantined()
-                .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
-                .ToList(),
-        };
-    }
 }
