@@ -94,12 +94,20 @@ public sealed class IndexSession : IDisposable
     /// <summary>Opens for reading only (the plan): the lock is taken, the catalog file's bytes are never changed.</summary>
     public static IndexSession OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
 
-    private static IndexSession Open(IndexKeeperOptions options, string purpose, bool readOnly)
+    /// <summary>
+    /// Opens for a catalog rebuild: <paramref name="beforeCatalog"/> runs once the lock is held and before the
+    /// catalog is opened (it moves the old catalog aside), so no other process sees the index in between.
+    /// </summary>
+    public static IndexSession OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog) =>
+        Open(options, purpose, readOnly: false, beforeCatalog);
+
+    private static IndexSession Open(IndexKeeperOptions options, string purpose, bool readOnly, Action<string>? beforeCatalog = null)
     {
         ArgumentNullException.ThrowIfNull(options);
         var held = IndexLock.Acquire(options.IndexDirectory, purpose);
         try
         {
+            beforeCatalog?.Invoke(held.Directory);
             var catalog = readOnly ? IndexCatalog.OpenReadOnly(held) : IndexCatalog.Open(held);
             // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
             // costs one quarantined document, never the command or the service.
