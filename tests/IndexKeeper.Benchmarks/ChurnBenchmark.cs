@@ -3,8 +3,8 @@ using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Storage;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -40,13 +40,14 @@ public sealed class ChurnBenchmark : IBenchmark
 
         var options = OptionsLoader.Load(new ConfigurationSources(
             null, Path.Combine(context.WorkDirectory, "index"), [], ["Detect:SettleSeconds=0", "Encoder:Name=hashed-terms", "Roots:0:Name=store", $"Roots:0:Path={root}"]));
-        using var session = IndexSession.Open(options, "benchmark churn");
+        using var composed = IndexComposition.Open(options, "benchmark churn");
+        var session = composed.Index;
         var store = session.Store;
-        var compaction = session.CompactionOptions();
+        var compaction = composed.Settings.Compaction;
         context.Note(string.Create(CultureInfo.InvariantCulture,
             $"shipped storage settings: seal at {options.Storage.SealAtMegabytes} MiB, compact at {compaction.DeadShareThreshold:P0} dead, small segments under {options.Storage.SmallSegmentMegabytes} MiB"));
 
-        var first = Sync(session, store);
+        var first = Sync(composed);
         long ingested = first.Ingested, rewritten = 0;
         var pages = documents * PagesPerDocument;
         context.Report("pages", pages, "pages");
@@ -69,7 +70,7 @@ public sealed class ChurnBenchmark : IBenchmark
                 Write(root, document, revisions[document]);
             }
 
-            var sync = Sync(session, store);
+            var sync = Sync(composed);
             if (sync.Summary.PagesEmbedded != edited.Count)
             {
                 throw new InvalidOperationException($"round {round}: {edited.Count} pages edited, {sync.Summary.PagesEmbedded} embedded");
@@ -77,11 +78,7 @@ public sealed class ChurnBenchmark : IBenchmark
 
             var beforeCompaction = OnDisk(store) / (double)Live(session);
             CompactionReport report = null!;
-            var (compacted, _) = Measure.Once(() =>
-            {
-                store.SealAll();
-                report = store.Compact(compaction, CancellationToken.None);
-            });
+            var (compacted, _) = Measure.Once(() => report = composed.Get<CompactOperation>().Run(CancellationToken.None));
             ingested += sync.Ingested;
             rewritten += report.BytesWritten;
             var space = OnDisk(store) / (double)Live(session);
@@ -112,16 +109,13 @@ public sealed class ChurnBenchmark : IBenchmark
     private static void Write(string root, int document, int[] revisions) =>
         File.WriteAllBytes(Path.Combine(root, $"works-report-{document:D4}.pdf"), GeneratedReport.Build(document, revisions, WordsPerPage));
 
-    /// <summary>One sync (scan, then embed every queued page); Ingested = segment bytes it appended.</summary>
-    private static (ScanSummary Summary, long Ingested, double Seconds) Sync(IndexSession session, VectorStore store)
+    /// <summary>One sync (the <c>sync</c> command's use case); Ingested = segment bytes it appended.</summary>
+    private static (ScanSummary Summary, long Ingested, double Seconds) Sync(IndexComposition composed)
     {
+        var session = composed.Index;
         var before = session.Catalog.Segments.All().Sum(s => s.Length);
         ScanSummary summary = null!;
-        var (seconds, _) = Measure.Once(() =>
-        {
-            summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("benchmark churn", CancellationToken.None);
-            new EmbedPass(session.Catalog, store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize).Run(summary, CancellationToken.None);
-        });
+        var (seconds, _) = Measure.Once(() => summary = composed.Get<SyncOperation>().Run("benchmark churn", null, CancellationToken.None));
         if (summary.PagesFailed != 0 || summary.DocumentsQuarantined != 0 || summary.DocumentsDeferred != 0)
         {
             throw new InvalidOperationException($"sync: {summary.PagesFailed} pages failed, {summary.DocumentsQuarantined} quarantined, {summary.DocumentsDeferred} deferred");
@@ -130,7 +124,7 @@ public sealed class ChurnBenchmark : IBenchmark
         return (summary, session.Catalog.Segments.All().Sum(s => s.Length) - before, seconds);
     }
 
-    private static long Live(IndexSession session) =>
+    private static long Live(OpenIndex session) =>
         session.Catalog.VectorSets.Live(session.Encoder.Identity.Id).Sum(v => (long)v.Length);
 
     private static long OnDisk(VectorStore store) =>

@@ -3,8 +3,8 @@ using IndexKeeper.Core.Queue;
 using IndexKeeper.Demo;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -31,13 +31,15 @@ public sealed class EmbedBenchmark : IBenchmark
         }
 
         var options = OptionsLoader.Load(new ConfigurationSources(null, Path.Combine(context.WorkDirectory, "index"), [], overrides));
-        using var session = IndexSession.Open(options, "benchmark embed");
+        using var composed = IndexComposition.Open(options, "benchmark embed");
+        var session = composed.Index;
         var encoder = new RecordingEncoder(session.Encoder);
         var store = session.Store; // opened (and its recovery run) before the clock starts
         ScanSummary summary = null!;
-        var (scan, scanCpu) = Measure.Once(() => summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("benchmark", CancellationToken.None));
+        var (scan, scanCpu) = Measure.Once(() => summary = composed.Get<ScanOperation>().Walk("benchmark", composed.Settings.Scan.Roots, CancellationToken.None));
+        // The embed pass itself, around an encoder that records its batches (the store append is replayed from them).
         var (embed, embedCpu) = Measure.Once(() =>
-            new EmbedPass(session.Catalog, store, encoder, session.RootPaths, options.Encoder.BatchSize).Run(summary, CancellationToken.None));
+            new EmbedPass(session.Catalog, store, encoder, composed.Settings.RootPaths, composed.Settings.EmbedBatchSize).Run(summary, CancellationToken.None));
         if (summary.PagesEmbedded != summary.PagesNew || summary.PagesFailed != 0 || summary.DocumentsQuarantined != 0)
         {
             throw new InvalidOperationException($"sync embedded {summary.PagesEmbedded} of {summary.PagesNew} new pages, {summary.PagesFailed} failed, {summary.DocumentsQuarantined} quarantined");

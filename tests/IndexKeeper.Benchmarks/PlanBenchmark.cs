@@ -3,7 +3,7 @@ using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Planning;
 
 namespace IndexKeeper.Benchmarks;
@@ -29,10 +29,9 @@ public sealed class PlanBenchmark : IBenchmark
         Generate(root, 0, documents);
         var options = OptionsLoader.Load(new ConfigurationSources(null, Path.Combine(context.WorkDirectory, "index"), [root],
             ["Detect:SettleSeconds=0", "Encoder:Name=hashed-terms", "Schedule:TimeZone=Europe/Berlin"]));
-        using (var session = IndexSession.Open(options, "benchmark plan: first sync"))
+        using (var composed = IndexComposition.Open(options, "benchmark plan: first sync"))
         {
-            var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("benchmark", CancellationToken.None);
-            new EmbedPass(session.Catalog, session.Store, session.Encoder, session.RootPaths, options.Encoder.BatchSize).Run(summary, CancellationToken.None);
+            composed.Get<SyncOperation>().Run("benchmark", null, CancellationToken.None);
         }
 
         Generate(root, documents, added);
@@ -42,10 +41,11 @@ public sealed class PlanBenchmark : IBenchmark
         // First runs in a fresh session on both sides (reader worker started, catalog cold), then warm plans.
         PlanReport report = null!;
         (double Wall, double Cpu) planFirst, plan;
-        using (var session = IndexSession.OpenReadOnly(options, "benchmark plan"))
+        using (var composed = IndexComposition.OpenReadOnly(options, "benchmark plan"))
         {
-            planFirst = Measure.Once(() => report = PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], Calibrate: false), CancellationToken.None));
-            plan = Measure.Median(Repeats, () => report = PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], Calibrate: false), CancellationToken.None));
+            var planning = composed.Get<PlanOperation>();
+            planFirst = Measure.Once(() => report = planning.Build(new PlanRequest(DateTimeOffset.UtcNow, [], Calibrate: false), CancellationToken.None));
+            plan = Measure.Median(Repeats, () => report = planning.Build(new PlanRequest(DateTimeOffset.UtcNow, [], Calibrate: false), CancellationToken.None));
         }
 
         if (report.DocumentsNew != added || report.PagesToEmbed == 0 || report.EstimatedFinish is null)
@@ -55,9 +55,10 @@ public sealed class PlanBenchmark : IBenchmark
 
         ScanSummary real = null!;
         (double Wall, double Cpu) scan;
-        using (var session = IndexSession.Open(options, "benchmark plan: real scan"))
+        using (var composed = IndexComposition.Open(options, "benchmark plan: real scan"))
         {
-            scan = Measure.Once(() => real = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("benchmark", CancellationToken.None));
+            var scanning = composed.Get<ScanOperation>();
+            scan = Measure.Once(() => real = scanning.Walk("benchmark", composed.Settings.Scan.Roots, CancellationToken.None));
         }
 
         if (real.PagesNew != report.PagesNew)

@@ -52,9 +52,9 @@ internal sealed class ChurnSimulation(ChurnProfile profile, int seed, string wor
 
             var synced = keeper.Sync(dimensions, compact: true);
             AuditResult checkedDay;
-            using (var session = keeper.Open(dimensions, "churn audit"))
+            using (var composed = keeper.Open(dimensions, "churn audit"))
             {
-                checkedDay = audit.Check(session, truth, changed);
+                checkedDay = audit.Check(composed.Index, truth, changed);
             }
 
             var pages = truth.Values.Sum(p => (long)p.Count);
@@ -93,9 +93,9 @@ internal sealed class ChurnSimulation(ChurnProfile profile, int seed, string wor
         var hashedPerPage = keeperCalls == 0 ? double.NaN : days.Sum(d => d.KeeperEncoderSeconds) / keeperCalls;
         double miniLmPerPage;
         int miniLmPages;
-        using (var session = keeper.Open(dimensions, "churn minilm sample"))
+        using (var composed = keeper.Open(dimensions, "churn minilm sample"))
         {
-            (miniLmPerPage, miniLmPages) = MiniLmTiming.Measure(session, profile.MiniLmSamplePages);
+            (miniLmPerPage, miniLmPages) = MiniLmTiming.Measure(composed.Index, profile.MiniLmSamplePages);
         }
 
         log($"encoder seconds per page: hashed terms {hashedPerPage * 1000:0.000} ms (mean of (c)'s calls), minilm {miniLmPerPage * 1000:0.0} ms ({miniLmPages} pages)");

@@ -3,8 +3,7 @@ using System.Globalization;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Churn.Strategies;
 using IndexKeeper.Demo;
-using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Service.Querying;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Churn;
 
@@ -37,20 +36,21 @@ internal sealed class ScaleRun(int pages, int seed, string workDirectory, Action
         var first = keeper.Sync(ChurnSimulation.Dimensions, compact: true);
         log($"first sync: {first.Summary.PagesEmbedded} pages embedded in {first.TotalSeconds:0} s (scan {first.ScanSeconds:0} s)");
 
-        using var session = keeper.Open(ChurnSimulation.Dimensions, "churn scale");
+        using var composed = keeper.Open(ChurnSimulation.Dimensions, "churn scale");
         stopwatch.Restart();
-        var rescan = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("churn scale rescan", CancellationToken.None);
+        var rescan = composed.Get<ScanOperation>().Walk("churn scale rescan", composed.Settings.Scan.Roots, CancellationToken.None);
         var rescanSeconds = stopwatch.Elapsed.TotalSeconds;
         log($"no-change scan: {rescan.DocumentsUnchanged} unchanged of {rescan.DocumentsSeen} in {rescanSeconds:0.0} s, {rescan.FilesHashed} hashed");
 
         var random = DemoRandom.For(seed, "scale-queries");
         var latencies = new List<double>();
+        var search = composed.Get<SearchOperation>();
         for (var i = 0; i <= Searches; i++)
         {
             var text = new DemoText(random, (DemoTopic)random.Next(4), random.Pick(DemoVocabulary.Sites));
             var query = text.Equipment() + " " + text.Part();
             stopwatch.Restart();
-            PageSearcher.Search(session, query, 10, CancellationToken.None);
+            search.Search(query, 10, CancellationToken.None);
             if (i > 0)
             {
                 // The first search maps the segments and warms the page cache; it is not counted.

@@ -2,9 +2,9 @@ using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Demo;
 using IndexKeeper.Cli.Output;
+using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
-using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Cli.Commands;
 
@@ -13,17 +13,13 @@ namespace IndexKeeper.Cli.Commands;
 /// plays a day of typical changes (an edit, a copy, a rename, a move, a delete, a touch, a metadata-only
 /// save, a new report, reordered pages), indexes again, and shows what each pass cost.
 /// </summary>
-internal sealed class DemoCommand : ICommand
+internal sealed class DemoCommand() : CommandBase(
+    "demo",
+    "builds a demo document store (an invented water utility) and runs the main job on it", "output")
 {
     private const string Marker = ".indexkeeper-demo";
 
-    public string Name => "demo";
-
-    public string Summary => "builds a demo document store (an invented water utility) and runs the main job on it";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string> { "output" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var directory = Path.GetFullPath(context.Arguments.Named.GetValueOrDefault("output", "indexkeeper-demo"));
         Prepare(directory);
@@ -39,11 +35,12 @@ internal sealed class DemoCommand : ICommand
             [],
             [.. DemoSettings(info), .. context.Arguments.Overrides]);
         var options = OptionsLoader.Load(sources);
-        using var session = IndexSession.Open(options, "indexkeeper demo");
+        using var composed = CommandContext.Open(options, Name);
+        var sync = composed.Get<SyncOperation>();
 
         log.WriteLine();
         log.WriteLine("Day 1 — first sync of the whole store:");
-        var day1 = SyncCommand.Sync(session, "demo day 1", cancellationToken);
+        var day1 = Sync(sync, "demo day 1", cancellationToken);
         SummaryText.Write(log, day1);
 
         log.WriteLine();
@@ -57,14 +54,14 @@ internal sealed class DemoCommand : ICommand
         var truth = changes.Sum(c => c.PagesNew.Count);
         log.WriteLine();
         log.WriteLine("Day 2 — second sync:");
-        var day2 = SyncCommand.Sync(session, "demo day 2", cancellationToken);
+        var day2 = Sync(sync, "demo day 2", cancellationToken);
         SummaryText.Write(log, day2);
         log.WriteLine(string.Create(
             CultureInfo.InvariantCulture,
             $"  → {day2.PagesEmbedded} encoder page calls for {truth} pages whose content is new; re-embedding every page would have cost {day2.PagesSeen}."));
 
         var query = "chlorine residual inspection";
-        var search = PageSearcher.Search(session, query, 3, cancellationToken);
+        var search = composed.Get<SearchOperation>().Search(query, 3, cancellationToken);
         log.WriteLine();
         log.WriteLine($"Search \"{query}\":");
         foreach (var hit in search.Hits)
@@ -72,7 +69,7 @@ internal sealed class DemoCommand : ICommand
             log.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  {hit.Score,8:0.000}  {hit.Root}/{hit.Path} page {hit.Page}"));
         }
 
-        var status = StatusReport.Build(session);
+        var status = composed.Get<StatusOperation>().Read();
         log.WriteLine();
         log.WriteLine(string.Create(
             CultureInfo.InvariantCulture,
@@ -85,6 +82,9 @@ internal sealed class DemoCommand : ICommand
 
         return day2.PagesEmbedded == truth ? 0 : 1;
     }
+
+    private static ScanSummary Sync(SyncOperation sync, string command, CancellationToken cancellationToken) =>
+        TerminalProgress.Around(progress => sync.Run(command, progress, cancellationToken));
 
     /// <summary>The demo's roots, and no settle wait: the generator has finished every file it wrote.</summary>
     private static IEnumerable<string> DemoSettings(DemoStoreInfo info)

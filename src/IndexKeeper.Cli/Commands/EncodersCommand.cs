@@ -1,6 +1,6 @@
 using System.Globalization;
-using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Drift;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
@@ -10,44 +10,27 @@ namespace IndexKeeper.Cli.Commands;
 /// active (configured) or serving (ranks searches), migration progress and the last canary figures.
 /// <c>--check-canaries</c> re-embeds the canary pages with the active encoder first (docs/encoders.md).
 /// </summary>
-internal sealed class EncodersCommand : ICommand
+internal sealed class EncodersCommand() : CommandBase(
+    "encoders",
+    "encoder ids in the index: counts, active/serving, migration, canaries; --check-canaries checks now")
 {
     private const string CheckCanaries = "check-canaries";
 
-    public string Name => "encoders";
+    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { CheckCanaries };
 
-    public string Summary => "encoder ids in the index: counts, active/serving, migration, canaries; --check-canaries checks now";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public IReadOnlySet<string> Flags { get; } = new HashSet<string> { CheckCanaries };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var check = context.Arguments.Flags.Contains(CheckCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
+        // Without a check nothing is written: the index is opened for reading only.
         var options = context.LoadForExistingIndex(rootsRequired: check);
-        using var session = IndexSession.Open(options, "indexkeeper encoders");
-        CanaryFigures? figures = null;
-        if (check)
-        {
-            session.ReconcileDrift();
-            figures = session.CheckCanaries(cancellationToken);
-        }
-
-        var report = EncodersReport.Build(session, check);
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-        }
-        else
-        {
-            Write(Console.Out, report);
-        }
+        using var composed = check ? CommandContext.Open(options, Name) : CommandContext.OpenForReading(options, Name);
+        var encoders = composed.Get<EncodersOperation>();
+        CanaryFigures? figures = check ? encoders.CheckCanaries(cancellationToken) : null;
 
         // Silent drift found now is a problem found, as verify reports one.
-        return figures is { Drifted: true } ? 1 : 0;
+        return context.Print(encoders.Read(check), Write, figures is { Drifted: true } ? 1 : 0);
     }
 
     private static void Write(TextWriter o, EncodersReport report)

@@ -1,44 +1,30 @@
 using System.Globalization;
 using IndexKeeper.Cli.Output;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Planning;
 
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>plan [--calibrate]</c>: read-only — what the next run would do, its cost, and when it would be done.</summary>
-internal sealed class PlanCommand : ICommand
+internal sealed class PlanCommand() : CommandBase(
+    "plan",
+    "read-only: what the next run would do, its cost and finish time under the windows; --calibrate times a few pages")
 {
     private static readonly CultureInfo C = CultureInfo.InvariantCulture;
 
-    public string Name => "plan";
+    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
 
-    public string Summary => "read-only: what the next run would do, its cost and finish time under the windows; --calibrate times a few pages";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions();
         var calibrate = context.Arguments.Flags.Contains("calibrate");
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.OpenReadOnly(options, "indexkeeper plan");
-            using var progress = new TerminalProgress();
-            return PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken);
+            using var composed = CommandContext.OpenForReading(options, Name);
+            return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken));
         }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-        }
-        else
-        {
-            Write(Console.Out, report);
-        }
-
-        return 0;
+        return context.Print(report, Write);
     }
 
     private static void Write(TextWriter o, PlanReport r)

@@ -2,7 +2,7 @@ using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Index;
-using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
@@ -13,15 +13,11 @@ namespace IndexKeeper.Cli.Commands;
 /// <c>sync</c>. The configured encoder is the active one and must have vectors in the segments (else exit 2,
 /// nothing changed), so a rebuild never silently serves another encoder.
 /// </summary>
-internal sealed class RebuildCatalogCommand : ICommand
+internal sealed class RebuildCatalogCommand() : CommandBase(
+    "rebuild-catalog",
+    "rebuild a lost or damaged catalog from the segments and a scan of the roots; embeds nothing, the old catalog is kept aside")
 {
-    public string Name => "rebuild-catalog";
-
-    public string Summary => "rebuild a lost or damaged catalog from the segments and a scan of the roots; embeds nothing, the old catalog is kept aside";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions(rootsRequired: true);
         var segments = Path.Combine(options.IndexDirectory, VectorStore.SegmentsFolder);
@@ -30,59 +26,52 @@ internal sealed class RebuildCatalogCommand : ICommand
             throw new UsageException($"There are no segments at '{segments}' to rebuild a catalog from; `sync` builds a new index.");
         }
 
-        var encoderId = EncoderFactory.Create(options.Encoder) is var encoder ? encoder.Identity.Id : string.Empty;
+        var settings = IndexSettings.From(options);
+        var encoderId = EncoderFactory.Create(settings.Encoder) is var encoder ? encoder.Identity.Id : string.Empty;
         (encoder as IDisposable)?.Dispose();
         var found = CatalogRebuilder.EncodersIn(segments);
         if (found.Count > 0 && !found.ContainsKey(encoderId))
         {
             throw new UsageException(
                 $"The configured encoder '{options.Encoder.Name}' ({encoderId[..16]}…) has no vectors in these segments; they hold {string.Join(", ", found.Select(f => f.Key[..16] + "… d=" + f.Value.ToString(CultureInfo.InvariantCulture)))}. " +
-                "Set Encoder (--encoder or the configuration) to the one that built the index; nothing was changed.");
+                "Set the encoder (--encoder or the configuration) to the one that built the index; nothing was changed.");
         }
 
         string? movedTo = null;
-        using var session = IndexSession.OpenForRebuild(options, "indexkeeper rebuild-catalog", directory => movedTo = CatalogRebuilder.MoveCatalogAside(directory, DateTime.UtcNow));
-        var rebuild = CatalogRebuilder.Restore(session.Catalog, segments, cancellationToken);
-        rebuild.OldCatalogMovedTo = movedTo;
-        session.Catalog.Encoders.Register(session.Encoder.Identity, EncoderSettings.Record(options.Encoder));
-        ScanSummary scan;
+        using var composed = IndexComposition.OpenForRebuild(options, "indexkeeper " + Name, directory => movedTo = CatalogRebuilder.MoveCatalogAside(directory, DateTime.UtcNow));
+        var catalog = composed.Index.Catalog;
+        var rebuild = CatalogRebuilder.Restore(catalog, segments, cancellationToken);
+        catalog.Encoders.Register(composed.Index.Encoder.Identity, settings.EncoderRecord);
+        Core.Pipeline.ScanSummary scan;
         using (var progress = new TerminalProgress())
         {
-            scan = new ScanPass(session.Catalog, session.Reader, session.ScanSettings(), progress).Run(Name, cancellationToken);
+            scan = composed.Get<ScanOperation>().Run(Name, progress, cancellationToken);
         }
 
-        CatalogRebuilder.DequeueCovered(session.Catalog, session.Encoder.Identity.Id);
-        scan.RecordDrift(session.ReconcileDrift());
-        var figures = session.Catalog.Figures();
-        var summary = new
-        {
-            oldCatalogMovedTo = rebuild.OldCatalogMovedTo,
-            segmentsRestored = rebuild.SegmentsRestored,
-            vectorSetsRestored = rebuild.VectorSetsRestored,
-            liveVectorSets = session.Catalog.VectorSets.Count(liveOnly: true),
-            duplicateRecords = rebuild.DuplicateRecords,
-            documentsSeen = scan.DocumentsSeen,
-            pagesSeen = scan.PagesSeen,
-            pagesQueued = figures.Queued,
-            pagesEmbedded = 0,
-            problems = rebuild.Problems,
-        };
-        if (context.Json)
-        {
-            JsonOutput.Write(summary);
-        }
-        else
-        {
-            var o = Console.Out;
-            o.WriteLine(movedTo is null ? "No old catalog was there." : $"The old catalog was moved to {movedTo} (kept).");
-            o.WriteLine(string.Create(CultureInfo.InvariantCulture, $"Took back {summary.segmentsRestored} segment(s) and {summary.vectorSetsRestored} vector set(s); {summary.liveVectorSets} are live after a scan of {summary.documentsSeen} document(s), {summary.pagesSeen} page(s)."));
-            o.WriteLine(string.Create(CultureInfo.InvariantCulture, $"0 pages embedded; {summary.pagesQueued} page(s) without vectors queued for `indexkeeper sync`."));
-            foreach (var problem in rebuild.Problems)
-            {
-                o.WriteLine("  problem: " + problem);
-            }
-        }
+        CatalogRebuilder.DequeueCovered(catalog, composed.Index.Encoder.Identity.Id);
+        var report = new RebuildCatalogReport(
+            movedTo,
+            rebuild.SegmentsRestored,
+            rebuild.VectorSetsRestored,
+            catalog.VectorSets.Count(liveOnly: true),
+            rebuild.DuplicateRecords,
+            scan.DocumentsSeen,
+            scan.PagesSeen,
+            catalog.Figures().Queued,
+            PagesEmbedded: 0,
+            rebuild.Problems);
+        return context.Print(report, Write, rebuild.Problems.Count > 0 || scan.RootsMissing.Count > 0 ? 1 : 0);
+    }
 
-        return rebuild.Problems.Count > 0 || scan.RootsMissing.Count > 0 ? 1 : 0;
+    private static void Write(TextWriter o, RebuildCatalogReport r)
+    {
+        var c = CultureInfo.InvariantCulture;
+        o.WriteLine(r.OldCatalogMovedTo is null ? "No old catalog was there." : $"The old catalog was moved to {r.OldCatalogMovedTo} (kept).");
+        o.WriteLine(string.Create(c, $"Took back {r.SegmentsRestored} segment(s) and {r.VectorSetsRestored} vector set(s); {r.LiveVectorSets} are live after a scan of {r.DocumentsSeen} document(s), {r.PagesSeen} page(s)."));
+        o.WriteLine(string.Create(c, $"{r.PagesEmbedded} pages embedded; {r.PagesQueued} page(s) without vectors queued for `indexkeeper sync`."));
+        foreach (var problem in r.Problems)
+        {
+            o.WriteLine("  problem: " + problem);
+        }
     }
 }

@@ -1,6 +1,5 @@
-using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Index;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
@@ -10,35 +9,27 @@ namespace IndexKeeper.Cli.Commands;
 /// (a damaged file is moved aside, never deleted), re-seals a bad seal over good records. Says what it
 /// dropped; exit 1 when it changed anything, 0 when there was nothing to repair.
 /// </summary>
-internal sealed class RepairCommand : ICommand
+internal sealed class RepairCommand() : CommandBase(
+    "repair",
+    "drop what verify found unreadable (its pages are queued again) and re-seal bad seals; says what it dropped")
 {
-    public string Name => "repair";
-
-    public string Summary => "drop what verify found unreadable (its pages are queued again) and re-seal bad seals; says what it dropped";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var options = context.LoadForExistingIndex();
-        using var session = IndexSession.Open(options, "indexkeeper repair");
-        var segments = Path.Combine(session.IndexDirectory, VectorStore.SegmentsFolder);
-        var damage = DamageSurvey.Run(session.Catalog, segments, null, readRecords: true, cancellationToken);
-        var done = DamageRepair.Run(session.Catalog, segments, damage);
-        if (context.Json)
-        {
-            JsonOutput.Write(new { repairs = done, segmentsDamaged = damage.Segments.Count });
-        }
-        else
-        {
-            foreach (var line in done)
-            {
-                Console.Out.WriteLine("  " + line);
-            }
+        // The store is not opened: its open would repair on its own guesses before this command's survey.
+        using var composed = context.OpenExisting(Name);
+        var segments = Path.Combine(composed.Index.Directory, VectorStore.SegmentsFolder);
+        var damage = DamageSurvey.Run(composed.Index.Catalog, segments, null, readRecords: true, cancellationToken);
+        var repairs = DamageRepair.Run(composed.Index.Catalog, segments, damage);
+        return context.Print(new RepairReport(repairs, damage.Segments.Count), Write, repairs.Count == 0 ? 0 : 1);
+    }
 
-            Console.Out.WriteLine(done.Count == 0 ? "Nothing to repair." : "Repaired; `indexkeeper sync` embeds the queued pages again.");
+    private static void Write(TextWriter o, RepairReport report)
+    {
+        foreach (var line in report.Repairs)
+        {
+            o.WriteLine("  " + line);
         }
 
-        return done.Count == 0 ? 0 : 1;
+        o.WriteLine(report.Repairs.Count == 0 ? "Nothing to repair." : "Repaired; `indexkeeper sync` embeds the queued pages again.");
     }
 }

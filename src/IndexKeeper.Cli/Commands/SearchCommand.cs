@@ -1,21 +1,17 @@
 using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Output;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>search "text" [-k N] [--maps DIR]</c>: top-k pages by late interaction, with what matched where.</summary>
-internal sealed class SearchCommand : ICommand
+internal sealed class SearchCommand() : CommandBase(
+    "search",
+    "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps", "k", "maps")
 {
-    public string Name => "search";
-
-    public string Summary => "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string> { "k", "maps" };
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var text = string.Join(' ', context.Arguments.Positional).Trim();
         if (text.Length == 0)
@@ -37,11 +33,11 @@ internal sealed class SearchCommand : ICommand
 
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.OpenReadOnly(options, "indexkeeper search");
-            var found = PageSearcher.Search(session, text, k, cancellationToken);
+            using var composed = CommandContext.OpenForReading(options, Name);
+            var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
             if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
             {
-                MatchMaps.Write(session, found, mapsDirectory);
+                MatchMaps.Write(composed.Index.Catalog, found, mapsDirectory);
             }
 
             return found;
@@ -50,36 +46,32 @@ internal sealed class SearchCommand : ICommand
             : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 
         // A search that could not read every vector set is a partial failure (exit 1), said on stderr.
-        var exitCode = report.VectorSetsUnreadable > 0 ? 1 : 0;
-        if (exitCode != 0)
+        if (report.VectorSetsUnreadable > 0)
         {
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture, $"warning: {report.VectorSetsUnreadable} vector set(s) could not be read, so their pages could not be found; run `indexkeeper verify` (docs/recovery.md)."));
         }
 
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-            return exitCode;
-        }
+        return context.Print(report, Write, report.VectorSetsUnreadable > 0 ? 1 : 0);
+    }
 
+    private static void Write(TextWriter o, SearchReport report)
+    {
         var c = CultureInfo.InvariantCulture;
-        Console.Out.WriteLine(string.Create(c, $"{report.Hits.Count} hit(s) for \"{report.Query}\" ({report.QueryVectors} query vectors, {report.PagesScanned} pages, {report.ElapsedMilliseconds:0.0} ms)"));
+        o.WriteLine(string.Create(c, $"{report.Hits.Count} hit(s) for \"{report.Query}\" ({report.QueryVectors} query vectors, {report.PagesScanned} pages, {report.ElapsedMilliseconds:0.0} ms)"));
         if (report.Notice is { } notice)
         {
-            Console.Out.WriteLine("note: " + notice);
+            o.WriteLine("note: " + notice);
         }
 
         var rank = 0;
         foreach (var hit in report.Hits)
         {
             var words = string.Join(", ", hit.Matches.Where(m => m.Word is not null && m.Similarity > 0.5).Select(m => m.Word).Distinct().Take(6));
-            Console.Out.WriteLine(string.Create(c, $"{++rank,3}. {hit.Score,8:0.000}  {hit.Root}/{hit.Path}  page {hit.Page}{(hit.AlsoAt.Count > 0 ? $"  (+{hit.AlsoAt.Count} copies)" : string.Empty)}"));
+            o.WriteLine(string.Create(c, $"{++rank,3}. {hit.Score,8:0.000}  {hit.Root}/{hit.Path}  page {hit.Page}{(hit.AlsoAt.Count > 0 ? $"  (+{hit.AlsoAt.Count} copies)" : string.Empty)}"));
             if (words.Length > 0)
             {
-                Console.Out.WriteLine("               matched: " + words);
+                o.WriteLine("               matched: " + words);
             }
         }
-
-        return exitCode;
     }
 }

@@ -1,34 +1,28 @@
 using System.Globalization;
-using IndexKeeper.Cli.Output;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>status</c>: figures of the index and its quarantine list.</summary>
-internal sealed class StatusCommand : ICommand
+internal sealed class StatusCommand() : CommandBase(
+    "status",
+    "figures of the index: documents, pages, vector sets, segments, queue, quarantine")
 {
-    public string Name => "status";
-
-    public string Summary => "figures of the index: documents, pages, vector sets, segments, queue, quarantine";
-
-    public IReadOnlySet<string> Options { get; } = new HashSet<string>();
-
-    public int Run(CommandContext context, CancellationToken cancellationToken)
+    public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadForExistingIndex();
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var session = IndexSession.OpenReadOnly(options, "indexkeeper status");
-            return StatusReport.Build(session);
+            using var composed = CommandContext.OpenForReading(options, Name);
+            return composed.Get<StatusOperation>().Read();
         }, daemon => daemon.Get<StatusReport>("/api/status"));
-        if (context.Json)
-        {
-            JsonOutput.Write(report);
-            return 0;
-        }
+        return context.Print(report, Write);
+    }
 
+    private static void Write(TextWriter o, StatusReport report)
+    {
         var c = CultureInfo.InvariantCulture;
-        var o = Console.Out;
         o.WriteLine($"Index {report.IndexDirectory}");
         o.WriteLine(string.Create(c, $"  documents    {report.Documents} live, {report.Quarantined} quarantined"));
         o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
@@ -45,7 +39,7 @@ internal sealed class StatusCommand : ICommand
         }
 
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
-        o.WriteLine(string.Create(c, $"  without vectors {report.PagesWithoutVectors} page(s) (queued ones included)"));
+        o.WriteLine(string.Create(c, $"  no vectors   {report.PagesWithoutVectors} page(s) without readable vectors (queued ones included)"));
         if (report.SegmentsMissing > 0 || report.VectorSetsUnreadable > 0)
         {
             o.WriteLine(string.Create(c, $"  DAMAGE       {report.SegmentsMissing} segment file(s) missing, {report.VectorSetsUnreadable} vector set(s) unreadable; run `indexkeeper verify` (docs/recovery.md)"));
@@ -60,7 +54,5 @@ internal sealed class StatusCommand : ICommand
                 o.WriteLine($"  {q.Root}/{q.Path}  {q.Reason}: {q.Message}");
             }
         }
-
-        return 0;
     }
 }

@@ -1,7 +1,7 @@
 using System.Globalization;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Search;
-using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Cli.Output;
@@ -12,14 +12,14 @@ namespace IndexKeeper.Cli.Output;
 /// </summary>
 internal static class MatchMaps
 {
-    public static void Write(IndexSession session, SearchReport report, string directory)
+    public static void Write(IndexCatalog catalog, SearchReport report, string directory)
     {
         Directory.CreateDirectory(directory);
         var rank = 0;
         foreach (var hit in report.Hits)
         {
             rank++;
-            if (session.Catalog.Pages.Find(hit.PageKey) is not { Width: > 0, Height: > 0 } page)
+            if (catalog.Pages.Find(hit.PageKey) is not { Width: > 0, Height: > 0 } page)
             {
                 continue;
             }

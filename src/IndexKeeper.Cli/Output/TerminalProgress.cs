@@ -16,6 +16,14 @@ internal sealed class TerminalProgress : IProgress<ScanProgress>, IDisposable
     private string lastPhase = string.Empty;
     private bool drawn;
 
+    /// <summary>Runs <paramref name="work"/> with a progress bar, cleared before its result is printed.</summary>
+    public static T Around<T>(Func<IProgress<ScanProgress>, T> work)
+    {
+        ArgumentNullException.ThrowIfNull(work);
+        using var progress = new TerminalProgress();
+        return work(progress);
+    }
+
     public void Report(ScanProgress value)
     {
         var phaseChanged = value.Phase != lastPhase;

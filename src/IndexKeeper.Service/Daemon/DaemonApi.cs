@@ -1,10 +1,10 @@
 using IndexKeeper.Core.Health;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Planning;
-using IndexKeeper.Service.Querying;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Http;
+using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Logging;
 
 namespace IndexKeeper.Service.Daemon;
@@ -12,8 +12,16 @@ namespace IndexKeeper.Service.Daemon;
 /// <summary>The daemon's HTTP paths (docs/daemon.md): metrics, health, the status page and the JSON API.</summary>
 internal static class DaemonApi
 {
-    public static void Map(WebApplication app, IndexSession session, DaemonState state, IEmbedGate gate, HealthLimits limits, ListenAddress listen, string? token)
+    public static void Map(WebApplication app, IndexKeeperOptions options, HealthLimits limits, ListenAddress listen, string? token)
     {
+        var services = app.Services;
+        var state = services.GetRequiredService<DaemonState>();
+        var gate = services.GetRequiredService<IEmbedGate>();
+        var index = services.GetRequiredService<OpenIndex>();
+        var status = services.GetRequiredService<StatusOperation>();
+        var search = services.GetRequiredService<SearchOperation>();
+        var plan = services.GetRequiredService<PlanOperation>();
+        var documents = services.GetRequiredService<DocumentListOperation>();
         if (token is null)
         {
             app.Use(async (context, next) =>
@@ -71,22 +79,22 @@ internal static class DaemonApi
             return Results.Json(report, ApiJson.Options, statusCode: report.Status == HealthStatus.Unhealthy ? 503 : 200);
         });
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
-        app.MapGet("/api/status", () => Results.Json(StatusReport.Build(session), ApiJson.Options));
-        app.MapGet("/api/daemon", () => Results.Json(Report(session, state, limits), ApiJson.Options));
+        app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
+        app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            SearchEndpoint.Answer(context.Request.Query, session.Options.Query, (q, k, c) => PageSearcher.Search(session, q, k, c), state, cancellationToken));
+            SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
             var wantCalibration = calibrate is "1" or "true";
-            var report = await state.OnWorkLoop(() => PlanBuilder.Build(session, new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
+            var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
             return Results.Json(report, ApiJson.Options);
         });
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
-            Results.Json(DocumentLister.List(session, root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
+            Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
     }
 
-    private static DaemonReport Report(IndexSession session, DaemonState state, HealthLimits limits)
+    private static DaemonReport Report(IndexKeeperOptions options, OpenIndex index, DaemonState state, HealthLimits limits)
     {
         var figures = state.Figures;
         var allowance = state.Allowance;
@@ -99,16 +107,16 @@ internal static class DaemonApi
             WatcherOverflows = state.WatcherOverflows,
             WindowOpen = allowance.WindowOpen,
             WindowEnd = allowance.WindowEnd,
-            Windows = session.Options.Schedule.EffectiveWindows,
-            TimeZone = ScheduleSetup.Zone(session.Options.Schedule).Id,
+            Windows = options.Schedule.EffectiveWindows,
+            TimeZone = ScheduleSetup.Zone(options.Schedule).Id,
             QueuedFresh = figures.QueuedFresh,
             QueuedMigration = figures.QueuedMigration,
             QueuedCanary = figures.QueuedCanary,
             Health = HealthRules.Evaluate(state.HealthSnapshot(), limits),
             Roots = state.Roots,
-            QuarantinedPages = session.Catalog.Queue.Quarantined().Take(200).Select(q =>
+            QuarantinedPages = index.Catalog.Queue.Quarantined().Take(200).Select(q =>
             {
-                var page = session.Catalog.Pages.Find(q.Id);
+                var page = index.Catalog.Pages.Find(q.Id);
                 return new QuarantinedPage(q.Id, page?.SourceRoot ?? string.Empty, page?.SourcePath ?? string.Empty, page?.SourcePage ?? 0, q.Attempts, q.LastError ?? string.Empty, q.QuarantinedUtc ?? q.EnqueuedUtc);
             }).ToList(),
             Samples = state.Samples.Snapshot(),

@@ -2,7 +2,8 @@ using System.Net.Sockets;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Telemetry;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Core.Queue;
+using IndexKeeper.Service.Application;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
@@ -34,12 +35,13 @@ public static class DaemonHost
         ArgumentNullException.ThrowIfNull(options);
         ListenAddress.TryParse(options.Daemon.Listen, out var listen);
         var token = BearerTokens.Resolve(options.Daemon);
-        using var session = IndexSession.Open(options, DaemonClient.LockPurpose);
+        var settings = IndexSettings.From(options);
+        using var index = OpenIndex.Open(settings, DaemonClient.LockPurpose);
 
         // Built and repaired before any thread can race for them.
-        _ = session.Store;
-        _ = session.Encoder;
-        var app = Build(options, session, listen!, token);
+        _ = index.Store;
+        _ = index.Encoder;
+        var app = Build(options, settings, index, listen!, token);
         var state = app.Services.GetRequiredService<DaemonState>();
         var worker = app.Services.GetRequiredService<IndexWorker>();
         var lifetime = app.Services.GetRequiredService<IHostApplicationLifetime>();
@@ -47,8 +49,8 @@ public static class DaemonHost
         {
             var url = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()?.Addresses.FirstOrDefault() ?? listen!.ClientUrl;
             new DaemonEndpoint(DaemonEndpoint.CurrentVersion, url.Replace("0.0.0.0", "127.0.0.1", StringComparison.Ordinal).Replace("[::]", "[::1]", StringComparison.Ordinal), Environment.ProcessId, token is not null)
-                .Write(session.IndexDirectory);
-            app.Logger.LogInformation("IndexKeeper is running: index {Index}, API at {Url}.", session.IndexDirectory, url);
+                .Write(index.Directory);
+            app.Logger.LogInformation("IndexKeeper is running: index {Index}, API at {Url}.", index.Directory, url);
         });
         try
         {
@@ -61,9 +63,9 @@ public static class DaemonHost
         }
         finally
         {
-            DaemonEndpoint.Remove(session.IndexDirectory);
+            DaemonEndpoint.Remove(index.Directory);
 
-            // The session closes only after the work loop's thread has ended: never under a writer.
+            // The index closes only after the work loop's thread has ended: never under a writer.
             if (await Task.WhenAny(worker.Completion, Task.Delay(TimeSpan.FromSeconds(options.Daemon.ShutdownGraceSeconds))).ConfigureAwait(false) != worker.Completion)
             {
                 // Still writing after the grace period: exit without closing the catalog under it; the OS
@@ -77,7 +79,7 @@ public static class DaemonHost
         return state.HasWorkLoopFailed ? 1 : 0;
     }
 
-    private static WebApplication Build(IndexKeeperOptions options, IndexSession session, ListenAddress listen, string? token)
+    private static WebApplication Build(IndexKeeperOptions options, IndexSettings settings, OpenIndex index, ListenAddress listen, string? token)
     {
         var daemon = options.Daemon;
         var builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions { ContentRootPath = AppContext.BaseDirectory, Args = [] });
@@ -149,11 +151,13 @@ public static class DaemonHost
         }
 
         var ringCapacity = (int)Math.Clamp(TimeSpan.FromDays(1) / TimeSpan.FromSeconds(daemon.SampleSeconds), 16, 86_400);
-        builder.Services.AddSingleton(session);
+        builder.Services.AddSingleton(options);
+        builder.Services.AddIndexApplication(
+            settings, index, new RetryPolicy(daemon.MaxAttempts, TimeSpan.FromSeconds(daemon.RetryBaseSeconds), TimeSpan.FromHours(1)));
         builder.Services.AddSingleton(new DaemonState(TimeProvider.System, ringCapacity));
         builder.Services.AddSingleton<IEmbedGate>(new ScheduledEmbedGate(ScheduleSetup.Gate(options.Schedule)));
         builder.Services.AddSingleton(sp => new RootWatchers(
-            session.ScanSettings().Roots,
+            settings.Scan.Roots,
             TimeSpan.FromSeconds(options.Detect.SettleSeconds),
             options.Detect.MaxPendingPaths,
             options.Detect.WatcherBufferKilobytes * 1024,
@@ -170,7 +174,7 @@ public static class DaemonHost
         _ = app.Services.GetRequiredService<DaemonMetrics>();
         var limits = new HealthLimits(
             TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes));
-        DaemonApi.Map(app, session, app.Services.GetRequiredService<DaemonState>(), app.Services.GetRequiredService<IEmbedGate>(), limits, listen, token);
+        DaemonApi.Map(app, options, limits, listen, token);
         return app;
     }
 }

@@ -4,6 +4,8 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Service.Application;
+using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
@@ -17,9 +19,16 @@ namespace IndexKeeper.Service.Daemon;
 /// request; the unit in flight gets the rest of the grace period (and is abandoned, uncommitted, after it).
 /// On the way out it seals the open segments.
 /// </summary>
-/// <remarks>REQUIRES: the session's index lock is held for the worker's whole life; nothing else writes the index.</remarks>
+/// <remarks>REQUIRES: the index lock is held for the worker's whole life; nothing else writes the index.</remarks>
 internal sealed class IndexWorker(
-    IndexSession session,
+    IndexKeeperOptions options,
+    IndexSettings settings,
+    OpenIndex index,
+    ScanOperation scan,
+    EmbedBatchOperation embed,
+    DriftOperation drift,
+    CanaryOperation canaries,
+    CompactOperation compaction,
     DaemonState state,
     RootWatchers watchers,
     IEmbedGate gate,
@@ -27,22 +36,20 @@ internal sealed class IndexWorker(
     IHostLifetime hostLifetime,
     ILogger<IndexWorker> log) : BackgroundService
 {
-    private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(session.Options.Detect.FullWalkMinutes);
-    private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(session.Options.Daemon.SampleSeconds);
-    private readonly TimeSpan compactInterval = TimeSpan.FromMinutes(session.Options.Daemon.CompactEveryMinutes);
-    private readonly TimeSpan grace = TimeSpan.FromSeconds(session.Options.Daemon.ShutdownGraceSeconds);
-    private readonly RetryPolicy retry = new(
-        session.Options.Daemon.MaxAttempts, TimeSpan.FromSeconds(session.Options.Daemon.RetryBaseSeconds), TimeSpan.FromHours(1));
+    private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(options.Detect.FullWalkMinutes);
+    private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(options.Daemon.SampleSeconds);
+    private readonly TimeSpan compactInterval = TimeSpan.FromMinutes(options.Daemon.CompactEveryMinutes);
+    private readonly TimeSpan grace = TimeSpan.FromSeconds(options.Daemon.ShutdownGraceSeconds);
 
     private readonly WorkLoopSupervisor supervisor = new(
-        new RetryPolicy(session.Options.Daemon.FaultRetries + 1, TimeSpan.FromSeconds(session.Options.Daemon.FaultRetryBaseSeconds), TimeSpan.FromMinutes(5)), state, log);
+        new RetryPolicy(options.Daemon.FaultRetries + 1, TimeSpan.FromSeconds(options.Daemon.FaultRetryBaseSeconds), TimeSpan.FromMinutes(5)), state, log);
 
     private readonly CancellationTokenSource hardStop = new();
     private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private long embeddedSinceSample;
     private bool migrating;
 
-    /// <summary>Completes when the loop's thread has ended (or never started): only then may the session be closed.</summary>
+    /// <summary>Completes when the loop's thread has ended (or never started): only then may the index be closed.</summary>
     public Task Completion => completion.Task;
 
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
@@ -137,7 +144,7 @@ internal sealed class IndexWorker(
                 if (now >= nextFullWalk)
                 {
                     // At start too: whatever changed while the daemon was down is found by this walk.
-                    FullWalk(session.ScanSettings().Roots.Where(IsPresent).ToList(), "run: full walk");
+                    FullWalk(settings.Scan.Roots.Where(IsPresent).ToList(), "run: full walk");
                     state.FullWalkDone(clock.GetUtcNow());
                     nextFullWalk = clock.GetUtcNow() + fullWalkInterval;
                     busy = true;
@@ -146,7 +153,7 @@ internal sealed class IndexWorker(
                 var (walks, settled, nextSettle) = watchers.Take(clock.GetUtcNow().UtcDateTime);
                 if (walks.Count > 0)
                 {
-                    var specs = session.ScanSettings().Roots.Where(r => walks.Contains(r.Name) && IsPresent(r)).ToList();
+                    var specs = settings.Scan.Roots.Where(r => walks.Contains(r.Name) && IsPresent(r)).ToList();
                     FullWalk(specs, "run: root walk");
                     busy = true;
                 }
@@ -203,7 +210,7 @@ internal sealed class IndexWorker(
         {
             // A catalog read tells whether the index can still be used in this process (LiteDB answers every
             // call with its failure once a write failed).
-            if (supervisor.Retry(ex, () => session.Catalog.Figures(), stopping))
+            if (supervisor.Retry(ex, () => index.Catalog.Figures(), stopping))
             {
                 return false;
             }
@@ -233,8 +240,7 @@ internal sealed class IndexWorker(
             return;
         }
 
-        var settings = session.ScanSettings() with { Roots = roots };
-        var summary = new ScanPass(session.Catalog, session.Reader, settings).Run(command, hardStop.Token);
+        var summary = scan.Walk(command, roots, hardStop.Token);
         Log(command, summary);
         ReconcileDrift();
     }
@@ -245,10 +251,10 @@ internal sealed class IndexWorker(
     /// </summary>
     private void ReconcileDrift()
     {
-        var decision = session.ReconcileDrift();
+        var decision = drift.Reconcile();
         if (decision.SwitchOver)
         {
-            log.LogInformation("Migration complete: searches now rank with the active encoder {Encoder}.", session.Encoder.Identity.Id[..12]);
+            log.LogInformation("Migration complete: searches now rank with the active encoder {Encoder}.", index.Encoder.Identity.Id[..12]);
         }
         else if (decision.QueueForMigration.Count > 0)
         {
@@ -262,12 +268,12 @@ internal sealed class IndexWorker(
     private bool CheckCanariesIfDue()
     {
         var now = state.Clock.GetUtcNow();
-        if (!state.Allowance.WindowOpen || !session.CanariesDue(now.UtcDateTime))
+        if (!state.Allowance.WindowOpen || !canaries.Due(now.UtcDateTime))
         {
             return false;
         }
 
-        var figures = session.CheckCanaries(hardStop.Token);
+        var figures = canaries.Check(hardStop.Token);
         state.Canaries = figures;
         if (figures.Drifted)
         {
@@ -288,7 +294,7 @@ internal sealed class IndexWorker(
         // A folder event (created, moved in or out, deleted) is not worth untangling path by path: walk its root.
         var files = new List<ChangedPath>();
         var walk = new HashSet<string>(StringComparer.Ordinal);
-        var rootPaths = session.RootPaths;
+        var rootPaths = settings.RootPaths;
         foreach (var path in settled)
         {
             if (!rootPaths.TryGetValue(path.Root, out var rootPath))
@@ -298,7 +304,7 @@ internal sealed class IndexWorker(
 
             var full = Path.Combine(rootPath, path.RelativePath.Replace('/', Path.DirectorySeparatorChar));
             var kind = FileStatReader.Read(full).Kind;
-            if (kind == EntryKind.Directory || (kind == EntryKind.Missing && session.Catalog.Documents.Find(path.Root, path.RelativePath) is null && !LooksLikeFile(path)))
+            if (kind == EntryKind.Directory || (kind == EntryKind.Missing && index.Catalog.Documents.Find(path.Root, path.RelativePath) is null && !LooksLikeFile(path)))
             {
                 walk.Add(path.Root);
             }
@@ -310,7 +316,7 @@ internal sealed class IndexWorker(
 
         if (files.Count > 0)
         {
-            var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).RunPaths("run: changes", files, hardStop.Token);
+            var summary = scan.Paths("run: changes", files, hardStop.Token);
             Log("run: changes", summary);
             if (summary.DocumentsDeferred > 0)
             {
@@ -331,7 +337,7 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        var allowance = gate.Allowance(now, session.Catalog.Queue.Due(now.UtcDateTime));
+        var allowance = gate.Allowance(now, index.Catalog.Queue.Due(now.UtcDateTime));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {
@@ -340,11 +346,10 @@ internal sealed class IndexWorker(
 
         // A few batches per turn: changes and stop requests are looked at in between, and the embed
         // history (one record per call, for the plan's throughput) does not get a record per batch.
-        var batch = Math.Min(allowance.MaxPages, session.Options.Encoder.BatchSize * 4L);
+        var batch = Math.Min(allowance.MaxPages, settings.EmbedBatchSize * 4L);
         var summary = new ScanSummary();
         var stopwatch = Stopwatch.StartNew();
-        var embedded = new EmbedPass(session.Catalog, session.Store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize, retry: retry)
-            .Run(summary, batch, allowance.LowestPriority, hardStop.Token);
+        var embedded = embed.Run(summary, batch, allowance.LowestPriority, null, hardStop.Token);
         foreach (var problem in summary.Problems)
         {
             log.LogWarning("Embed: {Problem}", problem);
@@ -356,7 +361,7 @@ internal sealed class IndexWorker(
             state.CountEmbedded(embedded);
             Interlocked.Add(ref embeddedSinceSample, embedded);
             log.LogDebug("Embedded {Pages} page(s) in {Seconds:0.000} s.", embedded, stopwatch.Elapsed.TotalSeconds);
-            if (migrating && session.Catalog.Queue.Depths()[QueuePriority.Migration] == 0)
+            if (migrating && index.Catalog.Queue.Depths()[QueuePriority.Migration] == 0)
             {
                 ReconcileDrift();
             }
@@ -367,41 +372,39 @@ internal sealed class IndexWorker(
 
     private void ForgetRoot(string root)
     {
-        if (!session.Catalog.Documents.OfRoot(root).Any())
+        if (!index.Catalog.Documents.OfRoot(root).Any())
         {
             return;
         }
 
         log.LogWarning("Root {Root} has been gone longer than Detect:RootGoneGraceHours; removing its documents from the index.", root);
-        var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).RunForgetRoot("run: root gone", root, hardStop.Token);
+        var summary = scan.ForgetRoot("run: root gone", root, hardStop.Token);
         Log("run: root gone", summary);
     }
 
     private void Compact()
     {
-        var options = session.CompactionOptions();
-        if (!session.Store.CompactionDue(options))
+        if (compaction.Jobs().Count == 0)
         {
             return;
         }
 
-        session.Store.SealAll();
-        var report = session.Store.Compact(options, hardStop.Token);
+        var report = compaction.Run(hardStop.Token);
         log.LogInformation(
             "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed.", report.Jobs, report.SegmentsRewritten, report.BytesReclaimed);
     }
 
     private void SealByAge()
     {
-        if (session.Store.OldestOpenSince() is { } since && state.Clock.GetUtcNow() - since >= TimeSpan.FromHours(session.Options.Storage.SealAtHours))
+        if (index.Store.OldestOpenSince() is { } since && state.Clock.GetUtcNow() - since >= settings.Segments.SealAtAge)
         {
-            session.Store.SealAll();
+            index.Store.SealAll();
         }
     }
 
     private void Sample(DateTimeOffset now)
     {
-        var catalog = session.Catalog;
+        var catalog = index.Catalog;
         var figures = catalog.Figures();
         var depths = catalog.Queue.Depths();
         var segments = catalog.Segments.All();
@@ -409,7 +412,7 @@ internal sealed class IndexWorker(
         double? free = null;
         try
         {
-            var drive = new DriveInfo(session.IndexDirectory);
+            var drive = new DriveInfo(index.Directory);
             free = drive.TotalSize > 0 ? (double)drive.AvailableFreeSpace / drive.TotalSize : null;
         }
         catch (Exception ex) when (ex is IOException or ArgumentException or UnauthorizedAccessException)
@@ -430,9 +433,9 @@ internal sealed class IndexWorker(
             segments.Count(s => !s.Sealed),
             segments.Count(s => s.Sealed),
             segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
-            DirectorySize.Of(session.IndexDirectory),
+            DirectorySize.Of(index.Directory),
             free,
-            DamageSurvey.Run(catalog, session.Store.Directory, catalog.Encoders.ServingId() ?? session.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
+            DamageSurvey.Run(catalog, index.Store.Directory, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }
 
@@ -440,7 +443,7 @@ internal sealed class IndexWorker(
     {
         try
         {
-            session.Store.SealAll();
+            index.Store.SealAll();
         }
         catch (Exception ex)
         {

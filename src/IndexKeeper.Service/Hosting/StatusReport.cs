@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Hosting;
 
@@ -65,44 +64,4 @@ public sealed class StatusReport
     public IReadOnlyList<string> Roots { get; init; } = [];
 
     public IReadOnlyList<QuarantineEntry> Quarantine { get; init; } = [];
-
-    public static StatusReport Build(IndexSession session)
-    {
-        ArgumentNullException.ThrowIfNull(session);
-        var figures = session.Catalog.Figures();
-        var segments = session.Catalog.Segments.All();
-        var segmentBytes = segments.Sum(s => s.Length);
-        var drift = session.ReadDrift();
-        var damage = DamageSurvey.Run(session.Catalog, session.Store.Directory, drift.ServingEncoderId, readRecords: false, CancellationToken.None);
-        var canary = CanaryReport.Of(session.Catalog.Encoders.Find(session.Encoder.Identity.Id));
-        return new StatusReport
-        {
-            IndexDirectory = session.IndexDirectory,
-            Documents = figures.Documents,
-            Pages = figures.Pages,
-            PageLocations = figures.PageLocations,
-            VectorSets = session.Catalog.VectorSets.Count(liveOnly: false),
-            LiveVectorSets = session.Catalog.VectorSets.Count(liveOnly: true),
-            Segments = segments.Count,
-            DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
-            ActiveEncoder = session.Options.Encoder.Name,
-            ActiveEncoderId = session.Encoder.Identity.Id,
-            ServingEncoderId = drift.ServingEncoderId,
-            PagesDrifted = drift.DriftedPages.Count,
-            PagesMigrated = drift.MigratedPages,
-            CanaryDrifted = canary?.Drifted ?? false,
-            Canary = canary,
-            SegmentsMissing = damage.SegmentsMissing,
-            VectorSetsUnreadable = damage.VectorSetsUnreadable,
-            PagesWithoutVectors = damage.PagesWithoutVectors,
-            Queued = figures.Queued,
-            Quarantined = figures.QuarantinedDocuments,
-            BytesOnDisk = DirectorySize.Of(session.IndexDirectory),
-            LastScanUtc = figures.LastScanUtc,
-            Roots = session.Options.Roots.Count > 0 ? session.Options.Roots.Select(r => r.Name).ToList() : session.Catalog.Documents.RootNames().ToList(),
-            Quarantine = session.Catalog.Documents.Quarantined()
-                .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
-                .ToList(),
-        };
-    }
 }

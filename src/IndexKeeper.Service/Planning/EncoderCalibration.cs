@@ -1,7 +1,7 @@
 using System.Diagnostics;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Core.Encoding;
 
 namespace IndexKeeper.Service.Planning;
 
@@ -13,18 +13,16 @@ internal static class EncoderCalibration
 {
     private const int SampleSize = 16;
 
-    public static (double SecondsPerPage, double VectorsPerPage)? Run(IndexSession session, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
+    public static (double SecondsPerPage, double VectorsPerPage)? Run(
+        IndexCatalog catalog, IPageEncoder encoder, IReadOnlyDictionary<string, string> rootPaths, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
     {
-        var catalog = session.Catalog;
         var sample = catalog.Pages.ReferencedKeys().Take(SampleSize).Select(catalog.Pages.Find).OfType<PageRecord>()
             .Concat(pendingPages).Take(SampleSize)
-            .Select(p => PageInput.From(p, session.RootPaths)).ToList();
+            .Select(p => PageInput.From(p, rootPaths)).ToList();
         if (sample.Count == 0)
         {
             return null;
         }
-
-        var encoder = session.Encoder;
 
         // One untimed page first: model loading and first-call set-up are not throughput.
         encoder.EncodePages(sample.Take(1).ToList(), cancellationToken);

@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Querying;
@@ -29,17 +30,18 @@ internal sealed class RankingEncoder : IDisposable
 
     public string? Notice { get; }
 
-    public static RankingEncoder Choose(IndexSession session)
+    /// <param name="current">The active encoder's settings; a rebuilt serving encoder takes what its record lacks from them.</param>
+    public static RankingEncoder Choose(OpenIndex index, EncoderOptions current, DriftOperation drift)
     {
-        var active = session.Encoder;
+        var active = index.Encoder;
         // A catalog that never recorded one (made before drift tracking) gets the policy's inference.
-        var serving = session.Catalog.Encoders.ServingId() ?? session.ReadDrift().ServingEncoderId;
+        var serving = index.Catalog.Encoders.ServingId() ?? drift.Read().ServingEncoderId;
         if (serving == active.Identity.Id)
         {
             return new RankingEncoder(active, null, serving, null);
         }
 
-        var record = session.Catalog.Encoders.Find(serving);
+        var record = index.Catalog.Encoders.Find(serving);
         var why = "the catalog does not know it";
         // A record made before settings were recorded: its name and d with no pooling are the likely
         // settings, and the id check below makes a wrong guess harmless.
@@ -51,7 +53,7 @@ internal sealed class RankingEncoder : IDisposable
                 [nameof(EncoderOptions.PoolFactor)] = "1",
             }
             : record?.Settings;
-        if (recorded is not null && EncoderSettings.Rebuild(recorded, session.Options.Encoder) is { } options)
+        if (recorded is not null && EncoderSettings.Rebuild(recorded, current) is { } options)
         {
             IPageEncoder? rebuilt = null;
             try
@@ -72,7 +74,7 @@ internal sealed class RankingEncoder : IDisposable
             (rebuilt as IDisposable)?.Dispose();
         }
 
-        var migrated = session.Catalog.VectorSets.LivePageKeysOf(active.Identity.Id).Count;
+        var migrated = index.Catalog.VectorSets.LivePageKeysOf(active.Identity.Id).Count;
         return new RankingEncoder(
             active,
             null,

@@ -1,5 +1,5 @@
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Churn.Strategies;
 
@@ -14,7 +14,7 @@ internal sealed class IndexAudit
     private readonly Dictionary<string, ulong> bindings = new(StringComparer.Ordinal);
     private readonly Dictionary<ulong, HashSet<string>> keysOfContent = [];
 
-    public AuditResult Check(IndexSession session, IReadOnlyDictionary<string, IReadOnlyList<ulong>> truth, IReadOnlySet<ulong> changed)
+    public AuditResult Check(OpenIndex session, IReadOnlyDictionary<string, IReadOnlyList<ulong>> truth, IReadOnlySet<ulong> changed)
     {
         var documents = session.Catalog.Documents.OfRoot(KeeperIndex.RootName).ToDictionary(d => d.Path, StringComparer.Ordinal);
         var live = session.Catalog.VectorSets.Live(session.Encoder.Identity.Id).ToDictionary(v => v.PageKey, v => (long)v.Length, StringComparer.Ordinal);

@@ -2,16 +2,16 @@ using System.Diagnostics;
 using System.Globalization;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Index;
-using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Churn.Strategies;
 
 /// <summary>
 /// Strategy (c): the real IndexKeeper on a real index directory. Each day is one <c>sync</c> as the
-/// command runs it (the session with its reader worker, the scan pass, the embed pass) followed by a
+/// command runs it (the composed index with its reader worker, the scan, the embed batches) followed by a
 /// compaction as the <c>compact</c> command runs it (seal the open segment, then the policy).
 /// </summary>
 internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
@@ -32,30 +32,25 @@ internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
             "Roots:0:Path=" + rootDirectory,
         ]));
 
-    public IndexSession Open(int dimensions, string purpose) => IndexSession.Open(Options(indexDirectory, rootDirectory, dimensions), purpose);
+    public IndexComposition Open(int dimensions, string purpose) => IndexComposition.Open(Options(indexDirectory, rootDirectory, dimensions), purpose);
 
-    /// <summary>One sync (as the <c>sync</c> command does it: scan, drift, embed, drift) and one compaction.</summary>
+    /// <summary>One sync (the steps of <see cref="SyncOperation"/>: scan, drift, embed, drift, timed apart) and one compaction (the <c>compact</c> command's).</summary>
     public KeeperDay Sync(int dimensions, bool compact)
     {
-        using var session = Open(dimensions, "churn simulation");
-        var store = session.Store;
-        var before = SegmentBytes(session);
+        using var composed = Open(dimensions, "churn simulation");
+        _ = composed.Index.Store;
+        var before = SegmentBytes(composed.Index.Catalog);
         var stopwatch = Stopwatch.StartNew();
-        var summary = new ScanPass(session.Catalog, session.Reader, session.ScanSettings()).Run("churn sync", CancellationToken.None);
-        var scanSeconds = stopwatch.Elapsed.TotalSeconds;
+
         // A changed encoder id is declared drift: held pages are queued for migration, the old vectors serve
         // until every page has new ones, then the index switches over (docs/encoders.md).
-        summary.RecordDrift(session.ReconcileDrift());
-        new EmbedPass(session.Catalog, store, session.Encoder, session.RootPaths, session.Options.Encoder.BatchSize).Run(summary, CancellationToken.None);
-        summary.RecordDrift(session.ReconcileDrift());
+        var summary = composed.Get<ScanOperation>().Run("churn sync", null, CancellationToken.None);
+        var scanSeconds = stopwatch.Elapsed.TotalSeconds;
+        composed.Get<EmbedBatchOperation>().RunAll(summary, null, CancellationToken.None);
+        summary.RecordDrift(composed.Get<DriftOperation>().Reconcile());
         var syncSeconds = stopwatch.Elapsed.TotalSeconds;
-        var ingested = SegmentBytes(session) - before;
-        CompactionReport? compaction = null;
-        if (compact)
-        {
-            store.SealAll();
-            compaction = store.Compact(session.CompactionOptions(), CancellationToken.None);
-        }
+        var ingested = SegmentBytes(composed.Index.Catalog) - before;
+        CompactionReport? compaction = compact ? composed.Get<CompactOperation>().Run(CancellationToken.None) : null;
 
         if (summary.PagesFailed != 0 || summary.DocumentsQuarantined != 0 || summary.DocumentsDeferred != 0)
         {
@@ -71,5 +66,5 @@ internal sealed class KeeperIndex(string indexDirectory, string rootDirectory)
     public long SegmentBytesOnDisk() =>
         new DirectoryInfo(Path.Combine(indexDirectory, VectorStore.SegmentsFolder)).EnumerateFiles(SegmentFileNames.SearchPattern).Sum(f => f.Length);
 
-    private static long SegmentBytes(IndexSession session) => session.Catalog.Segments.All().Sum(s => s.Length);
+    private static long SegmentBytes(IndexCatalog catalog) => catalog.Segments.All().Sum(s => s.Length);
 }

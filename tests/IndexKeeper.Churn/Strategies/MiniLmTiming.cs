@@ -2,6 +2,7 @@ using System.Diagnostics;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Encoding.TextTokens;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
 
@@ -13,7 +14,7 @@ namespace IndexKeeper.Churn.Strategies;
 /// </summary>
 internal static class MiniLmTiming
 {
-    public static (double SecondsPerPage, int Pages) Measure(IndexSession session, int sample)
+    public static (double SecondsPerPage, int Pages) Measure(OpenIndex session, int sample)
     {
         var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 0).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
         var step = Math.Max(1, pages.Count / Math.Max(1, sample));

@@ -3,7 +3,7 @@ using System.Runtime.InteropServices;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Demo;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Churn.Strategies;
@@ -31,8 +31,9 @@ internal static class RebuildComparer
             }
         }
 
-        using var kept = incremental.Open(dimensions, "churn comparison");
-        using var fresh = rebuild.Open(dimensions, "churn comparison");
+        using var keptComposed = incremental.Open(dimensions, "churn comparison");
+        using var freshComposed = rebuild.Open(dimensions, "churn comparison");
+        var (kept, fresh) = (keptComposed.Index, freshComposed.Index);
 
         var keptKeys = kept.Catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
         var freshKeys = fresh.Catalog.Pages.All().Where(p => p.References > 0).Select(p => p.Id).ToHashSet(StringComparer.Ordinal);
@@ -56,8 +57,8 @@ internal static class RebuildComparer
         var queriesDiffering = 0;
         foreach (var query in queries)
         {
-            var a = PageSearcher.Search(kept, query, 10, CancellationToken.None).Hits.Select(Describe).ToList();
-            var b = PageSearcher.Search(fresh, query, 10, CancellationToken.None).Hits.Select(Describe).ToList();
+            var a = keptComposed.Get<SearchOperation>().Search(query, 10, CancellationToken.None).Hits.Select(Describe).ToList();
+            var b = freshComposed.Get<SearchOperation>().Search(query, 10, CancellationToken.None).Hits.Select(Describe).ToList();
             if (!a.SequenceEqual(b))
             {
                 queriesDiffering++;
@@ -72,7 +73,7 @@ internal static class RebuildComparer
     private static string Describe(SearchReportHit hit) =>
         $"{hit.PageKey[..12]} {hit.Path}#{hit.Page} {hit.Score.ToString("R", System.Globalization.CultureInfo.InvariantCulture)}";
 
-    private static (long Compared, long Differing) CompareVectors(IndexSession kept, IndexSession fresh, Action<string> note)
+    private static (long Compared, long Differing) CompareVectors(OpenIndex kept, OpenIndex fresh, Action<string> note)
     {
         var encoderId = kept.Encoder.Identity.Id;
         using var a = kept.Store.OpenLive(encoderId);
@@ -110,7 +111,7 @@ internal static class RebuildComparer
         live.Records.Select((r, i) => (r.PageKey, i)).ToDictionary(p => p.PageKey, p => p.i, StringComparer.Ordinal);
 
     /// <summary>Queries of two to four words taken from pages of the store, chosen by the seed.</summary>
-    private static List<string> Queries(IndexSession session, int count, int seed)
+    private static List<string> Queries(OpenIndex session, int count, int seed)
     {
         var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 4).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
         var random = DemoRandom.For(seed, "queries");

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Drift;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Core.Pipeline;
 
 namespace IndexKeeper.Tests.Drift;
@@ -16,12 +17,12 @@ public sealed class CanaryCheckTests : IDisposable
     public void The_unchanged_encoder_reports_no_drift_and_the_figures_are_recorded()
     {
         using var session = Indexed();
-        var figures = CanaryCheck.Run(session.Catalog, session.Store, session.Encoder, session.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
+        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
 
         Assert.False(figures.Drifted);
         Assert.Equal(4, figures.Pages);
         Assert.True(figures.MinimumCosine > 0.9999, $"minimum {figures.MinimumCosine}");
-        var record = session.Catalog.Encoders.Find(session.Encoder.Identity.Id)!;
+        var record = session.Index.Catalog.Encoders.Find(session.Index.Encoder.Identity.Id)!;
         Assert.Equal(Now, record.CanaryCheckedUtc!.Value.ToUniversalTime());
         Assert.False(record.CanaryDrifted);
         Assert.Equal(figures.MeanCosine, record.CanaryMeanCosine);
@@ -31,14 +32,14 @@ public sealed class CanaryCheckTests : IDisposable
     public void An_encoder_claiming_the_same_id_with_other_numbers_is_silent_drift_with_its_figures()
     {
         using var session = Indexed();
-        var noisy = new NoisyEncoder(session.Encoder, noise: 0.05, seed: 11);
-        var figures = CanaryCheck.Run(session.Catalog, session.Store, noisy, session.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
+        var noisy = new NoisyEncoder(session.Index.Encoder, noise: 0.05, seed: 11);
+        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, noisy, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
 
         Assert.True(figures.Drifted);
         Assert.True(figures.MeanCosine < 0.999, $"mean {figures.MeanCosine}");
         Assert.True(figures.MinimumCosine < figures.MeanCosine);
         Assert.True(figures.Vectors > 4);
-        var record = session.Catalog.Encoders.Find(session.Encoder.Identity.Id)!;
+        var record = session.Index.Catalog.Encoders.Find(session.Index.Encoder.Identity.Id)!;
         Assert.True(record.CanaryDrifted);
         Assert.Equal(figures.MinimumCosine, record.CanaryMinimumCosine);
     }
@@ -47,20 +48,20 @@ public sealed class CanaryCheckTests : IDisposable
     public void The_canaries_are_the_lowest_page_keys()
     {
         using var session = Indexed();
-        var live = session.Catalog.VectorSets.LivePageKeysOf(session.Encoder.Identity.Id);
+        var live = session.Index.Catalog.VectorSets.LivePageKeysOf(session.Index.Encoder.Identity.Id);
         Assert.Equal(live.Order(StringComparer.Ordinal).Take(2), CanarySelection.Choose(live, 2));
-        Assert.Equal(2, CanaryCheck.Run(session.Catalog, session.Store, session.Encoder, session.RootPaths, new CanarySettings(2), Now, CancellationToken.None).Pages);
+        Assert.Equal(2, CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(2), Now, CancellationToken.None).Pages);
     }
 
     public void Dispose() => index.Dispose();
 
     private static readonly DateTime Now = new(2031, 3, 14, 8, 0, 0, DateTimeKind.Utc);
 
-    private Service.Hosting.IndexSession Indexed()
+    private IndexComposition Indexed()
     {
         var session = index.Open(128);
         DriftIndex.AddDocument(
-            session.Catalog,
+            session.Index.Catalog,
             "manuals/pumps.pdf",
             "pump station maintenance schedule",
             "valve exercise record for the north main",
@@ -68,7 +69,7 @@ public sealed class CanaryCheckTests : IDisposable
             "storm overflow log for Harrowmere",
             "chlorine contact tank cleaning");
         DriftIndex.Embed(session);
-        session.ReconcileDrift();
+        session.Get<DriftOperation>().Reconcile();
         return session;
     }
 }

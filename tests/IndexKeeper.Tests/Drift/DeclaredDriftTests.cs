@@ -2,7 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Storage;
-using IndexKeeper.Service.Querying;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Tests.Drift;
 
@@ -30,34 +30,34 @@ public sealed class DeclaredDriftTests : IDisposable
         string oldId;
         using (var first = index.Open(128))
         {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+            DriftIndex.AddDocument(first.Index.Catalog, "manuals/intake.pdf", Manual);
             DriftIndex.Embed(first);
-            Assert.False(first.ReconcileDrift().Migrating);
-            oldId = first.Encoder.Identity.Id;
-            Assert.Equal(oldId, first.Catalog.Encoders.ServingId());
+            Assert.False(first.Get<DriftOperation>().Reconcile().Migrating);
+            oldId = first.Index.Encoder.Identity.Id;
+            Assert.Equal(oldId, first.Index.Catalog.Encoders.ServingId());
         }
 
         using var second = index.Open(64);
         // A page new in this pass is fresh work, not drift.
-        DriftIndex.AddDocument(second.Catalog, "reports/new.pdf", "reservoir level report for March");
-        var decision = second.ReconcileDrift();
+        DriftIndex.AddDocument(second.Index.Catalog, "reports/new.pdf", "reservoir level report for March");
+        var decision = second.Get<DriftOperation>().Reconcile();
 
         Assert.Equal(oldId, decision.ServingEncoderId);
         Assert.Equal(Manual.Select(DriftIndex.KeyOf).Order(StringComparer.Ordinal), decision.DriftedPages);
-        var queue = second.Catalog.Queue.InOrder().ToDictionary(q => q.Id, q => q.Priority);
+        var queue = second.Index.Catalog.Queue.InOrder().ToDictionary(q => q.Id, q => q.Priority);
         Assert.Equal(4, queue.Count);
         Assert.All(Manual.Select(DriftIndex.KeyOf), key => Assert.Equal(QueuePriority.Migration, queue[key]));
         Assert.Equal(QueuePriority.Fresh, queue[DriftIndex.KeyOf("reservoir level report for March")]);
 
         // The old vectors stay live and servable until the migration is complete.
-        Assert.Equal(3, second.Catalog.VectorSets.Live(oldId).Count);
-        var record = second.Catalog.Encoders.Find(second.Encoder.Identity.Id)!;
+        Assert.Equal(3, second.Index.Catalog.VectorSets.Live(oldId).Count);
+        var record = second.Index.Catalog.Encoders.Find(second.Index.Encoder.Identity.Id)!;
         Assert.Equal("64", record.Settings["Dimensions"]);
 
         // Reconciling again changes nothing.
-        var again = second.ReconcileDrift();
+        var again = second.Get<DriftOperation>().Reconcile();
         Assert.Empty(again.QueueForMigration);
-        Assert.Equal(4, second.Catalog.Queue.InOrder().Count());
+        Assert.Equal(4, second.Index.Catalog.Queue.InOrder().Count());
     }
 
     [Fact]
@@ -66,9 +66,9 @@ public sealed class DeclaredDriftTests : IDisposable
         IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
-        DriftIndex.AddDocument(second.Catalog, "reports/new.pdf", "reservoir level report for March");
-        second.ReconcileDrift();
-        var order = second.Catalog.Queue.Next(10, DateTime.UtcNow.AddMinutes(1));
+        DriftIndex.AddDocument(second.Index.Catalog, "reports/new.pdf", "reservoir level report for March");
+        second.Get<DriftOperation>().Reconcile();
+        var order = second.Index.Catalog.Queue.Next(10, DateTime.UtcNow.AddMinutes(1));
         Assert.Equal(DriftIndex.KeyOf("reservoir level report for March"), order[0].Id);
         Assert.All(order.Skip(1), q => Assert.Equal(QueuePriority.Migration, q.Priority));
     }
@@ -79,14 +79,14 @@ public sealed class DeclaredDriftTests : IDisposable
         var oldId = IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
-        second.ReconcileDrift();
+        second.Get<DriftOperation>().Reconcile();
         // Half a migration: one page gets vectors of the new encoder.
-        var one = second.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[0]))!;
-        var vectors = second.Encoder.EncodePages([PageInput.From(one, NoRoots)], CancellationToken.None);
-        second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(one.Id), vectors[0])]);
-        Assert.True(second.ReconcileDrift().Migrating);
+        var one = second.Index.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[0]))!;
+        var vectors = second.Index.Encoder.EncodePages([PageInput.From(one, NoRoots)], CancellationToken.None);
+        second.Index.Store.AppendAndCommit(second.Index.Encoder.Identity, [(Core.Documents.PageKey.Parse(one.Id), vectors[0])]);
+        Assert.True(second.Get<DriftOperation>().Reconcile().Migrating);
 
-        var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
+        var report = second.Get<SearchOperation>().Search("sluice gate inspection", 10, CancellationToken.None);
         Assert.Equal(oldId, report.ServingEncoderId);
         Assert.StartsWith("hashed-terms " + oldId[..12], report.Encoder, StringComparison.Ordinal);
         Assert.Null(report.Notice);
@@ -99,23 +99,23 @@ public sealed class DeclaredDriftTests : IDisposable
     {
         using (var first = index.Open(128))
         {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+            DriftIndex.AddDocument(first.Index.Catalog, "manuals/intake.pdf", Manual);
             DriftIndex.Embed(first);
-            first.ReconcileDrift();
+            first.Get<DriftOperation>().Reconcile();
 
             // As if the old encoder's inputs had changed since: its recorded settings now build another id.
-            var record = first.Catalog.Encoders.Find(first.Encoder.Identity.Id)!;
+            var record = first.Index.Catalog.Encoders.Find(first.Index.Encoder.Identity.Id)!;
             record.Settings["PoolFactor"] = "2";
-            first.Catalog.Encoders.Put(record);
+            first.Index.Catalog.Encoders.Put(record);
         }
 
         using var second = index.Open(64);
-        second.ReconcileDrift();
-        var page = second.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[1]))!;
-        second.Store.AppendAndCommit(second.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Encoder.EncodePages([PageInput.From(page, NoRoots)], CancellationToken.None)[0])]);
+        second.Get<DriftOperation>().Reconcile();
+        var page = second.Index.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[1]))!;
+        second.Index.Store.AppendAndCommit(second.Index.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Index.Encoder.EncodePages([PageInput.From(page, NoRoots)], CancellationToken.None)[0])]);
 
-        var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
-        Assert.StartsWith("hashed-terms " + second.Encoder.Identity.Id[..12], report.Encoder, StringComparison.Ordinal);
+        var report = second.Get<SearchOperation>().Search("sluice gate inspection", 10, CancellationToken.None);
+        Assert.StartsWith("hashed-terms " + second.Index.Encoder.Identity.Id[..12], report.Encoder, StringComparison.Ordinal);
         Assert.Equal(1, report.PagesScanned);
         Assert.NotNull(report.Notice);
         Assert.Contains("1 page(s) already migrated", report.Notice, StringComparison.Ordinal);
@@ -128,36 +128,36 @@ public sealed class DeclaredDriftTests : IDisposable
         string oldId;
         using (var first = index.Open(128))
         {
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+            DriftIndex.AddDocument(first.Index.Catalog, "manuals/intake.pdf", Manual);
             DriftIndex.Embed(first);
-            first.ReconcileDrift();
-            first.Store.SealAll();
-            oldId = first.Encoder.Identity.Id;
+            first.Get<DriftOperation>().Reconcile();
+            first.Index.Store.SealAll();
+            oldId = first.Index.Encoder.Identity.Id;
         }
 
         using var second = index.Open(64);
-        var newId = second.Encoder.Identity.Id;
-        second.ReconcileDrift();
+        var newId = second.Index.Encoder.Identity.Id;
+        second.Get<DriftOperation>().Reconcile();
         var embedded = DriftIndex.Embed(second);
         Assert.Equal(3, embedded.PagesEmbedded);
 
         // Everything migrated, not yet switched: the old encoder still serves, its vectors live.
-        Assert.Equal(oldId, second.Catalog.Encoders.ServingId());
-        Assert.Equal(3, second.Catalog.VectorSets.Live(oldId).Count);
+        Assert.Equal(oldId, second.Index.Catalog.Encoders.ServingId());
+        Assert.Equal(3, second.Index.Catalog.VectorSets.Live(oldId).Count);
 
-        var decision = second.ReconcileDrift();
+        var decision = second.Get<DriftOperation>().Reconcile();
         Assert.True(decision.SwitchOver);
-        Assert.Equal(newId, second.Catalog.Encoders.ServingId());
-        Assert.Empty(second.Catalog.VectorSets.Live(oldId));
-        Assert.True(second.Catalog.Encoders.Find(oldId)!.Retired);
-        Assert.All(second.Catalog.Segments.All().Where(s => s.EncoderId == oldId), s => Assert.Equal(0, s.LiveBytes));
-        Assert.Equal(newId, PageSearcher.Search(second, "sluice gate", 3, CancellationToken.None).ServingEncoderId);
+        Assert.Equal(newId, second.Index.Catalog.Encoders.ServingId());
+        Assert.Empty(second.Index.Catalog.VectorSets.Live(oldId));
+        Assert.True(second.Index.Catalog.Encoders.Find(oldId)!.Retired);
+        Assert.All(second.Index.Catalog.Segments.All().Where(s => s.EncoderId == oldId), s => Assert.Equal(0, s.LiveBytes));
+        Assert.Equal(newId, second.Get<SearchOperation>().Search("sluice gate", 3, CancellationToken.None).ServingEncoderId);
 
-        second.Store.SealAll();
-        var compaction = second.Store.Compact(second.CompactionOptions(), CancellationToken.None);
+        second.Index.Store.SealAll();
+        var compaction = second.Index.Store.Compact(second.Settings.Compaction, CancellationToken.None);
         Assert.True(compaction.BytesReclaimed > 0);
-        Assert.DoesNotContain(second.Catalog.Segments.All(), s => s.EncoderId == oldId);
-        Assert.False(File.Exists(SegmentFileNames.PathOf(second.Store.Directory, 1)));
+        Assert.DoesNotContain(second.Index.Catalog.Segments.All(), s => s.EncoderId == oldId);
+        Assert.False(File.Exists(SegmentFileNames.PathOf(second.Index.Store.Directory, 1)));
     }
 
     [Fact]
@@ -166,19 +166,19 @@ public sealed class DeclaredDriftTests : IDisposable
         var oldId = IndexTheManualWithTheFirstEncoder();
 
         using var second = index.Open(64);
-        second.ReconcileDrift();
+        second.Get<DriftOperation>().Reconcile();
         DriftIndex.Embed(second);
-        Assert.True(second.ReconcileDrift().SwitchOver);
+        Assert.True(second.Get<DriftOperation>().Reconcile().SwitchOver);
 
         // The document goes away and comes back (a restore): its pages' new vectors revive, the retired ones stay dead.
         var edit = new CatalogEdit();
         edit.DeleteDocuments.Add(DocumentRecord.MakeId("store", "manuals/intake.pdf"));
         edit.SetReferences.AddRange(Manual.Select(t => (DriftIndex.KeyOf(t), 0)));
-        second.Catalog.Apply(edit);
-        second.Catalog.RemoveUnreferencedPages();
-        DriftIndex.AddDocument(second.Catalog, "manuals/intake.pdf", Manual);
-        Assert.Equal(3, second.Catalog.VectorSets.Live(second.Encoder.Identity.Id).Count);
-        Assert.Empty(second.Catalog.VectorSets.Live(oldId));
+        second.Index.Catalog.Apply(edit);
+        second.Index.Catalog.RemoveUnreferencedPages();
+        DriftIndex.AddDocument(second.Index.Catalog, "manuals/intake.pdf", Manual);
+        Assert.Equal(3, second.Index.Catalog.VectorSets.Live(second.Index.Encoder.Identity.Id).Count);
+        Assert.Empty(second.Index.Catalog.VectorSets.Live(oldId));
     }
 
     [Fact]
@@ -188,21 +188,21 @@ public sealed class DeclaredDriftTests : IDisposable
         using (var first = index.Open(128))
         {
             // As an older build left it: vectors and an encoder record, no serving encoder, no settings.
-            DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+            DriftIndex.AddDocument(first.Index.Catalog, "manuals/intake.pdf", Manual);
             DriftIndex.Embed(first);
-            oldId = first.Encoder.Identity.Id;
-            Assert.Null(first.Catalog.Encoders.ServingId());
-            Assert.Empty(first.Catalog.Encoders.Find(oldId)!.Settings);
+            oldId = first.Index.Encoder.Identity.Id;
+            Assert.Null(first.Index.Catalog.Encoders.ServingId());
+            Assert.Empty(first.Index.Catalog.Encoders.Find(oldId)!.Settings);
         }
 
         using var second = index.Open(64);
-        var report = PageSearcher.Search(second, "sluice gate inspection", 10, CancellationToken.None);
+        var report = second.Get<SearchOperation>().Search("sluice gate inspection", 10, CancellationToken.None);
         Assert.Equal(oldId, report.ServingEncoderId);
         Assert.Null(report.Notice);
         Assert.Equal(3, report.PagesScanned);
 
-        var decision = second.ReconcileDrift();
-        Assert.Equal(oldId, second.Catalog.Encoders.ServingId());
+        var decision = second.Get<DriftOperation>().Reconcile();
+        Assert.Equal(oldId, second.Index.Catalog.Encoders.ServingId());
         Assert.Equal(3, decision.QueueForMigration.Count);
     }
 
@@ -212,9 +212,9 @@ public sealed class DeclaredDriftTests : IDisposable
     private string IndexTheManualWithTheFirstEncoder()
     {
         using var first = index.Open(128);
-        DriftIndex.AddDocument(first.Catalog, "manuals/intake.pdf", Manual);
+        DriftIndex.AddDocument(first.Index.Catalog, "manuals/intake.pdf", Manual);
         DriftIndex.Embed(first);
-        first.ReconcileDrift();
-        return first.Encoder.Identity.Id;
+        first.Get<DriftOperation>().Reconcile();
+        return first.Index.Encoder.Identity.Id;
     }
 }

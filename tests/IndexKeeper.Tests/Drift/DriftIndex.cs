@@ -3,16 +3,16 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
 using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Drift;
 
 /// <summary>
-/// An index opened in-process as a command opens it (<see cref="IndexSession"/>), with pages put straight into
+/// An index opened in-process as a command opens it (<see cref="IndexComposition"/>), with pages put straight into
 /// the catalog as a scan would (one document per call, invented words of our demo scenario) and embedded by the
-/// real embed pass. Each <see cref="Open"/> configures the hashed-term encoder with a given d: two values of d
+/// real embed batch. Each <see cref="Open"/> configures the hashed-term encoder with a given d: two values of d
 /// are two encoder ids, so switching is a declared change.
 /// </summary>
 internal sealed class DriftIndex : IDisposable
@@ -21,7 +21,7 @@ internal sealed class DriftIndex : IDisposable
 
     public string IndexDirectory => temp.Combine("index");
 
-    public IndexSession Open(int dimensions = 128) => IndexSession.Open(
+    public IndexComposition Open(int dimensions = 128) => IndexComposition.Open(
         new IndexKeeperOptions
         {
             IndexDirectory = IndexDirectory,
@@ -69,10 +69,10 @@ internal sealed class DriftIndex : IDisposable
         catalog.Apply(edit);
     }
 
-    public static ScanSummary Embed(IndexSession session)
+    public static ScanSummary Embed(IndexComposition session)
     {
         var summary = new ScanSummary();
-        new EmbedPass(session.Catalog, session.Store, session.Encoder, session.RootPaths).Run(summary, CancellationToken.None);
+        session.Get<EmbedBatchOperation>().RunAll(summary, null, CancellationToken.None);
         return summary;
     }
 

@@ -1,6 +1,5 @@
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
-using IndexKeeper.Service.Querying;
 using UglyToad.PdfPig.Content;
 using UglyToad.PdfPig.Core;
 using UglyToad.PdfPig.Fonts.Standard14Fonts;
@@ -38,13 +37,13 @@ public sealed class DefaultEncoderTests : IDisposable
         Assert.True(entry.GetProperty("serving").GetBoolean());
         Assert.Equal(Pairs.Length, entry.GetProperty("liveVectorSets").GetInt64());
 
-        // The ranking of every query, through the same session code the search command runs (one model load).
+        // The ranking of every query, through the search command's use case (one model load).
         var options = OptionsLoader.Load(new ConfigurationSources(null, index.PathOf("index"), [index.PathOf("store")], []));
-        using (var session = IndexSession.Open(options, "default encoder test"))
+        using (var session = IndexComposition.Open(options, "default encoder test"))
         {
             for (var q = 0; q < Pairs.Length; q++)
             {
-                var report = PageSearcher.Search(session, Pairs[q].Query, 4, CancellationToken.None);
+                var report = session.Get<SearchOperation>().Search(Pairs[q].Query, 4, CancellationToken.None);
                 Assert.StartsWith("minilm ", report.Encoder, StringComparison.Ordinal);
                 Assert.Equal(q + 1, report.Hits[0].Page);
             }

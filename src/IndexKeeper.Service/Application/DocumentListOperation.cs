@@ -1,15 +1,14 @@
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Querying;
 
-namespace IndexKeeper.Service.Querying;
+namespace IndexKeeper.Service.Application;
 
-/// <summary>Lists the catalog's documents, optionally of one root, a page at a time.</summary>
-public static class DocumentLister
+/// <summary><c>/api/documents</c>: the catalog's documents, optionally of one root, a page at a time.</summary>
+public sealed class DocumentListOperation(OpenIndex index)
 {
-    public static DocumentListReport List(IndexSession session, string? root, int skip, int take)
+    public DocumentListReport List(string? root, int skip, int take)
     {
-        ArgumentNullException.ThrowIfNull(session);
-        var documents = (root is null ? session.Catalog.Documents.All() : session.Catalog.Documents.OfRoot(root))
+        var documents = (root is null ? index.Catalog.Documents.All() : index.Catalog.Documents.OfRoot(root))
             .OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal).ToList();
         return new DocumentListReport
         {

@@ -1,34 +1,36 @@
 using System.Diagnostics;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Search;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Querying;
 
-namespace IndexKeeper.Service.Querying;
+namespace IndexKeeper.Service.Application;
 
-/// <summary>Runs a query against the live vector sets of one encoder (see <see cref="RankingEncoder"/>) and resolves hits to page locations.</summary>
-public static class PageSearcher
+/// <summary>
+/// <c>search</c> and <c>/api/search</c>: runs a query against the live vector sets of one encoder (see
+/// <see cref="RankingEncoder"/>) and resolves hits to page locations.
+/// </summary>
+public sealed class SearchOperation(OpenIndex index, IndexSettings settings, DriftOperation drift)
 {
-    public static SearchReport Search(IndexSession session, string text, int k, CancellationToken cancellationToken)
+    public SearchReport Search(string text, int k, CancellationToken cancellationToken)
     {
-        ArgumentNullException.ThrowIfNull(session);
         var stopwatch = Stopwatch.StartNew();
-        using var ranking = RankingEncoder.Choose(session);
+        using var ranking = RankingEncoder.Choose(index, settings.Encoder, drift);
         var encoder = ranking.Encoder;
         var query = encoder.EncodeQuery(text, cancellationToken);
-        using var live = session.Store.OpenLive(encoder.Identity.Id);
+        using var live = index.Store.OpenLive(encoder.Identity.Id);
         var result = query.Count == 0 || live.Records.Count == 0
             ? new SearchResult([], live.Records.Count, 0)
             : LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
         var hits = new List<SearchReportHit>(result.Hits.Count);
         foreach (var hit in result.Hits)
         {
-            var locations = Locate(session.Catalog, hit.Key.Hex);
+            var locations = Locate(index.Catalog, hit.Key.Hex);
             if (locations.Count == 0)
             {
                 continue;
             }
 
-            var page = session.Catalog.Pages.Find(hit.Key.Hex);
+            var page = index.Catalog.Pages.Find(hit.Key.Hex);
             hits.Add(new SearchReportHit
             {
                 Root = locations[0].Root,

@@ -7,17 +7,17 @@ using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Core.Storage;
-using IndexKeeper.Service.Configuration;
-using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Planning;
 
-namespace IndexKeeper.Service.Planning;
+namespace IndexKeeper.Service.Application;
 
 /// <summary>
-/// Builds the plan (docs/plan.md) from an open session: a dry run of the scan pass, the queue, drift,
-/// measured throughput, compaction policy and a simulation of the work through the encoder gate.
+/// <c>plan</c> and <c>/api/plan</c> (docs/plan.md): a preview of the scan <c>sync</c> runs, the queue, the
+/// drift <c>sync</c> applies, measured throughput, the compaction <c>compact</c> runs and a simulation of
+/// the work through the encoder gate. The same pieces as the sync, so the plan cannot drift from it.
 /// Reads only: nothing here writes the catalog or the segments.
 /// </summary>
-public static class PlanBuilder
+public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanOperation scan, DriftOperation drift, CompactOperation compact)
 {
     /// <summary>Embed runs the throughput is averaged over (newest first).</summary>
     private const int HistoryRuns = 20;
@@ -25,19 +25,17 @@ public static class PlanBuilder
     /// <summary>Queued and drifted pages attributed to folders one lookup each; past this they are counted unattributed.</summary>
     private const int AttributionLimit = 20_000;
 
-    public static PlanReport Build(IndexSession session, PlanRequest request, CancellationToken cancellationToken)
+    public PlanReport Build(PlanRequest request, CancellationToken cancellationToken)
     {
-        ArgumentNullException.ThrowIfNull(session);
         ArgumentNullException.ThrowIfNull(request);
         var stopwatch = Stopwatch.StartNew();
-        var catalog = session.Catalog;
-        var identity = session.Encoder.Identity;
-        var schedule = session.Options.Schedule;
-        var calendar = ScheduleSetup.Calendar(schedule);
+        var catalog = index.Catalog;
+        var identity = index.Encoder.Identity;
+        var calendar = settings.Calendar;
         var zone = calendar.Zone;
         var notes = new List<string>();
 
-        var preview = new ScanPass(catalog, session.Reader, session.ScanSettings(), request.Progress).Preview(cancellationToken);
+        var preview = scan.Preview(request.Progress, cancellationToken);
         var summary = preview.Summary;
         var removed = preview.RemovedKeys;
 
@@ -52,12 +50,12 @@ public static class PlanBuilder
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Migration),
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Canary));
         // The drift policy's own answer (docs/encoders.md), less the pages this scan would remove.
-        var drifted = session.ReadDrift().DriftedPages.Where(k => !removed.Contains(k)).ToHashSet(StringComparer.Ordinal);
+        var drifted = drift.Read().DriftedPages.Where(k => !removed.Contains(k)).ToHashSet(StringComparer.Ordinal);
         var queuedSet = queuedKeys.Select(q => q.PageKey).ToHashSet(StringComparer.Ordinal);
         var driftedNotQueued = drifted.Where(k => !queuedSet.Contains(k)).ToList();
         var work = new QueuedPages(scanToEmbed + queued.Fresh, queued.Migration + driftedNotQueued.Count, queued.Canary);
 
-        var (source, secondsPerPage, vectorsPerPage) = Throughput(session, preview, request.Calibrate, notes, cancellationToken);
+        var (source, secondsPerPage, vectorsPerPage) = Throughput(preview, request.Calibrate, notes, cancellationToken);
         if (vectorsPerPage is null && activeCounts.VectorSets > 0)
         {
             vectorsPerPage = (double)activeCounts.Vectors / activeCounts.VectorSets;
@@ -68,10 +66,10 @@ public static class PlanBuilder
             ? (long)Math.Round(work.Total * (SegmentFormat.FrameLength + SegmentFormat.VectorSetBodyLength(dimensions, 0) + (perPage * SegmentFormat.BytesPerVector(dimensions))))
             : null;
 
-        var compaction = Compaction(catalog, session.CompactionOptions());
+        var compaction = Compaction(compact.Jobs());
         var now = TimeZoneInfo.ConvertTime(request.Now, zone);
         var forecast = secondsPerPage is { } spp
-            ? WorkSimulator.Simulate(new EncoderGate(calendar, schedule.BudgetPagesPerHour), now, work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
+            ? WorkSimulator.Simulate(new EncoderGate(calendar, settings.BudgetPagesPerHour), now, work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
             : null;
         if (forecast is { AllDone: null })
         {
@@ -91,7 +89,7 @@ public static class PlanBuilder
         var change = calendar.NextChange(now);
         return new PlanReport
         {
-            IndexDirectory = session.IndexDirectory,
+            IndexDirectory = index.Directory,
             GeneratedAt = now,
             TimeZone = zone.Id,
             ActiveEncoder = identity.Name,
@@ -121,7 +119,7 @@ public static class PlanBuilder
             Compaction = compaction,
             WindowOpen = calendar.IsOpen(now),
             NextWindowChange = change == DateTimeOffset.MaxValue ? null : TimeZoneInfo.ConvertTime(change, zone),
-            BudgetPagesPerHour = schedule.BudgetPagesPerHour,
+            BudgetPagesPerHour = settings.BudgetPagesPerHour,
             FreshFinish = InZone(forecast?.FreshDone, zone),
             EstimatedFinish = InZone(forecast?.AllDone, zone),
             Breakdown = Breakdown(catalog, preview, queuedKeys.Select(q => q.PageKey).Concat(driftedNotQueued), secondsPerPage, notes),
@@ -130,12 +128,12 @@ public static class PlanBuilder
         };
     }
 
-    private static (string Source, double? SecondsPerPage, double? VectorsPerPage) Throughput(
-        IndexSession session, ScanPreview preview, bool calibrate, List<string> notes, CancellationToken cancellationToken)
+    private (string Source, double? SecondsPerPage, double? VectorsPerPage) Throughput(
+        ScanPreview preview, bool calibrate, List<string> notes, CancellationToken cancellationToken)
     {
         if (calibrate)
         {
-            if (EncoderCalibration.Run(session, preview.SamplePages, cancellationToken) is { } measured)
+            if (EncoderCalibration.Run(index.Catalog, index.Encoder, settings.RootPaths, preview.SamplePages, cancellationToken) is { } measured)
             {
                 return ("calibration", measured.SecondsPerPage, measured.VectorsPerPage);
             }
@@ -143,7 +141,7 @@ public static class PlanBuilder
             notes.Add("Nothing to calibrate on: neither the index nor the pending changes hold a page.");
         }
 
-        var history = session.Catalog.History.Embeds(session.Encoder.Identity.Id, HistoryRuns);
+        var history = index.Catalog.History.Embeds(index.Encoder.Identity.Id, HistoryRuns);
         var pages = history.Sum(h => h.Counts.GetValueOrDefault("pagesEmbedded"));
         if (pages > 0)
         {
@@ -159,17 +157,14 @@ public static class PlanBuilder
         return ("none", null, null);
     }
 
-    private static PlanCompaction Compaction(IndexCatalog catalog, CompactionOptions options)
-    {
-        var jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
-        return new PlanCompaction
+    private static PlanCompaction Compaction(IReadOnlyList<CompactionJob> jobs) =>
+        new()
         {
             Jobs = jobs.Count,
             Segments = jobs.Sum(j => j.SegmentIds.Count),
             BytesToRewrite = jobs.Sum(j => j.LiveBytes),
             BytesToReclaim = jobs.Sum(j => j.ReclaimedBytes),
         };
-    }
 
     /// <summary>Cost per root and top-level folder: the scan's changes, then queued and drifted pages by where they were seen.</summary>
     private static List<PlanBreakdownRow> Breakdown(IndexCatalog catalog, ScanPreview preview, IEnumerable<string> pendingKeys, double? secondsPerPage, List<string> notes)

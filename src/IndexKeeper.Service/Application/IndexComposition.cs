@@ -1,0 +1,55 @@
+using IndexKeeper.Core.Queue;
+using IndexKeeper.Service.Configuration;
+using Microsoft.Extensions.DependencyInjection;
+
+namespace IndexKeeper.Service.Application;
+
+/// <summary>
+/// The composition root of one command (and of tests and tools that run the index in-process): maps the
+/// settings once, opens the index, wires the use cases as the daemon does (<see cref="ApplicationServices"/>),
+/// and closes the index after them.
+/// </summary>
+public sealed class IndexComposition : IDisposable
+{
+    private readonly ServiceProvider services;
+
+    private IndexComposition(IndexSettings settings, OpenIndex index)
+    {
+        Settings = settings;
+        Index = index;
+        services = new ServiceCollection().AddIndexApplication(settings, index, RetryPolicy.Default).BuildServiceProvider();
+    }
+
+    public IndexSettings Settings { get; }
+
+    public OpenIndex Index { get; }
+
+    public static IndexComposition Open(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: false);
+
+    /// <summary>For the commands that only read (plan, status, search, encoders): catalog and segments opened read-only.</summary>
+    public static IndexComposition OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
+
+    /// <summary>For <c>rebuild-catalog</c>: <paramref name="beforeCatalog"/> runs under the index lock before the catalog is opened.</summary>
+    public static IndexComposition OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog)
+    {
+        var settings = IndexSettings.From(options);
+        return new IndexComposition(settings, OpenIndex.OpenForRebuild(settings, purpose, beforeCatalog));
+    }
+
+    /// <summary>The use case of type <typeparamref name="T"/>, built with its dependencies.</summary>
+    public T Get<T>()
+        where T : notnull => services.GetRequiredService<T>();
+
+    public void Dispose()
+    {
+        services.Dispose();
+        Index.Dispose();
+    }
+
+    private static IndexComposition Open(IndexKeeperOptions options, string purpose, bool readOnly)
+    {
+        var settings = IndexSettings.From(options);
+        var index = readOnly ? OpenIndex.OpenReadOnly(settings, purpose) : OpenIndex.Open(settings, purpose);
+        return new IndexComposition(settings, index);
+    }
+}
