@@ -10,19 +10,20 @@ internal sealed record FaultScenario(string Command, string Point, string Action
 {
     public static readonly string[] Actions = ["exit", "enospc", "eio"];
 
-    /// <summary>Points a <c>sync</c> reaches when it embeds new pages into an open segment and seals it.</summary>
+    /// <summary>
+    /// Points a <c>sync</c> reaches when it embeds new pages into the open segment. Its seal is the same code as
+    /// the seal <c>compact</c> makes of the open segment first, so the seal and directory points run there.
+    /// </summary>
     private static readonly string[] SyncPoints =
     [
-        FaultPoints.SegmentAppendBeforeFsync, FaultPoints.SegmentAppendAfterFsync, FaultPoints.SegmentSealBefore,
-        FaultPoints.SegmentSealAfterFsync, FaultPoints.SegmentSealAfter, FaultPoints.DirectoryFsyncBefore,
-        FaultPoints.DirectoryFsyncAfter, FaultPoints.CatalogCommitBefore, FaultPoints.CatalogCommitAfter,
+        FaultPoints.SegmentAppendBeforeFsync, FaultPoints.SegmentAppendAfterFsync, FaultPoints.CatalogCommitBefore, FaultPoints.CatalogCommitAfter,
     ];
 
     /// <summary>Points of a <c>compact</c>: sealing the open segment, writing outputs, the swap, deleting the old files.</summary>
     private static readonly string[] CompactPoints =
     [
         FaultPoints.SegmentSealBefore, FaultPoints.CompactionOutputWrite, FaultPoints.SegmentSealAfterFsync, FaultPoints.SegmentRenameBefore,
-        FaultPoints.SegmentRenameAfter, FaultPoints.SegmentSealAfter, FaultPoints.DirectoryFsyncBefore, FaultPoints.CatalogCommitBefore,
+        FaultPoints.SegmentRenameAfter, FaultPoints.SegmentSealAfter, FaultPoints.DirectoryFsyncBefore, FaultPoints.DirectoryFsyncAfter, FaultPoints.CatalogCommitBefore,
         FaultPoints.CompactionSwapBeforeCommit, FaultPoints.CompactionSwapAfterCommit, FaultPoints.CompactionDeleteBefore,
         FaultPoints.CompactionDeleteAfter,
     ];
