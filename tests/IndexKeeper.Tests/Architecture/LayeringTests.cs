@@ -22,20 +22,21 @@ public sealed class LayeringTests
         ["Queue"] = [],
         ["Telemetry"] = [],
         ["Health"] = [],
+        ["Faults"] = [], // named fault points, armed only by tests
         ["Drift"] = [],
         ["Encoding"] = ["Documents"],
         ["Diff"] = ["Documents"],
-        ["Storage"] = ["Documents", "Encoding"],
+        ["Storage"] = ["Documents", "Encoding", "Faults"],
         ["Compaction"] = ["Storage"],
         ["Search"] = ["Documents", "Encoding", "Storage"],
         ["Scheduling"] = ["Queue"],
         ["Planning"] = ["Queue", "Scheduling"],
 
         // The catalog knows records and the leaf values they carry.
-        ["Catalog"] = ["Documents", "Encoding", "Queue", "Drift", "Compaction"],
+        ["Catalog"] = ["Documents", "Encoding", "Queue", "Drift", "Compaction", "Faults"],
 
         // The composing layer.
-        ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Queue", "Storage", "Telemetry"],
+        ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Faults", "Queue", "Storage", "Telemetry"],
         ["Pipeline"] = ["Catalog", "Detect", "Diff", "Documents", "Drift", "Encoding", "Index", "Queue", "Storage", "Telemetry"],
     };
 
