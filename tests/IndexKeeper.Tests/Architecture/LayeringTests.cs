@@ -32,7 +32,7 @@ public sealed class LayeringTests
         ["Planning"] = ["Queue", "Scheduling"],
 
         // The catalog knows records and the leaf values they carry.
-        ["Catalog"] = ["Documents", "Encoding", "Queue", "Compaction"],
+        ["Catalog"] = ["Documents", "Encoding", "Queue"],
 
         // The composing layer.
         ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Storage", "Telemetry"],
