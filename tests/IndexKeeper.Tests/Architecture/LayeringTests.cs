@@ -1,5 +1,7 @@
 using System.Reflection;
+using System.Text.RegularExpressions;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Tests.Support;
 using NetArchTest.Rules;
 
 namespace IndexKeeper.Tests.Architecture;
@@ -13,7 +15,7 @@ public sealed class LayeringTests
 {
     private const string Core = "IndexKeeper.Core.";
 
-    /// <summary>Which Core folders (namespaces, with their sub-namespaces) each folder may use. Keep in step with DEVELOPERS.md.</summary>
+    /// <summary>Which Core folders (namespaces, with their sub-namespaces) each folder may use. DEVELOPERS.md holds the same table (checked below).</summary>
     internal static readonly IReadOnlyDictionary<string, string[]> Allowed = new Dictionary<string, string[]>(StringComparer.Ordinal)
     {
         // Leaves: they know nothing of the catalog.
@@ -56,6 +58,17 @@ public sealed class LayeringTests
             .Select(n => n[Core.Length..].Split('.')[0])
             .ToHashSet(StringComparer.Ordinal);
         Assert.Empty(folders.Except(Allowed.Keys));
+    }
+
+    [Fact]
+    public void The_table_is_the_one_in_DEVELOPERS_md()
+    {
+        var documented = DocumentedTable(File.ReadAllText(Path.Combine(RepositoryRoot.Path, "DEVELOPERS.md")));
+        Assert.Equal(Allowed.Keys.Order(StringComparer.Ordinal), documented.Keys.Order(StringComparer.Ordinal));
+        foreach (var (folder, uses) in Allowed)
+        {
+            Assert.True(uses.ToHashSet(StringComparer.Ordinal).SetEquals(documented[folder]), $"{folder}: DEVELOPERS.md allows {string.Join(", ", documented[folder])}, the test {string.Join(", ", uses)}");
+        }
     }
 
     [Fact]
@@ -108,6 +121,27 @@ public sealed class LayeringTests
         }
 
         return violations;
+    }
+
+    /// <summary>The table under DEVELOPERS.md's "Dependencies inside Core": folders of a row → what they may use (notes in brackets dropped).</summary>
+    private static Dictionary<string, HashSet<string>> DocumentedTable(string markdown)
+    {
+        var section = markdown[markdown.IndexOf("## Dependencies inside Core", StringComparison.Ordinal)..];
+        section = section[..section.IndexOf("\n## ", 1, StringComparison.Ordinal)];
+        var table = new Dictionary<string, HashSet<string>>(StringComparer.Ordinal);
+        foreach (var line in section.Split('\n').Where(l => l.StartsWith("| ", StringComparison.Ordinal)).Skip(1))
+        {
+            var cells = line.Split('|', StringSplitOptions.TrimEntries);
+            var uses = Names(Regex.Replace(cells[2], @"\([^)]*\)", string.Empty)).Where(n => n != "—").ToHashSet(StringComparer.Ordinal);
+            foreach (var folder in Names(cells[1]))
+            {
+                table.Add(folder, uses);
+            }
+        }
+
+        return table;
+
+        static IEnumerable<string> Names(string cell) => cell.Split(',', StringSplitOptions.TrimEntries | StringSplitOptions.RemoveEmptyEntries);
     }
 
     private static List<string> ProjectReferences(Assembly assembly) =>
