@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Queue;
 using LiteDB;
 
@@ -277,59 +276,41 @@ public sealed class IndexCatalog : IDisposable
         });
     }
 
-    /// <summary>What <see cref="DriftPolicy"/> needs, read from the catalog.</summary>
-    public DriftFacts ReadDriftFacts(string activeEncoderId)
-    {
-        var known = store.Encoders.FindAll().ToList();
-        var pagesByEncoder = new Dictionary<string, IReadOnlySet<string>>(StringComparer.Ordinal);
-        // Every encoder that wrote a vector set is registered by the store's append (VectorStore), so the
-        // encoder records name them all without a pass over every vector set (status asks this on each call).
-        foreach (var id in known.Select(e => e.Id))
-        {
-            pagesByEncoder[id] = VectorSets.LivePageKeysOf(id);
-        }
-
-        return new DriftFacts(
-            activeEncoderId,
-            Encoders.ServingId(),
-            pagesByEncoder,
-            store.Queue.Query().Select(q => q.Id).ToEnumerable().ToHashSet(StringComparer.Ordinal),
-            known.Where(e => e.Retired).Select(e => e.Id).ToHashSet(StringComparer.Ordinal));
-    }
-
     /// <summary>
-    /// Applies a drift decision in one transaction: migration queue entries, retired encoders' vector sets
-    /// made dead (segment counts with them, so compaction reclaims the bytes), and the serving encoder. A
+    /// Applies one step of drift tracking in one transaction: page keys queued at migration priority,
+    /// encoders retired (their live vector sets made dead, segment counts with them, so compaction reclaims
+    /// the bytes), and the serving encoder recorded when <paramref name="servingEncoderId"/> is given. A
     /// switch-over is therefore atomic: before the commit searches use the old vectors, after it the new.
     /// </summary>
-    public void ApplyDrift(DriftDecision decision, DateTime nowUtc)
+    public void ApplyDrift(IReadOnlyCollection<string> queueForMigration, IReadOnlyCollection<string> retireEncoders, string? servingEncoderId, DateTime nowUtc)
     {
-        ArgumentNullException.ThrowIfNull(decision);
-        if (decision.QueueForMigration.Count == 0 && decision.RetireEncoders.Count == 0 && !decision.RecordServing)
+        ArgumentNullException.ThrowIfNull(queueForMigration);
+        ArgumentNullException.ThrowIfNull(retireEncoders);
+        if (queueForMigration.Count == 0 && retireEncoders.Count == 0 && servingEncoderId is null)
         {
             return;
         }
 
         store.InTransaction(() =>
         {
-            store.Queue.Upsert(decision.QueueForMigration.Select(key => new QueueRecord
+            store.Queue.Upsert(queueForMigration.Select(key => new QueueRecord
             {
                 Id = key,
                 Priority = QueuePriority.Migration,
                 EnqueuedUtc = nowUtc,
                 NotBeforeUtc = nowUtc,
             }));
-            foreach (var encoderId in decision.RetireEncoders)
+            foreach (var encoderId in retireEncoders)
             {
                 Retire(encoderId, nowUtc);
             }
 
-            if (decision.RecordServing)
+            if (servingEncoderId is not null)
             {
                 store.Meta.Upsert(new BsonDocument
                 {
                     ["_id"] = CatalogSchema.ServingEncoderMetaId,
-                    ["encoderId"] = decision.ServingEncoderId,
+                    ["encoderId"] = servingEncoderId,
                     ["sinceUtc"] = nowUtc,
                 });
             }

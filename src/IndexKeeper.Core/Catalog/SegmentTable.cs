@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Compaction;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
@@ -43,19 +42,4 @@ public sealed class SegmentTable
     public IReadOnlyList<SegmentRecord> All() => segments.FindAll().OrderBy(s => s.Id).ToList();
 
     public void Put(SegmentRecord segment) => segments.Upsert(segment);
-
-    /// <summary>
-    /// What the compaction policy knows of every segment, the one mapping the daemon, <c>compact</c> and
-    /// <c>plan</c> share (docs/compaction.md, "When compaction is due"): open segments count as sealed,
-    /// because whoever compacts seals them first, so plan and compaction always see the same jobs.
-    /// </summary>
-    public IReadOnlyList<SegmentStats> Stats() => All().Select(s => new SegmentStats(
-        s.Id,
-        s.EncoderId,
-        Sealed: true,
-        s.Length,
-        s.LiveBytes,
-        s.RecordCount,
-        s.LiveRecordCount,
-        new DateTimeOffset(s.CreatedUtc.ToUniversalTime(), TimeSpan.Zero))).ToList();
 }

@@ -211,29 +211,19 @@ public sealed class VectorStore : IDisposable
     }
 
     /// <summary>
-    /// Whether the policy finds work (docs/compaction.md, "When compaction is due"): the same figures
-    /// <c>plan</c> reports, open segments counted as sealed because <see cref="Compact"/> seals them first.
-    /// </summary>
-    public bool CompactionDue(CompactionOptions options)
-    {
-        ArgumentNullException.ThrowIfNull(options);
-        return CompactionPolicy.Plan(catalog.Segments.Stats(), options).Count > 0;
-    }
-
-    /// <summary>
     /// Runs the compaction policy and every job it asks for; returns what was done. When there is work the
     /// open segments are sealed first (compaction rewrites only immutable files), so the jobs are those
-    /// <see cref="CompactionDue"/> and <c>plan</c> saw.
+    /// <see cref="CompactionJobs.Due"/> told the daemon and <c>plan</c>.
     /// </summary>
     public CompactionReport Compact(CompactionOptions options, CancellationToken cancellationToken)
     {
         RefuseIfReadOnly();
         ArgumentNullException.ThrowIfNull(options);
-        var jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
+        var jobs = CompactionJobs.Due(catalog, options);
         if (jobs.Count > 0)
         {
             SealAll();
-            jobs = CompactionPolicy.Plan(catalog.Segments.Stats(), options);
+            jobs = CompactionJobs.Due(catalog, options);
         }
 
         using var activity = jobs.Count > 0 ? CoreTelemetry.Traces.StartActivity("compaction") : null;

@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Compaction;
+using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Application;
 
@@ -9,7 +10,7 @@ namespace IndexKeeper.Service.Application;
 public sealed class CompactOperation(OpenIndex index, IndexSettings settings)
 {
     /// <summary>The jobs the policy would run now; reads only.</summary>
-    public IReadOnlyList<CompactionJob> Jobs() => CompactionPolicy.Plan(index.Catalog.Segments.Stats(), settings.Compaction);
+    public IReadOnlyList<CompactionJob> Jobs() => CompactionJobs.Due(index.Catalog, settings.Compaction);
 
     /// <summary>Seals the open segments and rewrites what the policy picks.</summary>
     /// <remarks>REQUIRES: the index is open for writing and nothing else writes it.</remarks>

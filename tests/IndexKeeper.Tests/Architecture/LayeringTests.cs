@@ -1,5 +1,7 @@
 using System.Reflection;
+using System.Text.RegularExpressions;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Tests.Support;
 using NetArchTest.Rules;
 
 namespace IndexKeeper.Tests.Architecture;
@@ -13,7 +15,7 @@ public sealed class LayeringTests
 {
     private const string Core = "IndexKeeper.Core.";
 
-    /// <summary>Which Core folders (namespaces, with their sub-namespaces) each folder may use. Keep in step with DEVELOPERS.md.</summary>
+    /// <summary>Which Core folders (namespaces, with their sub-namespaces) each folder may use. DEVELOPERS.md holds the same table (checked below).</summary>
     internal static readonly IReadOnlyDictionary<string, string[]> Allowed = new Dictionary<string, string[]>(StringComparer.Ordinal)
     {
         // Leaves: they know nothing of the catalog.
@@ -33,7 +35,7 @@ public sealed class LayeringTests
         ["Planning"] = ["Queue", "Scheduling"],
 
         // The catalog knows records and the leaf values they carry.
-        ["Catalog"] = ["Documents", "Encoding", "Queue", "Drift", "Compaction", "Faults"],
+        ["Catalog"] = ["Documents", "Encoding", "Queue", "Faults"],
 
         // The composing layer.
         ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Faults", "Queue", "Storage", "Telemetry"],
@@ -43,7 +45,7 @@ public sealed class LayeringTests
     [Fact]
     public void Core_folders_use_only_the_folders_their_row_allows()
     {
-        var violations = Violations(typeof(IndexCatalog).Assembly, Allowed);
+        var violations = Violations(typeof(IndexCatalog).Assembly, Core, Allowed);
         Assert.True(violations.Count == 0, "Back edges in Core (fix the code, or the table here and in DEVELOPERS.md):\n" + string.Join("\n", violations));
     }
 
@@ -60,13 +62,34 @@ public sealed class LayeringTests
     }
 
     [Fact]
+    public void The_table_is_the_one_in_DEVELOPERS_md()
+    {
+        var documented = DocumentedTable(File.ReadAllText(Path.Combine(RepositoryRoot.Path, "DEVELOPERS.md")));
+        Assert.Equal(Allowed.Keys.Order(StringComparer.Ordinal), documented.Keys.Order(StringComparer.Ordinal));
+        foreach (var (folder, uses) in Allowed)
+        {
+            Assert.True(uses.ToHashSet(StringComparer.Ordinal).SetEquals(documented[folder]), $"{folder}: DEVELOPERS.md allows {string.Join(", ", documented[folder])}, the test {string.Join(", ", uses)}");
+        }
+    }
+
+    [Fact]
     public void The_checker_reports_a_back_edge()
     {
         // The same assembly against a table without the edge Pipeline → Index: ScanPass's neighbours use the
         // segment store, so the checker must name them. A checker that finds nothing would pass any table.
         var strict = Allowed.ToDictionary(p => p.Key, p => p.Key == "Pipeline" ? p.Value.Where(v => v != "Index").ToArray() : p.Value, StringComparer.Ordinal);
-        var violations = Violations(typeof(IndexCatalog).Assembly, strict);
+        var violations = Violations(typeof(IndexCatalog).Assembly, Core, strict);
         Assert.Contains(violations, v => v.StartsWith("Pipeline → Index:", StringComparison.Ordinal) && v.Contains("EmbedPass", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void The_checker_sees_a_back_edge_made_only_in_a_method_body()
+    {
+        // Fixture/: Leaf may use nothing, Hub may use Leaf; LeafTally calls the hub inside a method body only.
+        // The allowed edge (Hub → Leaf) is not reported, the back edge is, and nothing else.
+        var table = new Dictionary<string, string[]>(StringComparer.Ordinal) { ["Leaf"] = [], ["Hub"] = ["Leaf"] };
+        var violations = Violations(typeof(LayeringTests).Assembly, typeof(LayeringTests).Namespace + ".Fixture.", table);
+        Assert.Equal(["Leaf → Hub: LeafTally"], violations);
     }
 
     [Fact]
@@ -79,7 +102,8 @@ public sealed class LayeringTests
         Assert.DoesNotContain("indexkeeper", ProjectReferences(typeof(IndexKeeper.Service.Configuration.IndexKeeperOptions).Assembly));
     }
 
-    internal static List<string> Violations(Assembly assembly, IReadOnlyDictionary<string, string[]> allowed)
+    /// <summary>Every edge between the folders under <paramref name="root"/> that <paramref name="allowed"/> does not list, with the types that make it.</summary>
+    internal static List<string> Violations(Assembly assembly, string root, IReadOnlyDictionary<string, string[]> allowed)
     {
         var violations = new List<string>();
         foreach (var (folder, uses) in allowed)
@@ -87,8 +111,8 @@ public sealed class LayeringTests
             foreach (var other in allowed.Keys.Where(o => o != folder && !uses.Contains(o)))
             {
                 var result = Types.InAssembly(assembly)
-                    .That().ResideInNamespace(Core + folder)
-                    .ShouldNot().HaveDependencyOnAny(Core + other)
+                    .That().ResideInNamespace(root + folder)
+                    .ShouldNot().HaveDependencyOnAny(root + other)
                     .GetResult();
                 if (!result.IsSuccessful)
                 {
@@ -98,6 +122,27 @@ public sealed class LayeringTests
         }
 
         return violations;
+    }
+
+    /// <summary>The table under DEVELOPERS.md's "Dependencies inside Core": folders of a row → what they may use (notes in brackets dropped).</summary>
+    private static Dictionary<string, HashSet<string>> DocumentedTable(string markdown)
+    {
+        var section = markdown[markdown.IndexOf("## Dependencies inside Core", StringComparison.Ordinal)..];
+        section = section[..section.IndexOf("\n## ", 1, StringComparison.Ordinal)];
+        var table = new Dictionary<string, HashSet<string>>(StringComparer.Ordinal);
+        foreach (var line in section.Split('\n').Where(l => l.StartsWith("| ", StringComparison.Ordinal)).Skip(1))
+        {
+            var cells = line.Split('|', StringSplitOptions.TrimEntries);
+            var uses = Names(Regex.Replace(cells[2], @"\([^)]*\)", string.Empty)).Where(n => n != "—").ToHashSet(StringComparer.Ordinal);
+            foreach (var folder in Names(cells[1]))
+            {
+                table.Add(folder, uses);
+            }
+        }
+
+        return table;
+
+        static IEnumerable<string> Names(string cell) => cell.Split(',', StringSplitOptions.TrimEntries | StringSplitOptions.RemoveEmptyEntries);
     }
 
     private static List<string> ProjectReferences(Assembly assembly) =>
