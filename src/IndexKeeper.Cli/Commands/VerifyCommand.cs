@@ -3,7 +3,7 @@ using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
-/// <summary><c>verify</c>: integrity of catalog and segments; exit 1 with the list of problems when any.</summary>
+/// <summary><c>verify</c>: integrity of catalog and segments, read only; exit 1 with the list of problems when any.</summary>
 internal sealed class VerifyCommand() : CommandBase(
     "verify",
     "integrity check of catalog and segments; reads only; exit 1 on any problem, naming what each damaged file costs")
