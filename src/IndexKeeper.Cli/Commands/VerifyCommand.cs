@@ -18,6 +18,11 @@ internal sealed class VerifyCommand() : CommandBase(
     private static void Write(TextWriter o, VerifyReport report)
     {
         o.WriteLine($"Checked {report.DocumentsChecked} documents, {report.PagesChecked} pages, {report.SegmentsChecked} segments, {report.VectorSetsChecked} vector sets.");
+        foreach (var note in report.Notes)
+        {
+            o.WriteLine("  note: " + note);
+        }
+
         foreach (var problem in report.Problems)
         {
             o.WriteLine("  problem: " + problem);

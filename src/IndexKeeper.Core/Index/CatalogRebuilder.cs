@@ -142,7 +142,7 @@ public static class CatalogRebuilder
     {
         ArgumentNullException.ThrowIfNull(catalog);
         var covered = catalog.VectorSets.LivePageKeysOf(encoderId);
-        var satisfied = catalog.Queue.Keys().Select(q => q.PageKey).Where(covered.Contains).ToList();
+        var satisfied = catalog.Queue.InOrder().Select(q => q.Id).Where(covered.Contains).ToList();
         catalog.Queue.Remove(satisfied);
         return satisfied.Count;
     }

@@ -73,7 +73,7 @@ public static class DamageSurvey
     private static (int All, int NotQueued) PagesWithoutVectors(IndexCatalog catalog, string encoderId, IReadOnlySet<string> unreadable)
     {
         var covered = catalog.VectorSets.LivePageKeysOf(encoderId);
-        var queued = catalog.Queue.Keys().Select(q => q.PageKey).ToHashSet(StringComparer.Ordinal);
+        var queued = catalog.Queue.InOrder().Select(q => q.Id).ToHashSet(StringComparer.Ordinal);
         int all = 0, notQueued = 0;
         foreach (var key in catalog.Pages.ReferencedKeys())
         {

@@ -75,9 +75,19 @@ public static class IndexVerifier
         {
             foreach (var path in Directory.EnumerateFiles(directory))
             {
-                if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !ids.Contains(id))
+                var name = Path.GetFileName(path);
+                if (!SegmentFileNames.TryParse(name, out var id, out var isTemp))
                 {
-                    report.Problems.Add($"file {Path.GetFileName(path)} in the segment folder is not referenced by the catalog");
+                    report.Problems.Add($"file {name} in the segment folder is not referenced by the catalog");
+                }
+                else if (isTemp)
+                {
+                    // What a crash leaves; verify only reads, the next writing open clears it.
+                    report.Notes.Add($"unfinished compaction output {name}: the next sync, scan or run removes it (its vectors are still in the segments it copies)");
+                }
+                else if (!ids.Contains(id))
+                {
+                    report.Notes.Add($"segment file {name} is not referenced by the catalog (a crash before its first commit, or a catalog older than the file): the next sync, scan or run sets it aside in segments/orphaned/; rebuild-catalog takes its vectors back");
                 }
             }
         }

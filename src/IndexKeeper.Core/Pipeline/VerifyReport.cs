@@ -7,6 +7,9 @@ public sealed class VerifyReport
 {
     public List<string> Problems { get; } = [];
 
+    /// <summary>Crash leftovers the next writing open clears (unfinished compaction outputs, segment files no commit references); not problems.</summary>
+    public List<string> Notes { get; } = [];
+
     /// <summary>Per damaged or missing segment file: the vector sets, pages and documents affected.</summary>
     public DamageReport Damage { get; set; } = new();
 
