@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Application;
@@ -12,6 +13,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         var decision = drift.Read();
+        var damage = DamageSurvey.Run(catalog, index.Store.Directory, decision.ServingEncoderId, readRecords: false, CancellationToken.None);
         var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
         return new StatusReport
         {
@@ -30,6 +32,9 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             PagesMigrated = decision.MigratedPages,
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
+            SegmentsMissing = damage.SegmentsMissing,
+            VectorSetsUnreadable = damage.VectorSetsUnreadable,
+            PagesWithoutVectors = damage.PagesWithoutVectors,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = DirectorySize.Of(index.Directory),
