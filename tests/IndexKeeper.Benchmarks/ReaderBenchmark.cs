@@ -26,7 +26,7 @@ public sealed class ReaderBenchmark : IBenchmark
         var text = ReaderSamples.Text(Path.Combine(context.WorkDirectory, "text"), context.Quick ? 20 : 200);
         var scans = ReaderSamples.Scans(Path.Combine(context.WorkDirectory, "scans"), copies);
         context.Note($"{copies} documents per office and scan format, {text["txt"].Count} per text format; one reader reads them in turn, two readers split them");
-        context.Note($"office: an 8-page report, a 240-row workbook, a 12-slide deck (DocumentFormat.OpenXml) and LibreOffice's own saves of them as odt, rtf, doc, ods, xls, odp, ppt");
+        context.Note("office: an 8-page report, a 240-row workbook, a 12-slide deck (DocumentFormat.OpenXml) and LibreOffice's own saves of them as odt, rtf, doc, ods, xls, odp, ppt");
         context.Note($"scans: pages 5 onwards of {ReaderSamples.DebianManual} drawn at 300 dpi by pdftoppm; image-only PDFs of 2 pages, PNG and TIFF of 1 page");
 
         var conversion = ReaderSettings.Default with { Ocr = false };
