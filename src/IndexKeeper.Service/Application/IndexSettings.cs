@@ -29,7 +29,11 @@ public sealed class IndexSettings
             TimeSpan.FromSeconds(options.Detect.SettleSeconds));
         RootPaths = Scan.Roots.ToDictionary(r => r.Name, r => r.Path, StringComparer.Ordinal);
         RootNames = options.Roots.Select(r => r.Name).ToList();
-        Reader = new IsolatedReaderOptions { WorkerMemoryLimitBytes = options.Limits.WorkerMemoryMegabytes * 1024 * 1024 };
+        Reader = new IsolatedReaderOptions
+        {
+            WorkerMemoryLimitBytes = options.Limits.WorkerMemoryMegabytes * 1024 * 1024,
+            ReaderSettings = ReaderSetup.Settings(options.Readers, options.IndexDirectory),
+        };
         Segments = new SegmentWriterOptions
         {
             SealAtBytes = options.Storage.SealAtMegabytes * 1024 * 1024,

@@ -14,6 +14,8 @@ public sealed class IndexKeeperOptions
 
     public LimitsOptions Limits { get; set; } = new();
 
+    public ReaderOptions Readers { get; set; } = new();
+
     public DetectOptions Detect { get; set; } = new();
 
     public EncoderOptions Encoder { get; set; } = new();

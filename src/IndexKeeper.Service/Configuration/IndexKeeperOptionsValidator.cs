@@ -60,6 +60,13 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Limits:MaxDecodedStreamMegabytes", limits.MaxDecodedStreamMegabytes, 1, 4096);
         Range(errors, "Limits:ReadTimeoutSeconds", limits.ReadTimeoutSeconds, 0.1, 3600);
         Range(errors, "Limits:WorkerMemoryMegabytes", limits.WorkerMemoryMegabytes, 128, 1024 * 1024);
+        var readers = options.Readers;
+        Range(errors, "Readers:OcrPageTimeoutSeconds", readers.OcrPageTimeoutSeconds, 1, 3600);
+        Range(errors, "Readers:ConversionTimeoutSeconds", readers.ConversionTimeoutSeconds, 1, 3600);
+        Range(errors, "Readers:ConversionMemoryMegabytes", readers.ConversionMemoryMegabytes, 256, 1024 * 1024);
+        Range(errors, "Readers:MaxEmailNesting", readers.MaxEmailNesting, 0, 64);
+        Range(errors, "Readers:MaxEmailAttachments", readers.MaxEmailAttachments, 0, 10_000);
+        errors.AddRange(ReaderSetup.Problems(readers));
         Range(errors, "Detect:SettleSeconds", options.Detect.SettleSeconds, 0, 3600);
         if (!EncoderNames.Contains(options.Encoder.Name))
         {

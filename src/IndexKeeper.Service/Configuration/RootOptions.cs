@@ -10,7 +10,7 @@ public sealed class RootOptions
 
     /// <summary>The document types the reader understands; used when <see cref="Include"/> is empty.</summary>
     public static IReadOnlyList<string> SupportedTypes { get; } =
-        ["**/*.pdf", "**/*.png", "**/*.jpg", "**/*.jpeg", "**/*.tif", "**/*.tiff", "**/*.docx", "**/*.xlsx", "**/*.pptx", "**/*.odt", "**/*.ods", "**/*.odp", "**/*.rtf", "**/*.doc", "**/*.xls", "**/*.ppt", "**/*.txt", "**/*.md", "**/*.markdown", "**/*.html", "**/*.htm", "**/*.eml"];
+        ["**/*.pdf", "**/*.png", "**/*.jpg", "**/*.jpeg", "**/*.tif", "**/*.tiff", "**/*.docx", "**/*.xlsx", "**/*.pptx", "**/*.odt", "**/*.ods", "**/*.odp", "**/*.odg", "**/*.rtf", "**/*.doc", "**/*.xls", "**/*.ppt", "**/*.txt", "**/*.text", "**/*.md", "**/*.markdown", "**/*.html", "**/*.htm", "**/*.eml"];
 
     /// <summary>Globs a file must match (empty: <see cref="SupportedTypes"/>). Example: <c>manuals/**/*.pdf</c>.</summary>
     public List<string> Include { get; set; } = [];

@@ -81,6 +81,17 @@ public sealed partial class OcrTests : IDisposable
     }
 
     [Fact]
+    public void A_missing_language_pack_quarantines_with_its_package_name()
+    {
+        // "zzz" names no Tesseract language, so its traineddata file is absent on every machine.
+        var reader = DocumentReaderFactory.Create(ReaderSettings.Default with { OcrLanguages = ["eng", "zzz"] });
+        var failure = Assert.Throws<DocumentReadException>(() => reader.Read(folder.Write("notice.png", Render("dredging")), ReadLimits.Default, CancellationToken.None));
+        Assert.Equal(QuarantineReason.ToolMissing, failure.Reason);
+        Assert.Contains("'zzz'", failure.Message, StringComparison.Ordinal);
+        Assert.Contains("tesseract-ocr-zzz", failure.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void The_cache_format_round_trips_and_a_damaged_file_is_a_miss()
     {
         IReadOnlyList<PageWord> words = [new("quay", new PageBox(1, 2, 3, 4)), new("berth", new PageBox(5.5f, 6, 7, 8))];

@@ -14,7 +14,7 @@ public sealed class OfficeFixture : IDisposable
         Folder = Directory.CreateTempSubdirectory("indexkeeper-office-").FullName;
         var letter = Write("letter.docx", OfficeSamples.Letter("R. Pennock", new DateTime(2024, 3, 1, 9, 15, 0, DateTimeKind.Utc)));
         var resaved = Write("letter-resaved.docx", OfficeSamples.Letter("T. Okafor", new DateTime(2025, 11, 20, 17, 42, 0, DateTimeKind.Utc)));
-        var workbook = Write("fees.xlsx", OfficeSamples.Workbook());
+        var workbook = Write("fees.xlsx", OfficeSamples.Workbook(rows: 12));
         var deck = Write("quay.pptx", OfficeSamples.Deck(3));
         var opendocument = LibreOffice.Convert(letter, "odt");
         foreach (var path in new[] { letter, workbook, deck, opendocument })

@@ -32,8 +32,40 @@ internal static class OfficeSamples
         return stream.ToArray();
     }
 
-    /// <summary>A workbook of one sheet with a small table of mooring fees.</summary>
-    public static byte[] Workbook()
+    /// <summary>
+    /// A report of <paramref name="pages"/> pages (explicit page breaks), each a heading and paragraphs of
+    /// berth figures that differ by <paramref name="seed"/> and page.
+    /// </summary>
+    public static byte[] Report(int pages, int seed)
+    {
+        using var stream = new MemoryStream();
+        using (var document = WordprocessingDocument.Create(stream, WordprocessingDocumentType.Document))
+        {
+            var body = new Body();
+            for (var page = 1; page <= pages; page++)
+            {
+                if (page > 1)
+                {
+                    body.Append(new Paragraph(new Run(new Break { Type = BreakValues.Page })));
+                }
+
+                body.Append(Paragraph($"Kellmarsh harbour board, quarterly berth report {seed}, section {page}"));
+                for (var line = 0; line < 12; line++)
+                {
+                    body.Append(Paragraph(
+                        $"Berth {(seed + page + line) % 24 + 1}: {(seed * 13 + page * 7 + line * 3) % 90 + 10} calls, mean stay {(page + line) % 9 + 2} hours, "
+                        + $"dredged depth {(seed + line) % 5 + 8}.{page % 10} metres, pilot boardings {(line * 5 + page) % 40}."));
+                }
+            }
+
+            document.AddMainDocumentPart().Document = new Document(body);
+        }
+
+        return stream.ToArray();
+    }
+
+    /// <summary>A workbook of one sheet with a table of mooring fees, <paramref name="rows"/> rows.</summary>
+    public static byte[] Workbook(uint rows)
     {
         using var stream = new MemoryStream();
         using (var document = SpreadsheetDocument.Create(stream, SpreadsheetDocumentType.Workbook))
@@ -42,7 +74,7 @@ internal static class OfficeSamples
             workbook.Workbook = new Sheet.Workbook();
             var sheetPart = workbook.AddNewPart<WorksheetPart>();
             var data = new Sheet.SheetData();
-            for (uint row = 1; row <= 12; row++)
+            for (uint row = 1; row <= rows; row++)
             {
                 data.Append(new Sheet.Row(
                     new Sheet.Cell { CellReference = "A" + row, DataType = Sheet.CellValues.String, CellValue = new Sheet.CellValue("Berth " + row) },

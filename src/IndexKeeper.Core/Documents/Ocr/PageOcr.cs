@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Text.RegularExpressions;
 using IndexKeeper.Core.Documents.Tools;
 
 namespace IndexKeeper.Core.Documents.Ocr;
@@ -9,7 +10,7 @@ namespace IndexKeeper.Core.Documents.Ocr;
 /// from Tesseract's TSV output with their boxes turned into the page's coordinates. Results are kept in
 /// the <see cref="OcrCache"/> when one is configured.
 /// </summary>
-internal sealed class PageOcr(ReaderSettings settings)
+internal sealed partial class PageOcr(ReaderSettings settings)
 {
     /// <summary>Resolution pages are drawn at for OCR: Tesseract's documentation recommends at least 300 dpi.</summary>
     public const int Dpi = 300;
@@ -130,6 +131,14 @@ internal sealed class PageOcr(ReaderSettings settings)
             throw new DocumentReadException(QuarantineReason.ReadTimeout, "OCR did not finish: " + e.Message, e);
         }
 
+        // With several languages Tesseract goes on without a missing one and exits 0: still not what was configured.
+        if (MissingLanguage().Match(run.Error) is { Success: true } missing)
+        {
+            throw new DocumentReadException(
+                QuarantineReason.ToolMissing,
+                $"OCR needs the Tesseract language '{missing.Groups[1].Value}', which is not installed (Debian package {LanguagePackage(missing.Groups[1].Value)})");
+        }
+
         if (run.ExitCode != 0)
         {
             throw new DocumentReadException(
@@ -139,6 +148,12 @@ internal sealed class PageOcr(ReaderSettings settings)
 
         return run;
     }
+
+    /// <summary>Debian's package of a Tesseract language: <c>chi_sim</c> is in tesseract-ocr-chi-sim; script models are in tesseract-ocr-script-*.</summary>
+    private static string LanguagePackage(string language) =>
+        language.StartsWith("script/", StringComparison.Ordinal)
+            ? "tesseract-ocr-script-* for " + language
+            : "tesseract-ocr-" + language.ToLowerInvariant().Replace('_', '-');
 
     /// <summary>
     /// A box in pixels of the drawn page (top-left origin, the page's /Rotate applied, as pdftoppm draws)
@@ -159,4 +174,8 @@ internal sealed class PageOcr(ReaderSettings settings)
         var b = Point(u2, v2);
         return new PageBox(Math.Min(a.X, b.X), Math.Min(a.Y, b.Y), Math.Max(a.X, b.X), Math.Max(a.Y, b.Y));
     }
+
+    // What Tesseract 5 writes to stderr when a language's traineddata file is absent (seen with 5.3.0).
+    [GeneratedRegex("Failed loading language '([^']+)'")]
+    private static partial Regex MissingLanguage();
 }
