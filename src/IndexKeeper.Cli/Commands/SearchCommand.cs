@@ -45,7 +45,14 @@ internal sealed class SearchCommand() : CommandBase(
             ? throw new UsageException("--maps draws from the index itself, which the running daemon holds; search without --maps, or stop the daemon.")
             : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 
-        return context.Print(report, Write);
+        // A search that could not read every vector set is a partial failure (exit 1), said on stderr.
+        var exitCode = report.VectorSetsUnreadable > 0 ? 1 : 0;
+        if (exitCode != 0)
+        {
+            Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture, $"warning: {report.VectorSetsUnreadable} vector set(s) could not be read, so their pages could not be found; run `indexkeeper verify` (docs/recovery.md)."));
+        }
+
+        return context.Print(report, Write, exitCode);
     }
 
     private static void Write(TextWriter o, SearchReport report)

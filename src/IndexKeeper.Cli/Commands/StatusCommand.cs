@@ -39,6 +39,11 @@ internal sealed class StatusCommand() : CommandBase(
         }
 
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
+        o.WriteLine(string.Create(c, $"  without vectors {report.PagesWithoutVectors} page(s) (queued ones included)"));
+        if (report.SegmentsMissing > 0 || report.VectorSetsUnreadable > 0)
+        {
+            o.WriteLine(string.Create(c, $"  DAMAGE       {report.SegmentsMissing} segment file(s) missing, {report.VectorSetsUnreadable} vector set(s) unreadable; run `indexkeeper verify` (docs/recovery.md)"));
+        }
         o.WriteLine(string.Create(c, $"  on disk      {report.BytesOnDisk / 1024.0 / 1024.0:0.0} MiB"));
         o.WriteLine(string.Create(c, $"  last scan    {(report.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", c) : "never")}"));
         if (report.Quarantine.Count > 0)

@@ -3,14 +3,14 @@ using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
-/// <summary><c>verify</c>: integrity of catalog and segments; exit 1 with the list of problems when any.</summary>
+/// <summary><c>verify</c>: integrity of catalog and segments, read only; exit 1 with the list of problems when any.</summary>
 internal sealed class VerifyCommand() : CommandBase(
     "verify",
-    "integrity check of catalog and segments; exit 1 on any problem (damaged segments are isolated)")
+    "integrity check of catalog and segments; reads only; exit 1 on any problem, naming what each damaged file costs")
 {
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        using var composed = context.OpenExisting(Name);
+        using var composed = CommandContext.OpenForReading(context.LoadForExistingIndex(), Name);
         var report = composed.Get<VerifyOperation>().Run(cancellationToken);
         return context.Print(report, Write, report.Clean ? 0 : 1);
     }
@@ -18,16 +18,11 @@ internal sealed class VerifyCommand() : CommandBase(
     private static void Write(TextWriter o, VerifyReport report)
     {
         o.WriteLine($"Checked {report.DocumentsChecked} documents, {report.PagesChecked} pages, {report.SegmentsChecked} segments, {report.VectorSetsChecked} vector sets.");
-        foreach (var repair in report.Repairs)
-        {
-            o.WriteLine("  repaired: " + repair);
-        }
-
         foreach (var problem in report.Problems)
         {
             o.WriteLine("  problem: " + problem);
         }
 
-        o.WriteLine(report.Clean ? "The index is consistent." : $"{report.Problems.Count} problem(s) found.");
+        o.WriteLine(report.Clean ? "The index is consistent." : $"{report.Problems.Count} problem(s) found; nothing was changed. `indexkeeper repair` drops what cannot be read and queues its pages again (docs/recovery.md).");
     }
 }

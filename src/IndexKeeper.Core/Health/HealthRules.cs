@@ -34,6 +34,11 @@ public static class HealthRules
                 : new("search-failing", HealthStatus.Unhealthy, string.Create(c, $"searches fail: the last one {failedAgo.TotalMinutes:0} min ago: {reason}")));
         }
 
+        if (snapshot.Damage is { } damage)
+        {
+            reasons.Add(new("index-damaged", HealthStatus.Degraded, $"{damage}; searches answer from the rest; run `indexkeeper verify`, then docs/recovery.md"));
+        }
+
         if (snapshot.FreeShare is { } free)
         {
             if (free < limits.MinFreeShare / 2)

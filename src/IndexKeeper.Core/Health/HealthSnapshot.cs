@@ -12,6 +12,7 @@ namespace IndexKeeper.Core.Health;
 /// <param name="WorkLoopFault">The fault the work loop is backing off from before it tries again; null when its last turn succeeded.</param>
 /// <param name="SearchFailureAge">Time since the last search that failed; null when none failed.</param>
 /// <param name="SearchFailure">Why the last failed search failed.</param>
+/// <param name="Damage">Missing segment files, unreadable vector sets and pages without vectors, in words; null when none.</param>
 /// <param name="SearchSucceededSince">True when a search succeeded after the last one that failed.</param>
 public sealed record HealthSnapshot(
     bool WorkLoopRunning,
@@ -30,4 +31,5 @@ public sealed record HealthSnapshot(
     string? WorkLoopFault = null,
     TimeSpan? SearchFailureAge = null,
     string? SearchFailure = null,
-    bool SearchSucceededSince = false);
+    bool SearchSucceededSince = false,
+    string? Damage = null);

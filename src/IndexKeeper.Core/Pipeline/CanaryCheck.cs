@@ -47,10 +47,12 @@ public static class CanaryCheck
         {
             var fresh = encoder.EncodePages(pages, cancellationToken);
             using var stored = store.OpenSelected(encoderId, records);
-            for (var i = 0; i < pages.Count; i++)
+
+            // A canary whose stored bytes cannot be read is damage (verify reports it), not drift: it is skipped.
+            var freshByKey = records.Select((r, i) => (r.PageKey, i)).ToDictionary(p => p.PageKey, p => fresh[p.i].Vectors, StringComparer.Ordinal);
+            for (var i = 0; i < stored.Records.Count; i++)
             {
-                var view = stored.Source.Get(i);
-                comparison.Add(view.Vectors, fresh[i].Vectors, encoder.Identity.Dimensions);
+                comparison.Add(stored.Source.Get(i).Vectors, freshByKey[stored.Records[i].PageKey], encoder.Identity.Dimensions);
             }
         }
 

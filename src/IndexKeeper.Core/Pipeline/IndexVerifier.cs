@@ -1,5 +1,4 @@
 using IndexKeeper.Core.Catalog;
-using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Storage;
 
@@ -7,25 +6,20 @@ namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>
 /// The integrity check of an index: page reference counts against the documents that hold them, every
-/// segment's header and records against the catalog, every live vector set read back with its checksum,
-/// no files the catalog does not know. Damage stays local: a record that does not read back costs its own
-/// vector set (forgotten, its page queued again); a bad closing record with intact records loses nothing; only
-/// a segment that cannot be read at all (missing, header damaged or of another encoder) is isolated in
-/// <c>segments/damaged/</c> with all its vector sets. Nothing damaged is ever read as data.
+/// segment's header against the catalog, every vector set the catalog names read back and proven by its own
+/// checksum, every seal, no files the catalog does not know. It only reads: damage is reported per file with
+/// what it costs (docs/recovery.md); the repair is the explicit <c>repair</c> command.
 /// </summary>
-/// <remarks>REQUIRES: the index lock is held and the store was opened (recovery ran).</remarks>
+/// <remarks>REQUIRES: the index lock is held (no writer is half-way through a commit).</remarks>
 public static class IndexVerifier
 {
-    public const string DamagedFolder = "damaged";
-
-    public static VerifyReport Verify(IndexCatalog catalog, VectorStore store, string? activeEncoderId, CancellationToken cancellationToken)
+    public static VerifyReport Verify(IndexCatalog catalog, string segmentsDirectory, string? activeEncoderId, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(catalog);
-        ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(segmentsDirectory);
         var report = new VerifyReport();
-        report.Repairs.AddRange(store.Repairs.Select(r => "at open: " + r));
         var held = CheckReferences(catalog, report);
-        CheckSegments(catalog, store.Directory, report, cancellationToken);
+        CheckSegments(catalog, segmentsDirectory, activeEncoderId, report, cancellationToken);
         CheckCoverage(catalog, activeEncoderId, held, report);
         return report;
     }
@@ -73,126 +67,52 @@ public static class IndexVerifier
         return held;
     }
 
-    private static void CheckSegments(IndexCatalog catalog, string directory, VerifyReport report, CancellationToken cancellationToken)
+    private static void CheckSegments(IndexCatalog catalog, string directory, string? activeEncoderId, VerifyReport report, CancellationToken cancellationToken)
     {
-        var known = catalog.Segments.All().ToDictionary(s => s.Id);
-        foreach (var path in Directory.EnumerateFiles(directory))
+        var known = catalog.Segments.All();
+        var ids = known.Select(s => s.Id).ToHashSet();
+        if (Directory.Exists(directory))
         {
-            if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !known.ContainsKey(id))
+            foreach (var path in Directory.EnumerateFiles(directory))
             {
-                report.Problems.Add($"file {Path.GetFileName(path)} in the segment folder is not referenced by the catalog");
+                if (!SegmentFileNames.TryParse(Path.GetFileName(path), out var id, out _) || !ids.Contains(id))
+                {
+                    report.Problems.Add($"file {Path.GetFileName(path)} in the segment folder is not referenced by the catalog");
+                }
             }
         }
 
-        foreach (var segment in known.Values)
+        var serving = catalog.Encoders.ServingId() ?? activeEncoderId;
+        report.Damage = DamageSurvey.Run(catalog, directory, serving, readRecords: true, cancellationToken);
+        var damaged = report.Damage.Segments.ToDictionary(d => d.SegmentId);
+        foreach (var damage in report.Damage.Segments)
         {
-            cancellationToken.ThrowIfCancellationRequested();
+            report.Problems.Add(Describe(damage));
+        }
+
+        foreach (var segment in known)
+        {
             report.SegmentsChecked++;
-            var path = SegmentFileNames.PathOf(directory, segment.Id);
             var sets = catalog.VectorSets.OfSegment(segment.Id);
-            var damage = CheckSegment(segment, path, sets, report);
-            foreach (var problem in damage.Problems)
-            {
-                report.Problems.Add($"segment {segment.Id}: {problem}");
-            }
-
-            if (damage.Whole)
-            {
-                Isolate(catalog, directory, segment, path, sets, report);
-            }
-            else if (damage.Lost.Count > 0)
-            {
-                // Each record carries its own checksum: a bad one costs that vector set, never its neighbours.
-                var requeued = catalog.ForgetVectorSets(damage.Lost, []);
-                report.Repairs.Add($"segment {segment.Id}: {damage.Lost.Count} damaged vector set(s) forgotten, {requeued} page(s) queued again; its other {sets.Count - damage.Lost.Count} read back and are kept");
-            }
-        }
-    }
-
-    /// <summary>What is wrong with one segment: problems to report, and either the whole file (it cannot be read as this segment at all) or the vector sets whose records do not read back.</summary>
-    private sealed record SegmentDamage(IReadOnlyList<string> Problems, bool Whole, IReadOnlyList<VectorSetRecord> Lost)
-    {
-        public static SegmentDamage Of(string wholeProblem) => new([wholeProblem], true, []);
-    }
-
-    private static SegmentDamage CheckSegment(SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
-    {
-        if (!File.Exists(path))
-        {
-            return SegmentDamage.Of($"its file is missing: {sets.Count} vector set(s) cannot be read");
-        }
-
-        SegmentReader reader;
-        try
-        {
-            reader = SegmentReader.Open(path);
-        }
-        catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
-        {
-            return SegmentDamage.Of(ex.Message);
-        }
-
-        using (reader)
-        {
-            if (reader.Header.EncoderId != segment.EncoderId || reader.Header.Dimensions != segment.Dimensions)
-            {
-                return SegmentDamage.Of($"its header says encoder {reader.Header.EncoderId} d={reader.Header.Dimensions}, the catalog {segment.EncoderId} d={segment.Dimensions}");
-            }
-
-            var problems = new List<string>();
-            var scan = reader.Scan();
-            var expectedEnd = segment.Sealed ? SegmentEnd.Sealed : SegmentEnd.Open;
-            if (scan.End != expectedEnd || scan.ValidLength != segment.Length)
-            {
-                // The closing record or a stretch between records: the committed records are proven by their own
-                // checksums below, so this alone loses nothing (docs/recovery.md).
-                problems.Add($"it ends {scan.End} at byte {scan.ValidLength} of {scan.FileLength}, the catalog expects {expectedEnd} at {segment.Length}{(scan.Problem is null ? string.Empty : ": " + scan.Problem)}");
-            }
-
-            var lost = new List<VectorSetRecord>();
-            foreach (var set in sets)
-            {
-                try
-                {
-                    var stored = reader.Read(new RecordLocation(set.SegmentId, set.Offset, set.Length, unchecked((uint)set.Checksum)));
-                    if (stored.Key != PageKey.Parse(set.PageKey) || stored.Count != set.VectorCount)
-                    {
-                        problems.Add($"the record at {set.Offset} holds page {stored.Key} with {stored.Count} vectors, the catalog expects {set.PageKey} with {set.VectorCount}");
-                        lost.Add(set);
-                        continue;
-                    }
-                }
-                catch (Exception ex) when (ex is SegmentFormatException or IOException or ArgumentException)
-                {
-                    problems.Add($"the record of page {set.PageKey} at {set.Offset} does not read back: {ex.Message}");
-                    lost.Add(set);
-                    continue;
-                }
-
-                report.VectorSetsChecked++;
-            }
-
+            report.VectorSetsChecked += sets.Count - (damaged.TryGetValue(segment.Id, out var d) ? d.VectorSetsUnreadable.Count : 0);
             var live = sets.Where(s => s.Live).ToList();
             if (live.Count != segment.LiveRecordCount || live.Sum(s => (long)s.Length) != segment.LiveBytes || sets.Count != segment.RecordCount)
             {
-                problems.Add($"its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})");
+                report.Problems.Add($"segment {segment.Id}: its counts (records {segment.RecordCount}, live {segment.LiveRecordCount}, live bytes {segment.LiveBytes}) differ from its vector sets ({sets.Count}, {live.Count}, {live.Sum(s => (long)s.Length)})");
             }
-
-            return new SegmentDamage(problems, false, lost);
         }
     }
 
-    private static void Isolate(IndexCatalog catalog, string directory, SegmentRecord segment, string path, IReadOnlyList<VectorSetRecord> sets, VerifyReport report)
+    /// <summary>One line per damaged file: what is wrong and what it costs.</summary>
+    private static string Describe(SegmentDamage damage)
     {
-        if (File.Exists(path))
-        {
-            var damaged = Path.Combine(directory, DamagedFolder);
-            Directory.CreateDirectory(damaged);
-            File.Move(path, Path.Combine(damaged, Path.GetFileName(path) + "." + DateTime.UtcNow.ToString("yyyyMMddHHmmss", System.Globalization.CultureInfo.InvariantCulture)), overwrite: true);
-        }
-
-        var requeued = catalog.ForgetVectorSets(sets, [segment.Id]);
-        report.Repairs.Add($"isolated segment {segment.Id} in {DamagedFolder}/: {sets.Count} vector sets forgotten, {requeued} pages queued again");
+        var what = damage.FileProblem ?? (damage.VectorSetsUnreadable.Count > 0
+            ? string.Join("; ", damage.VectorSetsUnreadable.Select(u => u.Problem).Distinct(StringComparer.Ordinal).Take(3))
+            : "seal: " + damage.SealProblem);
+        var cost = damage.VectorSetsUnreadable.Count == 0
+            ? "nothing lost (every record is proven by its own checksum); `repair` re-seals it"
+            : $"{damage.VectorSetsUnreadable.Count} vector set(s) unreadable ({damage.VectorSetsUnreadable.Count(u => u.Live)} live), {damage.Pages.Count} page(s) without those vectors, {damage.Documents.Count} document(s) affected{(damage.Documents.Count == 0 ? string.Empty : ": " + string.Join(", ", damage.Documents.Take(5)) + (damage.Documents.Count > 5 ? ", …" : string.Empty))}";
+        return $"segment {damage.SegmentId} ({damage.File}{(damage.Missing ? ", missing" : string.Empty)}): {what} — {cost}";
     }
 
     private static void CheckCoverage(IndexCatalog catalog, string? activeEncoderId, IReadOnlyList<string> held, VerifyReport report)

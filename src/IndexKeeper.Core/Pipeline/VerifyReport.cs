@@ -1,12 +1,14 @@
+using IndexKeeper.Core.Index;
+
 namespace IndexKeeper.Core.Pipeline;
 
-/// <summary>What <c>verify</c> found: problems (exit 1 when any), what it isolated, and what was checked.</summary>
+/// <summary>What <c>verify</c> found: problems (exit 1 when any), the damaged or missing segment files with what they cost, and what was checked.</summary>
 public sealed class VerifyReport
 {
     public List<string> Problems { get; } = [];
 
-    /// <summary>Repairs made when the store was opened (crash leftovers) and isolations made by the check.</summary>
-    public List<string> Repairs { get; } = [];
+    /// <summary>Per damaged or missing segment file: the vector sets, pages and documents affected.</summary>
+    public DamageReport Damage { get; set; } = new();
 
     public long DocumentsChecked { get; set; }
 

@@ -138,4 +138,16 @@ internal static class RecordCodec
 
     /// <summary>Stores the finished record checksum in a frame filled by <see cref="BeginFrame"/>.</summary>
     public static void EndFrame(Span<byte> frame, uint recordChecksum) => BinaryPrimitives.WriteUInt32LittleEndian(frame, recordChecksum);
+
+    /// <summary>Fills a whole seal record (docs/segment-format.md, "seal") of <see cref="SegmentFormat.SealRecordLength"/> bytes.</summary>
+    public static void EncodeSeal(Span<byte> seal, long recordCount, long sealedLength, uint fileChecksum)
+    {
+        var crc = BeginFrame(seal, SegmentFormat.RecordTypeSeal, SegmentFormat.SealBodyLength);
+        var body = seal[SegmentFormat.FrameLength..SegmentFormat.SealRecordLength];
+        BinaryPrimitives.WriteUInt64LittleEndian(body, (ulong)recordCount);
+        BinaryPrimitives.WriteUInt64LittleEndian(body[8..], (ulong)sealedLength);
+        BinaryPrimitives.WriteUInt32LittleEndian(body[16..], fileChecksum);
+        BinaryPrimitives.WriteUInt32LittleEndian(body[20..], 0);
+        EndFrame(seal, Crc32C.Append(crc, body));
+    }
 }

@@ -34,9 +34,11 @@ public sealed class SegmentFileSet : IDisposable
     public string Directory { get; }
 
     /// <summary>
-    /// A source over the vector sets at <paramref name="locations"/> (ordinal i is location i). Every
-    /// record is checked once per set (frame, checksums, layout, encoder id) before it can be read; a
-    /// bad one fails the call with <see cref="SegmentFormatException"/> naming it.
+    /// A source over the vector sets at <paramref name="locations"/> that can be read. Every record is
+    /// checked once per set (frame, checksums, layout, encoder id) before it can be read; a bad record, or
+    /// every record of a file that is missing or whose header is bad, is left out and listed in
+    /// <see cref="SegmentVectorSetSource.Unreadable"/>: damage costs the records it touches, never the others.
+    /// Ordinal i of the source is the i-th location not listed there, in the order given.
     /// </summary>
     public SegmentVectorSetSource OpenSource(string encoderId, IReadOnlyList<RecordLocation> locations)
     {
@@ -44,6 +46,7 @@ public sealed class SegmentFileSet : IDisposable
         ArgumentNullException.ThrowIfNull(locations);
         var maps = new List<MappedFile>();
         var mapOfSegment = new Dictionary<long, int>();
+        var failedSegments = new Dictionary<long, string>();
         try
         {
             var ends = new Dictionary<long, long>();
@@ -56,33 +59,61 @@ public sealed class SegmentFileSet : IDisposable
             var verifiedBySegment = new Dictionary<long, ConcurrentDictionary<long, (uint Checksum, int Length)>>();
             foreach (var (segmentId, end) in ends)
             {
-                var (map, header, verified) = Acquire(segmentId, end);
+                MappedFile map;
+                SegmentHeader header;
+                ConcurrentDictionary<long, (uint Checksum, int Length)> verified;
+                try
+                {
+                    (map, header, verified) = Acquire(segmentId, end);
+                }
+                catch (Exception ex) when (ex is SegmentFormatException or IOException or UnauthorizedAccessException)
+                {
+                    failedSegments[segmentId] = ex is FileNotFoundException ? $"segment file {SegmentFileNames.Name(segmentId)} is missing" : ex.Message;
+                    continue;
+                }
+
+                var problem = header.EncoderId != encoderId
+                    ? $"segment holds encoder {header.EncoderId}, the catalog expects {encoderId}"
+                    : dimensions != 0 && header.Dimensions != dimensions
+                        ? $"segment has {header.Dimensions} dimensions, others of encoder {encoderId} have {dimensions}"
+                        : null;
+                if (problem is not null)
+                {
+                    map.Release();
+                    failedSegments[segmentId] = new SegmentFormatException(map.Path, null, problem).Message;
+                    continue;
+                }
+
                 mapOfSegment[segmentId] = maps.Count;
                 maps.Add(map);
                 verifiedBySegment[segmentId] = verified;
-                if (header.EncoderId != encoderId)
-                {
-                    throw new SegmentFormatException(map.Path, null, $"segment holds encoder {header.EncoderId}, the catalog expects {encoderId}");
-                }
-
-                if (dimensions != 0 && header.Dimensions != dimensions)
-                {
-                    throw new SegmentFormatException(map.Path, null, $"segment has {header.Dimensions} dimensions, others of encoder {encoderId} have {dimensions}");
-                }
-
                 dimensions = header.Dimensions;
             }
 
-            var ordinals = new SegmentVectorSetSource.Ordinal[locations.Count];
+            var ordinals = new List<SegmentVectorSetSource.Ordinal>(locations.Count);
+            var unreadable = new List<UnreadableRecord>();
             for (var i = 0; i < locations.Count; i++)
             {
                 var location = locations[i];
+                if (failedSegments.TryGetValue(location.SegmentId, out var failure))
+                {
+                    unreadable.Add(new UnreadableRecord(i, location, failure));
+                    continue;
+                }
+
                 var mapIndex = mapOfSegment[location.SegmentId];
-                var count = Check(maps[mapIndex], location, dimensions, verifiedBySegment[location.SegmentId], out var key);
-                ordinals[i] = new SegmentVectorSetSource.Ordinal(mapIndex, location.Offset + SegmentFormat.FrameLength, location.Length - SegmentFormat.FrameLength, count, key);
+                try
+                {
+                    var count = Check(maps[mapIndex], location, dimensions, verifiedBySegment[location.SegmentId], out var key);
+                    ordinals.Add(new SegmentVectorSetSource.Ordinal(mapIndex, location.Offset + SegmentFormat.FrameLength, location.Length - SegmentFormat.FrameLength, count, key));
+                }
+                catch (SegmentFormatException ex)
+                {
+                    unreadable.Add(new UnreadableRecord(i, location, ex.Message));
+                }
             }
 
-            return new SegmentVectorSetSource(encoderId, dimensions, [.. maps], ordinals);
+            return new SegmentVectorSetSource(encoderId, dimensions, [.. maps], [.. ordinals], unreadable);
         }
         catch
         {

@@ -131,6 +131,40 @@ public sealed class SegmentReader : IDisposable
             new(Header, records, end, validLength, Length, damage, at);
     }
 
+    /// <summary>
+    /// Why the seal of a segment the catalog calls sealed does not hold, or null when it does: the last
+    /// 40 bytes must be a seal record whose own record CRC-32C (RFC 3720 §B.4) holds, that covers every byte
+    /// before it, and whose file-crc is the CRC-32C of those bytes. Records are not walked: each is proven
+    /// by its own checksum, so a bad seal says nothing about them.
+    /// </summary>
+    public string? SealProblem()
+    {
+        ObjectDisposedException.ThrowIf(Volatile.Read(ref disposed) != 0, this);
+        var sealOffset = Length - SegmentFormat.SealRecordLength;
+        if (sealOffset < Header.EncodedLength)
+        {
+            return "no seal record: the file is too short";
+        }
+
+        var seal = file.Span(sealOffset, SegmentFormat.SealRecordLength);
+        var state = RecordCodec.Examine(seal, out var type, out var recordLength, out _, out var problem);
+        if (state != RecordCodec.FrameState.Complete || type != SegmentFormat.RecordTypeSeal || recordLength != SegmentFormat.SealRecordLength)
+        {
+            return "no good seal record at the end of the file" + (state == RecordCodec.FrameState.Damaged ? ": " + problem : string.Empty);
+        }
+
+        var body = seal[SegmentFormat.FrameLength..];
+        var declaredLength = BinaryPrimitives.ReadUInt64LittleEndian(body[8..]);
+        if (declaredLength != (ulong)sealOffset)
+        {
+            return $"the seal covers {declaredLength} bytes, it sits at byte {sealOffset}";
+        }
+
+        var stored = BinaryPrimitives.ReadUInt32LittleEndian(body[16..]);
+        var computed = ChecksumOfPrefix(sealOffset);
+        return stored == computed ? null : $"whole-file checksum mismatch (stored {stored:x8}, computed {computed:x8})";
+    }
+
     public void Dispose()
     {
         if (Interlocked.Exchange(ref disposed, 1) == 0)

@@ -14,8 +14,9 @@ public sealed class SegmentVectorSetSource : IVectorSetSource, IDisposable
     private readonly Ordinal[] ordinals;
     private int disposed;
 
-    internal SegmentVectorSetSource(string encoderId, int dimensions, MappedFile[] maps, Ordinal[] ordinals)
+    internal SegmentVectorSetSource(string encoderId, int dimensions, MappedFile[] maps, Ordinal[] ordinals, IReadOnlyList<UnreadableRecord> unreadable)
     {
+        Unreadable = unreadable;
         EncoderId = encoderId;
         Dimensions = dimensions;
         this.maps = maps;
@@ -28,6 +29,9 @@ public sealed class SegmentVectorSetSource : IVectorSetSource, IDisposable
     public int Dimensions { get; }
 
     public int Count => ordinals.Length;
+
+    /// <summary>The locations asked for that cannot be read (missing file, bad header, bad record); not among the ordinals.</summary>
+    public IReadOnlyList<UnreadableRecord> Unreadable { get; }
 
     public StoredVectors Get(int ordinal)
     {

@@ -175,13 +175,7 @@ public sealed class SegmentWriter : IDisposable
         {
             var sealedChecksum = fileChecksum;
             Span<byte> seal = stackalloc byte[SegmentFormat.SealRecordLength];
-            var crc = RecordCodec.BeginFrame(seal, SegmentFormat.RecordTypeSeal, SegmentFormat.SealBodyLength);
-            var body = seal[SegmentFormat.FrameLength..];
-            BinaryPrimitives.WriteUInt64LittleEndian(body, (ulong)RecordCount);
-            BinaryPrimitives.WriteUInt64LittleEndian(body[8..], (ulong)Length);
-            BinaryPrimitives.WriteUInt32LittleEndian(body[16..], sealedChecksum);
-            BinaryPrimitives.WriteUInt32LittleEndian(body[20..], 0);
-            RecordCodec.EndFrame(seal, Crc32C.Append(crc, body));
+            RecordCodec.EncodeSeal(seal, RecordCount, Length, sealedChecksum);
             Write(seal);
             output.Flush(flushToDisk: true);
             output.Dispose();
@@ -264,7 +258,7 @@ public sealed class SegmentWriter : IDisposable
         }
     }
 
-    private static void MakeReadOnly(string path)
+    internal static void MakeReadOnly(string path)
     {
         if (OperatingSystem.IsWindows())
         {

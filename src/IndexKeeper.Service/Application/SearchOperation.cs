@@ -55,6 +55,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
             CandidatesReranked = result.CandidatesReranked,
             ElapsedMilliseconds = Math.Round(stopwatch.Elapsed.TotalMilliseconds, 2),
             Hits = hits,
+            VectorSetsUnreadable = live.Unreadable.Count,
         };
     }
 

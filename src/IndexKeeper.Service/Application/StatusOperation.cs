@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Application;
@@ -13,6 +14,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
         var segmentBytes = segments.Sum(s => s.Length);
         var decision = drift.Read();
         var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
+        var damage = DamageSurvey.Run(catalog, index.Store.Directory, decision.ServingEncoderId, readRecords: false, CancellationToken.None);
         return new StatusReport
         {
             IndexDirectory = index.Directory,
@@ -30,6 +32,9 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             PagesMigrated = decision.MigratedPages,
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
+            SegmentsMissing = damage.SegmentsMissing,
+            VectorSetsUnreadable = damage.VectorSetsUnreadable,
+            PagesWithoutVectors = damage.PagesWithoutVectors,
             Queued = figures.Queued,
             Quarantined = figures.QuarantinedDocuments,
             BytesOnDisk = DirectorySize.Of(index.Directory),

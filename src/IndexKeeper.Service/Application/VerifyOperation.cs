@@ -2,9 +2,9 @@ using IndexKeeper.Core.Pipeline;
 
 namespace IndexKeeper.Service.Application;
 
-/// <summary><c>verify</c>: integrity of catalog and segments (<see cref="IndexVerifier"/>); damaged segments are isolated.</summary>
+/// <summary><c>verify</c>: integrity of catalog and segments (<see cref="IndexVerifier"/>); reads only; the explicit repair is <c>repair</c>.</summary>
 public sealed class VerifyOperation(OpenIndex index)
 {
     public VerifyReport Run(CancellationToken cancellationToken) =>
-        IndexVerifier.Verify(index.Catalog, index.Store, index.Encoder.Identity.Id, cancellationToken);
+        IndexVerifier.Verify(index.Catalog, index.Store.Directory, index.Encoder.Identity.Id, cancellationToken);
 }

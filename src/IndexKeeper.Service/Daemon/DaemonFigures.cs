@@ -1,3 +1,5 @@
+using IndexKeeper.Core.Index;
+
 namespace IndexKeeper.Service.Daemon;
 
 /// <summary>Figures of the index sampled by the work loop (metrics, health and the status page read these, never the catalog).</summary>
@@ -15,9 +17,10 @@ internal sealed record DaemonFigures(
     long SegmentsSealed,
     double DeadRatio,
     long BytesOnDisk,
-    double? FreeShare)
+    double? FreeShare,
+    DamageReport Damage)
 {
     public long Queued => QueuedFresh + QueuedMigration + QueuedCanary;
 
-    public static DaemonFigures Empty { get; } = new(DateTimeOffset.MinValue, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, null);
+    public static DaemonFigures Empty { get; } = new(DateTimeOffset.MinValue, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, null, new DamageReport());
 }

@@ -2,6 +2,7 @@ using System.Collections.Concurrent;
 using System.Threading.Channels;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Health;
+using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Daemon;
 
@@ -164,6 +165,11 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
         }
     }
 
+    private static string? DamageText(DamageReport damage) =>
+        damage.SegmentsMissing == 0 && damage.VectorSetsUnreadable == 0 && damage.PagesWithoutVectorsNotQueued == 0
+            ? null
+            : string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{damage.SegmentsMissing} segment file(s) missing, {damage.VectorSetsUnreadable} vector set(s) unreadable, {damage.PagesWithoutVectorsNotQueued} page(s) without vectors and not queued");
+
     /// <summary>The snapshot the health rules judge.</summary>
     public HealthSnapshot HealthSnapshot()
     {
@@ -203,6 +209,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
             workLoopFault,
             now - searchFailed,
             searchFailure,
-            succeededSince);
+            succeededSince,
+            DamageText(latest.Damage));
     }
 }

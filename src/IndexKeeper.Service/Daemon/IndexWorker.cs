@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.ServiceProcess;
 using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Service.Application;
@@ -433,7 +434,8 @@ internal sealed class IndexWorker(
             segments.Count(s => s.Sealed),
             segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             DirectorySize.Of(index.Directory),
-            free);
+            free,
+            DamageSurvey.Run(catalog, index.Store.Directory, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }
 

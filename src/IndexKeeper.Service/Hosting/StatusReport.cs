@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Hosting;
 
@@ -43,6 +44,15 @@ public sealed class StatusReport
 
     /// <summary>The last canary check of the active encoder; null when never checked.</summary>
     public CanaryReport? Canary { get; init; }
+
+    /// <summary>Segment files the catalog names that are not there (their vector sets are counted in <see cref="VectorSetsUnreadable"/>).</summary>
+    public long SegmentsMissing { get; init; }
+
+    /// <summary>Live vector sets whose bytes cannot be read: file missing, bad header, or a file shorter than the record (status does not read vectors; verify checks every checksum).</summary>
+    public long VectorSetsUnreadable { get; init; }
+
+    /// <summary>Pages a live document holds without a readable live vector set of the serving encoder, queued ones included.</summary>
+    public long PagesWithoutVectors { get; init; }
 
     public long Queued { get; init; }
 

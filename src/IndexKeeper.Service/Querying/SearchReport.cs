@@ -23,4 +23,10 @@ public sealed class SearchReport
     public double ElapsedMilliseconds { get; init; }
 
     public IReadOnlyList<SearchReportHit> Hits { get; init; } = [];
+
+    /// <summary>
+    /// Live vector sets of the ranking encoder whose bytes could not be read (missing segment file, damaged
+    /// record): their pages could not be found by this search. Non-zero makes <c>search</c> exit 1.
+    /// </summary>
+    public int VectorSetsUnreadable { get; init; }
 }

@@ -20,11 +20,12 @@ internal sealed class OpenIndex : IDisposable
 
     private readonly IndexLock indexLock;
 
-    public OpenIndex(string directory, SegmentWriterOptions? writerOptions = null)
+    /// <param name="readOnlyStore">Open the store as read commands do: nothing repaired at open.</param>
+    public OpenIndex(string directory, SegmentWriterOptions? writerOptions = null, bool readOnlyStore = false)
     {
         indexLock = IndexLock.Acquire(directory, "crash recovery test");
         Catalog = IndexCatalog.Open(indexLock);
-        Store = VectorStore.Open(Catalog, directory, writerOptions);
+        Store = readOnlyStore ? VectorStore.OpenForReading(Catalog, directory) : VectorStore.Open(Catalog, directory, writerOptions);
     }
 
     public IndexCatalog Catalog { get; }
@@ -56,7 +57,7 @@ internal sealed class OpenIndex : IDisposable
     public void Commit(IEnumerable<int> pages) =>
         Store.AppendAndCommit(Encoder, pages.Select(p => (TestVectors.Key(p), TestVectors.Set(p, 12))).ToList());
 
-    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Store, Encoder.Id, CancellationToken.None);
+    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Store.Directory, Encoder.Id, CancellationToken.None);
 
     /// <summary>Page keys (hex) with a live vector set whose bytes read back.</summary>
     public HashSet<string> Readable()

@@ -78,36 +78,57 @@ public sealed class SegmentFileSetTests
     }
 
     [Fact]
-    public void Bad_locations_and_other_encoders_are_refused()
+    public void Bad_locations_and_other_encoders_are_left_out_and_named()
     {
         using var dir = new TempDirectory();
         var locations = Write(dir.Path, 1, [1, 2], seal: true);
         using var files = new SegmentFileSet(dir.Path);
-        Assert.Throws<SegmentFormatException>(() => files.OpenSource("another-encoder", locations));
-        Assert.Throws<SegmentFormatException>(() => files.OpenSource(TestVectors.EncoderId, [locations[0] with { Checksum = 0 }]));
-        Assert.Throws<SegmentFormatException>(() => files.OpenSource(TestVectors.EncoderId, [locations[0] with { Offset = locations[0].Offset + 8 }]));
-        Assert.Throws<SegmentFormatException>(() => files.OpenSource(TestVectors.EncoderId, [locations[1] with { Offset = locations[1].Offset + 4096 }]));
-        Assert.Throws<FileNotFoundException>(() => files.OpenSource(TestVectors.EncoderId, [locations[0] with { SegmentId = 9 }]));
+        AssertUnreadable(files.OpenSource("another-encoder", locations), [0, 1], "encoder");
+        AssertUnreadable(files.OpenSource(TestVectors.EncoderId, [locations[0] with { Checksum = 0 }]), [0], "not the one the location names");
+        AssertUnreadable(files.OpenSource(TestVectors.EncoderId, [locations[0] with { Offset = locations[0].Offset + 8 }]), [0], null);
+        AssertUnreadable(files.OpenSource(TestVectors.EncoderId, [locations[1] with { Offset = locations[1].Offset + 4096 }]), [0], "the file has");
+        AssertUnreadable(files.OpenSource(TestVectors.EncoderId, [locations[0], locations[1] with { SegmentId = 9 }]), [1], "is missing", readable: 1);
 
-        // A refused open holds nothing: retiring still deletes at once.
+        // A left-out segment is held by nothing: retiring still deletes at once.
         files.Retire(1);
         Assert.False(File.Exists(SegmentFileNames.PathOf(dir.Path, 1)));
     }
 
     [Fact]
-    public void Damage_found_after_the_first_check_is_still_caught_by_a_new_location()
+    public void A_damaged_record_costs_that_record_only()
     {
         using var dir = new TempDirectory();
-        var locations = Write(dir.Path, 1, [1, 2], seal: false);
+        var locations = Write(dir.Path, 1, [1, 2, 3], seal: false);
         var path = SegmentFileNames.PathOf(dir.Path, 1);
         var bytes = File.ReadAllBytes(path);
         bytes[(int)locations[1].Offset + 100] ^= 0x40;
         File.WriteAllBytes(path, bytes);
         using var files = new SegmentFileSet(dir.Path);
-        using (files.OpenSource(TestVectors.EncoderId, [locations[0]]))
+        using (var first = files.OpenSource(TestVectors.EncoderId, [locations[0]]))
         {
-            var error = Assert.Throws<SegmentFormatException>(() => files.OpenSource(TestVectors.EncoderId, locations));
-            Assert.Equal(locations[1].Offset, error.Offset);
+            Assert.Empty(first.Unreadable);
+        }
+
+        // Damage after the first check is still caught for a location not checked before.
+        using var source = files.OpenSource(TestVectors.EncoderId, locations);
+        var bad = Assert.Single(source.Unreadable);
+        Assert.Equal(1, bad.Index);
+        Assert.Contains(locations[1].Offset.ToString(System.Globalization.CultureInfo.InvariantCulture), bad.Problem, StringComparison.Ordinal);
+        Assert.Equal(2, source.Count);
+        Assert.Equal(TestVectors.Key(1), source.Get(0).Key);
+        Assert.Equal(TestVectors.Key(3), source.Get(1).Key);
+    }
+
+    private static void AssertUnreadable(SegmentVectorSetSource source, int[] indexes, string? problem, int readable = 0)
+    {
+        using (source)
+        {
+            Assert.Equal(indexes, source.Unreadable.Select(u => u.Index));
+            Assert.Equal(readable, source.Count);
+            if (problem is not null)
+            {
+                Assert.All(source.Unreadable, u => Assert.Contains(problem, u.Problem, StringComparison.Ordinal));
+            }
         }
     }
 
