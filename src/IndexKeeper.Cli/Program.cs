@@ -14,7 +14,7 @@ internal static class Program
 {
     private static readonly ICommand[] Commands =
     [
-        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new RepairCommand(), new DemoCommand(),
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new RepairCommand(), new RebuildCatalogCommand(), new DemoCommand(),
         new PlanCommand(), new EncodersCommand(), new RunCommand(),
     ];
 

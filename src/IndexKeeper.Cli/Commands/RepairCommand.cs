@@ -1,5 +1,5 @@
-using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
@@ -15,25 +15,21 @@ internal sealed class RepairCommand() : CommandBase(
 {
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
+        // The store is not opened: its open would repair on its own guesses before this command's survey.
         using var composed = context.OpenExisting(Name);
-        var index = composed.Index;
-        var segments = Path.Combine(index.Directory, VectorStore.SegmentsFolder);
-        var damage = DamageSurvey.Run(index.Catalog, segments, null, readRecords: true, cancellationToken);
-        var done = DamageRepair.Run(index.Catalog, segments, damage);
-        if (context.Json)
-        {
-            JsonOutput.Write(new { repairs = done, segmentsDamaged = damage.Segments.Count });
-        }
-        else
-        {
-            foreach (var line in done)
-            {
-                Console.Out.WriteLine("  " + line);
-            }
+        var segments = Path.Combine(composed.Index.Directory, VectorStore.SegmentsFolder);
+        var damage = DamageSurvey.Run(composed.Index.Catalog, segments, null, readRecords: true, cancellationToken);
+        var repairs = DamageRepair.Run(composed.Index.Catalog, segments, damage);
+        return context.Print(new RepairReport(repairs, damage.Segments.Count), Write, repairs.Count == 0 ? 0 : 1);
+    }
 
-            Console.Out.WriteLine(done.Count == 0 ? "Nothing to repair." : "Repaired; `indexkeeper sync` embeds the queued pages again.");
+    private static void Write(TextWriter o, RepairReport report)
+    {
+        foreach (var line in report.Repairs)
+        {
+            o.WriteLine("  " + line);
         }
 
-        return done.Count == 0 ? 0 : 1;
+        o.WriteLine(report.Repairs.Count == 0 ? "Nothing to repair." : "Repaired; `indexkeeper sync` embeds the queued pages again.");
     }
 }

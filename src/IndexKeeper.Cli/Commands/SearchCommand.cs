@@ -46,13 +46,12 @@ internal sealed class SearchCommand() : CommandBase(
             : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 
         // A search that could not read every vector set is a partial failure (exit 1), said on stderr.
-        var exitCode = report.VectorSetsUnreadable > 0 ? 1 : 0;
-        if (exitCode != 0)
+        if (report.VectorSetsUnreadable > 0)
         {
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture, $"warning: {report.VectorSetsUnreadable} vector set(s) could not be read, so their pages could not be found; run `indexkeeper verify` (docs/recovery.md)."));
         }
 
-        return context.Print(report, Write, exitCode);
+        return context.Print(report, Write, report.VectorSetsUnreadable > 0 ? 1 : 0);
     }
 
     private static void Write(TextWriter o, SearchReport report)

@@ -39,7 +39,7 @@ internal sealed class StatusCommand() : CommandBase(
         }
 
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
-        o.WriteLine(string.Create(c, $"  without vectors {report.PagesWithoutVectors} page(s) (queued ones included)"));
+        o.WriteLine(string.Create(c, $"  no vectors   {report.PagesWithoutVectors} page(s) without readable vectors (queued ones included)"));
         if (report.SegmentsMissing > 0 || report.VectorSetsUnreadable > 0)
         {
             o.WriteLine(string.Create(c, $"  DAMAGE       {report.SegmentsMissing} segment file(s) missing, {report.VectorSetsUnreadable} vector set(s) unreadable; run `indexkeeper verify` (docs/recovery.md)"));

@@ -25,6 +25,17 @@ public sealed class SegmentTable
         return id;
     }
 
+    /// <summary>Makes sure <see cref="AllocateId"/> never hands out <paramref name="segmentId"/> or a lower id (a catalog rebuilt from files).</summary>
+    public void ReserveIdsThrough(long segmentId)
+    {
+        var counter = meta.FindById(CatalogSchema.SegmentCounterMetaId) ?? new BsonDocument { ["_id"] = CatalogSchema.SegmentCounterMetaId, ["next"] = 1L };
+        if (counter["next"].AsInt64 <= segmentId)
+        {
+            counter["next"] = segmentId + 1;
+            meta.Upsert(counter);
+        }
+    }
+
     public SegmentRecord? FindOpen(string encoderId) => segments.FindOne(s => s.EncoderId == encoderId && !s.Sealed);
 
     public SegmentRecord? Find(long segmentId) => segments.FindById(segmentId);

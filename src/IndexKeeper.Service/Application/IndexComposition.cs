@@ -29,6 +29,13 @@ public sealed class IndexComposition : IDisposable
     /// <summary>For the commands that only read (plan, status, search, encoders): catalog and segments opened read-only.</summary>
     public static IndexComposition OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
 
+    /// <summary>For <c>rebuild-catalog</c>: <paramref name="beforeCatalog"/> runs under the index lock before the catalog is opened.</summary>
+    public static IndexComposition OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog)
+    {
+        var settings = IndexSettings.From(options);
+        return new IndexComposition(settings, OpenIndex.OpenForRebuild(settings, purpose, beforeCatalog));
+    }
+
     /// <summary>The use case of type <typeparamref name="T"/>, built with its dependencies.</summary>
     public T Get<T>()
         where T : notnull => services.GetRequiredService<T>();

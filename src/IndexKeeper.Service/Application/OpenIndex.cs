@@ -53,12 +53,20 @@ public sealed class OpenIndex : IDisposable
     /// <summary>Opens for reading only (plan, status, search, encoders): the lock is taken, no byte of the index is changed.</summary>
     public static OpenIndex OpenReadOnly(IndexSettings settings, string purpose) => Open(settings, purpose, readOnly: true);
 
-    private static OpenIndex Open(IndexSettings settings, string purpose, bool readOnly)
+    /// <summary>
+    /// Opens for a catalog rebuild: <paramref name="beforeCatalog"/> runs once the lock is held and before the
+    /// catalog is opened (it moves the old catalog aside), so no other process sees the index in between.
+    /// </summary>
+    public static OpenIndex OpenForRebuild(IndexSettings settings, string purpose, Action<string> beforeCatalog) =>
+        Open(settings, purpose, readOnly: false, beforeCatalog);
+
+    private static OpenIndex Open(IndexSettings settings, string purpose, bool readOnly, Action<string>? beforeCatalog = null)
     {
         ArgumentNullException.ThrowIfNull(settings);
         var held = IndexLock.Acquire(settings.Directory, purpose);
         try
         {
+            beforeCatalog?.Invoke(held.Directory);
             var catalog = readOnly ? IndexCatalog.OpenReadOnly(held) : IndexCatalog.Open(held);
             // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
             // costs one quarantined document, never the command or the service.

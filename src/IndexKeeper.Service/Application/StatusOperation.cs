@@ -13,8 +13,8 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         var decision = drift.Read();
-        var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
         var damage = DamageSurvey.Run(catalog, index.Store.Directory, decision.ServingEncoderId, readRecords: false, CancellationToken.None);
+        var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
         return new StatusReport
         {
             IndexDirectory = index.Directory,

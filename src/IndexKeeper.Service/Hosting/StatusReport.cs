@@ -1,4 +1,3 @@
-using IndexKeeper.Core.Index;
 
 namespace IndexKeeper.Service.Hosting;
 

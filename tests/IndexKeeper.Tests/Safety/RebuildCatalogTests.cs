@@ -1,0 +1,64 @@
+using System.Text.Json;
+using IndexKeeper.Tests.EndToEnd;
+using IndexKeeper.Tests.Support;
+
+namespace IndexKeeper.Tests.Safety;
+
+/// <summary>
+/// A lost catalog is rebuilt from the self-describing segments plus a scan of the roots: the search answers
+/// as before and no page whose vectors survive is embedded again (docs/recovery.md).
+/// </summary>
+public sealed class RebuildCatalogTests
+{
+    private static readonly string[] Queries = ["Gullstone ferry", "Marrowby tide", "Quillan harbour dues"];
+
+    [Fact]
+    public void A_deleted_catalog_is_rebuilt_and_the_search_answers_as_before()
+    {
+        // Before: a lost catalog could only be restored from a backup, or every page embedded again.
+        using var temp = new TempDirectory();
+        Directory.CreateDirectory(temp.Combine("store"));
+        File.WriteAllBytes(temp.Combine("store", "ferry-timetable.pdf"), StorePdfs.Document("Gullstone ferry", 3));
+        File.WriteAllBytes(temp.Combine("store", "tide-tables.pdf"), StorePdfs.Document("Marrowby tide", 2));
+        File.WriteAllBytes(temp.Combine("store", "harbour-dues.pdf"), StorePdfs.Document("Quillan harbour dues", 2));
+        string[] common = ["--index", "index", "--encoder", "hashed-terms"];
+        var sync = CliRunner.Run(temp.Path, ["sync", "--root", "store", .. common]);
+        Assert.True(sync.ExitCode == 0, sync.Stderr);
+        var before = Queries.Select(q => Hits(temp.Path, q, common)).ToList();
+        Assert.All(before, hits => Assert.NotEmpty(hits));
+        var segments = Directory.GetFiles(temp.Combine("index", "segments")).Order(StringComparer.Ordinal).ToList();
+        var bytes = segments.Select(File.ReadAllBytes).ToList();
+
+        File.Delete(temp.Combine("index", "catalog.db"));
+        var rebuild = CliRunner.Run(temp.Path, ["rebuild-catalog", "--root", "store", "--json", .. common]);
+
+        Assert.True(rebuild.ExitCode == 0, rebuild.Stderr + rebuild.Stdout);
+        using var summary = JsonDocument.Parse(rebuild.Stdout);
+        Assert.Equal(0, summary.RootElement.GetProperty("pagesEmbedded").GetInt32());
+        Assert.Equal(0, summary.RootElement.GetProperty("pagesQueued").GetInt64());
+        Assert.Equal(7, summary.RootElement.GetProperty("liveVectorSets").GetInt64());
+        Assert.Equal(before, Queries.Select(q => Hits(temp.Path, q, common)).ToList());
+
+        // The segment files are neither deleted nor rewritten, and the index is whole.
+        Assert.Equal(segments, Directory.GetFiles(temp.Combine("index", "segments")).Order(StringComparer.Ordinal).ToList());
+        Assert.Equal(bytes, segments.Select(File.ReadAllBytes).ToList());
+        var verify = CliRunner.Run(temp.Path, ["verify", .. common]);
+        Assert.True(verify.ExitCode == 0, verify.Stdout + verify.Stderr);
+
+        // A second rebuild keeps the first rebuilt catalog aside rather than deleting it.
+        var again = CliRunner.Run(temp.Path, ["rebuild-catalog", "--root", "store", "--json", .. common]);
+        Assert.True(again.ExitCode == 0, again.Stderr);
+        Assert.Single(Directory.GetFiles(temp.Combine("index"), "catalog.db.before-rebuild-*"));
+    }
+
+    /// <summary>Each hit as path, page and score.</summary>
+    private static List<string> Hits(string directory, string query, string[] common)
+    {
+        var result = CliRunner.Run(directory, ["search", query, "--json", .. common]);
+        Assert.True(result.ExitCode == 0, result.Stderr);
+        using var json = JsonDocument.Parse(result.Stdout);
+        return json.RootElement.GetProperty("hits").EnumerateArray()
+            .Select(h => $"{h.GetProperty("path").GetString()} {h.GetProperty("page").GetInt32()} {h.GetProperty("score").GetDouble()}")
+            .ToList();
+    }
+}
