@@ -35,7 +35,7 @@ public sealed class LayeringTests
         ["Catalog"] = ["Documents", "Encoding", "Queue", "Drift", "Compaction"],
 
         // The composing layer.
-        ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Queue", "Storage", "Telemetry"], // Queue: DamageSurvey reads the queued page keys
+        ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Queue", "Storage", "Telemetry"],
         ["Pipeline"] = ["Catalog", "Detect", "Diff", "Documents", "Drift", "Encoding", "Index", "Queue", "Storage", "Telemetry"],
     };
 
