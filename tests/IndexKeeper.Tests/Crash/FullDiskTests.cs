@@ -39,7 +39,7 @@ public sealed class FullDiskTests(ITestOutputHelper output)
         Assert.Equal(1, full.ExitCode);
         Assert.True(embedded > 0 && failed > 0 && embedded + failed < pages, full.Stdout);
 
-        // Failing cleanly: the store cut its own tail, so verify (which only reads) finds no damaged segment.
+        // Failing cleanly: the store cut its own tail, so verify (which only reads) finds no problem and no damaged segment.
         var verify = CliRunner.Run(scratch.Path, ["verify", .. common, "--json"]);
         var report = JsonDocument.Parse(verify.Stdout).RootElement;
         output.WriteLine("verify after the full disk: " + verify.Stdout.ReplaceLineEndings(" "));
