@@ -1,17 +1,13 @@
-using IndexKeeper.Cli.Output;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>scan</c>: detect, read and diff every root; queues new page keys and drifted pages, embeds nothing.</summary>
-internal sealed class ScanCommand() : CommandBase(
+internal sealed class ScanCommand() : PassCommand(
     "scan",
     "detect, read and diff only: queues pages that need vectors, embeds nothing")
 {
-    public override int Run(CommandContext context, CancellationToken cancellationToken)
-    {
-        using var composed = context.Open(Name);
-        var summary = TerminalProgress.Around(progress => composed.Get<ScanOperation>().Run(Name, progress, cancellationToken));
-        return context.Print(summary, SummaryText.Write, summary.RootsMissing.Count > 0 ? 1 : 0);
-    }
+    protected override ScanSummary Pass(IndexComposition composed, IProgress<ScanProgress> progress, CancellationToken cancellationToken) =>
+        composed.Get<ScanOperation>().Run(Name, progress, cancellationToken);
 }

@@ -1,17 +1,13 @@
-using IndexKeeper.Cli.Output;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Application;
 
 namespace IndexKeeper.Cli.Commands;
 
 /// <summary><c>sync</c>: one foreground pass — detect, read, diff, embed everything queued, commit.</summary>
-internal sealed class SyncCommand() : CommandBase(
+internal sealed class SyncCommand() : PassCommand(
     "sync",
     "one pass in the foreground: scan, then embed every queued page and commit")
 {
-    public override int Run(CommandContext context, CancellationToken cancellationToken)
-    {
-        using var composed = context.Open(Name);
-        var summary = TerminalProgress.Around(progress => composed.Get<SyncOperation>().Run(Name, progress, cancellationToken));
-        return context.Print(summary, SummaryText.Write, summary.RootsMissing.Count > 0 || summary.PagesFailed > 0 ? 1 : 0);
-    }
+    protected override ScanSummary Pass(IndexComposition composed, IProgress<ScanProgress> progress, CancellationToken cancellationToken) =>
+        composed.Get<SyncOperation>().Run(Name, progress, cancellationToken);
 }
