@@ -20,11 +20,17 @@ internal sealed class StatusCommand() : CommandBase(
         return context.Print(report, Write);
     }
 
+    private static string UnsupportedTypes(FileTally files) =>
+        files.UnsupportedTypes.Count == 0 ? string.Empty : " (" + string.Join(", ", files.UnsupportedTypes.Take(8).Select(t => string.Create(CultureInfo.InvariantCulture, $"{t.Type} {t.Files}"))) + (files.UnsupportedTypes.Count > 8 ? ", …)" : ")");
+
     private static void Write(TextWriter o, StatusReport report)
     {
         var c = CultureInfo.InvariantCulture;
         o.WriteLine($"Index {report.IndexDirectory}");
         o.WriteLine(string.Create(c, $"  documents    {report.Documents} live, {report.Quarantined} quarantined"));
+        var files = report.Files;
+        o.WriteLine("  by kind      " + (files.IndexedByKind.Count == 0 ? "none" : string.Join(", ", files.IndexedByKind.Select(k => string.Create(c, $"{k.Key} {k.Value}")))));
+        o.WriteLine(string.Create(c, $"  passed over  {files.SkippedByPattern} left out by the root's globs, {files.Unsupported + files.SelectedButUnsupported} of a type no reader takes{UnsupportedTypes(files)}"));
         o.WriteLine(string.Create(c, $"  pages        {report.Pages} distinct page keys in {report.PageLocations} page locations"));
         o.WriteLine(string.Create(c, $"  vector sets  {report.LiveVectorSets} live of {report.VectorSets}, in {report.Segments} segment(s), dead share {report.DeadRatio:P1}"));
         o.WriteLine($"  encoder      {report.ActiveEncoder} ({report.ActiveEncoderId[..16]}…)");

@@ -11,6 +11,12 @@ internal static class SummaryText
         var c = CultureInfo.InvariantCulture;
         output.WriteLine(string.Create(c, $"Scanned {s.DocumentsSeen} documents in {s.ElapsedSeconds:0.0} s ({s.FilesHashed} hashed, {s.DocumentsRead} read)."));
         output.WriteLine(string.Create(c, $"  documents  new {s.DocumentsNew}, changed {s.DocumentsChanged}, unchanged {s.DocumentsUnchanged}, deleted {s.DocumentsDeleted}, quarantined {s.DocumentsQuarantined}, deferred {s.DocumentsDeferred}"));
+        if (s.FilesSkippedByPattern > 0 || s.FilesUnsupported > 0)
+        {
+            var types = string.Join(", ", s.UnsupportedTypes.OrderByDescending(t => t.Value).Take(8).Select(t => string.Create(c, $"{t.Key} {t.Value}")));
+            output.WriteLine(string.Create(c, $"  passed over {s.FilesSkippedByPattern} file(s) left out by the root's globs, {s.FilesUnsupported} of a type no reader takes{(types.Length > 0 ? $" ({types})" : string.Empty)}"));
+        }
+
         if (s.DocumentsCopied > 0 || s.DocumentsMoved > 0)
         {
             output.WriteLine(string.Create(c, $"             of which copies of indexed bytes {s.DocumentsCopied} (read for free), moves or renames {s.DocumentsMoved}"));

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Documents;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
@@ -20,6 +21,10 @@ public sealed class DocumentTable
     public IEnumerable<DocumentRecord> Quarantined() => documents.Find(d => d.State == DocumentState.Quarantined);
 
     public IEnumerable<DocumentRecord> All() => documents.FindAll();
+
+    /// <summary>Live documents by kind, for the file tally of <c>status</c>.</summary>
+    public IReadOnlyDictionary<DocumentKind, long> LiveByKind() =>
+        documents.Find(d => d.State == DocumentState.Live).GroupBy(d => d.Kind).ToDictionary(g => g.Key, g => g.LongCount());
 
     public IEnumerable<string> RootNames() => documents.Query().Select(d => d.Root).ToEnumerable().Distinct(StringComparer.Ordinal);
 

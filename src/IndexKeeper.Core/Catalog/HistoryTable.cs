@@ -31,6 +31,9 @@ public sealed class HistoryTable
         scans.Query().Where(s => s.Command == EmbedCommand && s.EncoderId == encoderId).OrderByDescending(s => s.Id).Limit(count).ToList();
 
     /// <summary>When the last scan pass (not an embed record) started.</summary>
-    public DateTime? LastScanUtc() =>
-        scans.Query().Where(s => s.Command != EmbedCommand).OrderByDescending(s => s.Id).Limit(1).FirstOrDefault()?.StartedUtc.ToUniversalTime();
+    public DateTime? LastScanUtc() => LastScan()?.StartedUtc.ToUniversalTime();
+
+    /// <summary>The last full scan pass (not an embed record); null before the first.</summary>
+    public ScanRecord? LastScan() =>
+        scans.Query().Where(s => s.Command != EmbedCommand).OrderByDescending(s => s.Id).Limit(1).FirstOrDefault();
 }

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Queue;
 using LiteDB;
 
@@ -321,8 +322,9 @@ public sealed class IndexCatalog : IDisposable
     {
         var live = store.Documents.Count(d => d.State == DocumentState.Live);
         var quarantined = store.Documents.Count(d => d.State == DocumentState.Quarantined);
+        var unsupported = store.Documents.Count(d => d.State == DocumentState.Quarantined && d.QuarantineReason == QuarantineReason.Unsupported);
         var locations = store.Pages.Query().Select(p => p.References).ToEnumerable().Sum(r => (long)r);
-        return new CatalogFigures(live, quarantined, store.Pages.LongCount(p => p.References > 0), locations, store.Queue.LongCount(), History.LastScanUtc());
+        return new CatalogFigures(live, quarantined - unsupported, unsupported, store.Pages.LongCount(p => p.References > 0), locations, store.Queue.LongCount(), History.LastScanUtc());
     }
 
     public void Dispose() => store.Dispose();

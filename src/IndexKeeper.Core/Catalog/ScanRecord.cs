@@ -16,6 +16,9 @@ public sealed class ScanRecord
 
     public Dictionary<string, long> Counts { get; set; } = [];
 
+    /// <summary>Files of types no reader takes that the pass walked past, by type (scan records).</summary>
+    public List<TypeCount> UnsupportedTypes { get; set; } = [];
+
     /// <summary>The encoder of an embed record; empty for a scan.</summary>
     public string EncoderId { get; set; } = string.Empty;
 

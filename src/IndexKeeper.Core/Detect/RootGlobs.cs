@@ -8,6 +8,7 @@ namespace IndexKeeper.Core.Detect;
 /// matches the folder's own path (the library excludes a matched folder's whole content), or when an
 /// exclude glob "P/**" has a P that matches it. Include globs never prune a folder: a match may lie deeper.
 /// The library is asked once per folder for all its names: one call per name costs ten times as much.
+/// A root without include globs takes the readable types (<see cref="ReadableTypes"/>, any letter case).
 /// </summary>
 internal sealed class RootGlobs
 {
@@ -16,10 +17,12 @@ internal sealed class RootGlobs
 
     private readonly Matcher? files;
     private readonly Matcher? folders;
+    private readonly bool readableOnly;
 
     public RootGlobs(RootSpec root, StringComparison comparison)
     {
         ArgumentNullException.ThrowIfNull(root);
+        readableOnly = root.Include.Count == 0;
         if (root.Include.Count > 0 || root.Exclude.Count > 0)
         {
             files = new Matcher(comparison);
@@ -42,7 +45,25 @@ internal sealed class RootGlobs
     }
 
     /// <summary>Of a folder's <paramref name="names"/> (files and folders alike), those selected if they are files; null means all.</summary>
-    public HashSet<string>? SelectFiles(string relativePrefix, IReadOnlyCollection<string> names) => MatchAll(files, relativePrefix, names);
+    public HashSet<string>? SelectFiles(string relativePrefix, IReadOnlyCollection<string> names)
+    {
+        var matched = MatchAll(files, relativePrefix, names);
+        if (!readableOnly)
+        {
+            return matched;
+        }
+
+        var readable = new HashSet<string>(StringComparer.Ordinal);
+        foreach (var name in (IEnumerable<string>?)matched ?? names)
+        {
+            if (ReadableTypes.IsReadable(name))
+            {
+                readable.Add(name);
+            }
+        }
+
+        return readable;
+    }
 
     /// <summary>Of a folder's <paramref name="names"/>, those excluded if they are folders; null means none.</summary>
     public HashSet<string>? ExcludeFolders(string relativePrefix, IReadOnlyCollection<string> names) =>

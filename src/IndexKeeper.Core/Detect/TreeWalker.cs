@@ -9,14 +9,14 @@ namespace IndexKeeper.Core.Detect;
 /// </summary>
 internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
 {
-    public IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> onProblem, CancellationToken cancellationToken = default)
+    public IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> onProblem, Action<PassedOverFile>? onPassedOver = null, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(root);
         ArgumentNullException.ThrowIfNull(onProblem);
-        return WalkLazily(root, onProblem, cancellationToken);
+        return WalkLazily(root, onProblem, onPassedOver, cancellationToken);
     }
 
-    private IEnumerable<FoundFile> WalkLazily(RootSpec root, Action<WalkProblem> onProblem, CancellationToken cancellationToken)
+    private IEnumerable<FoundFile> WalkLazily(RootSpec root, Action<WalkProblem> onProblem, Action<PassedOverFile>? onPassedOver, CancellationToken cancellationToken)
     {
         var globs = new RootGlobs(root, system.PathComparison);
         var top = system.OpenRoot(root.Path, out var rootFailure, out var rootDetail);
@@ -83,6 +83,7 @@ internal sealed class TreeWalker(IFolderSystem system) : IRootWalker
                     case EntryKind.RegularFile:
                         if (level.SelectedFiles?.Contains(name) == false)
                         {
+                            onPassedOver?.Invoke(new PassedOverFile(root.Name, relative, ReadableTypes.IsReadable(name)));
                             break;
                         }
 

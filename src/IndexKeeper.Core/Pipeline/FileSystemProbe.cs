@@ -8,8 +8,8 @@ internal sealed class FileSystemProbe : IFileProbe
     private readonly IRootWalker walker = RootWalker.Create();
     private readonly IFileHasher hasher = FileHasher.Create();
 
-    public IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> problem, CancellationToken cancellationToken) =>
-        walker.Walk(root, problem, cancellationToken);
+    public IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> problem, Action<PassedOverFile> passedOver, CancellationToken cancellationToken) =>
+        walker.Walk(root, problem, passedOver, cancellationToken);
 
     public FileStat? Stat(string path) => FileStatReader.Read(path) is { Kind: EntryKind.RegularFile } entry ? entry.Stat : null;
 

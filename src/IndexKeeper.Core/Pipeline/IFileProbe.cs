@@ -5,7 +5,7 @@ namespace IndexKeeper.Core.Pipeline;
 /// <summary>The file-system operations a scan needs; the real one is <see cref="FileSystemProbe"/>.</summary>
 internal interface IFileProbe
 {
-    IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> problem, CancellationToken cancellationToken);
+    IEnumerable<FoundFile> Walk(RootSpec root, Action<WalkProblem> problem, Action<PassedOverFile> passedOver, CancellationToken cancellationToken);
 
     /// <summary>Current stat of a regular file, or null when it is gone or is no longer a regular file.</summary>
     FileStat? Stat(string path);

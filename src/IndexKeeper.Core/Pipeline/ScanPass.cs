@@ -69,7 +69,7 @@ public sealed class ScanPass
         foreach (var root in settings.Roots)
         {
             var missing = false;
-            foreach (var file in probe.Walk(root, p => missing |= state.Report(p), cancellationToken))
+            foreach (var file in probe.Walk(root, p => missing |= state.Report(p), state.Summary.RecordPassedOver, cancellationToken))
             {
                 found.Add(file);
                 if (found.Count % 1000 == 0)
@@ -516,9 +516,12 @@ public sealed class ScanPass
             ["documentsUnchanged"] = summary.DocumentsUnchanged,
             ["documentsDeleted"] = summary.DocumentsDeleted,
             ["documentsQuarantined"] = summary.DocumentsQuarantined,
+            ["filesSkippedByPattern"] = summary.FilesSkippedByPattern,
+            ["filesUnsupported"] = summary.FilesUnsupported,
             ["pagesNew"] = summary.PagesNew,
             ["pagesReused"] = summary.PagesReused,
             ["pagesRemoved"] = summary.PagesRemoved,
         },
+        UnsupportedTypes = summary.UnsupportedTypes.Select(t => new TypeCount { Type = t.Key, Files = t.Value }).ToList(),
     };
 }

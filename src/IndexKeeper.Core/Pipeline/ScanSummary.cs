@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Drift;
 
 namespace IndexKeeper.Core.Pipeline;
@@ -28,6 +29,15 @@ public sealed class ScanSummary
 
     /// <summary>Files still being written or changed while read: left for the next pass.</summary>
     public long DocumentsDeferred { get; set; }
+
+    /// <summary>Files of a readable type that the root's include or exclude globs left out.</summary>
+    public long FilesSkippedByPattern { get; set; }
+
+    /// <summary>Files of a type no reader takes, passed over by the walk (see <see cref="UnsupportedTypes"/>).</summary>
+    public long FilesUnsupported { get; set; }
+
+    /// <summary>The unsupported files by type (lower-case extension, or "(none)"), so an operator sees what the drive holds that is not indexed.</summary>
+    public SortedDictionary<string, long> UnsupportedTypes { get; } = new(StringComparer.Ordinal);
 
     public long PagesSeen { get; set; }
 
@@ -79,6 +89,21 @@ public sealed class ScanSummary
 
     /// <summary>Entries that could not be looked at (permissions, vanished files, links out of a root).</summary>
     public List<string> Problems { get; } = [];
+
+    /// <summary>Counts a file the walk passed over.</summary>
+    public void RecordPassedOver(PassedOverFile file)
+    {
+        ArgumentNullException.ThrowIfNull(file);
+        if (file.ReadableType)
+        {
+            FilesSkippedByPattern++;
+            return;
+        }
+
+        FilesUnsupported++;
+        var type = ReadableTypes.TypeOf(file.RelativePath);
+        UnsupportedTypes[type] = UnsupportedTypes.GetValueOrDefault(type) + 1;
+    }
 
     /// <summary>Adds what a drift reconciliation did; the last one called gives the figures after the pass.</summary>
     public void RecordDrift(DriftDecision decision)

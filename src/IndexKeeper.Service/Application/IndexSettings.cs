@@ -20,7 +20,7 @@ public sealed class IndexSettings
     {
         Directory = options.IndexDirectory;
         Scan = new ScanSettings(
-            options.Roots.Select(r => new RootSpec(r.Name, Path.GetFullPath(r.Path), r.Include.Count > 0 ? r.Include : RootOptions.SupportedTypes, r.Exclude)).ToList(),
+            options.Roots.Select(r => new RootSpec(r.Name, Path.GetFullPath(r.Path), r.Include, r.Exclude)).ToList(),
             new(
                 options.Limits.MaxFileMegabytes * 1024 * 1024,
                 options.Limits.MaxPages,

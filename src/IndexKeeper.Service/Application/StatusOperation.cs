@@ -43,6 +43,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             Quarantine = catalog.Documents.Quarantined()
                 .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
                 .ToList(),
+            Files = FileTally.Of(catalog, figures),
         };
     }
 }

@@ -8,11 +8,7 @@ public sealed class RootOptions
 
     public string Path { get; set; } = string.Empty;
 
-    /// <summary>The document types the reader understands; used when <see cref="Include"/> is empty.</summary>
-    public static IReadOnlyList<string> SupportedTypes { get; } =
-        ["**/*.pdf", "**/*.png", "**/*.jpg", "**/*.jpeg", "**/*.tif", "**/*.tiff", "**/*.docx", "**/*.xlsx", "**/*.pptx", "**/*.odt", "**/*.ods", "**/*.odp", "**/*.odg", "**/*.rtf", "**/*.doc", "**/*.xls", "**/*.ppt", "**/*.txt", "**/*.text", "**/*.md", "**/*.markdown", "**/*.html", "**/*.htm", "**/*.eml"];
-
-    /// <summary>Globs a file must match (empty: <see cref="SupportedTypes"/>). Example: <c>manuals/**/*.pdf</c>.</summary>
+    /// <summary>Globs a file must match (empty: the readable types, <see cref="IndexKeeper.Core.Detect.ReadableTypes"/>, in any letter case). Example: <c>manuals/**/*.pdf</c>.</summary>
     public List<string> Include { get; set; } = [];
 
     /// <summary>Globs that drop files or whole folders. Example: <c>**/~$*</c>, <c>tmp/**</c>.</summary>

@@ -64,4 +64,7 @@ public sealed class StatusReport
     public IReadOnlyList<string> Roots { get; init; } = [];
 
     public IReadOnlyList<QuarantineEntry> Quarantine { get; init; } = [];
+
+    /// <summary>What the roots hold by type: indexed, quarantined, skipped by pattern, unsupported.</summary>
+    public FileTally Files { get; init; } = new();
 }

@@ -23,6 +23,27 @@ public sealed class RootWalkerTests
 
     [LinuxTheory]
     [MemberData(nameof(Walkers))]
+    public void A_root_without_include_globs_takes_readable_types_in_any_case_and_counts_what_it_passes_over(string walker)
+    {
+        using var tree = new TempTree();
+        foreach (var name in new[] { "SCAN0001.PDF", "minutes.Docx", "notes.txt", "drawings.dwg", "archive.zip", "Makefile", "tmp/draft.pdf" })
+        {
+            tree.Write(name, System.Text.Encoding.UTF8.GetBytes(name));
+        }
+
+        var passedOver = new List<PassedOverFile>();
+        var files = WalkerFor(walker).Walk(Spec(tree.Root, exclude: ["tmp/*.pdf"]), _ => { }, passedOver.Add).Select(f => f.RelativePath).ToList();
+
+        // A scanner on a Windows share writes upper-case extensions: the default selection ignores letter case.
+        Assert.Equal(["SCAN0001.PDF", "minutes.Docx", "notes.txt"], files);
+        Assert.Equal(
+            [("Makefile", false), ("archive.zip", false), ("drawings.dwg", false), ("tmp/draft.pdf", true)],
+            passedOver.Select(p => (p.RelativePath, p.ReadableType)).Order());
+        Assert.Equal(["(none)", ".dwg", ".zip"], passedOver.Where(p => !p.ReadableType).Select(p => ReadableTypes.TypeOf(p.RelativePath)).Order(StringComparer.Ordinal));
+    }
+
+    [LinuxTheory]
+    [MemberData(nameof(Walkers))]
     public void Walks_depth_first_in_ordinal_order_and_reproducibly(string walker)
     {
         using var tree = new TempTree();
@@ -328,7 +349,7 @@ public sealed class RootWalkerTests
         tree.Write("b.pdf");
         using var cancel = new CancellationTokenSource();
 
-        var walk = RootWalker.Create().Walk(Spec(tree.Root), _ => { }, cancel.Token).GetEnumerator();
+        var walk = RootWalker.Create().Walk(Spec(tree.Root), _ => { }, cancellationToken: cancel.Token).GetEnumerator();
         Assert.True(walk.MoveNext());
         cancel.Cancel();
 
