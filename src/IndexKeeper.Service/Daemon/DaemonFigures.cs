@@ -7,6 +7,9 @@ internal sealed record DaemonFigures(
     DateTimeOffset At,
     long DocumentsLive,
     long DocumentsQuarantined,
+    long DocumentsUnsupported,
+    long FilesSkippedByPattern,
+    long FilesUnsupported,
     long Pages,
     long PagesWithVectors,
     long QueuedFresh,
@@ -22,5 +25,5 @@ internal sealed record DaemonFigures(
 {
     public long Queued => QueuedFresh + QueuedMigration + QueuedCanary;
 
-    public static DaemonFigures Empty { get; } = new(DateTimeOffset.MinValue, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, null, new DamageReport());
+    public static DaemonFigures Empty { get; } = new(DateTimeOffset.MinValue, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, null, new DamageReport());
 }

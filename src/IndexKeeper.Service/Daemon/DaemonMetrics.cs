@@ -20,8 +20,18 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.documents", () =>
         {
             var f = state.Figures;
-            return new[] { new Measurement<long>(f.DocumentsLive, Tag("state", "live")), new Measurement<long>(f.DocumentsQuarantined, Tag("state", "quarantined")) };
-        }, "{document}", "Documents by state.");
+            return new[]
+            {
+                new Measurement<long>(f.DocumentsLive, Tag("state", "live")),
+                new Measurement<long>(f.DocumentsQuarantined, Tag("state", "quarantined")),
+                new Measurement<long>(f.DocumentsUnsupported, Tag("state", "unsupported")),
+            };
+        }, "{document}", "Documents by state (unsupported: selected by an include glob, of a type no reader takes; not a fault).");
+        meter.CreateObservableGauge("indexkeeper.files.passed_over", () =>
+        {
+            var f = state.Figures;
+            return new[] { new Measurement<long>(f.FilesSkippedByPattern, Tag("reason", "pattern")), new Measurement<long>(f.FilesUnsupported, Tag("reason", "unsupported_type")) };
+        }, "{file}", "Files the last full walk passed over: left out by the root's globs, or of a type no reader takes.");
         meter.CreateObservableGauge("indexkeeper.pages", () =>
         {
             var f = state.Figures;

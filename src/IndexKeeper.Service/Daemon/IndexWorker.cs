@@ -420,10 +420,14 @@ internal sealed class IndexWorker(
             log.LogDebug("Free space of the index volume unknown: {Message}", ex.Message);
         }
 
+        var lastScan = catalog.History.LastScan();
         var latest = new DaemonFigures(
             now,
             figures.Documents,
             figures.QuarantinedDocuments,
+            figures.UnsupportedDocuments,
+            lastScan?.Counts.GetValueOrDefault("filesSkippedByPattern") ?? 0,
+            lastScan?.Counts.GetValueOrDefault("filesUnsupported") ?? 0,
             figures.Pages,
             catalog.VectorSets.Count(liveOnly: true),
             depths[QueuePriority.Fresh],

@@ -41,7 +41,7 @@ public sealed class MetricsExpositionTests
             "indexkeeper_documents", "indexkeeper_pages", "indexkeeper_queue_depth", "indexkeeper_pages_embedded_total",
             "indexkeeper_encoder_duration_seconds_bucket", "indexkeeper_embed_rate_per_second", "indexkeeper_scan_duration_seconds_bucket",
             "indexkeeper_full_walk_age_seconds", "indexkeeper_watcher_overflows_total", "indexkeeper_quarantine", "indexkeeper_segments",
-            "indexkeeper_dead_ratio", "indexkeeper_disk_usage_bytes", "indexkeeper_pages_drifted", "indexkeeper_window_open",
+            "indexkeeper_dead_ratio", "indexkeeper_disk_usage_bytes", "indexkeeper_pages_drifted", "indexkeeper_window_open", "indexkeeper_files_passed_over",
         })
         {
             Assert.Contains("\n" + name + "{", "\n" + metrics, StringComparison.Ordinal);
