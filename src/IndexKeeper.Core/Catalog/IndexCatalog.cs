@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Queue;
 using LiteDB;
@@ -322,7 +323,10 @@ public sealed class IndexCatalog : IDisposable
     {
         var live = store.Documents.Count(d => d.State == DocumentState.Live);
         var quarantined = store.Documents.Count(d => d.State == DocumentState.Quarantined);
-        var unsupported = store.Documents.Count(d => d.State == DocumentState.Quarantined && d.QuarantineReason == QuarantineReason.Unsupported);
+        // A file named as a readable type whose bytes no reader takes is suspect (a damaged copy) and stays a
+        // fault; one of another type that an include glob selected is merely not indexable.
+        var unsupported = store.Documents.Find(d => d.State == DocumentState.Quarantined && d.QuarantineReason == QuarantineReason.Unsupported)
+            .LongCount(d => !ReadableTypes.IsReadable(d.Path));
         var locations = store.Pages.Query().Select(p => p.References).ToEnumerable().Sum(r => (long)r);
         return new CatalogFigures(live, quarantined - unsupported, unsupported, store.Pages.LongCount(p => p.References > 0), locations, store.Queue.LongCount(), History.LastScanUtc());
     }

@@ -35,7 +35,7 @@ public sealed class LayeringTests
         ["Planning"] = ["Queue", "Scheduling"],
 
         // The catalog knows records and the leaf values they carry.
-        ["Catalog"] = ["Documents", "Encoding", "Queue", "Faults"],
+        ["Catalog"] = ["Detect", "Documents", "Encoding", "Queue", "Faults"], // Detect: which names are of a readable type
 
         // The composing layer.
         ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Faults", "Queue", "Storage", "Telemetry"],

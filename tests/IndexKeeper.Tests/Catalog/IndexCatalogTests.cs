@@ -1,5 +1,6 @@
 using System.Security.Cryptography;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Documents;
 using IndexKeeper.Tests.Support;
 using LiteDB;
 
@@ -97,5 +98,23 @@ public sealed class IndexCatalogTests
         Assert.ThrowsAny<Exception>(() => catalog.Apply(edit));
         Assert.Null(catalog.Documents.Find("r", "a.pdf"));
         Assert.Null(catalog.Pages.Find("k1"));
+    }
+
+    [Fact]
+    public void Figures_count_an_unindexable_type_apart_from_the_faults_but_not_a_garbled_readable_one()
+    {
+        using var temp = new TempDirectory();
+        using var held = IndexLock.Acquire(temp.Path, "test");
+        using var catalog = IndexCatalog.Open(held);
+        var edit = new CatalogEdit();
+        foreach (var (path, reason) in new[] { ("exports/readings.zip", QuarantineReason.Unsupported), ("scans/garbled.PDF", QuarantineReason.Unsupported), ("minutes.pdf", QuarantineReason.Encrypted) })
+        {
+            edit.PutDocuments.Add(new DocumentRecord { Id = DocumentRecord.MakeId("r", path), Root = "r", Path = path, State = DocumentState.Quarantined, QuarantineReason = reason });
+        }
+
+        catalog.Apply(edit);
+        var figures = catalog.Figures();
+        Assert.Equal(1, figures.UnsupportedDocuments);
+        Assert.Equal(2, figures.QuarantinedDocuments);
     }
 }
