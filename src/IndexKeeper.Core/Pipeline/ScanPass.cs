@@ -378,7 +378,16 @@ public sealed class ScanPass
                 state.Note(file, ChangeKind.Quarantined, 0, 0);
                 state.Edit.PutDocuments.Add(record);
                 state.KnownHashes[hash] = record;
-                summary.DocumentsQuarantined++;
+                if (failure.Reason == QuarantineReason.Unsupported && !ReadableTypes.IsReadable(file.RelativePath))
+                {
+                    // Selected by an include glob, of a type no reader takes: counted as such, not as a fault.
+                    summary.RecordPassedOver(new PassedOverFile(file.Root, file.RelativePath, ReadableType: false));
+                }
+                else
+                {
+                    summary.DocumentsQuarantined++;
+                }
+
                 CountNewOrChanged(summary, existing);
                 return;
             }

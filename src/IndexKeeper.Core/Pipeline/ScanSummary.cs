@@ -33,7 +33,11 @@ public sealed class ScanSummary
     /// <summary>Files of a readable type that the root's include or exclude globs left out.</summary>
     public long FilesSkippedByPattern { get; set; }
 
-    /// <summary>Files of a type no reader takes, passed over by the walk (see <see cref="UnsupportedTypes"/>).</summary>
+    /// <summary>
+    /// Files of a type no reader takes (see <see cref="UnsupportedTypes"/>): passed over by the walk, or selected by
+    /// an include glob and refused by the reader (those are listed in the quarantine, but are not counted in
+    /// <see cref="DocumentsQuarantined"/>, which counts faults).
+    /// </summary>
     public long FilesUnsupported { get; set; }
 
     /// <summary>The unsupported files by type (lower-case extension, or "(none)"), so an operator sees what the drive holds that is not indexed.</summary>

@@ -202,6 +202,21 @@ public sealed class ScanPassTests : LinePageScenario
         Assert.Equal(20, Catalog.Pages.Find(PageKey.Of("common"u8).Hex)!.References);
     }
 
+    [Fact]
+    public void A_selected_file_of_no_readable_type_is_counted_as_unsupported_and_a_refused_readable_name_as_a_fault()
+    {
+        Temp.Write("a/handover.txt", "p1\np2");
+        Temp.Write("a/exports/readings.bin", "ALIEN bytes");
+        Temp.Write("a/notes/garbled.txt", "ALIEN bytes under a readable name");
+        var settings = new ScanSettings([new RootSpec("a", RootA, ["**/*"], [])], ReadLimits.Default, TimeSpan.Zero, BatchSize: 256);
+        var s = new ScanPass(Catalog, Reader, settings).Run("test", CancellationToken.None);
+
+        Assert.Equal((3, 1, 1), (s.DocumentsSeen, s.DocumentsQuarantined, s.FilesUnsupported));
+        Assert.Equal([new KeyValuePair<string, long>(".bin", 1)], s.UnsupportedTypes);
+        Assert.Equal(2, Catalog.Documents.Quarantined().Count());
+        Assert.Equal((1, 1), (Catalog.Figures().QuarantinedDocuments, Catalog.Figures().UnsupportedDocuments));
+    }
+
     private ScanSummary Scan(int batchSize = 256)
     {
         Directory.CreateDirectory(RootA);

@@ -23,6 +23,11 @@ public sealed class LinePageReader : IDocumentReader
             throw new DocumentReadException(QuarantineReason.Corrupt, "test file marked bad");
         }
 
+        if (text.StartsWith("ALIEN", StringComparison.Ordinal))
+        {
+            throw new DocumentReadException(QuarantineReason.Unsupported, "test file of no readable type");
+        }
+
         var lines = text.Split('\n', StringSplitOptions.RemoveEmptyEntries);
         var pages = lines.Select((line, i) => new PageContent(
             i + 1,
