@@ -12,6 +12,13 @@ public sealed class DetectOptions
     /// <summary>The daemon walks every root this often, catching whatever notifications missed.</summary>
     public double FullWalkMinutes { get; set; } = 60;
 
+    /// <summary>
+    /// How often the daemon walks a root that lies on a network share (NFS, SMB, …; <c>MountTable</c>), unless
+    /// the root sets its own <c>PollMinutes</c>: the server does not notify a client of changes other clients
+    /// make, so between walks such changes are not seen.
+    /// </summary>
+    public double NetworkPollMinutes { get; set; } = 5;
+
     /// <summary>Size of each root watcher's notification buffer; an overflow falls back to a full walk.</summary>
     public int WatcherBufferKilobytes { get; set; } = 64;
 

@@ -52,6 +52,10 @@ public static partial class IndexKeeperOptionsValidator
 
             CheckGlobs(errors, $"{at}:Include", root.Include);
             CheckGlobs(errors, $"{at}:Exclude", root.Exclude);
+            if (root.PollMinutes is { } poll)
+            {
+                Range(errors, $"{at}:PollMinutes", poll, 0, 7 * 24 * 60);
+            }
         }
 
         var limits = options.Limits;
@@ -101,6 +105,7 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Detect:FullWalkMinutes", options.Detect.FullWalkMinutes, 0.05, 7 * 24 * 60);
         Range(errors, "Detect:WatcherBufferKilobytes", options.Detect.WatcherBufferKilobytes, 4, 64);
         Range(errors, "Detect:MaxPendingPaths", options.Detect.MaxPendingPaths, 1, 10_000_000);
+        Range(errors, "Detect:NetworkPollMinutes", options.Detect.NetworkPollMinutes, 0.05, 7 * 24 * 60);
         Range(errors, "Detect:RootGoneGraceHours", options.Detect.RootGoneGraceHours, 0, 24 * 365);
         DaemonOptionsRules.Check(errors, options.Daemon);
         Range(errors, "Query:MaxCharacters", options.Query.MaxCharacters, 1, 100_000);

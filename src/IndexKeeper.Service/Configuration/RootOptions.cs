@@ -11,6 +11,13 @@ public sealed class RootOptions
     /// <summary>Globs a file must match (empty: the readable types, <see cref="IndexKeeper.Core.Detect.ReadableTypes"/>, in any letter case). Example: <c>manuals/**/*.pdf</c>.</summary>
     public List<string> Include { get; set; } = [];
 
+    /// <summary>
+    /// How often the daemon walks this root besides its change notifications, in minutes; 0: never (the
+    /// full walk of every root, <c>Detect:FullWalkMinutes</c>, still runs). Unset: <c>Detect:NetworkPollMinutes</c>
+    /// for a root on a network share, never for a local one.
+    /// </summary>
+    public double? PollMinutes { get; set; }
+
     /// <summary>Globs that drop files or whole folders. Example: <c>**/~$*</c>, <c>tmp/**</c>.</summary>
     public List<string> Exclude { get; set; } = [];
 }

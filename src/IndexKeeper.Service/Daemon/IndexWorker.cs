@@ -46,6 +46,7 @@ internal sealed class IndexWorker(
 
     private readonly CancellationTokenSource hardStop = new();
     private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
+    private readonly Dictionary<string, DateTimeOffset> nextPoll = new(StringComparer.Ordinal);
     private long embeddedSinceSample;
     private bool migrating;
 
@@ -150,6 +151,13 @@ internal sealed class IndexWorker(
                     busy = true;
                 }
 
+                var polled = DuePolls(clock.GetUtcNow());
+                if (polled.Count > 0)
+                {
+                    FullWalk(polled, "run: poll");
+                    busy = true;
+                }
+
                 var (walks, settled, nextSettle) = watchers.Take(clock.GetUtcNow().UtcDateTime);
                 if (walks.Count > 0)
                 {
@@ -229,6 +237,57 @@ internal sealed class IndexWorker(
 
         log.LogInformation("Work loop stopped cleanly.");
         return true;
+    }
+
+    /// <summary>
+    /// Present roots whose poll is due (docs/detect.md, "Network shares"); each root's interval is decided when
+    /// it is first seen present, from its setting or from the file system it lies on.
+    /// </summary>
+    private List<RootSpec> DuePolls(DateTimeOffset now)
+    {
+        var due = new List<RootSpec>();
+        foreach (var root in settings.Scan.Roots.Where(IsPresent))
+        {
+            if (PollInterval(root) is not { } interval)
+            {
+                continue;
+            }
+
+            if (!nextPoll.TryGetValue(root.Name, out var next))
+            {
+                // The start-up full walk has just read it.
+                nextPoll[root.Name] = now + interval;
+            }
+            else if (now >= next)
+            {
+                due.Add(root);
+                nextPoll[root.Name] = now + interval;
+            }
+        }
+
+        return due;
+    }
+
+    private readonly Dictionary<string, TimeSpan?> pollIntervals = new(StringComparer.Ordinal);
+
+    private TimeSpan? PollInterval(RootSpec root)
+    {
+        if (pollIntervals.TryGetValue(root.Name, out var known))
+        {
+            return known;
+        }
+
+        var configured = options.Roots.FirstOrDefault(r => r.Name == root.Name)?.PollMinutes;
+        var type = MountTable.FileSystemTypeOf(root.Path);
+        var minutes = configured ?? (MountTable.IsNetwork(type) ? options.Detect.NetworkPollMinutes : 0);
+        TimeSpan? interval = minutes > 0 ? TimeSpan.FromMinutes(minutes) : null;
+        pollIntervals[root.Name] = interval;
+        log.LogInformation(
+            "Root {Root} lies on {Type}: {Polling}",
+            root.Name,
+            type ?? "an unknown file system",
+            interval is { } i ? $"walked every {i.TotalMinutes:0.##} min besides change notifications" + (configured is null ? " (a network share: other clients' changes raise no notification)" : string.Empty) : "change notifications and the full walk only");
+        return interval;
     }
 
     private bool IsPresent(RootSpec root) => state.Root(root.Name) is { MissingSinceUtc: null };
