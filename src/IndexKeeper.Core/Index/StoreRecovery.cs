@@ -19,6 +19,7 @@ internal static class StoreRecovery
     public static IReadOnlyList<string> Run(IndexCatalog catalog, string directory)
     {
         var repairs = new List<string>();
+        var retired = DeleteRetired(catalog, directory);
         var known = catalog.Segments.All().ToDictionary(s => s.Id);
         foreach (var path in System.IO.Directory.EnumerateFiles(directory))
         {
@@ -36,7 +37,7 @@ internal static class StoreRecovery
                 File.Delete(path);
                 repairs.Add($"removed unfinished compaction output {name}");
             }
-            else if (!known.ContainsKey(id))
+            else if (!known.ContainsKey(id) && !retired.Contains(id))
             {
                 // Most often a segment a crash left before its first commit; but after a catalog restored from
                 // an older backup it holds real vectors, so it is set aside, never deleted on that guess.
@@ -70,6 +71,43 @@ internal static class StoreRecovery
         }
 
         return repairs;
+    }
+
+    /// <summary>
+    /// Deletes the files of segments an earlier compaction retired whose delete a reader put off, when no
+    /// reader is open now; returns the retired segments whose files are still there.
+    /// </summary>
+    private static IReadOnlySet<long> DeleteRetired(IndexCatalog catalog, string directory)
+    {
+        var retired = catalog.Segments.RetiredIds();
+        if (retired.Count == 0)
+        {
+            return retired;
+        }
+
+        var gone = new List<long>();
+        using (var readersOut = ReaderGate.TryEnterExclusive(Path.GetDirectoryName(Path.GetFullPath(directory))!))
+        {
+            foreach (var id in retired)
+            {
+                var path = SegmentFileNames.PathOf(directory, id);
+                if (File.Exists(path) && readersOut is not null)
+                {
+                    FaultInjection.Reach(FaultPoints.CompactionDeleteBefore);
+                    MakeWritable(path);
+                    File.Delete(path);
+                    FaultInjection.Reach(FaultPoints.CompactionDeleteAfter);
+                }
+
+                if (!File.Exists(path))
+                {
+                    gone.Add(id);
+                }
+            }
+        }
+
+        catalog.Segments.ForgetRetired(gone);
+        return retired.Except(gone).ToHashSet();
     }
 
     /// <summary>After a failed append: cuts every open segment back to what the catalog committed.</summary>

@@ -273,8 +273,8 @@ public sealed partial class FaultMatrixTests(ITestOutputHelper output)
     /// <summary>Page keys with a live vector set, page keys some live document holds, and open segments longer than committed, read from the catalog itself.</summary>
     private static Catalog Catalogued(string index)
     {
-        using var indexLock = IndexLock.Acquire(index, "fault matrix check");
-        using var catalog = IndexCatalog.OpenReadOnly(indexLock);
+        using var gate = ReaderGate.EnterShared(index);
+        using var catalog = IndexCatalog.OpenReadOnly(gate);
         var live = catalog.Encoders.All().SelectMany(e => catalog.VectorSets.Live(e.Id)).Select(v => v.PageKey).ToHashSet(StringComparer.Ordinal);
         var tails = catalog.Segments.All().Count(s => !s.Sealed && File.Exists(SegmentFileNames.PathOf(Path.Combine(index, "segments"), s.Id))
             && new FileInfo(SegmentFileNames.PathOf(Path.Combine(index, "segments"), s.Id)).Length > s.Length);
