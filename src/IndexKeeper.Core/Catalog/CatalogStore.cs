@@ -85,9 +85,22 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
         }
 
         using var gate = ReaderGate.TryEnterExclusive(writerDirectory);
-        if (gate is not null)
+        if (gate is null)
         {
+            return;
+        }
+
+        try
+        {
+            // LiteDB refuses every call once a write has failed (it keeps that error); its checkpoint would
+            // then wait a minute for a lock the failed transaction holds. A read finds that out at once.
+            _ = Meta.FindById(CatalogSchema.SchemaMetaId);
             Database.Checkpoint();
+        }
+        catch (Exception ex) when (ex is IOException or LiteException)
+        {
+            // A full or failing disk: the log keeps every committed transaction (LiteDB reads it at the next
+            // open) and the next commit or close tries again; the commit that came before stays committed.
         }
     }
 }
