@@ -35,8 +35,6 @@ public sealed class SegmentTable
         }
     }
 
-    public SegmentRecord? FindOpen(string encoderId) => segments.FindOne(s => s.EncoderId == encoderId && !s.Sealed);
-
     public SegmentRecord? Find(long segmentId) => segments.FindById(segmentId);
 
     public IReadOnlyList<SegmentRecord> All() => segments.FindAll().OrderBy(s => s.Id).ToList();

@@ -167,7 +167,7 @@ public sealed class VectorStore : IDisposable
             var path = SegmentFileNames.PathOf(Directory, open.Id);
             if (File.Exists(path))
             {
-                writers[open.EncoderId] = SegmentWriter.Reopen(path, writerOptions);
+                writers[open.EncoderId] = SegmentWriter.Reopen(path, writerOptions, committedLength: open.Length);
             }
         }
 
@@ -330,9 +330,10 @@ public sealed class VectorStore : IDisposable
         }
 
         catalog.Encoders.Register(encoder);
-        if (catalog.Segments.FindOpen(encoder.Id) is { } open && File.Exists(SegmentFileNames.PathOf(Directory, open.Id)))
+        // An open segment whose file is missing stays in the catalog as damage until `repair`; appends go to another.
+        if (catalog.Segments.All().FirstOrDefault(s => s.EncoderId == encoder.Id && !s.Sealed && File.Exists(SegmentFileNames.PathOf(Directory, s.Id))) is { } open)
         {
-            writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions);
+            writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions, committedLength: open.Length);
         }
         else
         {
