@@ -2,7 +2,6 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Tests.Detect;
 using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Pipeline;
@@ -40,23 +39,6 @@ public sealed class ScanPassTests : IDisposable
         Assert.Equal(0, s.PagesEmbedded);
         Assert.Equal(4, catalog.Queue.InOrder().Count());
         Assert.Equal(5, catalog.Figures().PageLocations);
-    }
-
-    [LinuxFact]
-    public void A_file_that_cannot_be_opened_is_counted_unreadable_and_kept_as_it_was()
-    {
-        temp.Write("a/m1.txt", "p1\np2");
-        var locked = temp.Write("a/m2.txt", "p3");
-        if (!OperatingSystem.IsWindows())
-        {
-            File.SetUnixFileMode(locked, UnixFileMode.None);
-        }
-
-        // As root every file opens; the pass runs as nobody (Unprivileged) to meet the permission error a user meets.
-        var s = Unprivileged.Run(() => Scan());
-        Assert.Equal((1L, 1L), (s.FilesUnreadable, s.DocumentsNew));
-        Assert.Contains(s.Problems, p => p.Contains("m2.txt", StringComparison.Ordinal));
-        Assert.Equal(0, Scan().FilesUnreadable);
     }
 
     [Fact]
