@@ -41,7 +41,7 @@ public sealed class PlanBenchmark : IBenchmark
         // First runs in a fresh session on both sides (reader worker started, catalog cold), then warm plans.
         PlanReport report = null!;
         (double Wall, double Cpu) planFirst, plan;
-        using (var composed = IndexComposition.OpenReadOnly(options, "benchmark plan"))
+        using (var composed = IndexComposition.OpenReadOnly(options))
         {
             var planning = composed.Get<PlanOperation>();
             planFirst = Measure.Once(() => report = planning.Build(new PlanRequest(DateTimeOffset.UtcNow, [], Calibrate: false), CancellationToken.None));

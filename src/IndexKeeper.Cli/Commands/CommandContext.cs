@@ -37,7 +37,7 @@ internal sealed class CommandContext(ParsedArguments arguments)
     public static IndexComposition Open(IndexKeeperOptions options, string command) => IndexComposition.Open(options, "indexkeeper " + command);
 
     /// <summary>For a command that only reads: no byte of the index is changed (<see cref="IndexComposition.OpenReadOnly"/>).</summary>
-    public static IndexComposition OpenForReading(IndexKeeperOptions options, string command) => IndexComposition.OpenReadOnly(options, "indexkeeper " + command);
+    public static IndexComposition OpenForReading(IndexKeeperOptions options) => IndexComposition.OpenReadOnly(options);
 
     /// <summary>The report as one JSON object with <c>--json</c>, else as <paramref name="text"/> writes it; returns <paramref name="exitCode"/>.</summary>
     public int Print<T>(T report, Action<TextWriter, T> text, int exitCode = 0)

@@ -25,7 +25,7 @@ internal sealed class EncodersCommand() : CommandBase(
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
         // Without a check nothing is written: the index is opened for reading only.
         var options = context.LoadForExistingIndex(rootsRequired: check);
-        using var composed = check ? CommandContext.Open(options, Name) : CommandContext.OpenForReading(options, Name);
+        using var composed = check ? CommandContext.Open(options, Name) : CommandContext.OpenForReading(options);
         var encoders = composed.Get<EncodersOperation>();
         CanaryFigures? figures = check ? encoders.CheckCanaries(cancellationToken) : null;
 

@@ -20,7 +20,7 @@ internal sealed class PlanCommand() : CommandBase(
         var calibrate = context.Arguments.Flags.Contains("calibrate");
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = CommandContext.OpenForReading(options, Name);
+            using var composed = CommandContext.OpenForReading(options);
             return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken));
         }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 

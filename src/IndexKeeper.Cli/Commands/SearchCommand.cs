@@ -33,7 +33,7 @@ internal sealed class SearchCommand() : CommandBase(
 
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = CommandContext.OpenForReading(options, Name);
+            using var composed = CommandContext.OpenForReading(options);
             var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
             if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
             {

@@ -14,7 +14,7 @@ internal sealed class StatusCommand() : CommandBase(
         var options = context.LoadForExistingIndex();
         var report = ThroughDaemon.Ask(options, () =>
         {
-            using var composed = CommandContext.OpenForReading(options, Name);
+            using var composed = CommandContext.OpenForReading(options);
             return composed.Get<StatusOperation>().Read();
         }, daemon => daemon.Get<StatusReport>("/api/status"));
         return context.Print(report, Write);

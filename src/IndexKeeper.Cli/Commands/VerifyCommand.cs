@@ -10,7 +10,7 @@ internal sealed class VerifyCommand() : CommandBase(
 {
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        using var composed = CommandContext.OpenForReading(context.LoadForExistingIndex(), Name);
+        using var composed = CommandContext.OpenForReading(context.LoadForExistingIndex());
         var report = composed.Get<VerifyOperation>().Run(cancellationToken);
         return context.Print(report, Write, report.Clean ? 0 : 1);
     }

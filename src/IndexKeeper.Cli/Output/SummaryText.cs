@@ -33,6 +33,11 @@ internal static class SummaryText
             output.WriteLine($"  drift      migration complete: encoder {s.ServingEncoderId[..12]} now serves; the old vectors are dead and compaction reclaims them");
         }
 
+        if (s.DocumentsQuarantined + s.FilesUnreadable > 0)
+        {
+            output.WriteLine(string.Create(c, $"  unreadable {s.DocumentsQuarantined + s.FilesUnreadable} file(s) in this pass: {s.DocumentsQuarantined} quarantined (read again when they change; `status` says why), {s.FilesUnreadable} could not be opened (tried again next pass)"));
+        }
+
         foreach (var root in s.RootsMissing)
         {
             output.WriteLine($"  root '{root}' was not found: its documents were kept, not deleted.");

@@ -7,6 +7,9 @@ public static class CatalogSchema
     public const int Version = 1;
 
     public const string FileName = "catalog.db";
+
+    /// <summary>LiteDB's write-ahead log beside <see cref="FileName"/> (LiteDB names it, not we).</summary>
+    public const string LogFileName = "catalog-log.db";
     public const string Meta = "meta";
     public const string Documents = "documents";
     public const string Pages = "pages";
@@ -18,4 +21,5 @@ public static class CatalogSchema
     internal const string SegmentCounterMetaId = "segmentCounter";
     internal const string SchemaMetaId = "schema";
     internal const string ServingEncoderMetaId = "servingEncoder";
+    internal const string RetiredSegmentsMetaId = "retiredSegments";
 }

@@ -7,8 +7,16 @@ namespace IndexKeeper.Core.Catalog;
 /// The open LiteDB database of a catalog and its collections, shared by the per-concept tables, with the
 /// one transaction helper every change that spans records uses.
 /// </summary>
-internal sealed class CatalogStore(LiteDatabase database) : IDisposable
+/// <param name="writerDirectory">
+/// The index directory when this process is the writer: LiteDB's automatic checkpoint is off, and the log is
+/// folded into the data file here only while <see cref="ReaderGate"/> is held exclusively (docs/catalog.md,
+/// "Readers beside a writer"). Null for a reader.
+/// </param>
+internal sealed class CatalogStore(LiteDatabase database, string? writerDirectory) : IDisposable
 {
+    /// <summary>LiteDB's own default threshold (1000 pages of 8 KiB; LiteDB's documentation of the Checkpoint pragma).</summary>
+    private const long CheckpointLogBytes = 1000L * 8192;
+
     public LiteDatabase Database { get; } = database;
 
     public ILiteCollection<BsonDocument> Meta { get; } = database.GetCollection(CatalogSchema.Meta);
@@ -45,6 +53,7 @@ internal sealed class CatalogStore(LiteDatabase database) : IDisposable
             FaultInjection.Reach(FaultPoints.CatalogCommitBefore);
             Database.Commit();
             FaultInjection.Reach(FaultPoints.CatalogCommitAfter);
+            CheckpointIfNoReader(CheckpointLogBytes);
             return result;
         }
         catch
@@ -54,5 +63,44 @@ internal sealed class CatalogStore(LiteDatabase database) : IDisposable
         }
     }
 
-    public void Dispose() => Database.Dispose();
+    public void Dispose()
+    {
+        // Fold the whole log at the end when no reader is open; else it stays for a later writer.
+        CheckpointIfNoReader(1);
+        Database.Dispose();
+    }
+
+    /// <summary>Folds the log into the data file when it holds at least <paramref name="logBytes"/> and no reader is open.</summary>
+    private void CheckpointIfNoReader(long logBytes)
+    {
+        if (writerDirectory is null)
+        {
+            return;
+        }
+
+        var log = new FileInfo(Path.Combine(writerDirectory, CatalogSchema.LogFileName));
+        if (!log.Exists || log.Length < logBytes)
+        {
+            return;
+        }
+
+        using var gate = ReaderGate.TryEnterExclusive(writerDirectory);
+        if (gate is null)
+        {
+            return;
+        }
+
+        try
+        {
+            // LiteDB refuses every call once a write has failed (it keeps that error); its checkpoint would
+            // then wait a minute for a lock the failed transaction holds. A read finds that out at once.
+            _ = Meta.FindById(CatalogSchema.SchemaMetaId);
+            Database.Checkpoint();
+        }
+        catch (Exception ex) when (ex is IOException or LiteException)
+        {
+            // A full or failing disk: the log keeps every committed transaction (LiteDB reads it at the next
+            // open) and the next commit or close tries again; the commit that came before stays committed.
+        }
+    }
 }

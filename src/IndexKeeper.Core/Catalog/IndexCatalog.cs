@@ -10,15 +10,16 @@ namespace IndexKeeper.Core.Catalog;
 /// live. Each concept is a table of its own (<see cref="Documents"/>, <see cref="Pages"/>, <see cref="Queue"/>,
 /// <see cref="Encoders"/>, <see cref="Segments"/>, <see cref="VectorSets"/>, <see cref="History"/>); the
 /// changes that span tables are here, each one transaction.
-/// REQUIRES: the caller holds the index's <see cref="IndexLock"/> for the catalog's lifetime.
+/// REQUIRES: a writer holds the index's <see cref="IndexLock"/> for the catalog's lifetime, a reader
+/// the shared <see cref="ReaderGate"/>.
 /// </summary>
 public sealed class IndexCatalog : IDisposable
 {
     private readonly CatalogStore store;
 
-    private IndexCatalog(LiteDatabase database)
+    private IndexCatalog(LiteDatabase database, string? writerDirectory)
     {
-        store = new CatalogStore(database);
+        store = new CatalogStore(database, writerDirectory);
         Documents = new DocumentTable(store);
         Pages = new PageTable(store);
         Queue = new QueueTable(store);
@@ -51,7 +52,15 @@ public sealed class IndexCatalog : IDisposable
         try
         {
             Damaged(path, () => CheckSchema(database, path));
-            var catalog = new IndexCatalog(database);
+
+            // Readers in other processes read the log as it was when they opened; LiteDB's own checkpoint
+            // would rewrite it under them, so the writer folds it only when no reader is open (CatalogStore).
+            if (database.CheckpointSize != 0)
+            {
+                database.CheckpointSize = 0;
+            }
+
+            var catalog = new IndexCatalog(database, heldLock.Directory);
             var s = catalog.store;
             s.Documents.EnsureIndex(d => d.FileHash);
             s.Documents.EnsureIndex(d => d.Root);
@@ -79,16 +88,18 @@ public sealed class IndexCatalog : IDisposable
 
     /// <summary>
     /// Opens the catalog for reading only: no schema record, no index, no checkpoint is written, so the
-    /// file's bytes stay as they are. A directory without a catalog reads as an empty one (in memory).
-    /// REQUIRES: the caller holds the index lock (no writer can be half-way through a transaction).
+    /// file's bytes stay as they are. It sees the transactions committed before the open, never one a writer
+    /// is half-way through (LiteDB reads only confirmed transactions of its log). A directory without a
+    /// catalog reads as an empty one (in memory).
+    /// REQUIRES: the caller holds <paramref name="heldGate"/> for the catalog's lifetime.
     /// </summary>
-    public static IndexCatalog OpenReadOnly(IndexLock heldLock)
+    public static IndexCatalog OpenReadOnly(ReaderGate heldGate)
     {
-        ArgumentNullException.ThrowIfNull(heldLock);
-        var path = Path.Combine(heldLock.Directory, CatalogSchema.FileName);
+        ArgumentNullException.ThrowIfNull(heldGate);
+        var path = Path.Combine(heldGate.Directory, CatalogSchema.FileName);
         if (!File.Exists(path))
         {
-            return new IndexCatalog(new LiteDatabase(new MemoryStream(), Mapper()));
+            return new IndexCatalog(new LiteDatabase(new MemoryStream(), Mapper()), writerDirectory: null);
         }
 
         var database = Damaged(path, () => new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct, ReadOnly = true }, Mapper()));
@@ -102,7 +113,7 @@ public sealed class IndexCatalog : IDisposable
                     $"The catalog '{path}' has schema version {version}; this build reads versions 1 to {CatalogSchema.Version}. Nothing was changed.");
             }
 
-            return new IndexCatalog(database);
+            return new IndexCatalog(database, writerDirectory: null);
         }
         catch
         {
@@ -197,8 +208,8 @@ public sealed class IndexCatalog : IDisposable
 
     /// <summary>
     /// Swaps compaction outputs in at once: the moved vector sets point into the new segments, dead vector
-    /// sets of the old segments are forgotten, the old segments leave the catalog. The old files may be
-    /// deleted only after this commit.
+    /// sets of the old segments are forgotten, the old segments leave the catalog and are listed as retired
+    /// (<see cref="SegmentTable.RetiredIds"/>). The old files may be deleted only after this commit.
     /// </summary>
     public void SwapCompacted(IReadOnlyList<long> oldSegmentIds, IReadOnlyList<SegmentRecord> newSegments, IReadOnlyDictionary<(long SegmentId, long Offset), (long SegmentId, long Offset)> moves)
     {
@@ -230,6 +241,7 @@ public sealed class IndexCatalog : IDisposable
                 store.Segments.Delete(oldId);
             }
 
+            Segments.AddRetired(oldSegmentIds);
             store.Segments.Upsert(newSegments);
         });
     }

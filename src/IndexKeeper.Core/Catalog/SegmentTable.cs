@@ -35,11 +35,41 @@ public sealed class SegmentTable
         }
     }
 
-    public SegmentRecord? FindOpen(string encoderId) => segments.FindOne(s => s.EncoderId == encoderId && !s.Sealed);
-
     public SegmentRecord? Find(long segmentId) => segments.FindById(segmentId);
 
     public IReadOnlyList<SegmentRecord> All() => segments.FindAll().OrderBy(s => s.Id).ToList();
 
     public void Put(SegmentRecord segment) => segments.Upsert(segment);
+
+    /// <summary>
+    /// Segments compaction swapped out whose files may still be on disk: a reader in another process held
+    /// the reader gate when they were to be deleted (docs/catalog.md, "Readers beside a writer").
+    /// </summary>
+    public IReadOnlySet<long> RetiredIds() =>
+        meta.FindById(CatalogSchema.RetiredSegmentsMetaId)?["ids"].AsArray.Select(v => v.AsInt64).ToHashSet() ?? [];
+
+    /// <summary>Stops listing <paramref name="segmentIds"/> as retired (their files are gone).</summary>
+    public void ForgetRetired(IReadOnlyCollection<long> segmentIds)
+    {
+        ArgumentNullException.ThrowIfNull(segmentIds);
+        if (segmentIds.Count > 0)
+        {
+            WriteRetired(RetiredIds().Except(segmentIds));
+        }
+    }
+
+    /// <summary>REQUIRES: inside the swap's transaction.</summary>
+    internal void AddRetired(IEnumerable<long> segmentIds) => WriteRetired(RetiredIds().Union(segmentIds));
+
+    private void WriteRetired(IEnumerable<long> ids)
+    {
+        var list = ids.Order().ToList();
+        if (list.Count == 0)
+        {
+            meta.Delete(CatalogSchema.RetiredSegmentsMetaId);
+            return;
+        }
+
+        meta.Upsert(new BsonDocument { ["_id"] = CatalogSchema.RetiredSegmentsMetaId, ["ids"] = new BsonArray(list.Select(id => new BsonValue(id))) });
+    }
 }

@@ -11,11 +11,16 @@ namespace IndexKeeper.Core.Faults;
 /// unset, every <see cref="Reach"/> costs one null check. Format: <c>point:action[:nth]</c>, nth ≥ 1
 /// (default 1); actions: <c>exit</c> (ends the process at once with <see cref="ExitCode"/>, like a kill:
 /// no finally blocks, no flush of buffered writes), <c>enospc</c> and <c>eio</c> (throw the
-/// <see cref="IOException"/> a full or failing disk throws). See docs/fault-matrix.md.
+/// <see cref="IOException"/> a full or failing disk throws), <c>pause</c> (waits until the file named by
+/// <see cref="ResumeVariable"/> exists, then goes on: a test runs other processes meanwhile, with no
+/// timing). See docs/fault-matrix.md.
 /// </summary>
 internal static partial class FaultInjection
 {
     public const string Variable = "IK_FAULT_INJECTION";
+
+    /// <summary>The file whose appearance ends a <c>pause</c>.</summary>
+    public const string ResumeVariable = "IK_FAULT_RESUME";
 
     /// <summary>The exit code of the <c>exit</c> action; no command exits with it otherwise.</summary>
     public const int ExitCode = 86;
@@ -60,16 +65,18 @@ internal static partial class FaultInjection
 
         var parts = value.Split(':');
         var nth = 1;
+        var resume = Environment.GetEnvironmentVariable(ResumeVariable);
         if (parts.Length is < 2 or > 3
             || !FaultPoints.All.Contains(parts[0])
-            || parts[1] is not ("exit" or "enospc" or "eio")
+            || parts[1] is not ("exit" or "enospc" or "eio" or "pause")
+            || (parts[1] == "pause" && string.IsNullOrEmpty(resume))
             || (parts.Length == 3 && (!int.TryParse(parts[2], NumberStyles.None, CultureInfo.InvariantCulture, out nth) || nth < 1)))
         {
-            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc or eio, nth ≥ 1.";
+            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc, eio or pause (with {ResumeVariable} naming a file), nth ≥ 1.";
             return null;
         }
 
-        return new Armed(parts[0], parts[1], nth);
+        return new Armed(parts[0], parts[1], nth, resume);
     }
 
     [LibraryImport("libc", EntryPoint = "_exit")]
@@ -82,7 +89,7 @@ internal static partial class FaultInjection
     [LibraryImport("kernel32.dll", EntryPoint = "GetCurrentProcess")]
     private static partial IntPtr CurrentProcess();
 
-    private sealed class Armed(string point, string action, int nth)
+    private sealed class Armed(string point, string action, int nth, string? resume)
     {
         private int reached;
 
@@ -105,6 +112,14 @@ internal static partial class FaultInjection
                     }
 
                     ExitNow(ExitCode);
+                    break;
+                case "pause":
+                    // Polls for a file a test creates once its own steps are done: the order is fixed by the test, not by a clock.
+                    while (!File.Exists(resume))
+                    {
+                        Thread.Sleep(10);
+                    }
+
                     break;
                 case "enospc":
                     throw new IOException($"No space left on device (fault injected at {point})", OperatingSystem.IsWindows() ? WindowsDiskFull : UnixNoSpace);

@@ -9,7 +9,8 @@ namespace IndexKeeper.Core.Index;
 /// clean): removes unfinished compaction outputs, sets segments the catalog never committed aside in
 /// <c>segments/orphaned/</c> (never deletes them: the catalog may be an older copy), cuts bytes past an open segment's
 /// committed length (a torn or uncommitted tail, or a seal the catalog never recorded), and queues again
-/// the pages of vector sets whose bytes are gone.
+/// the pages of vector sets past the end of a file shorter than committed. A missing file is left to the
+/// explicit <c>repair</c>: its records stay and are reported as damage.
 /// </summary>
 internal static class StoreRecovery
 {
@@ -19,6 +20,7 @@ internal static class StoreRecovery
     public static IReadOnlyList<string> Run(IndexCatalog catalog, string directory)
     {
         var repairs = new List<string>();
+        var retired = DeleteRetired(catalog, directory);
         var known = catalog.Segments.All().ToDictionary(s => s.Id);
         foreach (var path in System.IO.Directory.EnumerateFiles(directory))
         {
@@ -36,7 +38,7 @@ internal static class StoreRecovery
                 File.Delete(path);
                 repairs.Add($"removed unfinished compaction output {name}");
             }
-            else if (!known.ContainsKey(id))
+            else if (!known.ContainsKey(id) && !retired.Contains(id))
             {
                 // Most often a segment a crash left before its first commit; but after a catalog restored from
                 // an older backup it holds real vectors, so it is set aside, never deleted on that guess.
@@ -47,20 +49,23 @@ internal static class StoreRecovery
         foreach (var segment in known.Values)
         {
             var path = SegmentFileNames.PathOf(directory, segment.Id);
-            var length = File.Exists(path) ? new FileInfo(path).Length : -1;
+            if (!File.Exists(path))
+            {
+                // The file may come back (a restore, a disk mounted late): its records stay, reported as damage
+                // by status, verify and /health, until the explicit `repair` drops them.
+                repairs.Add($"segment {segment.Id} is missing: its vector sets stay in the catalog, reported as damage; put the file back or run `repair`");
+                continue;
+            }
+
+            var length = new FileInfo(path).Length;
             if (length < segment.Length)
             {
-                var lost = catalog.VectorSets.OfSegment(segment.Id).Where(v => v.Offset + v.Length > Math.Max(length, 0)).ToList();
-                var requeued = catalog.ForgetVectorSets(lost, length < 0 ? [segment.Id] : []);
-                repairs.Add(length < 0
-                    ? $"segment {segment.Id} is missing: {lost.Count} vector sets forgotten, {requeued} pages queued again"
-                    : $"segment {segment.Id} is shorter than committed: {lost.Count} vector sets forgotten, {requeued} pages queued again");
-                if (length >= 0)
-                {
-                    segment.Length = length;
-                    segment.Sealed = false;
-                    catalog.Segments.Put(segment);
-                }
+                var lost = catalog.VectorSets.OfSegment(segment.Id).Where(v => v.Offset + v.Length > length).ToList();
+                var requeued = catalog.ForgetVectorSets(lost, []);
+                repairs.Add($"segment {segment.Id} is shorter than committed: {lost.Count} vector sets forgotten, {requeued} pages queued again");
+                segment.Length = length;
+                segment.Sealed = false;
+                catalog.Segments.Put(segment);
             }
             else if (!segment.Sealed && length > segment.Length)
             {
@@ -70,6 +75,43 @@ internal static class StoreRecovery
         }
 
         return repairs;
+    }
+
+    /// <summary>
+    /// Deletes the files of segments an earlier compaction retired whose delete a reader put off, when no
+    /// reader is open now; returns the retired segments whose files are still there.
+    /// </summary>
+    private static IReadOnlySet<long> DeleteRetired(IndexCatalog catalog, string directory)
+    {
+        var retired = catalog.Segments.RetiredIds();
+        if (retired.Count == 0)
+        {
+            return retired;
+        }
+
+        var gone = new List<long>();
+        using (var readersOut = ReaderGate.TryEnterExclusive(Path.GetDirectoryName(Path.GetFullPath(directory))!))
+        {
+            foreach (var id in retired)
+            {
+                var path = SegmentFileNames.PathOf(directory, id);
+                if (File.Exists(path) && readersOut is not null)
+                {
+                    FaultInjection.Reach(FaultPoints.CompactionDeleteBefore);
+                    MakeWritable(path);
+                    File.Delete(path);
+                    FaultInjection.Reach(FaultPoints.CompactionDeleteAfter);
+                }
+
+                if (!File.Exists(path))
+                {
+                    gone.Add(id);
+                }
+            }
+        }
+
+        catalog.Segments.ForgetRetired(gone);
+        return retired.Except(gone).ToHashSet();
     }
 
     /// <summary>After a failed append: cuts every open segment back to what the catalog committed.</summary>

@@ -32,12 +32,12 @@ public sealed class VectorStore : IDisposable
     private readonly object swapGate = new();
     private readonly object writerGate = new();
 
-    private VectorStore(IndexCatalog catalog, string directory, SegmentWriterOptions writerOptions)
+    private VectorStore(IndexCatalog catalog, string directory, SegmentWriterOptions writerOptions, Func<IDisposable?>? deleteGate)
     {
         this.catalog = catalog;
         Directory = directory;
         this.writerOptions = writerOptions;
-        files = new SegmentFileSet(directory);
+        files = new SegmentFileSet(directory, deleteGate);
     }
 
     public string Directory { get; }
@@ -50,7 +50,9 @@ public sealed class VectorStore : IDisposable
         ArgumentNullException.ThrowIfNull(catalog);
         var directory = Path.Combine(indexDirectory, SegmentsFolder);
         System.IO.Directory.CreateDirectory(directory);
-        var store = new VectorStore(catalog, directory, writerOptions ?? new SegmentWriterOptions());
+
+        // Readers in other processes may still map a segment compaction retired; it is deleted only while none is open.
+        var store = new VectorStore(catalog, directory, writerOptions ?? new SegmentWriterOptions(), () => ReaderGate.TryEnterExclusive(indexDirectory));
         store.Repairs = StoreRecovery.Run(catalog, directory);
         return store;
     }
@@ -62,7 +64,7 @@ public sealed class VectorStore : IDisposable
     public static VectorStore OpenForReading(IndexCatalog catalog, string indexDirectory)
     {
         ArgumentNullException.ThrowIfNull(catalog);
-        return new VectorStore(catalog, Path.Combine(indexDirectory, SegmentsFolder), new SegmentWriterOptions()) { ReadOnly = true };
+        return new VectorStore(catalog, Path.Combine(indexDirectory, SegmentsFolder), new SegmentWriterOptions(), deleteGate: null) { ReadOnly = true };
     }
 
     /// <summary>Opened by <see cref="OpenForReading"/>: appends, seals and compaction refuse.</summary>
@@ -87,6 +89,8 @@ public sealed class VectorStore : IDisposable
         {
             AppendAndCommitLocked(encoder, batch);
         }
+
+        files.DeletePending();
     }
 
     /// <summary>REQUIRES: <c>writerGate</c> is held.</summary>
@@ -163,7 +167,7 @@ public sealed class VectorStore : IDisposable
             var path = SegmentFileNames.PathOf(Directory, open.Id);
             if (File.Exists(path))
             {
-                writers[open.EncoderId] = SegmentWriter.Reopen(path, writerOptions);
+                writers[open.EncoderId] = SegmentWriter.Reopen(path, writerOptions, committedLength: open.Length);
             }
         }
 
@@ -276,6 +280,7 @@ public sealed class VectorStore : IDisposable
             reclaimed += job.InputBytes - result.BytesWritten;
         }
 
+        files.DeletePending();
         if (jobs.Count > 0)
         {
             CoreTelemetry.CompactionBytes.Add(read, new KeyValuePair<string, object?>("kind", "read"));
@@ -296,6 +301,12 @@ public sealed class VectorStore : IDisposable
             }
 
             writers.Clear();
+        }
+
+        if (!ReadOnly)
+        {
+            // What is still put off stays listed as retired in the catalog; the next writing open deletes it.
+            files.DeletePending();
         }
 
         files.Dispose();
@@ -319,9 +330,10 @@ public sealed class VectorStore : IDisposable
         }
 
         catalog.Encoders.Register(encoder);
-        if (catalog.Segments.FindOpen(encoder.Id) is { } open && File.Exists(SegmentFileNames.PathOf(Directory, open.Id)))
+        // An open segment whose file is missing stays in the catalog as damage until `repair`; appends go to another.
+        if (catalog.Segments.All().FirstOrDefault(s => s.EncoderId == encoder.Id && !s.Sealed && File.Exists(SegmentFileNames.PathOf(Directory, s.Id))) is { } open)
         {
-            writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions);
+            writer = SegmentWriter.Reopen(SegmentFileNames.PathOf(Directory, open.Id), writerOptions, committedLength: open.Length);
         }
         else
         {

@@ -71,6 +71,7 @@ public static class IndexVerifier
     {
         var known = catalog.Segments.All();
         var ids = known.Select(s => s.Id).ToHashSet();
+        var retired = catalog.Segments.RetiredIds();
         if (Directory.Exists(directory))
         {
             foreach (var path in Directory.EnumerateFiles(directory))
@@ -84,6 +85,10 @@ public static class IndexVerifier
                 {
                     // What a crash leaves; verify only reads, the next writing open clears it.
                     report.Notes.Add($"unfinished compaction output {name}: the next sync, scan or run removes it (its vectors are still in the segments it copies)");
+                }
+                else if (retired.Contains(id))
+                {
+                    report.Notes.Add($"segment file {name} was retired by a compaction while a reader had the index open: the writer deletes it once no reader is open (docs/catalog.md)");
                 }
                 else if (!ids.Contains(id))
                 {

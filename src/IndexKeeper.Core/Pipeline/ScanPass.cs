@@ -139,6 +139,7 @@ public sealed class ScanPass
                     found.Add(new FoundFile(path.Root, path.RelativePath, full, entry.Stat));
                     break;
                 case EntryKind.Inaccessible:
+                    state.Summary.FilesUnreadable++;
                     state.Summary.Problems.Add($"{path.Root}/{path.RelativePath}: {entry.Error}");
                     break;
                 case EntryKind.Directory:
@@ -326,6 +327,7 @@ public sealed class ScanPass
                 return;
             case HashVerdict.Unreadable:
                 // Seen but unreadable now: its catalog entry stays as it was.
+                summary.FilesUnreadable++;
                 summary.Problems.Add($"{file.Root}/{file.RelativePath}: {hashed.Detail}");
                 return;
             case HashVerdict.Unchanged:

@@ -27,6 +27,9 @@ public sealed class ScanSummary
 
     public long DocumentsQuarantined { get; set; }
 
+    /// <summary>Files of a root that could not be opened or hashed in this pass (not quarantined: tried again next pass).</summary>
+    public long FilesUnreadable { get; set; }
+
     /// <summary>Files still being written or changed while read: left for the next pass.</summary>
     public long DocumentsDeferred { get; set; }
 

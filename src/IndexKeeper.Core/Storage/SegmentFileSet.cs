@@ -17,6 +17,10 @@ namespace IndexKeeper.Core.Storage;
 /// zero. A retired segment cannot be opened again.</item>
 /// <item>An open segment grows; a source that needs bytes past the current map gets a new, longer map,
 /// and older maps live on until their sources are disposed.</item>
+/// <item>Readers in other processes are not counted here: a delete first takes the delete gate (the reader
+/// gate, exclusively, without waiting). When a reader holds it, or the delete fails (Windows refuses to
+/// delete a file another process holds open), the file stays and <see cref="DeletePending"/> tries again;
+/// the commit that retired it is never undone or failed by that.</item>
 /// </list>
 /// All members are safe to call from any thread; <c>gate</c> guards the table of entries.
 /// </summary>
@@ -24,12 +28,16 @@ public sealed class SegmentFileSet : IDisposable
 {
     private readonly object gate = new();
     private readonly Dictionary<long, Entry> entries = [];
+    private readonly HashSet<long> pendingDeletes = [];
+    private readonly Func<IDisposable?>? deleteGate;
     private bool disposed;
 
-    public SegmentFileSet(string directory)
+    /// <param name="deleteGate">Taken around each delete; null from it means another process may read the file now.</param>
+    public SegmentFileSet(string directory, Func<IDisposable?>? deleteGate = null)
     {
         ArgumentException.ThrowIfNullOrEmpty(directory);
         Directory = directory;
+        this.deleteGate = deleteGate;
     }
 
     public string Directory { get; }
@@ -155,6 +163,21 @@ public sealed class SegmentFileSet : IDisposable
         current?.Release();
     }
 
+    /// <summary>Retries the deletes that a reader in another process or a refusing file system put off; returns how many are still put off.</summary>
+    public int DeletePending()
+    {
+        lock (gate)
+        {
+            foreach (var segmentId in pendingDeletes.ToList())
+            {
+                pendingDeletes.Remove(segmentId);
+                Delete(segmentId);
+            }
+
+            return pendingDeletes.Count;
+        }
+    }
+
     /// <summary>Drops the set's own references; maps held by open sources stay until those are disposed.</summary>
     public void Dispose()
     {
@@ -275,18 +298,37 @@ public sealed class SegmentFileSet : IDisposable
         }
     }
 
-    /// <summary>REQUIRES: gate is held and no map of the segment is alive.</summary>
+    /// <summary>REQUIRES: gate is held and no map of the segment is alive in this process.</summary>
     private void Delete(long segmentId)
     {
-        var path = SegmentFileNames.PathOf(Directory, segmentId);
-        if (OperatingSystem.IsWindows() && File.Exists(path))
+        using var readersOut = deleteGate?.Invoke();
+        if (deleteGate is not null && readersOut is null)
         {
-            File.SetAttributes(path, File.GetAttributes(path) & ~FileAttributes.ReadOnly);
+            // A reader in another process opened its catalog before the swap and may still map this file.
+            pendingDeletes.Add(segmentId);
+            return;
         }
 
-        // A delete that a crash undoes is harmless: restart sets aside files the catalog does not name.
+        var path = SegmentFileNames.PathOf(Directory, segmentId);
+
+        // A delete that a crash undoes is harmless: the next writing open deletes files the catalog lists as retired.
         FaultInjection.Reach(FaultPoints.CompactionDeleteBefore);
-        File.Delete(path);
+        try
+        {
+            if (OperatingSystem.IsWindows() && File.Exists(path))
+            {
+                File.SetAttributes(path, File.GetAttributes(path) & ~FileAttributes.ReadOnly);
+            }
+
+            File.Delete(path);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            // Windows refuses while any process holds the file; the swap stays committed, the delete waits.
+            pendingDeletes.Add(segmentId);
+            return;
+        }
+
         FaultInjection.Reach(FaultPoints.CompactionDeleteAfter);
     }
 

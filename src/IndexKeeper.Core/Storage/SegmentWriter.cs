@@ -66,10 +66,13 @@ public sealed class SegmentWriter : IDisposable
 
     /// <summary>
     /// Continues an open segment after a restart: checks it, cuts a torn tail (durably) and appends after
-    /// the last good record. A damaged or sealed segment is refused. REQUIRES: no reader maps the file
-    /// (recovery runs before readers start; cutting a mapped file's tail faults its readers on Linux).
+    /// the last good record. A damaged or sealed segment is refused, and so is one whose good records end
+    /// before <paramref name="committedLength"/> (what a catalog committed): a record there that reads as
+    /// torn is damage to committed bytes, never a tail to cut and append after. REQUIRES: no reader in this
+    /// process maps the file's tail past the committed length.
     /// </summary>
-    public static SegmentWriter Reopen(string path, SegmentWriterOptions? options = null, TimeProvider? time = null)
+    /// <param name="committedLength">The length the catalog committed; null for a file no catalog knows (tools, tests).</param>
+    public static SegmentWriter Reopen(string path, SegmentWriterOptions? options = null, TimeProvider? time = null, long? committedLength = null)
     {
         options ??= new SegmentWriterOptions();
         options.ThrowIfInvalid();
@@ -86,6 +89,14 @@ public sealed class SegmentWriter : IDisposable
             if (scan.End == SegmentEnd.Sealed)
             {
                 throw new InvalidOperationException($"{path} is sealed; sealed segments are immutable.");
+            }
+
+            if (scan.ValidLength < committedLength)
+            {
+                throw new SegmentFormatException(
+                    path,
+                    scan.ValidLength,
+                    $"cannot append: the catalog committed {committedLength} bytes but the records read end at {scan.ValidLength} (the bytes there are damaged, not a torn tail); nothing was cut. Run `indexkeeper verify`, then `repair`");
             }
 
             checksum = reader.ChecksumOfPrefix(scan.ValidLength);

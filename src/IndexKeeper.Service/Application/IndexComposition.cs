@@ -24,10 +24,18 @@ public sealed class IndexComposition : IDisposable
 
     public OpenIndex Index { get; }
 
-    public static IndexComposition Open(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: false);
+    public static IndexComposition Open(IndexKeeperOptions options, string purpose)
+    {
+        var settings = IndexSettings.From(options);
+        return new IndexComposition(settings, OpenIndex.Open(settings, purpose));
+    }
 
-    /// <summary>For the commands that only read (plan, status, search, encoders): catalog and segments opened read-only.</summary>
-    public static IndexComposition OpenReadOnly(IndexKeeperOptions options, string purpose) => Open(options, purpose, readOnly: true);
+    /// <summary>For the commands that only read (plan, status, search, encoders, verify): catalog and segments opened read-only, beside a writer.</summary>
+    public static IndexComposition OpenReadOnly(IndexKeeperOptions options)
+    {
+        var settings = IndexSettings.From(options);
+        return new IndexComposition(settings, OpenIndex.OpenReadOnly(settings));
+    }
 
     /// <summary>For <c>rebuild-catalog</c>: <paramref name="beforeCatalog"/> runs under the index lock before the catalog is opened.</summary>
     public static IndexComposition OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog)
@@ -44,12 +52,5 @@ public sealed class IndexComposition : IDisposable
     {
         services.Dispose();
         Index.Dispose();
-    }
-
-    private static IndexComposition Open(IndexKeeperOptions options, string purpose, bool readOnly)
-    {
-        var settings = IndexSettings.From(options);
-        var index = readOnly ? OpenIndex.OpenReadOnly(settings, purpose) : OpenIndex.Open(settings, purpose);
-        return new IndexComposition(settings, index);
     }
 }

@@ -9,20 +9,22 @@ namespace IndexKeeper.Service.Application;
 
 /// <summary>
 /// An open index, held by the composition root of one command or of the daemon: the lock, the catalog,
-/// the document reader, the segment store and the active encoder, released together. The lock is taken
-/// first and released last, so no other process ever sees the catalog open.
+/// the document reader, the segment store and the active encoder, released together. The lock (the
+/// writer's <see cref="IndexLock"/>, or a reader's shared <see cref="ReaderGate"/>) is taken first and
+/// released last.
 /// </summary>
 public sealed class OpenIndex : IDisposable
 {
-    private readonly IndexLock indexLock;
+    private readonly IDisposable held;
     private readonly IndexSettings settings;
     private VectorStore? store;
     private IPageEncoder? encoder;
 
-    private OpenIndex(IndexSettings settings, IndexLock indexLock, IndexCatalog catalog, IDocumentReader reader, bool readOnly)
+    private OpenIndex(IndexSettings settings, IDisposable held, string directory, IndexCatalog catalog, IDocumentReader reader, bool readOnly)
     {
         this.settings = settings;
-        this.indexLock = indexLock;
+        this.held = held;
+        Directory = directory;
         Catalog = catalog;
         Reader = reader;
         ReadOnly = readOnly;
@@ -35,7 +37,7 @@ public sealed class OpenIndex : IDisposable
 
     public IDocumentReader Reader { get; }
 
-    public string Directory => indexLock.Directory;
+    public string Directory { get; }
 
     /// <summary>
     /// The segment store, opened on first use: for writing it is repaired after a crash first; a read-only
@@ -48,33 +50,50 @@ public sealed class OpenIndex : IDisposable
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
     public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(settings.Encoder);
 
-    public static OpenIndex Open(IndexSettings settings, string purpose) => Open(settings, purpose, readOnly: false);
+    public static OpenIndex Open(IndexSettings settings, string purpose) => Open(settings, purpose, beforeCatalog: null);
 
-    /// <summary>Opens for reading only (plan, status, search, encoders): the lock is taken, no byte of the index is changed.</summary>
-    public static OpenIndex OpenReadOnly(IndexSettings settings, string purpose) => Open(settings, purpose, readOnly: true);
+    /// <summary>
+    /// Opens for reading only (plan, status, search, encoders, verify) beside a writer, if one runs: no
+    /// write lock, no byte of the index changed; it sees what was committed when it opened.
+    /// </summary>
+    public static OpenIndex OpenReadOnly(IndexSettings settings)
+    {
+        ArgumentNullException.ThrowIfNull(settings);
+        var gate = ReaderGate.EnterShared(settings.Directory);
+        try
+        {
+            var catalog = IndexCatalog.OpenReadOnly(gate);
+            return new OpenIndex(settings, gate, gate.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: true);
+        }
+        catch
+        {
+            gate.Dispose();
+            throw;
+        }
+    }
 
     /// <summary>
     /// Opens for a catalog rebuild: <paramref name="beforeCatalog"/> runs once the lock is held and before the
     /// catalog is opened (it moves the old catalog aside), so no other process sees the index in between.
     /// </summary>
     public static OpenIndex OpenForRebuild(IndexSettings settings, string purpose, Action<string> beforeCatalog) =>
-        Open(settings, purpose, readOnly: false, beforeCatalog);
+        Open(settings, purpose, beforeCatalog);
 
-    private static OpenIndex Open(IndexSettings settings, string purpose, bool readOnly, Action<string>? beforeCatalog = null)
+    private static OpenIndex Open(IndexSettings settings, string purpose, Action<string>? beforeCatalog)
     {
         ArgumentNullException.ThrowIfNull(settings);
-        var held = IndexLock.Acquire(settings.Directory, purpose);
+        var writerLock = IndexLock.Acquire(settings.Directory, purpose);
         try
         {
-            beforeCatalog?.Invoke(held.Directory);
-            var catalog = readOnly ? IndexCatalog.OpenReadOnly(held) : IndexCatalog.Open(held);
+            beforeCatalog?.Invoke(writerLock.Directory);
+            var catalog = IndexCatalog.Open(writerLock);
             // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
             // costs one quarantined document, never the command or the service.
-            return new OpenIndex(settings, held, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly);
+            return new OpenIndex(settings, writerLock, writerLock.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: false);
         }
         catch
         {
-            held.Dispose();
+            writerLock.Dispose();
             throw;
         }
     }
@@ -85,6 +104,6 @@ public sealed class OpenIndex : IDisposable
         (encoder as IDisposable)?.Dispose();
         (Reader as IDisposable)?.Dispose();
         Catalog.Dispose();
-        indexLock.Dispose();
+        held.Dispose();
     }
 }

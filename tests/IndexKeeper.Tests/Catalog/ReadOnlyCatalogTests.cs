@@ -18,7 +18,7 @@ public sealed class ReadOnlyCatalogTests
         }
 
         var before = Hashes(temp.Path);
-        using (var held = IndexLock.Acquire(temp.Path, "plan"))
+        using (var held = ReaderGate.EnterShared(temp.Path))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
             var history = Assert.Single(catalog.History.Embeds("enc-a", 20));
@@ -50,7 +50,7 @@ public sealed class ReadOnlyCatalogTests
 
         Assert.True(File.Exists(Path.Combine(copy, "catalog-log.db")));
         var before = Hashes(copy);
-        using (var held = IndexLock.Acquire(copy, "plan"))
+        using (var held = ReaderGate.EnterShared(copy))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
             Assert.Equal(3, Assert.Single(catalog.History.Embeds("enc-a", 20)).Counts["pagesEmbedded"]);
@@ -63,7 +63,7 @@ public sealed class ReadOnlyCatalogTests
     public void A_folder_without_a_catalog_reads_as_empty_and_gets_none()
     {
         using var temp = new TempDirectory();
-        using (var held = IndexLock.Acquire(temp.Path, "plan"))
+        using (var held = ReaderGate.EnterShared(temp.Path))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         {
             Assert.Empty(catalog.Queue.Keys());

@@ -102,7 +102,7 @@ public sealed class RecoveryStateTests
 
         SegmentWriter.Create(segments, new SegmentHeader(900, OpenIndex.Encoder.Id, 64, DateTimeOffset.UtcNow)).Dispose();
         var before = Directory.GetFiles(segments).Order(StringComparer.Ordinal).Select(f => (f, Convert.ToHexString(File.ReadAllBytes(f)))).ToList();
-        using (var held = IndexLock.Acquire(directory.Path, "reading test"))
+        using (var held = ReaderGate.EnterShared(directory.Path))
         using (var catalog = IndexCatalog.OpenReadOnly(held))
         using (var store = VectorStore.OpenForReading(catalog, directory.Path))
         {

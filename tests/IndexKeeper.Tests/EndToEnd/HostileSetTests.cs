@@ -27,7 +27,7 @@ public sealed class HostileSetTests : IDisposable
         var plain = StorePdfs.ToScratch(index, "plain.pdf", GoodFiles.InspectionPdf());
         index.Put("incoming/encrypted.pdf", StorePdfs.Qpdf(index, "encrypted.pdf", "--encrypt", "inspector", "owner", "256", "--", plain));
 
-        var sync = index.Json("sync", "--Limits:MaxDecodedStreamMegabytes=1");
+        var sync = index.JsonExpecting(1, "sync", "--Limits:MaxDecodedStreamMegabytes=1");
         ContractAssert.Counts(
             sync,
             "sync of the hostile set",

@@ -25,7 +25,7 @@ public sealed class ScanBadFileTests : IDisposable
         File.CreateSymbolicLink(index.PathOf("inbox/link-out.pdf"), secret);
         Directory.CreateSymbolicLink(index.PathOf("inbox/outside-folder"), Path.GetDirectoryName(secret)!);
 
-        var first = index.Json("scan");
+        var first = index.JsonExpecting(1, "scan");
         ContractAssert.Counts(
             first,
             "a good file, bad files and links",
