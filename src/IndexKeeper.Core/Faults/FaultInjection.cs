@@ -11,7 +11,9 @@ namespace IndexKeeper.Core.Faults;
 /// unset, every <see cref="Reach"/> costs one null check. Format: <c>point:action[:nth]</c>, nth ≥ 1
 /// (default 1); actions: <c>exit</c> (ends the process at once with <see cref="ExitCode"/>, like a kill:
 /// no finally blocks, no flush of buffered writes), <c>enospc</c> and <c>eio</c> (throw the
-/// <see cref="IOException"/> a full or failing disk throws). See docs/fault-matrix.md.
+/// <see cref="IOException"/> a full or failing disk throws), <c>pause</c> (waits at the point until
+/// <see cref="Resume"/>, which the command calls once a stop signal has cancelled its work: a signal test
+/// knows where the process stands when it sends one). See docs/fault-matrix.md.
 /// </summary>
 internal static partial class FaultInjection
 {
@@ -30,7 +32,12 @@ internal static partial class FaultInjection
     private const int WindowsDiskFull = unchecked((int)0x80070070);
     private const int WindowsIoDevice = unchecked((int)0x8007045D);
 
+    /// <summary>How long <c>pause</c> waits for <see cref="Resume"/> before it fails the process.</summary>
+    private static readonly TimeSpan PauseLimit = TimeSpan.FromMinutes(2);
+
     private static readonly Armed? Fault;
+
+    private static readonly ManualResetEventSlim Resumed = new();
 
     static FaultInjection()
     {
@@ -50,6 +57,9 @@ internal static partial class FaultInjection
         }
     }
 
+    /// <summary>Lets a process held by the <c>pause</c> action go on; without one armed it changes nothing.</summary>
+    public static void Resume() => Resumed.Set();
+
     private static Armed? Parse(string? value, out string? problem)
     {
         problem = null;
@@ -62,10 +72,10 @@ internal static partial class FaultInjection
         var nth = 1;
         if (parts.Length is < 2 or > 3
             || !FaultPoints.All.Contains(parts[0])
-            || parts[1] is not ("exit" or "enospc" or "eio")
+            || parts[1] is not ("exit" or "enospc" or "eio" or "pause")
             || (parts.Length == 3 && (!int.TryParse(parts[2], NumberStyles.None, CultureInfo.InvariantCulture, out nth) || nth < 1)))
         {
-            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc or eio, nth ≥ 1.";
+            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc, eio or pause, nth ≥ 1.";
             return null;
         }
 
@@ -105,6 +115,13 @@ internal static partial class FaultInjection
                     }
 
                     ExitNow(ExitCode);
+                    break;
+                case "pause":
+                    if (!Resumed.Wait(PauseLimit))
+                    {
+                        throw new InvalidOperationException($"the fault pause at {point} was never resumed");
+                    }
+
                     break;
                 case "enospc":
                     throw new IOException($"No space left on device (fault injected at {point})", OperatingSystem.IsWindows() ? WindowsDiskFull : UnixNoSpace);
