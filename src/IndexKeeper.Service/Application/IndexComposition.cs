@@ -13,11 +13,11 @@ public sealed class IndexComposition : IDisposable
 {
     private readonly ServiceProvider services;
 
-    private IndexComposition(IndexSettings settings, OpenIndex index)
+    private IndexComposition(OpenIndex index)
     {
-        Settings = settings;
+        Settings = index.Settings;
         Index = index;
-        services = new ServiceCollection().AddIndexApplication(settings, index, RetryPolicy.Default).BuildServiceProvider();
+        services = new ServiceCollection().AddIndexApplication(Settings, index, RetryPolicy.Default).BuildServiceProvider();
     }
 
     public IndexSettings Settings { get; }
@@ -32,8 +32,7 @@ public sealed class IndexComposition : IDisposable
     /// <summary>For <c>rebuild-catalog</c>: <paramref name="beforeCatalog"/> runs under the index lock before the catalog is opened.</summary>
     public static IndexComposition OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog)
     {
-        var settings = IndexSettings.From(options);
-        return new IndexComposition(settings, OpenIndex.OpenForRebuild(settings, purpose, beforeCatalog));
+        return new IndexComposition(OpenIndex.OpenForRebuild(IndexSettings.From(options), purpose, beforeCatalog));
     }
 
     /// <summary>The use case of type <typeparamref name="T"/>, built with its dependencies.</summary>
@@ -49,7 +48,6 @@ public sealed class IndexComposition : IDisposable
     private static IndexComposition Open(IndexKeeperOptions options, string purpose, bool readOnly)
     {
         var settings = IndexSettings.From(options);
-        var index = readOnly ? OpenIndex.OpenReadOnly(settings, purpose) : OpenIndex.Open(settings, purpose);
-        return new IndexComposition(settings, index);
+        return new IndexComposition(readOnly ? OpenIndex.OpenReadOnly(settings, purpose) : OpenIndex.Open(settings, purpose));
     }
 }

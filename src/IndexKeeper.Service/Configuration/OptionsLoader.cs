@@ -60,6 +60,10 @@ public static class OptionsLoader
             throw new ConfigurationException(problems);
         }
 
+        // Which encoder settings were given at all: the rest comes from an existing index's own encoder.
+        options.Encoder.Given = configuration.GetSection(nameof(IndexKeeperOptions.Encoder)).GetChildren()
+            .Select(c => c.Key).ToHashSet(StringComparer.OrdinalIgnoreCase);
+
         if (sources.Roots.Count > 0)
         {
             // --root replaces the file's roots wholesale rather than merging lists index by index.

@@ -207,6 +207,8 @@ public sealed partial class FaultMatrixTests(ITestOutputHelper output)
               buffered writes; what the page cache holds stays, as after SIGKILL).
             - `enospc`: the I/O throws the error a full disk throws ("No space left on device").
             - `eio`: the I/O throws the error a failing disk throws ("Input/output error").
+            - `pause` (not a row of this matrix): the process waits at the point until a stop signal has cancelled
+              its work (`tests/IndexKeeper.Tests/CommandLine/StopSignalTests.cs`), so a signal lands at a known place.
 
             Points (`FaultPoints`, in the order of the write path): a segment append before and after its fsync;
             a seal before its record, after its fsync, after the directory fsync (not yet recorded by the catalog);
