@@ -32,5 +32,5 @@ public sealed class EncoderOptions
     /// others an existing index supplies from its own encoder (<see cref="Application.EncoderChoice"/>).
     /// Null for options built in code: every setting counts as given. Not a setting itself.
     /// </summary>
-    public IReadOnlySet<string>? Given { get; internal set; }
+    internal IReadOnlySet<string>? Given { get; set; }
 }
