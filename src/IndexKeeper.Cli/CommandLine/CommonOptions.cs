@@ -6,12 +6,12 @@ namespace IndexKeeper.Cli.CommandLine;
 /// <summary>The options every command takes (docs/cli.md, "Synopsis"); declared once on the root and inherited.</summary>
 internal static class CommonOptions
 {
-    public static readonly Option<string?> Index = new("--index")
+    public static readonly Option<string?> Index = LastValue.Wins(new("--index")
     {
         Description = "the index directory (catalog, segments, lock); the setting IndexDirectory",
         HelpName = "DIR",
         Recursive = true,
-    };
+    });
 
     public static readonly Option<string[]> Roots = new("--root")
     {
@@ -20,12 +20,12 @@ internal static class CommonOptions
         Recursive = true,
     };
 
-    public static readonly Option<string?> Config = new("--config")
+    public static readonly Option<string?> Config = LastValue.Wins(new("--config")
     {
         Description = "a JSON settings file (config/indexkeeper.sample.json explains each setting)",
         HelpName = "FILE",
         Recursive = true,
-    };
+    });
 
     public static readonly Option<string?> Encoder = CreateEncoder();
 
@@ -39,13 +39,13 @@ internal static class CommonOptions
 
     private static Option<string?> CreateEncoder()
     {
-        var option = new Option<string?>("--encoder")
+        var option = LastValue.Wins(new Option<string?>("--encoder")
         {
             Description = "the encoder to use: " + string.Join(", ", IndexKeeperOptionsValidator.EncoderNames) +
                 "; unset, an existing index keeps its own, a new one gets minilm; naming another starts a migration",
             HelpName = "NAME",
             Recursive = true,
-        };
+        });
         option.CompletionSources.Add([.. IndexKeeperOptionsValidator.EncoderNames]);
         return option;
     }

@@ -20,12 +20,12 @@ internal sealed class DemoCommand() : CommandBase(
 {
     private const string Marker = ".indexkeeper-demo";
 
-    private readonly Option<string> output = new("--output")
+    private readonly Option<string?> output = LastValue.Wins(new("--output")
     {
         Description = "the folder for the demo store and its index (made by the demo, or by an earlier demo)",
         HelpName = "DIR",
         DefaultValueFactory = _ => "indexkeeper-demo",
-    };
+    });
 
     public override IEnumerable<Symbol> Symbols => [output];
 

@@ -1,4 +1,5 @@
 using System.CommandLine;
+using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Service.Daemon;
 
 namespace IndexKeeper.Cli.Commands;
@@ -8,11 +9,11 @@ internal sealed class RunCommand() : CommandBase(
     "run",
     "the daemon: watch roots, keep the index fresh, serve metrics, health, status page and API")
 {
-    private readonly Option<string?> listen = new("--listen")
+    private readonly Option<string?> listen = LastValue.Wins(new("--listen")
     {
         Description = "where the API listens (the setting Daemon:Listen; default 127.0.0.1:7717); off loopback a token is needed",
         HelpName = "HOST:PORT",
-    };
+    });
 
     public override IEnumerable<Symbol> Symbols => [listen];
 

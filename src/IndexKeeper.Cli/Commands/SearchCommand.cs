@@ -18,18 +18,18 @@ internal sealed class SearchCommand() : CommandBase(
         Arity = ArgumentArity.OneOrMore,
     };
 
-    private readonly Option<int> k = new("-k")
+    private readonly Option<int> k = LastValue.WinsPositive(new("-k")
     {
         Description = "how many pages to return (at most Query:MaxResults)",
         HelpName = "N",
         DefaultValueFactory = _ => 10,
-    };
+    });
 
-    private readonly Option<string?> maps = new("--maps")
+    private readonly Option<string?> maps = LastValue.Wins(new("--maps")
     {
         Description = "draw one PNG per hit into this folder: the page's words and the region each query vector matched",
         HelpName = "DIR",
-    };
+    });
 
     public override IEnumerable<Symbol> Symbols => [query, k, maps];
 
