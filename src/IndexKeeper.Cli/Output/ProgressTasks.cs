@@ -6,12 +6,12 @@ namespace IndexKeeper.Cli.Output;
 /// <summary>
 /// A pass's progress as Spectre.Console tasks: one line per phase (walking, checking, embedding, …), with
 /// the file in hand shown escaped (<see cref="TerminalText"/>: a name cannot act on the terminal, nor on
-/// Spectre's markup). A phase without a total is shown without a percentage. Reports may come from any
-/// thread; Spectre's tasks are safe for that, and its display redraws on its own thread.
+/// Spectre's markup). A phase without a total is shown without a percentage. Reports are taken one at a
+/// time (a lock); Spectre's display redraws from the tasks' values on its own thread.
 /// </summary>
 internal sealed class ProgressTasks(ProgressContext context) : IProgress<ScanProgress>
 {
-    private const int NameWidth = 40;
+    private const int NameWidth = 22;
     private readonly Lock gate = new();
     private ProgressTask? task;
     private string phase = string.Empty;

@@ -25,7 +25,14 @@ internal static class TerminalProgress
         ArgumentNullException.ThrowIfNull(work);
         return console.Progress()
             .AutoClear(true)
-            .Columns(new TaskDescriptionColumn { Alignment = Justify.Left }, new ProgressBarColumn(), new PercentageColumn(), new RateColumn(), new RemainingTimeColumn(), new SpinnerColumn())
-            .Start(context => work(new ProgressTasks(context)));
+            .Columns(new TaskDescriptionColumn { Alignment = Justify.Left }, new ProgressBarColumn { Width = 16 }, new PercentageColumn(), new RateColumn(), new RemainingTimeColumn(), new SpinnerColumn())
+            .Start(context =>
+            {
+                var result = work(new ProgressTasks(context));
+
+                // The last figures are drawn once for sure, not only if a timed redraw came after them.
+                context.Refresh();
+                return result;
+            });
     }
 }
