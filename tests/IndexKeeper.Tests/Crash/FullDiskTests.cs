@@ -17,16 +17,8 @@ public sealed class FullDiskTests(ITestOutputHelper output)
     public void A_full_segment_disk_fails_the_batch_cleanly_and_the_index_stays_consistent()
     {
         using var scratch = new TempDirectory();
-        var store = scratch.Combine("store");
-        var churn = new StoreChurn(store, 4242);
-        for (var i = 0; i < 12; i++)
-        {
-            churn.Add(5);
-        }
-
-        var index = scratch.Combine("index");
-        string[] common = ["--index", index, "--root", store];
-        string[] sync = ["sync", .. common, "--json", "--Storage:SealAtMegabytes=1", "--Encoder:BatchSize=4", "--Detect:SettleSeconds=0"];
+        var (_, index, common) = Store(scratch, seed: 4242, documents: 12);
+        string[] sync = ["sync", .. common, "--json", .. SyncSettings];
 
         // Disposed before the scratch folder, so the mount is gone before the folder is deleted.
         using var disk = TmpfsMount.Mount(Path.Combine(index, "segments"), 1536);
@@ -52,12 +44,7 @@ public sealed class FullDiskTests(ITestOutputHelper output)
 
         // Room again: the rest is embedded; the failed batch waits out its back-off in the queue.
         disk.Resize(32 * 1024);
-        var again = CliRunner.Run(scratch.Path, sync);
-        Assert.True(again.ExitCode == 0, again.Stdout + again.Stderr);
-        var clean = CliRunner.Run(scratch.Path, ["verify", .. common]);
-        Assert.True(clean.ExitCode == 0, clean.Stdout);
-        status = Status(scratch.Path, common);
-        output.WriteLine($"after room was made: {status.GetProperty("liveVectorSets")} live vector sets, {status.GetProperty("queued")} queued of {status.GetProperty("pages")} pages");
+        status = SyncAgainAndVerify(scratch.Path, sync, common);
         Assert.Equal(pages, status.GetProperty("pages").GetInt64());
         Assert.Equal(failed, status.GetProperty("queued").GetInt64());
         Assert.Equal(pages - failed, status.GetProperty("liveVectorSets").GetInt64());
@@ -67,16 +54,8 @@ public sealed class FullDiskTests(ITestOutputHelper output)
     public void A_full_catalog_disk_stops_the_command_with_a_message_and_loses_nothing_committed()
     {
         using var scratch = new TempDirectory();
-        var store = scratch.Combine("store");
-        var churn = new StoreChurn(store, 4343);
-        for (var i = 0; i < 6; i++)
-        {
-            churn.Add(5);
-        }
-
-        var index = scratch.Combine("index");
-        string[] common = ["--index", index, "--root", store];
-        string[] sync = ["sync", .. common, "--Storage:SealAtMegabytes=1", "--Encoder:BatchSize=4", "--Detect:SettleSeconds=0"];
+        var (churn, index, common) = Store(scratch, seed: 4343, documents: 6);
+        string[] sync = ["sync", .. common, .. SyncSettings];
 
         // The whole index, catalog and segments, on one small disk.
         using var disk = TmpfsMount.Mount(index, 16 * 1024);
@@ -114,14 +93,38 @@ public sealed class FullDiskTests(ITestOutputHelper output)
         var status = Status(scratch.Path, common);
         Assert.True(status.GetProperty("liveVectorSets").GetInt64() >= committed, $"{committed} vector sets were committed before the disk filled, {status.GetProperty("liveVectorSets")} are live after");
 
-        var again = CliRunner.Run(scratch.Path, sync);
-        Assert.True(again.ExitCode == 0, again.Stdout + again.Stderr);
-        var clean = CliRunner.Run(scratch.Path, ["verify", .. common]);
-        Assert.True(clean.ExitCode == 0, clean.Stdout);
-        status = Status(scratch.Path, common);
-        output.WriteLine($"after room was made: {status.GetProperty("liveVectorSets")} live vector sets, {status.GetProperty("queued")} queued of {status.GetProperty("pages")} pages");
+        status = SyncAgainAndVerify(scratch.Path, sync, common);
         Assert.Equal(60, status.GetProperty("pages").GetInt64());
         Assert.Equal(status.GetProperty("pages").GetInt64(), status.GetProperty("liveVectorSets").GetInt64() + status.GetProperty("queued").GetInt64());
+    }
+
+    // Small seals and batches, so a full disk meets a batch in the middle of the store.
+    private static readonly string[] SyncSettings = ["--Storage:SealAtMegabytes=1", "--Encoder:BatchSize=4", "--Detect:SettleSeconds=0"];
+
+    /// <summary>A store of five-page documents in the scratch folder and the arguments naming it and its index.</summary>
+    private static (StoreChurn Churn, string Index, string[] Common) Store(TempDirectory scratch, int seed, int documents)
+    {
+        var store = scratch.Combine("store");
+        var churn = new StoreChurn(store, seed);
+        for (var i = 0; i < documents; i++)
+        {
+            churn.Add(5);
+        }
+
+        var index = scratch.Combine("index");
+        return (churn, index, ["--index", index, "--root", store]);
+    }
+
+    /// <summary>With room again: the sync succeeds, verify is clean; the status that follows.</summary>
+    private JsonElement SyncAgainAndVerify(string workingDirectory, string[] sync, string[] common)
+    {
+        var again = CliRunner.Run(workingDirectory, sync);
+        Assert.True(again.ExitCode == 0, again.Stdout + again.Stderr);
+        var clean = CliRunner.Run(workingDirectory, ["verify", .. common]);
+        Assert.True(clean.ExitCode == 0, clean.Stdout);
+        var status = Status(workingDirectory, common);
+        output.WriteLine($"after room was made: {status.GetProperty("liveVectorSets")} live vector sets, {status.GetProperty("queued")} queued of {status.GetProperty("pages")} pages");
+        return status;
     }
 
     private static JsonElement Status(string workingDirectory, string[] common) =>

@@ -1,5 +1,5 @@
 using System.Diagnostics;
-using System.IO.Compression;
+using IndexKeeper.Tests.EndToEnd;
 
 namespace IndexKeeper.Tests.Isolation;
 
@@ -53,26 +53,7 @@ internal static class HostileFiles
     /// A page whose content stream is FlateDecode-compressed (§7.4.4; the zlib format of RFC 1950/1951)
     /// spaces: a file of about 200 KB that decodes to <see cref="InflatedBytes"/>.
     /// </summary>
-    public static byte[] InflatingContentStream()
-    {
-        using var compressed = new MemoryStream();
-        using (var zlib = new ZLibStream(compressed, CompressionLevel.SmallestSize, leaveOpen: true))
-        {
-            var spaces = new byte[1024 * 1024];
-            spaces.AsSpan().Fill((byte)' ');
-            for (var written = 0; written < InflatedBytes; written += spaces.Length)
-            {
-                zlib.Write(spaces);
-            }
-        }
-
-        var pdf = new HandWrittenPdf();
-        pdf.Add("<< /Type /Catalog /Pages 2 0 R >>");
-        pdf.Add("<< /Type /Pages /Kids [3 0 R] /Count 1 >>");
-        pdf.Add("<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] /Contents 4 0 R >>");
-        pdf.AddStream("/Filter /FlateDecode", compressed.ToArray());
-        return pdf.Build();
-    }
+    public static byte[] InflatingContentStream() => BadPdfs.InflationBomb(InflatedBytes / (1024 * 1024));
 
     /// <summary>A page dictionary holding arrays (§7.3.6) nested 100,000 deep.</summary>
     public static byte[] DeeplyNestedArrays()

@@ -1,8 +1,6 @@
-using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Pipeline;
 
@@ -11,19 +9,12 @@ namespace IndexKeeper.Tests.Pipeline;
 /// predicts exactly the figures the <see cref="ScanPass.Run"/> that follows reports, and leaves the
 /// catalog as it was.
 /// </summary>
-public sealed class ScanPreviewTests : IDisposable
+public sealed class ScanPreviewTests : LinePageScenario
 {
-    private readonly TempDirectory temp = new();
-    private readonly LinePageReader reader = new();
-    private readonly IndexLock heldLock;
-    private readonly IndexCatalog catalog;
-
     public ScanPreviewTests()
     {
-        heldLock = IndexLock.Acquire(temp.Combine("index"), "test");
-        catalog = IndexCatalog.Open(heldLock);
-        Directory.CreateDirectory(temp.Combine("a"));
-        Directory.CreateDirectory(temp.Combine("b"));
+        Directory.CreateDirectory(Temp.Combine("a"));
+        Directory.CreateDirectory(Temp.Combine("b"));
     }
 
     [Fact]
@@ -31,21 +22,21 @@ public sealed class ScanPreviewTests : IDisposable
     {
         for (var i = 0; i < 8; i++)
         {
-            temp.Write($"a/reports/d{i}.txt", $"common\nunique{i}");
+            Temp.Write($"a/reports/d{i}.txt", $"common\nunique{i}");
         }
 
-        temp.Write("a/manual.txt", "s1\ns2\ns3\ns4");
-        temp.Write("a/f1.txt", "k1\nk2");
-        temp.Write("a/f2.txt", "k2\nk9");
+        Temp.Write("a/manual.txt", "s1\ns2\ns3\ns4");
+        Temp.Write("a/f1.txt", "k1\nk2");
+        Temp.Write("a/f2.txt", "k2\nk9");
         var first = Check();
         Assert.Equal(ChangeKind.New, Assert.Single(first.Changes, c => c.Path == "f1.txt").Kind);
 
         // Copy, rename, move across roots, delete the only holder of a page, insert and reorder pages.
-        File.Copy(temp.Combine("a/reports/d0.txt"), temp.Combine("a/copy-of-d0.txt"));
-        File.Move(temp.Combine("a/reports/d1.txt"), temp.Combine("a/reports/renamed.txt"));
-        File.Move(temp.Combine("a/reports/d2.txt"), temp.Combine("b/d2.txt"));
-        File.Delete(temp.Combine("a/f1.txt"));
-        File.WriteAllText(temp.Combine("a/manual.txt"), "s3\ns1\nINSERTED\ns2\ns4");
+        File.Copy(Temp.Combine("a/reports/d0.txt"), Temp.Combine("a/copy-of-d0.txt"));
+        File.Move(Temp.Combine("a/reports/d1.txt"), Temp.Combine("a/reports/renamed.txt"));
+        File.Move(Temp.Combine("a/reports/d2.txt"), Temp.Combine("b/d2.txt"));
+        File.Delete(Temp.Combine("a/f1.txt"));
+        File.WriteAllText(Temp.Combine("a/manual.txt"), "s3\ns1\nINSERTED\ns2\ns4");
         var second = Check();
         Assert.Contains(PageKey.Of("k1"u8).Hex, second.RemovedKeys);
         Assert.Equal([PageKey.Of("INSERTED"u8).Hex], second.NewKeys);
@@ -57,7 +48,7 @@ public sealed class ScanPreviewTests : IDisposable
         // Everything moved in small batches: nothing new, nothing removed.
         foreach (var i in new[] { 3, 4, 5, 6, 7 })
         {
-            File.Move(temp.Combine($"a/reports/d{i}.txt"), temp.Combine($"a/moved-{i}.txt"));
+            File.Move(Temp.Combine($"a/reports/d{i}.txt"), Temp.Combine($"a/moved-{i}.txt"));
         }
 
         var third = Check();
@@ -65,22 +56,15 @@ public sealed class ScanPreviewTests : IDisposable
         Assert.Empty(third.RemovedKeys);
     }
 
-    public void Dispose()
-    {
-        catalog.Dispose();
-        heldLock.Dispose();
-        temp.Dispose();
-    }
-
     /// <summary>Previews, checks the catalog did not move, runs the real pass and compares the figures.</summary>
     private ScanPreview Check()
     {
-        var settings = new ScanSettings([new RootSpec("a", temp.Combine("a"), [], []), new RootSpec("b", temp.Combine("b"), [], [])], ReadLimits.Default, TimeSpan.Zero, BatchSize: 3);
+        var settings = new ScanSettings([new RootSpec("a", Temp.Combine("a"), [], []), new RootSpec("b", Temp.Combine("b"), [], [])], ReadLimits.Default, TimeSpan.Zero, BatchSize: 3);
         var before = Snapshot();
-        var preview = new ScanPass(catalog, reader, settings).Preview(CancellationToken.None);
+        var preview = new ScanPass(Catalog, Reader, settings).Preview(CancellationToken.None);
         Assert.Equal(before, Snapshot());
 
-        var real = new ScanPass(catalog, reader, settings).Run("test", CancellationToken.None);
+        var real = new ScanPass(Catalog, Reader, settings).Run("test", CancellationToken.None);
         var p = preview.Summary;
         Assert.Equal(
             (real.DocumentsNew, real.DocumentsChanged, real.DocumentsDeleted, real.DocumentsCopied, real.DocumentsMoved, real.DocumentsUnchanged),
@@ -94,9 +78,9 @@ public sealed class ScanPreviewTests : IDisposable
 
     private string Snapshot()
     {
-        var documents = catalog.Documents.All().OrderBy(d => d.Id, StringComparer.Ordinal).Select(d => $"{d.Id}:{d.FileHash}:{d.ModifiedTicksUtc}:{string.Join(',', d.PageKeys)}");
-        var pages = catalog.Pages.All().OrderBy(p => p.Id, StringComparer.Ordinal).Select(p => $"{p.Id}:{p.References}");
-        var queue = catalog.Queue.InOrder().OrderBy(q => q.Id, StringComparer.Ordinal).Select(q => q.Id);
-        return string.Join('\n', documents.Concat(pages).Concat(queue)) + $"\nscans:{catalog.Figures().LastScanUtc}";
+        var documents = Catalog.Documents.All().OrderBy(d => d.Id, StringComparer.Ordinal).Select(d => $"{d.Id}:{d.FileHash}:{d.ModifiedTicksUtc}:{string.Join(',', d.PageKeys)}");
+        var pages = Catalog.Pages.All().OrderBy(p => p.Id, StringComparer.Ordinal).Select(p => $"{p.Id}:{p.References}");
+        var queue = Catalog.Queue.InOrder().OrderBy(q => q.Id, StringComparer.Ordinal).Select(q => q.Id);
+        return string.Join('\n', documents.Concat(pages).Concat(queue)) + $"\nscans:{Catalog.Figures().LastScanUtc}";
     }
 }

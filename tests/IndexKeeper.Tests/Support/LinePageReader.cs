@@ -7,7 +7,7 @@ namespace IndexKeeper.Tests.Support;
 /// whose key is SHA-256 of the line, so tests can write documents page by page without a PDF library.
 /// A file starting with "BAD" is quarantined as corrupt. <see cref="OnRead"/> lets a test act mid-read.
 /// </summary>
-internal sealed class LinePageReader : IDocumentReader
+public sealed class LinePageReader : IDocumentReader
 {
     public int Reads { get; private set; }
 
