@@ -59,8 +59,8 @@ internal static class IndexKeeperCommandLine
         return parsed.Invoke(invocation);
     }
 
-    /// <summary>The root command with every subcommand; also what the completion directive answers from.</summary>
-    public static RootCommand Build(IReadOnlyList<CommandBase> commands, Func<CommandBase, ParseResult, int> run)
+    /// <summary>The root command with every subcommand (the completion directive answers from it too).</summary>
+    private static RootCommand Build(IReadOnlyList<CommandBase> commands, Func<CommandBase, ParseResult, int> run)
     {
         ArgumentNullException.ThrowIfNull(commands);
         var root = new RootCommand(Description);
