@@ -10,10 +10,10 @@ using IndexKeeper.Service.Daemon;
 
 namespace IndexKeeper.Cli;
 
-/// <summary>The <c>indexkeeper</c> command: parses, dispatches, and maps failures to exit codes (0 ok, 1 problems, 2 bad usage).</summary>
+/// <summary>The <c>indexkeeper</c> command: parses (IndexKeeperCommandLine), runs, and maps failures to exit codes (0 ok, 1 problems, 2 bad usage, 130 stopped).</summary>
 internal static class Program
 {
-    private static readonly ICommand[] Commands =
+    private static readonly CommandBase[] Commands =
     [
         new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new RepairCommand(), new RebuildCatalogCommand(), new DemoCommand(),
         new PlanCommand(), new EncodersCommand(), new RunCommand(),
@@ -27,12 +27,6 @@ internal static class Program
             return ReadWorkerHost.RunOverStandardStreams();
         }
 
-        if (args.Length == 0 || args[0] is "--help" or "-h" or "help")
-        {
-            PrintHelp(Console.Out);
-            return args.Length == 0 ? 2 : 0;
-        }
-
         // A test facility (docs/fault-matrix.md): a malformed arming is a usage error, never ignored.
         if (FaultInjection.Problem is { } faultProblem)
         {
@@ -40,23 +34,19 @@ internal static class Program
             return 2;
         }
 
-        using var cancellation = new CancellationTokenSource();
-        Console.CancelKeyPress += (_, e) =>
-        {
-            // First Ctrl+C asks for a clean stop after the batch in flight; a second one kills.
-            e.Cancel = !cancellation.IsCancellationRequested;
-            cancellation.Cancel();
-        };
+        using var stop = new StopSignals();
         try
         {
-            var parsed = ArgumentParser.Parse(args, Commands.ToDictionary(c => c.Name, c => c.Options), Commands.ToDictionary(c => c.Name, c => c.Flags));
-            var command = Commands.Single(c => c.Name == parsed.Command);
-            if (!parsed.Json)
+            return IndexKeeperCommandLine.Invoke(Commands, args, (command, parsed, settings) =>
             {
-                Console.SetOut(new TerminalSafeWriter(Console.Out));
-            }
+                var context = new CommandContext(parsed, settings);
+                if (!context.Json)
+                {
+                    Console.SetOut(new TerminalSafeWriter(Console.Out));
+                }
 
-            return command.Run(new CommandContext(parsed), cancellation.Token);
+                return command.Run(context, stop.Token);
+            });
         }
         catch (UsageException ex)
         {
@@ -88,10 +78,10 @@ internal static class Program
             Error($"a segment is damaged: {ex.Message} Run 'indexkeeper verify' to isolate it and queue its pages again.");
             return 1;
         }
-        catch (OperationCanceledException)
+        catch (OperationCanceledException) when (stop.Requested)
         {
             Error("stopped; work committed so far is kept.");
-            return 1;
+            return StopSignals.ExitCode;
         }
         catch (IOException ex)
         {
@@ -105,20 +95,4 @@ internal static class Program
     /// <summary>An error line on stderr; a message may name store paths, so each of its lines is escaped (TerminalText).</summary>
     private static void Error(string message) =>
         Console.Error.WriteLine("indexkeeper: " + string.Join(Environment.NewLine, message.Split(Environment.NewLine).Select(TerminalText.Escape)));
-
-    private static void PrintHelp(TextWriter output)
-    {
-        output.WriteLine("indexkeeper — keeps a late-interaction page index true to a changing document store");
-        output.WriteLine();
-        output.WriteLine("usage: indexkeeper <command> [--index DIR] [--root DIR ...] [--config FILE] [--encoder NAME] [--json] [--Section:Key=value ...]");
-        output.WriteLine();
-        foreach (var command in Commands)
-        {
-            output.WriteLine($"  {command.Name,-10} {command.Summary}");
-        }
-
-        output.WriteLine();
-        output.WriteLine("Settings: a JSON file (--config), environment variables INDEXKEEPER_Section__Key, overrides --Section:Key=value.");
-        output.WriteLine("Exit codes: 0 ok, 1 problems found or partial failure, 2 bad usage or configuration.");
-    }
 }

@@ -1,3 +1,4 @@
+using System.CommandLine;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Core.Catalog;
@@ -6,16 +7,26 @@ using IndexKeeper.Service.Configuration;
 
 namespace IndexKeeper.Cli.Commands;
 
-/// <summary>What every command gets: its parsed arguments, the validated settings, the composed index, and one way to print its report.</summary>
-internal sealed class CommandContext(ParsedArguments arguments)
+/// <summary>What every command gets: what the parser found, the validated settings, the composed index, and one way to print its report.</summary>
+/// <param name="parsed">The parse of the command line.</param>
+/// <param name="settings">Settings given as <c>--Section:Key=value</c>, in order.</param>
+internal sealed class CommandContext(ParseResult parsed, IReadOnlyList<string> settings)
 {
-    public ParsedArguments Arguments { get; } = arguments;
+    public bool Json => parsed.GetValue(CommonOptions.Json);
 
-    public bool Json => Arguments.Json;
+    public string? ConfigFile => parsed.GetValue(CommonOptions.Config);
+
+    /// <summary>Command-line settings, highest precedence: <c>--encoder</c> first, then each <c>--Section:Key=value</c> in order.</summary>
+    public List<string> Overrides { get; } =
+        [.. parsed.GetValue(CommonOptions.Encoder) is { } encoder ? ["Encoder:Name=" + encoder] : Array.Empty<string>(), .. settings];
+
+    public T? Value<T>(Option<T> option) => parsed.GetValue(option);
+
+    public T? Value<T>(Argument<T> argument) => parsed.GetValue(argument);
 
     /// <param name="rootsRequired">False for commands that only read the index and its stored words.</param>
     public IndexKeeperOptions LoadOptions(bool rootsRequired = true) =>
-        OptionsLoader.Load(new ConfigurationSources(Arguments.ConfigFile, Arguments.IndexDirectory, Arguments.Roots, Arguments.Overrides), rootsRequired);
+        OptionsLoader.Load(new ConfigurationSources(ConfigFile, parsed.GetValue(CommonOptions.Index), parsed.GetValue(CommonOptions.Roots) ?? [], Overrides), rootsRequired);
 
     /// <summary>
     /// Settings for a command that reads or tends an index that must already exist: a mistyped --index or a

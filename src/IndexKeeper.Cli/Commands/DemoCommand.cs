@@ -1,3 +1,4 @@
+using System.CommandLine;
 using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Demo;
@@ -15,13 +16,22 @@ namespace IndexKeeper.Cli.Commands;
 /// </summary>
 internal sealed class DemoCommand() : CommandBase(
     "demo",
-    "builds a demo document store (an invented water utility) and runs the main job on it", "output")
+    "builds a demo document store (an invented water utility) and runs the main job on it")
 {
     private const string Marker = ".indexkeeper-demo";
 
+    private readonly Option<string?> output = LastValue.Wins(new("--output")
+    {
+        Description = "the folder for the demo store and its index (made by the demo, or by an earlier demo)",
+        HelpName = "DIR",
+        DefaultValueFactory = _ => "indexkeeper-demo",
+    });
+
+    public override IEnumerable<Symbol> Symbols => [output];
+
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var directory = Path.GetFullPath(context.Arguments.Named.GetValueOrDefault("output", "indexkeeper-demo"));
+        var directory = Path.GetFullPath(context.Value(output)!);
         Prepare(directory);
         var storeDirectory = Path.Combine(directory, "store");
         var log = context.Json ? Console.Error : Console.Out;
@@ -30,10 +40,10 @@ internal sealed class DemoCommand() : CommandBase(
         log.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  {info.DocumentCount} documents, {info.PageCount} pages in {info.Roots.Count} roots"));
 
         var sources = new ConfigurationSources(
-            context.Arguments.ConfigFile,
+            context.ConfigFile,
             Path.Combine(directory, "index"),
             [],
-            [.. DemoSettings(info), .. context.Arguments.Overrides]);
+            [.. DemoSettings(info), .. context.Overrides]);
         var options = OptionsLoader.Load(sources);
         using var composed = CommandContext.Open(options, Name);
         var sync = composed.Get<SyncOperation>();

@@ -1,3 +1,4 @@
+using System.CommandLine;
 using System.Globalization;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Service.Application;
@@ -14,13 +15,16 @@ internal sealed class EncodersCommand() : CommandBase(
     "encoders",
     "encoder ids in the index: counts, active/serving, migration, canaries; --check-canaries checks now")
 {
-    private const string CheckCanaries = "check-canaries";
+    private readonly Option<bool> checkCanaries = new("--check-canaries")
+    {
+        Description = "re-embed the canary pages with the active encoder now and compare (exit 1 when they drifted); needs the roots",
+    };
 
-    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { CheckCanaries };
+    public override IEnumerable<Symbol> Symbols => [checkCanaries];
 
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var check = context.Arguments.Flags.Contains(CheckCanaries);
+        var check = context.Value(checkCanaries);
 
         // A canary check re-embeds pages, and an image encoder draws them from their files under the roots.
         // Without a check nothing is written: the index is opened for reading only.

@@ -1,3 +1,4 @@
+using System.CommandLine;
 using System.Globalization;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Service.Application;
@@ -12,12 +13,17 @@ internal sealed class PlanCommand() : CommandBase(
 {
     private static readonly CultureInfo C = CultureInfo.InvariantCulture;
 
-    public override IReadOnlySet<string> Flags { get; } = new HashSet<string> { "calibrate" };
+    private readonly Option<bool> calibrate = new("--calibrate")
+    {
+        Description = "time the active encoder on a sample of pages first, for the cost figures",
+    };
+
+    public override IEnumerable<Symbol> Symbols => [calibrate];
 
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
         var options = context.LoadOptions();
-        var calibrate = context.Arguments.Flags.Contains("calibrate");
+        var calibrate = context.Value(this.calibrate);
         var report = ThroughDaemon.Ask(options, () =>
         {
             using var composed = CommandContext.OpenForReading(options);

@@ -42,11 +42,7 @@ internal sealed class RebuildCatalogCommand() : CommandBase(
         var catalog = composed.Index.Catalog;
         var rebuild = CatalogRebuilder.Restore(catalog, segments, cancellationToken);
         catalog.Encoders.Register(composed.Index.Encoder.Identity, settings.EncoderRecord);
-        Core.Pipeline.ScanSummary scan;
-        using (var progress = new TerminalProgress())
-        {
-            scan = composed.Get<ScanOperation>().Run(Name, progress, cancellationToken);
-        }
+        var scan = TerminalProgress.Around(progress => composed.Get<ScanOperation>().Run(Name, progress, cancellationToken));
 
         CatalogRebuilder.DequeueCovered(catalog, composed.Index.Encoder.Identity.Id);
         var report = new RebuildCatalogReport(

@@ -1,3 +1,4 @@
+using System.CommandLine;
 using System.Globalization;
 using IndexKeeper.Cli.CommandLine;
 using IndexKeeper.Cli.Output;
@@ -9,22 +10,38 @@ namespace IndexKeeper.Cli.Commands;
 /// <summary><c>search "text" [-k N] [--maps DIR]</c>: top-k pages by late interaction, with what matched where.</summary>
 internal sealed class SearchCommand() : CommandBase(
     "search",
-    "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps", "k", "maps")
+    "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps")
 {
+    private readonly Argument<string[]> query = new("text")
+    {
+        Description = "the query; several words may be given as one quoted argument or as several",
+        Arity = ArgumentArity.OneOrMore,
+    };
+
+    private readonly Option<int> k = LastValue.WinsPositive(new("-k")
+    {
+        Description = "how many pages to return (at most Query:MaxResults)",
+        HelpName = "N",
+        DefaultValueFactory = _ => 10,
+    });
+
+    private readonly Option<string?> maps = LastValue.Wins(new("--maps")
+    {
+        Description = "draw one PNG per hit into this folder: the page's words and the region each query vector matched",
+        HelpName = "DIR",
+    });
+
+    public override IEnumerable<Symbol> Symbols => [query, k, maps];
+
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
-        var text = string.Join(' ', context.Arguments.Positional).Trim();
+        var text = string.Join(' ', context.Value(query) ?? []).Trim();
         if (text.Length == 0)
         {
             throw new UsageException("search needs a query, e.g. indexkeeper search \"valve inspection interval\".");
         }
 
-        var k = 10;
-        if (context.Arguments.Named.TryGetValue("k", out var kText) && !int.TryParse(kText, NumberStyles.None, CultureInfo.InvariantCulture, out k))
-        {
-            throw new UsageException($"-k {kText}: give a whole number.");
-        }
-
+        var k = context.Value(this.k);
         var options = context.LoadForExistingIndex();
         if (QueryCaps.Problem(text, k, options.Query) is { } problem)
         {
@@ -35,13 +52,13 @@ internal sealed class SearchCommand() : CommandBase(
         {
             using var composed = CommandContext.OpenForReading(options);
             var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
-            if (context.Arguments.Named.TryGetValue("maps", out var mapsDirectory))
+            if (context.Value(maps) is { } mapsDirectory)
             {
                 MatchMaps.Write(composed.Index.Catalog, found, mapsDirectory);
             }
 
             return found;
-        }, daemon => context.Arguments.Named.ContainsKey("maps")
+        }, daemon => context.Value(maps) is not null
             ? throw new UsageException("--maps draws from the index itself, which the running daemon holds; search without --maps, or stop the daemon.")
             : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
 

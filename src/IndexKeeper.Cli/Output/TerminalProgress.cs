@@ -1,75 +1,38 @@
-using System.Diagnostics;
 using IndexKeeper.Core.Pipeline;
+using Spectre.Console;
 
 namespace IndexKeeper.Cli.Output;
 
 /// <summary>
-/// Progress on stderr: a redrawn bar on a terminal, a plain line every few seconds when redirected
-/// (logs and CI keep readable lines). Throttled so a fast scan does not spend its time printing.
+/// Progress of a pass, always on stderr (stdout keeps the answer, or only JSON with <c>--json</c>): on a
+/// terminal a Spectre.Console display per phase with percentage, pages or files per second and time left
+/// (<see cref="ProgressTasks"/>), cleared before the result is printed; redirected, plain lines (<see cref="PlainProgress"/>).
 /// </summary>
-internal sealed class TerminalProgress : IProgress<ScanProgress>, IDisposable
+internal static class TerminalProgress
 {
-    private static readonly TimeSpan TerminalInterval = TimeSpan.FromMilliseconds(100);
-    private static readonly TimeSpan PlainInterval = TimeSpan.FromSeconds(5);
-    private readonly bool terminal = !Console.IsErrorRedirected;
-    private readonly Stopwatch sinceLast = Stopwatch.StartNew();
-    private string lastPhase = string.Empty;
-    private bool drawn;
-
-    /// <summary>Runs <paramref name="work"/> with a progress bar, cleared before its result is printed.</summary>
+    /// <summary>Runs <paramref name="work"/> under the progress display fitting stderr.</summary>
     public static T Around<T>(Func<IProgress<ScanProgress>, T> work)
     {
         ArgumentNullException.ThrowIfNull(work);
-        using var progress = new TerminalProgress();
-        return work(progress);
+        return Console.IsErrorRedirected
+            ? work(new PlainProgress(Console.Error))
+            : Around(AnsiConsole.Create(new AnsiConsoleSettings { Out = new AnsiConsoleOutput(Console.Error) }), work);
     }
 
-    public void Report(ScanProgress value)
+    /// <summary>As <see cref="Around{T}(Func{IProgress{ScanProgress}, T})"/> on a given console (tests draw on a recording one).</summary>
+    public static T Around<T>(IAnsiConsole console, Func<IProgress<ScanProgress>, T> work)
     {
-        var phaseChanged = value.Phase != lastPhase;
-        if (!phaseChanged && sinceLast.Elapsed < (terminal ? TerminalInterval : PlainInterval) && value.Done != value.Total)
-        {
-            return;
-        }
+        ArgumentNullException.ThrowIfNull(work);
+        return console.Progress()
+            .AutoClear(true)
+            .Columns(new TaskDescriptionColumn { Alignment = Justify.Left }, new ProgressBarColumn { Width = 16 }, new PercentageColumn(), new RateColumn(), new RemainingTimeColumn(), new SpinnerColumn())
+            .Start(context =>
+            {
+                var result = work(new ProgressTasks(context));
 
-        lastPhase = value.Phase;
-        sinceLast.Restart();
-        if (terminal)
-        {
-            var width = 30;
-            var filled = value.Total > 0 ? (int)(width * value.Done / value.Total) : 0;
-            var bar = value.Total > 0 ? $"[{new string('#', filled)}{new string('.', width - filled)}] {value.Done}/{value.Total}" : value.Done > 0 ? $"{value.Done}" : string.Empty;
-            var line = $"{value.Phase,-9} {bar} {Shorten(TerminalText.Escape(value.Current), 40)}";
-            var room = SafeWidth() - 1;
-            Console.Error.Write("\r" + (line.Length >= room ? line[..room] : line.PadRight(room)));
-            drawn = true;
-        }
-        else if (phaseChanged || value.Total > 0)
-        {
-            Console.Error.WriteLine(value.Total > 0 ? $"{value.Phase}: {value.Done}/{value.Total}" : value.Done > 0 ? $"{value.Phase}: {value.Done}" : value.Phase);
-        }
-    }
-
-    public void Dispose()
-    {
-        if (drawn)
-        {
-            Console.Error.Write("\r" + new string(' ', Math.Max(0, SafeWidth() - 1)) + "\r");
-        }
-    }
-
-    private static string Shorten(string? text, int max) =>
-        text is null ? string.Empty : text.Length <= max ? text : "…" + text[^(max - 1)..];
-
-    private static int SafeWidth()
-    {
-        try
-        {
-            return Console.WindowWidth > 20 ? Console.WindowWidth : 100;
-        }
-        catch (IOException)
-        {
-            return 100;
-        }
+                // The last figures are drawn once for sure, not only if a timed redraw came after them.
+                context.Refresh();
+                return result;
+            });
     }
 }

@@ -11,9 +11,10 @@ namespace IndexKeeper.Core.Faults;
 /// unset, every <see cref="Reach"/> costs one null check. Format: <c>point:action[:nth]</c>, nth ≥ 1
 /// (default 1); actions: <c>exit</c> (ends the process at once with <see cref="ExitCode"/>, like a kill:
 /// no finally blocks, no flush of buffered writes), <c>enospc</c> and <c>eio</c> (throw the
-/// <see cref="IOException"/> a full or failing disk throws), <c>pause</c> (waits until the file named by
-/// <see cref="ResumeVariable"/> exists, then goes on: a test runs other processes meanwhile, with no
-/// timing). See docs/fault-matrix.md.
+/// <see cref="IOException"/> a full or failing disk throws), <c>pause</c> (waits at the point until the
+/// file named by <see cref="ResumeVariable"/> exists, or until <see cref="Resume"/>, which a command calls
+/// once a stop signal has cancelled its work: a test runs other processes meanwhile, or knows where the
+/// process stands when it sends a signal, with no timing). See docs/fault-matrix.md.
 /// </summary>
 internal static partial class FaultInjection
 {
@@ -21,6 +22,11 @@ internal static partial class FaultInjection
 
     /// <summary>The file whose appearance ends a <c>pause</c>.</summary>
     public const string ResumeVariable = "IK_FAULT_RESUME";
+
+    /// <summary>How long <c>pause</c> waits before it fails the process (a test that never resumes it).</summary>
+    private static readonly TimeSpan PauseLimit = TimeSpan.FromMinutes(10);
+
+    private static readonly ManualResetEventSlim Resumed = new();
 
     /// <summary>The exit code of the <c>exit</c> action; no command exits with it otherwise.</summary>
     public const int ExitCode = 86;
@@ -55,6 +61,9 @@ internal static partial class FaultInjection
         }
     }
 
+    /// <summary>Lets a process held by the <c>pause</c> action go on; without one armed it changes nothing.</summary>
+    public static void Resume() => Resumed.Set();
+
     private static Armed? Parse(string? value, out string? problem)
     {
         problem = null;
@@ -69,10 +78,9 @@ internal static partial class FaultInjection
         if (parts.Length is < 2 or > 3
             || !FaultPoints.All.Contains(parts[0])
             || parts[1] is not ("exit" or "enospc" or "eio" or "pause")
-            || (parts[1] == "pause" && string.IsNullOrEmpty(resume))
             || (parts.Length == 3 && (!int.TryParse(parts[2], NumberStyles.None, CultureInfo.InvariantCulture, out nth) || nth < 1)))
         {
-            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc, eio or pause (with {ResumeVariable} naming a file), nth ≥ 1.";
+            problem = $"{Variable}='{value}': expected point:action[:nth] with a point of docs/fault-matrix.md, action exit, enospc, eio or pause (resumed by the file {ResumeVariable} names, or by a stop signal), nth ≥ 1.";
             return null;
         }
 
@@ -115,9 +123,13 @@ internal static partial class FaultInjection
                     break;
                 case "pause":
                     // Polls for a file a test creates once its own steps are done: the order is fixed by the test, not by a clock.
-                    while (!File.Exists(resume))
+                    var waited = System.Diagnostics.Stopwatch.StartNew();
+                    while (!Resumed.Wait(10) && !(resume is not null && File.Exists(resume)))
                     {
-                        Thread.Sleep(10);
+                        if (waited.Elapsed > PauseLimit)
+                        {
+                            throw new InvalidOperationException($"the fault pause at {point} was never resumed");
+                        }
                     }
 
                     break;

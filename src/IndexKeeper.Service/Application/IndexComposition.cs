@@ -13,35 +13,28 @@ public sealed class IndexComposition : IDisposable
 {
     private readonly ServiceProvider services;
 
-    private IndexComposition(IndexSettings settings, OpenIndex index)
+    private IndexComposition(OpenIndex index)
     {
-        Settings = settings;
+        Settings = index.Settings;
         Index = index;
-        services = new ServiceCollection().AddIndexApplication(settings, index, RetryPolicy.Default).BuildServiceProvider();
+        services = new ServiceCollection().AddIndexApplication(Settings, index, RetryPolicy.Default).BuildServiceProvider();
     }
 
     public IndexSettings Settings { get; }
 
     public OpenIndex Index { get; }
 
-    public static IndexComposition Open(IndexKeeperOptions options, string purpose)
-    {
-        var settings = IndexSettings.From(options);
-        return new IndexComposition(settings, OpenIndex.Open(settings, purpose));
-    }
+    public static IndexComposition Open(IndexKeeperOptions options, string purpose) =>
+        new(OpenIndex.Open(IndexSettings.From(options), purpose));
 
     /// <summary>For the commands that only read (plan, status, search, encoders, verify): catalog and segments opened read-only, beside a writer.</summary>
-    public static IndexComposition OpenReadOnly(IndexKeeperOptions options)
-    {
-        var settings = IndexSettings.From(options);
-        return new IndexComposition(settings, OpenIndex.OpenReadOnly(settings));
-    }
+    public static IndexComposition OpenReadOnly(IndexKeeperOptions options) =>
+        new(OpenIndex.OpenReadOnly(IndexSettings.From(options)));
 
     /// <summary>For <c>rebuild-catalog</c>: <paramref name="beforeCatalog"/> runs under the index lock before the catalog is opened.</summary>
     public static IndexComposition OpenForRebuild(IndexKeeperOptions options, string purpose, Action<string> beforeCatalog)
     {
-        var settings = IndexSettings.From(options);
-        return new IndexComposition(settings, OpenIndex.OpenForRebuild(settings, purpose, beforeCatalog));
+        return new IndexComposition(OpenIndex.OpenForRebuild(IndexSettings.From(options), purpose, beforeCatalog));
     }
 
     /// <summary>The use case of type <typeparamref name="T"/>, built with its dependencies.</summary>

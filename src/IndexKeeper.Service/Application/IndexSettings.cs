@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Compaction;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents.Isolation;
@@ -55,6 +56,25 @@ public sealed class IndexSettings
         BudgetPagesPerHour = options.Schedule.BudgetPagesPerHour;
     }
 
+    /// <summary>The same settings with another encoder (<see cref="EncoderChoice"/>: the index's own).</summary>
+    private IndexSettings(IndexSettings other, EncoderOptions encoder)
+    {
+        Directory = other.Directory;
+        Scan = other.Scan;
+        RootPaths = other.RootPaths;
+        RootNames = other.RootNames;
+        Reader = other.Reader;
+        Segments = other.Segments;
+        Compaction = other.Compaction;
+        Canaries = other.Canaries;
+        CanaryInterval = other.CanaryInterval;
+        Encoder = encoder;
+        EncoderRecord = EncoderSettings.Record(encoder);
+        EmbedBatchSize = encoder.BatchSize;
+        Calendar = other.Calendar;
+        BudgetPagesPerHour = other.BudgetPagesPerHour;
+    }
+
     /// <summary>The index directory (catalog, segments, lock).</summary>
     public string Directory { get; }
 
@@ -99,5 +119,12 @@ public sealed class IndexSettings
     {
         ArgumentNullException.ThrowIfNull(options);
         return new IndexSettings(options);
+    }
+
+    /// <summary>These settings with the encoder <see cref="EncoderChoice"/> picks for <paramref name="catalog"/>.</summary>
+    public IndexSettings ForIndex(IndexCatalog catalog)
+    {
+        var encoder = EncoderChoice.Resolve(Encoder, catalog);
+        return ReferenceEquals(encoder, Encoder) ? this : new IndexSettings(this, encoder);
     }
 }

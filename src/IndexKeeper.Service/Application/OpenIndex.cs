@@ -16,19 +16,24 @@ namespace IndexKeeper.Service.Application;
 public sealed class OpenIndex : IDisposable
 {
     private readonly IDisposable held;
-    private readonly IndexSettings settings;
     private VectorStore? store;
     private IPageEncoder? encoder;
 
     private OpenIndex(IndexSettings settings, IDisposable held, string directory, IndexCatalog catalog, IDocumentReader reader, bool readOnly)
     {
-        this.settings = settings;
+        Settings = settings;
         this.held = held;
         Directory = directory;
         Catalog = catalog;
         Reader = reader;
         ReadOnly = readOnly;
     }
+
+    /// <summary>
+    /// The settings this index is used with: the configured ones, the encoder's completed from the index's
+    /// own where the configuration does not name one (<see cref="EncoderChoice"/>). Compose with these.
+    /// </summary>
+    public IndexSettings Settings { get; }
 
     /// <summary>Opened by <see cref="OpenReadOnly"/>: neither the catalog nor the segments can be written.</summary>
     public bool ReadOnly { get; }
@@ -45,10 +50,10 @@ public sealed class OpenIndex : IDisposable
     /// </summary>
     public VectorStore Store => store ??= ReadOnly
         ? VectorStore.OpenForReading(Catalog, Directory)
-        : VectorStore.Open(Catalog, Directory, settings.Segments);
+        : VectorStore.Open(Catalog, Directory, Settings.Segments);
 
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
-    public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(settings.Encoder);
+    public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(Settings.Encoder);
 
     public static OpenIndex Open(IndexSettings settings, string purpose) => Open(settings, purpose, beforeCatalog: null);
 
@@ -63,7 +68,7 @@ public sealed class OpenIndex : IDisposable
         try
         {
             var catalog = IndexCatalog.OpenReadOnly(gate);
-            return new OpenIndex(settings, gate, gate.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: true);
+            return new OpenIndex(settings.ForIndex(catalog), gate, gate.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: true);
         }
         catch
         {
@@ -89,7 +94,7 @@ public sealed class OpenIndex : IDisposable
             var catalog = IndexCatalog.Open(writerLock);
             // Documents are parsed in a worker process: a parser that crashes, hangs or blows up its memory
             // costs one quarantined document, never the command or the service.
-            return new OpenIndex(settings, writerLock, writerLock.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: false);
+            return new OpenIndex(settings.ForIndex(catalog), writerLock, writerLock.Directory, catalog, IsolatedReaderFactory.Create(settings.Reader), readOnly: false);
         }
         catch
         {

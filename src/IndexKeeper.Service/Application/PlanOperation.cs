@@ -50,7 +50,14 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Migration),
             queuedKeys.LongCount(q => q.Priority == QueuePriority.Canary));
         // The drift policy's own answer (docs/encoders.md), less the pages this scan would remove.
-        var drifted = drift.Read().DriftedPages.Where(k => !removed.Contains(k)).ToHashSet(StringComparer.Ordinal);
+        var decision = drift.Read();
+        var drifted = decision.DriftedPages.Where(k => !removed.Contains(k)).ToHashSet(StringComparer.Ordinal);
+        if (decision.ServingEncoderId != identity.Id && drifted.Count > 0 && catalog.Encoders.Find(decision.ServingEncoderId) is { } serving)
+        {
+            // Said before any sync spends it: the configuration names another encoder than the index serves.
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"Encoder change: the index serves {serving.Name} ({serving.Id[..12]}…) and {identity.Name} ({identity.Id[..12]}…) is set, so {drifted.Count} page(s) are embedded again as a migration, inside the windows; searches keep the old vectors until every page has new ones. Without an encoder setting the index keeps its own."));
+        }
+
         var queuedSet = queuedKeys.Select(q => q.PageKey).ToHashSet(StringComparer.Ordinal);
         var driftedNotQueued = drifted.Where(k => !queuedSet.Contains(k)).ToList();
         var work = new QueuedPages(scanToEmbed + queued.Fresh, queued.Migration + driftedNotQueued.Count, queued.Canary);

@@ -26,4 +26,11 @@ public sealed class EncoderOptions
 
     /// <summary>Settings of the <c>page-image</c> encoder; read only when it is the active one.</summary>
     public PageImageModelOptions PageImage { get; set; } = new();
+
+    /// <summary>
+    /// The settings above that the configuration gave (file, environment or command line), by name; the
+    /// others an existing index supplies from its own encoder (<see cref="Application.EncoderChoice"/>).
+    /// Null for options built in code: every setting counts as given. Not a setting itself.
+    /// </summary>
+    internal IReadOnlySet<string>? Given { get; set; }
 }

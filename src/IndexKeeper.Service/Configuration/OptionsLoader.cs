@@ -1,11 +1,15 @@
 using System.Globalization;
 using Microsoft.Extensions.Configuration;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Options;
 
 namespace IndexKeeper.Service.Configuration;
 
 /// <summary>
 /// Builds the settings from the standard .NET configuration layers (file, environment, command line),
-/// binds them strictly (an unknown or mistyped key is an error naming it) and validates them.
+/// checks the file (line and column of what stops it) and every key's shape (unknown keys with the nearest
+/// known one, values of the wrong type), binds them strictly and validates them through the .NET options
+/// pipeline (<see cref="IndexKeeperOptionsValidation"/>); every problem found is reported at once.
 /// </summary>
 public static class OptionsLoader
 {
@@ -19,6 +23,13 @@ public static class OptionsLoader
             if (!File.Exists(file))
             {
                 throw new ConfigurationException([$"--config: the file '{file}' does not exist."]);
+            }
+
+            // A file that cannot be read stops here, with line and column: nothing of it could be trusted.
+            var fileProblems = JsonSettingsFile.Problems(Path.GetFullPath(file));
+            if (fileProblems.Count > 0)
+            {
+                throw new ConfigurationException(fileProblems);
             }
 
             builder.AddJsonFile(Path.GetFullPath(file), optional: false, reloadOnChange: false);
@@ -54,44 +65,47 @@ public static class OptionsLoader
             throw new ConfigurationException([$"--config: cannot read '{sources.ConfigFile}': {ex.Message}"]);
         }
 
-        var options = Bind(configuration, problems);
-        if (problems.Count > 0 || options is null)
-        {
-            throw new ConfigurationException(problems);
-        }
-
-        if (sources.Roots.Count > 0)
-        {
-            // --root replaces the file's roots wholesale rather than merging lists index by index.
-            options.Roots = sources.Roots.Select((path, i) => new RootOptions { Name = RootNameFor(sources.Roots, i), Path = path }).ToList();
-        }
-
-        var errors = IndexKeeperOptionsValidator.Validate(options, rootsRequired);
-        if (errors.Count > 0)
-        {
-            throw new ConfigurationException(errors);
-        }
-
-        return options;
-    }
-
-    private static IndexKeeperOptions? Bind(IConfiguration configuration, List<string> problems)
-    {
+        // Every unknown key and every value of the wrong type; the rest is bound and validated all the same,
+        // so one run names every bad setting, not the first the binder would stop at.
+        problems.AddRange(SettingsShape.Problems(configuration, typeof(IndexKeeperOptions), out var badKeys));
+        var bindable = badKeys.Count == 0 ? configuration : Without(configuration, badKeys);
+        var services = new ServiceCollection();
+        services.AddOptions<IndexKeeperOptions>()
+            .Configure(options => bindable.Bind(options, binder => binder.ErrorOnUnknownConfiguration = true))
+            .PostConfigure(options =>
+            {
+                // Which encoder settings were given at all: the rest comes from an existing index's own encoder.
+                options.Encoder.Given = configuration.GetSection(nameof(IndexKeeperOptions.Encoder)).GetChildren()
+                    .Select(c => c.Key).ToHashSet(StringComparer.OrdinalIgnoreCase);
+                if (sources.Roots.Count > 0)
+                {
+                    // --root replaces the file's roots wholesale rather than merging lists index by index.
+                    options.Roots = sources.Roots.Select((path, i) => new RootOptions { Name = RootNameFor(sources.Roots, i), Path = path }).ToList();
+                }
+            });
+        services.AddSingleton<IValidateOptions<IndexKeeperOptions>>(new IndexKeeperOptionsValidation(rootsRequired));
+        using var provider = services.BuildServiceProvider();
         try
         {
-            return configuration.Get<IndexKeeperOptions>(o => o.ErrorOnUnknownConfiguration = true) ?? new IndexKeeperOptions();
+            var options = provider.GetRequiredService<IOptions<IndexKeeperOptions>>().Value;
+            return problems.Count == 0 ? options : throw new ConfigurationException(problems);
+        }
+        catch (OptionsValidationException ex)
+        {
+            throw new ConfigurationException([.. problems, .. ex.Failures]);
         }
         catch (InvalidOperationException ex)
         {
-            var message = ex.InnerException is { } inner ? $"{ex.Message} ({inner.Message})" : ex.Message;
-            if (!problems.Contains(message))
-            {
-                problems.Add(message);
-            }
-
-            return null;
+            // A binder failure the shape check did not foresee: still a bad setting, named by the binder.
+            throw new ConfigurationException([ex.InnerException is { } inner ? $"{ex.Message} ({inner.Message})" : ex.Message]);
         }
     }
+
+    /// <summary>The configuration's values less the keys named (and everything under them).</summary>
+    private static IConfiguration Without(IConfiguration configuration, IReadOnlySet<string> keys) =>
+        new ConfigurationBuilder().AddInMemoryCollection(configuration.AsEnumerable()
+            .Where(pair => pair.Value is not null && !keys.Any(k => pair.Key.Equals(k, StringComparison.OrdinalIgnoreCase) || pair.Key.StartsWith(k + ":", StringComparison.OrdinalIgnoreCase))))
+            .Build();
 
     /// <summary>A root given by path is named after its folder, made unique with a number.</summary>
     private static string RootNameFor(IReadOnlyList<string> roots, int index)

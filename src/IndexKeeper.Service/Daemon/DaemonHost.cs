@@ -35,8 +35,8 @@ public static class DaemonHost
         ArgumentNullException.ThrowIfNull(options);
         ListenAddress.TryParse(options.Daemon.Listen, out var listen);
         var token = BearerTokens.Resolve(options.Daemon);
-        var settings = IndexSettings.From(options);
-        using var index = OpenIndex.Open(settings, DaemonClient.LockPurpose);
+        using var index = OpenIndex.Open(IndexSettings.From(options), DaemonClient.LockPurpose);
+        var settings = index.Settings;
 
         // Built and repaired before any thread can race for them.
         _ = index.Store;

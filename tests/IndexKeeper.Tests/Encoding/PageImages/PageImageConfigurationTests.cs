@@ -85,10 +85,10 @@ public sealed class PageImageConfigurationTests(PageImageModels models) : IClass
     public void The_sample_configuration_block_binds_strictly_when_uncommented()
     {
         var lines = File.ReadAllLines(Path.Combine(RepositoryRoot.Path, "config", "indexkeeper.sample.json"));
-        var start = Array.FindIndex(lines, l => l.Trim() == "// ,\"Encoder\": {");
-        Assert.True(start > 0, "the commented page-image block is in the sample");
+        var start = Array.FindIndex(lines, l => l.Trim() == "// ,\"PageImage\": {");
+        Assert.True(start > 0, "the commented page-image block is in the sample's Encoder section");
         var block = lines.Skip(start).TakeWhile(l => l.TrimStart().StartsWith("//", StringComparison.Ordinal)).Select(l => l.TrimStart()[2..]);
-        var json = "{" + string.Join("\n", block).TrimStart()[1..] + "}";
+        var json = "{ \"Encoder\": { \"Name\": \"page-image\", \"Dimensions\": 128" + string.Join("\n", block) + " } }";
         using var stream = new MemoryStream(System.Text.Encoding.UTF8.GetBytes(json));
 
         var options = new ConfigurationBuilder().AddJsonStream(stream).Build().Get<IndexKeeperOptions>(o => o.ErrorOnUnknownConfiguration = true)!;
