@@ -18,4 +18,5 @@ public static class CatalogSchema
     internal const string SegmentCounterMetaId = "segmentCounter";
     internal const string SchemaMetaId = "schema";
     internal const string ServingEncoderMetaId = "servingEncoder";
+    internal const string VectorSetGenerationMetaId = "vectorSetGeneration";
 }
