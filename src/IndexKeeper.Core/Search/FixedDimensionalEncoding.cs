@@ -28,27 +28,40 @@ internal sealed class FixedDimensionalEncoding
 
     public const int ProjectionDimensions = 16;
 
-    private const int Buckets = 1 << BucketBits;
-
-    // Rows: per repetition BucketBits hyperplanes then ProjectionDimensions projection rows, each Dimensions wide.
+    // Rows: per repetition bucketBits hyperplanes then projection rows, each Dimensions wide.
     private readonly float[] matrix;
-    private readonly int rowsPerRepetition = BucketBits + ProjectionDimensions;
+    private readonly int repetitions;
+    private readonly int bucketBits;
+    private readonly int projection;
+    private readonly int buckets;
+    private readonly int rowsPerRepetition;
 
     public FixedDimensionalEncoding(int dimensions)
+        : this(dimensions, Repetitions, BucketBits, ProjectionDimensions)
+    {
+    }
+
+    /// <summary>Other parameters than the stored ones: for measuring them (the benchmark), never for a view.</summary>
+    internal FixedDimensionalEncoding(int dimensions, int repetitions, int bucketBits, int projection)
     {
         ArgumentOutOfRangeException.ThrowIfLessThan(dimensions, 1);
+        this.repetitions = repetitions;
+        this.bucketBits = bucketBits;
+        this.projection = projection;
+        buckets = 1 << bucketBits;
+        rowsPerRepetition = bucketBits + projection;
         Dimensions = dimensions;
-        matrix = new float[Repetitions * rowsPerRepetition * dimensions];
+        matrix = new float[repetitions * rowsPerRepetition * dimensions];
         var state = Seed ^ (ulong)dimensions;
-        var projectionScale = 1 / MathF.Sqrt(ProjectionDimensions);
-        for (var r = 0; r < Repetitions; r++)
+        var projectionScale = 1 / MathF.Sqrt(projection);
+        for (var r = 0; r < repetitions; r++)
         {
             for (var row = 0; row < rowsPerRepetition; row++)
             {
                 var at = ((r * rowsPerRepetition) + row) * dimensions;
                 for (var i = 0; i < dimensions; i++)
                 {
-                    matrix[at + i] = row < BucketBits ? Gaussian(ref state) : (SplitMix64(ref state) & 1) == 0 ? projectionScale : -projectionScale;
+                    matrix[at + i] = row < bucketBits ? Gaussian(ref state) : (SplitMix64(ref state) & 1) == 0 ? projectionScale : -projectionScale;
                 }
             }
         }
@@ -56,8 +69,11 @@ internal sealed class FixedDimensionalEncoding
 
     public int Dimensions { get; }
 
-    /// <summary>Length of an encoding.</summary>
-    public static int Length => Repetitions * Buckets * ProjectionDimensions;
+    /// <summary>Length of an encoding with the stored parameters.</summary>
+    public static int Length => Repetitions * (1 << BucketBits) * ProjectionDimensions;
+
+    /// <summary>Length of an encoding with this instance's parameters.</summary>
+    public int EncodedLength => repetitions * buckets * projection;
 
     /// <summary>The encoding of a page's rows (float16, row-major); all zero for a page without rows.</summary>
     public void EncodePage(ReadOnlySpan<Half> rows, Span<float> destination)
@@ -73,25 +89,25 @@ internal sealed class FixedDimensionalEncoding
 
     private void Encode(ReadOnlySpan<float> rows, int count, Span<float> destination, bool page)
     {
-        if (destination.Length != Length)
+        if (destination.Length != EncodedLength)
         {
-            throw new ArgumentException($"The destination holds {destination.Length} values, an encoding {Length}.", nameof(destination));
+            throw new ArgumentException($"The destination holds {destination.Length} values, an encoding {EncodedLength}.", nameof(destination));
         }
 
         destination.Clear();
-        var projected = new float[count * ProjectionDimensions];
+        var projected = new float[count * projection];
         var bucketOf = new int[count];
-        var members = new int[Buckets];
-        for (var r = 0; r < Repetitions; r++)
+        var members = new int[buckets];
+        for (var r = 0; r < repetitions; r++)
         {
-            var block = destination.Slice(r * Buckets * ProjectionDimensions, Buckets * ProjectionDimensions);
+            var block = destination.Slice(r * buckets * projection, buckets * projection);
             Array.Clear(members);
             for (var v = 0; v < count; v++)
             {
                 var row = rows.Slice(v * Dimensions, Dimensions);
                 var at = r * rowsPerRepetition * Dimensions;
                 var bucket = 0;
-                for (var b = 0; b < BucketBits; b++)
+                for (var b = 0; b < bucketBits; b++)
                 {
                     if (TensorPrimitives.Dot(row, matrix.AsSpan(at + (b * Dimensions), Dimensions)) > 0)
                     {
@@ -99,15 +115,16 @@ internal sealed class FixedDimensionalEncoding
                     }
                 }
 
-                var projection = projected.AsSpan(v * ProjectionDimensions, ProjectionDimensions);
-                for (var p = 0; p < ProjectionDimensions; p++)
+                var projected1 = projected.AsSpan(v * projection, projection);
+                for (var p = 0; p < projection; p++)
                 {
-                    projection[p] = TensorPrimitives.Dot(row, matrix.AsSpan(at + ((BucketBits + p) * Dimensions), Dimensions));
+                    projected1[p] = TensorPrimitives.Dot(row, matrix.AsSpan(at + ((bucketBits + p) * Dimensions), Dimensions));
                 }
 
                 bucketOf[v] = bucket;
                 members[bucket]++;
-                TensorPrimitives.Add(block.Slice(bucket * ProjectionDimensions, ProjectionDimensions), projection, block.Slice(bucket * ProjectionDimensions, ProjectionDimensions));
+                var cell = block.Slice(bucket * projection, projection);
+                TensorPrimitives.Add(cell, projected1, cell);
             }
 
             if (!page || count == 0)
@@ -115,9 +132,9 @@ internal sealed class FixedDimensionalEncoding
                 continue;
             }
 
-            for (var bucket = 0; bucket < Buckets; bucket++)
+            for (var bucket = 0; bucket < buckets; bucket++)
             {
-                var cell = block.Slice(bucket * ProjectionDimensions, ProjectionDimensions);
+                var cell = block.Slice(bucket * projection, projection);
                 if (members[bucket] > 0)
                 {
                     TensorPrimitives.Multiply(cell, 1f / members[bucket], cell);
@@ -138,7 +155,7 @@ internal sealed class FixedDimensionalEncoding
                     }
                 }
 
-                projected.AsSpan(nearest * ProjectionDimensions, ProjectionDimensions).CopyTo(cell);
+                projected.AsSpan(nearest * projection, projection).CopyTo(cell);
             }
         }
     }

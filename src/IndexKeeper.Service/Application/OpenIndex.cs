@@ -29,7 +29,7 @@ public sealed class OpenIndex : IDisposable
         ReadOnly = readOnly;
 
         // A writer hears every commit from the open on, so its serving views move forward instead of being rebuilt.
-        serving = readOnly ? null : new ServingViews(this);
+        serving = readOnly ? null : new ServingViews(catalog, () => Store, indexLock.Directory, readOnly: false);
     }
 
     /// <summary>Opened by <see cref="OpenReadOnly"/>: neither the catalog nor the segments can be written.</summary>
@@ -50,7 +50,7 @@ public sealed class OpenIndex : IDisposable
         : VectorStore.Open(Catalog, Directory, settings.Segments);
 
     /// <summary>The serving views (page directory and candidate graph per encoder) that search reads.</summary>
-    public ServingViews Serving => serving ??= new ServingViews(this);
+    public ServingViews Serving => serving ??= new ServingViews(Catalog, () => Store, Directory, ReadOnly);
 
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
     public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(settings.Encoder);

@@ -17,7 +17,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
         using var ranking = RankingEncoder.Choose(index, settings.Encoder, drift);
         var encoder = ranking.Encoder;
         var query = encoder.EncodeQuery(text, cancellationToken);
-        var (result, unreadable) = Rank(encoder.Identity.Id, query, k, cancellationToken);
+        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, k, cancellationToken);
         var hits = new List<SearchReportHit>(result.Hits.Count);
         foreach (var hit in result.Hits)
         {
@@ -55,48 +55,6 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
             VectorSetsUnreadable = unreadable,
         };
     }
-
-    /// <summary>
-    /// Candidates from the serving view, then exact MaxSim over them (docs/search.md, "Serving view"). Only the
-    /// candidates' records are opened (and checked, once per process). A compaction that retires a segment
-    /// between the view and the open makes the open refuse; the view is then taken again.
-    /// </summary>
-    private (SearchResult Result, int Unreadable) Rank(string encoderId, Core.Encoding.VectorSet query, int k, CancellationToken cancellationToken)
-    {
-        for (var attempt = 1; ; attempt++)
-        {
-            var view = index.Serving.For(encoderId, cancellationToken);
-            if (query.Count == 0 || view.Count == 0)
-            {
-                return (new SearchResult([], view.Count, 0), view.Unreadable);
-            }
-
-            var candidates = view.Candidates(query, CandidateCount(k));
-            try
-            {
-                using var live = index.Store.OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
-                {
-                    EncoderId = encoderId,
-                    PageKey = c.Key.Hex,
-                    SegmentId = c.Location.SegmentId,
-                    Offset = c.Location.Offset,
-                    Length = c.Location.Length,
-                    Checksum = c.Location.Checksum,
-                    VectorCount = c.VectorCount,
-                    Live = true,
-                })]);
-                var exact = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k, Candidates = int.MaxValue }, cancellationToken);
-                return (exact with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
-            }
-            catch (InvalidOperationException) when (attempt < 3)
-            {
-                // A segment retired by a compaction committed after the view was taken; the next view names its successor.
-            }
-        }
-    }
-
-    /// <summary>Pages handed from the candidate graph to the exact re-rank: see docs/search.md, "Candidates".</summary>
-    internal static int CandidateCount(int k) => Math.Max(20 * k, 200);
 
     private static List<PageLocation> Locate(IndexCatalog catalog, string pageKey)
     {

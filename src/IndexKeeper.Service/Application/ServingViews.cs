@@ -1,5 +1,7 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Search;
 using IndexKeeper.Core.Storage;
 
@@ -20,7 +22,10 @@ public sealed class ServingViews : IDisposable
     // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
     private const int BuildChunk = 1024;
 
-    private readonly OpenIndex index;
+    private readonly IndexCatalog catalog;
+    private readonly Func<VectorStore> store;
+    private readonly string directory;
+    private readonly bool readOnly;
     private readonly object gate = new();
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
@@ -28,15 +33,22 @@ public sealed class ServingViews : IDisposable
     private readonly long openedAt;
     private long writtenAt;
 
-    public ServingViews(OpenIndex index)
+    /// <param name="store">The segment store, asked for only when vector sets are read (opened on first use).</param>
+    /// <param name="readOnly">True for a read-only open: the views are never written to disk and no commit is heard.</param>
+    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly)
     {
-        ArgumentNullException.ThrowIfNull(index);
-        this.index = index;
-        openedAt = index.Catalog.VectorSetGeneration;
+        ArgumentNullException.ThrowIfNull(catalog);
+        ArgumentNullException.ThrowIfNull(store);
+        ArgumentException.ThrowIfNullOrEmpty(directory);
+        this.catalog = catalog;
+        this.store = store;
+        this.directory = directory;
+        this.readOnly = readOnly;
+        openedAt = catalog.VectorSetGeneration;
         writtenAt = long.MinValue;
-        if (!index.ReadOnly)
+        if (!readOnly)
         {
-            index.Catalog.VectorSetsCommitted += Heard;
+            catalog.VectorSetsCommitted += Heard;
         }
     }
 
@@ -49,7 +61,7 @@ public sealed class ServingViews : IDisposable
         ArgumentException.ThrowIfNullOrEmpty(encoderId);
         lock (gate)
         {
-            var generation = index.Catalog.VectorSetGeneration;
+            var generation = catalog.VectorSetGeneration;
             if (views.TryGetValue(encoderId, out var view) && view.Generation == generation)
             {
                 return view;
@@ -69,41 +81,85 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
+    /// The best <paramref name="k"/> pages for <paramref name="query"/>: candidates from the serving view, then
+    /// exact MaxSim over them (docs/search.md, "Serving view"). Only the candidates' records are opened (and
+    /// checked, once per process). A compaction that retires a segment between the view and the open makes the
+    /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
+    /// </summary>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(query);
+        for (var attempt = 1; ; attempt++)
+        {
+            var view = For(encoderId, cancellationToken);
+            if (query.Count == 0 || view.Count == 0)
+            {
+                return (new SearchResult([], view.Count, 0), view.Unreadable);
+            }
+
+            var candidates = view.Candidates(query, CandidateCount(k));
+            try
+            {
+                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
+                {
+                    EncoderId = encoderId,
+                    PageKey = c.Key.Hex,
+                    SegmentId = c.Location.SegmentId,
+                    Offset = c.Location.Offset,
+                    Length = c.Location.Length,
+                    Checksum = c.Location.Checksum,
+                    VectorCount = c.VectorCount,
+                    Live = true,
+                })]);
+                var exact = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k, Candidates = int.MaxValue }, cancellationToken);
+                return (exact with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
+            }
+            catch (InvalidOperationException) when (attempt < 3)
+            {
+                // A segment retired by a compaction committed after the view was taken; the next view names its successor.
+            }
+        }
+    }
+
+    /// <summary>Pages handed from the candidate graph to the exact re-rank (docs/search.md, "Candidates").</summary>
+    public static int CandidateCount(int k) => Math.Max(20 * k, 200);
+
+    /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
     /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale.
     /// </summary>
     public void Persist(CancellationToken cancellationToken)
     {
-        if (index.ReadOnly)
+        if (readOnly)
         {
             return;
         }
 
         lock (gate)
         {
-            var generation = index.Catalog.VectorSetGeneration;
+            var generation = catalog.VectorSetGeneration;
             if (generation == writtenAt)
             {
                 return;
             }
 
-            var stamp = index.Catalog.CreatedTicks;
+            var stamp = catalog.CreatedTicks;
             var encoders = new HashSet<string>(views.Keys, StringComparer.Ordinal);
-            if (index.Catalog.Encoders.ServingId() is { } serving)
+            if (catalog.Encoders.ServingId() is { } serving)
             {
                 encoders.Add(serving);
             }
 
             foreach (var encoderId in encoders)
             {
-                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(index.Directory, encoderId, stamp, generation, mapOnly: true, out _) is { } fresh)
+                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: true, out _) is { } fresh)
                 {
                     // Already on disk as it is now (an earlier process wrote it): nothing to do.
                     fresh.Dispose();
                     continue;
                 }
 
-                ServingViewFile.Write(index.Directory, For(encoderId, cancellationToken), stamp);
+                ServingViewFile.Write(directory, For(encoderId, cancellationToken), stamp);
             }
 
             writtenAt = generation;
@@ -112,9 +168,9 @@ public sealed class ServingViews : IDisposable
 
     public void Dispose()
     {
-        if (!index.ReadOnly)
+        if (!readOnly)
         {
-            index.Catalog.VectorSetsCommitted -= Heard;
+            catalog.VectorSetsCommitted -= Heard;
         }
 
         lock (gate)
@@ -131,15 +187,15 @@ public sealed class ServingViews : IDisposable
     /// <summary>REQUIRES: <c>gate</c> is held.</summary>
     private ServingView Load(string encoderId, long generation, CancellationToken cancellationToken)
     {
-        var stamp = index.Catalog.CreatedTicks;
-        if (ServingViewFile.TryRead(index.Directory, encoderId, stamp, generation, mapOnly: index.ReadOnly, out _) is { } current)
+        var stamp = catalog.CreatedTicks;
+        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: readOnly, out _) is { } current)
         {
             return current;
         }
 
         // A writer that heard every commit since it opened can start from the file as it was then.
-        if (!index.ReadOnly && openedAt != generation
-            && ServingViewFile.TryRead(index.Directory, encoderId, stamp, openedAt, mapOnly: false, out _) is { } older)
+        if (!readOnly && openedAt != generation
+            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, mapOnly: false, out _) is { } older)
         {
             if (CatchUp(older, generation, cancellationToken))
             {
@@ -192,7 +248,7 @@ public sealed class ServingViews : IDisposable
         var view = new ServingView(encoderId, generation);
         try
         {
-            var live = index.Catalog.VectorSets.Live(encoderId);
+            var live = catalog.VectorSets.Live(encoderId);
             for (var at = 0; at < live.Count; at += BuildChunk)
             {
                 var chunk = live.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
@@ -219,7 +275,7 @@ public sealed class ServingViews : IDisposable
             Length = l.Length,
             Checksum = l.Checksum,
         }).ToList();
-        var live = index.Store.OpenSelected(encoderId, records);
+        var live = store().OpenSelected(encoderId, records);
         var unreadable = live.Unreadable.Select(u => u.Record).ToHashSet();
         return (live.Source, [.. Enumerable.Range(0, records.Count).Where(i => !unreadable.Contains(records[i]))]);
     }

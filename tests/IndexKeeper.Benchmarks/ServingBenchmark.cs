@@ -1,0 +1,229 @@
+using System.Diagnostics;
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Search;
+using IndexKeeper.Service.Application;
+
+namespace IndexKeeper.Benchmarks;
+
+/// <summary>
+/// Search at the size of a drive (issue 13): real catalogs and segments of 10,000 and 100,000 generated pages
+/// (40–120 vectors × 128-d, hashed-term sized), searched three ways in the same run: the path before the serving
+/// view (catalog read, sign codes over every page, float16 re-rank of 100), the serving view (candidate graph of
+/// fixed dimensional encodings, float16 re-rank of the candidates), and exhaustive float16 MaxSim (the
+/// reference for agreement). Also the cost of a first search in a new process, of keeping the view up to date
+/// per commit, and its bytes per page.
+/// </summary>
+public sealed class ServingBenchmark : IBenchmark
+{
+    private const int Dimensions = 128;
+    private const int QueryTokens = 12;
+    private const int BatchPages = 500;
+
+    public string Name => "serving";
+
+    public void Run(BenchmarkContext context)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        foreach (var pages in context.Quick ? new[] { 600, 2_400 } : [10_000, 100_000])
+        {
+            Size(context, pages);
+        }
+    }
+
+    private static void Size(BenchmarkContext context, int pages)
+    {
+        var directory = Path.Combine(context.WorkDirectory, pages.ToString(System.Globalization.CultureInfo.InvariantCulture));
+        Directory.CreateDirectory(directory);
+        var identity = new EncoderIdentity(new string('b', 64), "bench-topics", "generated topic vectors", Dimensions);
+        var corpus = new TopicCorpus(seed: pages, Dimensions, 40, 120, QueryTokens);
+        var name = $"{pages / 1000}k";
+        using var held = IndexLock.Acquire(directory, "serving benchmark");
+        using var catalog = IndexCatalog.Open(held);
+        using var store = VectorStore.Open(catalog, directory);
+        var (fill, _) = Measure.Once(() =>
+        {
+            for (var at = 0; at < pages; at += BatchPages)
+            {
+                var batch = Enumerable.Range(at, Math.Min(BatchPages, pages - at)).Select(i => (Key: KeyOf(i), Vectors: corpus.Page(out _))).ToList();
+                AddPages(catalog, batch.Select(b => b.Key));
+                store.AppendAndCommit(identity, batch);
+            }
+
+            store.SealAll();
+        });
+        var vectors = catalog.VectorSets.VectorCounts(identity.Id).Vectors;
+        context.Note($"{name}: {pages} pages, {vectors} vectors ({(double)vectors / pages:0.0} a page), queries of {QueryTokens} tokens; written in {fill:0.0} s");
+        context.Report($"{name}: catalog bytes per page (vector-set and page records only, no words)", (double)FileSizes(directory, "catalog*.db") / pages, "B");
+        context.Report($"{name}: segment bytes per page", (double)FileSizes(Path.Combine(directory, VectorStore.SegmentsFolder), "*") / pages, "B");
+
+        // The serving view, built from the whole catalog once (a writer that finds no file does this).
+        var memoryBefore = Resident();
+        using var views = new ServingViews(catalog, () => store, directory, readOnly: false);
+        var (build, buildCpu) = Measure.Once(() => views.For(identity.Id, CancellationToken.None));
+        var resident = Resident() - memoryBefore;
+        context.Report($"{name}: serving view build from the catalog, wall", build, "s");
+        context.Report($"{name}: serving view build, CPU", buildCpu, "s");
+        context.Report($"{name}: serving view resident bytes per page (working set growth)", (double)resident / pages, "B");
+        var (persist, _) = Measure.Once(() => views.Persist(CancellationToken.None));
+        context.Report($"{name}: serving view written to disk, wall", persist, "s");
+        context.Report($"{name}: serving view on disk, bytes per page (directory + graph)", (double)FileSizes(Path.Combine(directory, ServingViewFile.Folder), "*") / pages, "B");
+
+        var queryCount = context.Quick ? 6 : 30;
+        var queries = Enumerable.Range(0, queryCount).Select(i => corpus.Query(i * pages / queryCount)).ToArray();
+        var exhaustive = new List<double>();
+        var before = new List<double>();
+        var serving = new List<double>();
+        var truths = new List<HashSet<string>>();
+        double agreeBefore = 0, agreeServing = 0;
+        foreach (var query in queries)
+        {
+            var watch = Stopwatch.StartNew();
+            using (var live = store.OpenLive(identity.Id))
+            {
+                var truth = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, CancellationToken.None);
+                exhaustive.Add(watch.Elapsed.TotalMilliseconds);
+                truths.Add([.. truth.Hits.Select(h => h.Key.Hex)]);
+            }
+
+            // The path before the serving view: the live list read from the catalog, every page's sign codes.
+            watch.Restart();
+            using (var live = store.OpenLive(identity.Id))
+            {
+                var hits = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None).Hits;
+                before.Add(watch.Elapsed.TotalMilliseconds);
+                agreeBefore += hits.Count(h => truths[^1].Contains(h.Key.Hex)) / 10.0;
+            }
+
+            watch.Restart();
+            var found = views.Search(identity.Id, query, 10, CancellationToken.None).Result.Hits;
+            serving.Add(watch.Elapsed.TotalMilliseconds);
+            agreeServing += found.Count(h => truths[^1].Contains(h.Key.Hex)) / 10.0;
+        }
+
+        Latency(context, $"{name}: exhaustive float16 MaxSim", exhaustive);
+        Latency(context, $"{name}: before (catalog read + sign codes of every page + re-rank of 100)", before);
+        Latency(context, $"{name}: serving view ({ServingViews.CandidateCount(10)} candidates re-ranked)", serving);
+        context.Report($"{name}: speedup of the serving view over exhaustive, p50", Median(exhaustive) / Median(serving), "×");
+        context.Report($"{name}: speedup of the serving view over before, p50", Median(before) / Median(serving), "×");
+        context.Report($"{name}: top-10 agreement with exhaustive, before", agreeBefore / queries.Length, "share");
+        context.Report($"{name}: top-10 agreement with exhaustive, serving view", agreeServing / queries.Length, "share");
+        Agreement(context, name, views.For(identity.Id, CancellationToken.None), store, identity.Id, queries, truths);
+
+        FirstSearch(context, name, catalog, directory, identity.Id, queries[0]);
+        Churn(context, name, catalog, store, views, identity, corpus, pages);
+    }
+
+    /// <summary>Top-10 agreement of the serving view at other candidate counts (the same re-rank, fewer or more pages).</summary>
+    private static void Agreement(BenchmarkContext context, string name, ServingView view, VectorStore store, string encoderId, VectorSet[] queries, List<HashSet<string>> truths)
+    {
+        foreach (var count in new[] { 50, 100, 400, 800 })
+        {
+            double agree = 0;
+            for (var i = 0; i < queries.Length; i++)
+            {
+                var candidates = view.Candidates(queries[i], count);
+                using var live = store.OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
+                {
+                    EncoderId = encoderId, PageKey = c.Key.Hex, SegmentId = c.Location.SegmentId, Offset = c.Location.Offset, Length = c.Location.Length, Checksum = c.Location.Checksum,
+                })]);
+                var hits = LateInteractionSearch.Search(live.Source, queries[i], new SearchOptions { Top = 10, Candidates = int.MaxValue }, CancellationToken.None).Hits;
+                agree += hits.Count(h => truths[i].Contains(h.Key.Hex)) / 10.0;
+            }
+
+            context.Report($"{name}: top-10 agreement, serving view with {count} candidates", agree / queries.Length, "share");
+        }
+    }
+
+    /// <summary>
+    /// A search in a new process as the CLI makes it: before, a new store checks every record and the catalog's
+    /// live list is read; now the view file is read and its graph mapped, and only the candidates are checked.
+    /// </summary>
+    private static void FirstSearch(BenchmarkContext context, string name, IndexCatalog catalog, string directory, string encoderId, VectorSet query)
+    {
+        var before = new List<double>();
+        var now = new List<double>();
+        for (var i = 0; i < 3; i++)
+        {
+            var watch = Stopwatch.StartNew();
+            using (var cold = VectorStore.OpenForReading(catalog, directory))
+            using (var live = cold.OpenLive(encoderId))
+            {
+                LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None);
+            }
+
+            before.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            using (var cold = VectorStore.OpenForReading(catalog, directory))
+            using (var views = new ServingViews(catalog, () => cold, directory, readOnly: true))
+            {
+                views.Search(encoderId, query, 10, CancellationToken.None);
+                if (views.Builds != 0)
+                {
+                    throw new InvalidOperationException("the view file was not used");
+                }
+            }
+
+            now.Add(watch.Elapsed.TotalMilliseconds);
+        }
+
+        context.Report($"{name}: first search in a new process, before (median of 3)", Median(before), "ms");
+        context.Report($"{name}: first search in a new process, serving view file (median of 3)", Median(now), "ms");
+    }
+
+    /// <summary>Keeping the view current: commits of new and removed pages, applied as changes, against a full build.</summary>
+    private static void Churn(BenchmarkContext context, string name, IndexCatalog catalog, VectorStore store, ServingViews views, EncoderIdentity identity, TopicCorpus corpus, int pages)
+    {
+        var rounds = 5;
+        var applied = new List<double>();
+        for (var round = 0; round < rounds; round++)
+        {
+            var batch = Enumerable.Range(pages + (round * 100), 100).Select(i => (Key: KeyOf(i), Vectors: corpus.Page(out _))).ToList();
+            AddPages(catalog, batch.Select(b => b.Key));
+            store.AppendAndCommit(identity, batch);
+            var edit = new CatalogEdit();
+            edit.SetReferences.AddRange(Enumerable.Range(round * 100, 100).Select(i => (KeyOf(i).Hex, 0)));
+            catalog.Apply(edit);
+            catalog.RemoveUnreferencedPages();
+            var watch = Stopwatch.StartNew();
+            views.For(identity.Id, CancellationToken.None);
+            applied.Add(watch.Elapsed.TotalMilliseconds);
+        }
+
+        context.Report($"{name}: serving view brought up to date after a commit of 100 new and 100 removed pages (median)", Median(applied), "ms");
+        if (views.Builds != 1)
+        {
+            throw new InvalidOperationException("the view was rebuilt instead of moved forward");
+        }
+    }
+
+    private static void AddPages(IndexCatalog catalog, IEnumerable<PageKey> keys)
+    {
+        var edit = new CatalogEdit();
+        edit.AddPages.AddRange(keys.Select(k => new PageRecord { Id = k.Hex, References = 1 }));
+        catalog.Apply(edit);
+    }
+
+    private static PageKey KeyOf(int i) => PageKey.Of(BitConverter.GetBytes(i));
+
+    private static void Latency(BenchmarkContext context, string what, List<double> milliseconds)
+    {
+        var sorted = milliseconds.Order().ToList();
+        context.Report($"{what}, p50", SearchBenchmark.Percentile(sorted, 0.50), "ms");
+        context.Report($"{what}, p95", SearchBenchmark.Percentile(sorted, 0.95), "ms");
+    }
+
+    private static double Median(List<double> values) => SearchBenchmark.Percentile([.. values.Order()], 0.50);
+
+    private static long Resident()
+    {
+        GC.Collect();
+        GC.WaitForPendingFinalizers();
+        using var self = Process.GetCurrentProcess();
+        return self.WorkingSet64;
+    }
+
+    private static long FileSizes(string folder, string pattern) => Directory.EnumerateFiles(folder, pattern).Sum(f => new FileInfo(f).Length);
+}
