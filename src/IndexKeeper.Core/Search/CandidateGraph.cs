@@ -11,9 +11,9 @@ internal sealed class CandidateGraph : IDisposable
 {
     // Edges per node and the breadth of the search when adding and when querying: the package's usual
     // values, widened for querying because the re-rank wants a few hundred candidates (common practice).
-    private const ulong Connectivity = 16;
-    private const ulong ExpansionAdd = 128;
-    private const ulong ExpansionSearch = 256;
+    private const ulong Connectivity = 32;
+    private const ulong ExpansionAdd = 256;
+    private const ulong ExpansionSearch = 1024;
 
     private readonly USearchIndex index;
 
@@ -29,7 +29,7 @@ internal sealed class CandidateGraph : IDisposable
     public long Count => (long)index.Size();
 
     public static CandidateGraph Create(int length) =>
-        new(new USearchIndex(MetricKind.Ip, ScalarKind.Float16, (ulong)length, Connectivity, ExpansionAdd, ExpansionSearch, false), readOnly: false);
+        new(new USearchIndex(MetricKind.Cos, ScalarKind.Float16, (ulong)length, Connectivity, ExpansionAdd, ExpansionSearch, false), readOnly: false);
 
     /// <summary>Loads a saved graph into memory (<paramref name="mapOnly"/> false: it can change) or maps it read-only.</summary>
     public static CandidateGraph Open(string path, bool mapOnly) => new(new USearchIndex(path, mapOnly), mapOnly);

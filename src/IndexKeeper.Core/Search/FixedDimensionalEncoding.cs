@@ -22,7 +22,7 @@ internal sealed class FixedDimensionalEncoding
     /// <summary>Never change without a new serving-view version: stored encodings were made with it.</summary>
     public const ulong Seed = 0x1D3C_6E55_A1F0_0013;
 
-    public const int Repetitions = 5;
+    public const int Repetitions = 10;
 
     public const int BucketBits = 4;
 

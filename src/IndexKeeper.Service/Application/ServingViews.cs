@@ -81,9 +81,10 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
-    /// The best <paramref name="k"/> pages for <paramref name="query"/>: candidates from the serving view, then
-    /// exact MaxSim over them (docs/search.md, "Serving view"). Only the candidates' records are opened (and
-    /// checked, once per process). A compaction that retires a segment between the view and the open makes the
+    /// The best <paramref name="k"/> pages for <paramref name="query"/>: candidates from the serving view's graph,
+    /// then the two stages of <see cref="LateInteractionSearch"/> over them alone (sign codes, then exact MaxSim
+    /// of the best; docs/search.md, "Serving view"). Only the candidates' records are opened (and checked, once
+    /// per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
     public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, CancellationToken cancellationToken)
@@ -111,8 +112,8 @@ public sealed class ServingViews : IDisposable
                     VectorCount = c.VectorCount,
                     Live = true,
                 })]);
-                var exact = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k, Candidates = int.MaxValue }, cancellationToken);
-                return (exact with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
+                var ranked = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+                return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
             }
             catch (InvalidOperationException) when (attempt < 3)
             {
@@ -121,8 +122,8 @@ public sealed class ServingViews : IDisposable
         }
     }
 
-    /// <summary>Pages handed from the candidate graph to the exact re-rank (docs/search.md, "Candidates").</summary>
-    public static int CandidateCount(int k) => Math.Max(20 * k, 200);
+    /// <summary>Pages the candidate graph hands to the sign-code stage (docs/search.md, "Candidates").</summary>
+    public static int CandidateCount(int k) => Math.Max(200 * k, 2000);
 
     /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
