@@ -62,15 +62,19 @@ public sealed class ServingBenchmark : IBenchmark
 
         // The serving view, built from the whole catalog once (a writer that finds no file does this).
         var memoryBefore = Resident();
+        var managedBefore = GC.GetTotalMemory(forceFullCollection: true);
         using var views = new ServingViews(catalog, () => store, directory, readOnly: false);
         var (build, buildCpu) = Measure.Once(() => views.For(identity.Id, CancellationToken.None));
         var resident = Resident() - memoryBefore;
+        var managed = GC.GetTotalMemory(forceFullCollection: true) - managedBefore;
         context.Report($"{name}: serving view build from the catalog, wall", build, "s");
         context.Report($"{name}: serving view build, CPU", buildCpu, "s");
-        context.Report($"{name}: serving view resident bytes per page (working set growth)", (double)resident / pages, "B");
+        context.Report($"{name}: working set growth per page over the build (includes segment pages mapped while reading)", (double)resident / pages, "B");
+        context.Report($"{name}: serving view managed heap per page (directory)", (double)managed / pages, "B");
         var (persist, _) = Measure.Once(() => views.Persist(CancellationToken.None));
         context.Report($"{name}: serving view written to disk, wall", persist, "s");
         context.Report($"{name}: serving view on disk, bytes per page (directory + graph)", (double)FileSizes(Path.Combine(directory, ServingViewFile.Folder), "*") / pages, "B");
+        context.Report($"{name}: candidate graph bytes per page (its file; the same layout is held in memory)", (double)FileSizes(Path.Combine(directory, ServingViewFile.Folder), "*.graph") / pages, "B");
 
         var queryCount = context.Quick ? 6 : 30;
         var queries = Enumerable.Range(0, queryCount).Select(i => corpus.Query(i * (pages / queryCount / 97) * 97)).ToArray();

@@ -49,11 +49,15 @@ public sealed class IndexSettings
         Canaries = new CanarySettings(options.Drift.CanaryPages, options.Drift.CanaryMinimumMeanCosine, options.Drift.CanaryMinimumCosine);
         CanaryInterval = TimeSpan.FromHours(options.Drift.CanaryIntervalHours);
         Encoder = options.Encoder;
+        MinimumTokenSimilarity = options.Query.MinimumTokenSimilarity;
         EncoderRecord = EncoderSettings.Record(options.Encoder);
         EmbedBatchSize = options.Encoder.BatchSize;
         Calendar = ScheduleSetup.Calendar(options.Schedule);
         BudgetPagesPerHour = options.Schedule.BudgetPagesPerHour;
     }
+
+    /// <summary>The least best-match similarity one query vector must reach on a page for the page to be a hit.</summary>
+    public double MinimumTokenSimilarity { get; }
 
     /// <summary>The index directory (catalog, segments, lock).</summary>
     public string Directory { get; }

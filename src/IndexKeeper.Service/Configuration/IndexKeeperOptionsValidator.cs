@@ -106,6 +106,7 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Query:MaxCharacters", options.Query.MaxCharacters, 1, 100_000);
         Range(errors, "Query:MaxTerms", options.Query.MaxTerms, 1, 1024);
         Range(errors, "Query:MaxResults", options.Query.MaxResults, 1, 10_000);
+        Range(errors, "Query:MinimumTokenSimilarity", options.Query.MinimumTokenSimilarity, 0, 1);
         CheckSchedule(errors, options.Schedule);
         var drift = options.Drift;
         Range(errors, "Drift:CanaryPages", drift.CanaryPages, 0, 10_000);

@@ -15,4 +15,10 @@ public sealed class QueryOptions
 
     /// <summary>The largest k (pages in one answer).</summary>
     public int MaxResults { get; set; } = 100;
+
+    /// <summary>
+    /// A page is a hit only when at least one query vector finds a page vector at least this similar (cosine);
+    /// a query whose terms match nothing gets no hits (docs/search.md, "Minimum match").
+    /// </summary>
+    public double MinimumTokenSimilarity { get; set; } = 0.5;
 }
