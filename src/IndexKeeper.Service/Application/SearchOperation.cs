@@ -21,7 +21,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
         using var ranking = RankingEncoder.Choose(index, settings.Encoder, drift);
         var encoder = ranking.Encoder;
         var query = encoder.EncodeQuery(text, cancellationToken);
-        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, k, cancellationToken);
+        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, k, settings.CandidatesFromGraph, cancellationToken);
         var hits = new List<SearchReportHit>(result.Hits.Count);
         foreach (var hit in result.Hits.Where(h => h.Matches.Any(m => m.Similarity >= settings.MinimumTokenSimilarity)))
         {

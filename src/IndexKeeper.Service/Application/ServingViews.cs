@@ -81,13 +81,13 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
-    /// The best <paramref name="k"/> pages for <paramref name="query"/>: candidates from the serving view's graph,
-    /// then the two stages of <see cref="LateInteractionSearch"/> over them alone (sign codes, then exact MaxSim
-    /// of the best; docs/search.md, "Serving view"). Only the candidates' records are opened (and checked, once
-    /// per process). A compaction that retires a segment between the view and the open makes the
+    /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
+    /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
+    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives (docs/search.md,
+    /// "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
-    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, CancellationToken cancellationToken)
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
@@ -98,7 +98,7 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var candidates = view.Candidates(query, CandidateCount(k));
+            var candidates = fromGraph ? view.Candidates(query, CandidateCount(k)) : view.Entries();
             try
             {
                 using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord

@@ -129,10 +129,10 @@ public sealed class ServingViewTests : IDisposable
         index.Embed([.. Enumerable.Range(0, 60)]);
         index.Unreference(7, 8);
         using var views = index.Views(readOnly: false);
-        foreach (var seed in new[] { 101, 102, 103 })
+        foreach (var (seed, fromGraph) in new[] { (101, true), (102, true), (103, false), (104, false) })
         {
             var query = TestVectors.Set(seed, 4, Dimensions);
-            var (result, unreadable) = views.Search(Encoder.Id, query, 10, CancellationToken.None);
+            var (result, unreadable) = views.Search(Encoder.Id, query, 10, fromGraph, CancellationToken.None);
             using var live = index.Store.OpenLive(Encoder.Id);
             var expected = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None);
             Assert.Equal(expected.Hits.Select(h => (h.Key, h.Score)), result.Hits.Select(h => (h.Key, h.Score)));
