@@ -93,21 +93,32 @@ public sealed class ServingView : IDisposable
             {
                 for (var i = 0; i < source.Count; i++)
                 {
-                    cancellationToken.ThrowIfCancellationRequested();
-                    var page = source.Get(i);
+                    var pageDimensions = source.Get(i).Dimensions;
                     if (dimensions == 0)
                     {
-                        dimensions = page.Dimensions;
+                        dimensions = pageDimensions;
                     }
-                    else if (page.Dimensions != dimensions)
+                    else if (pageDimensions != dimensions)
                     {
-                        throw new InvalidOperationException($"Vector set {page.Key} has {page.Dimensions} dimensions, the view {dimensions}: they come from different encoders.");
+                        throw new InvalidOperationException($"Vector set {source.Get(i).Key} has {pageDimensions} dimensions, the view {dimensions}: they come from different encoders.");
                     }
+                }
 
-                    encoding ??= new FixedDimensionalEncoding(dimensions);
-                    var encoded = new float[FixedDimensionalEncoding.Length];
-                    encoding.EncodePage(page.Vectors, encoded);
-                    encodings[added[given[i]].Key] = encoded;
+                // Encoding is the cost of a build (every vector times 200 dot products): both cores share it.
+                var encoded = new float[source.Count][];
+                if (source.Count > 0)
+                {
+                    var encoder = encoding ??= new FixedDimensionalEncoding(dimensions);
+                    Parallel.For(0, source.Count, new ParallelOptions { CancellationToken = cancellationToken }, i =>
+                    {
+                        encoded[i] = new float[FixedDimensionalEncoding.Length];
+                        encoder.EncodePage(source.Get(i).Vectors, encoded[i]);
+                    });
+                }
+
+                for (var i = 0; i < encoded.Length; i++)
+                {
+                    encodings[added[given[i]].Key] = encoded[i];
                 }
             }
             finally
