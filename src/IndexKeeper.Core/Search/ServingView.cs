@@ -24,6 +24,9 @@ public sealed class ServingView : IDisposable
     private CandidateGraph? graph;
     private ulong nextId = 1;
 
+    // Every live page in page-key order, made on first use after a change: a search over all pages asks per query.
+    private ServingEntry[]? sorted;
+
     public ServingView(string encoderId, long generation)
     {
         ArgumentException.ThrowIfNullOrEmpty(encoderId);
@@ -164,6 +167,7 @@ public sealed class ServingView : IDisposable
             }
 
             Generation = generation;
+            sorted = null;
         }
     }
 
@@ -210,7 +214,7 @@ public sealed class ServingView : IDisposable
     {
         lock (gate)
         {
-            return [.. byKey.Values.Select(s => s.Entry).OrderBy(e => e.Key.Hex, StringComparer.Ordinal)];
+            return sorted ??= [.. byKey.Values.Select(s => s.Entry).OrderBy(e => e.Key.Hex, StringComparer.Ordinal)];
         }
     }
 
