@@ -32,7 +32,7 @@ public sealed class SearchBenchmark : IBenchmark
     {
         var pages = context.Quick ? 400 : 10_240;
         var distinct = context.Quick ? 32 : 512;
-        var generator = new Generator(seed: 1);
+        var generator = new TopicCorpus(seed: 1, Dimensions, VectorsPerPage, VectorsPerPage, QueryTokens);
         var bodies = new InMemoryVectorSetSource();
         for (var p = 0; p < distinct; p++)
         {
@@ -68,7 +68,7 @@ public sealed class SearchBenchmark : IBenchmark
     {
         var pages = context.Quick ? 24 : 1_000;
         var queryCount = context.Quick ? 4 : 30;
-        var generator = new Generator(seed: 2);
+        var generator = new TopicCorpus(seed: 2, Dimensions, VectorsPerPage, VectorsPerPage, QueryTokens);
         var float32 = new VectorSet[pages];
         var float16 = new InMemoryVectorSetSource();
         var pooled = new InMemoryVectorSetSource();
@@ -161,7 +161,7 @@ public sealed class SearchBenchmark : IBenchmark
         }
     }
 
-    private static double Percentile(List<double> sorted, double share) =>
+    internal static double Percentile(List<double> sorted, double share) =>
         sorted[Math.Min(sorted.Count - 1, (int)Math.Ceiling(share * sorted.Count) - 1)];
 
     /// <summary>Many ordinals over a few distinct bodies, so 10,000 pages fit in memory; every page is read in full.</summary>
@@ -170,71 +170,5 @@ public sealed class SearchBenchmark : IBenchmark
         public int Count => count;
 
         public StoredVectors Get(int ordinal) => bodies.Get(ordinal % bodies.Count);
-    }
-
-    /// <summary>
-    /// Pages whose vectors lie around a few of a shared pool of topic directions, and queries whose tokens
-    /// come from the topics of one page: structure like real patch and token embeddings, made up.
-    /// </summary>
-    private sealed class Generator
-    {
-        private const int TopicCount = 4096;
-        private const int TopicsPerPage = 40;
-        private readonly Random random;
-        private readonly float[][] topics;
-        private readonly List<int[]> pageTopics = [];
-
-        public Generator(int seed)
-        {
-            random = new Random(seed);
-            topics = Enumerable.Range(0, TopicCount).Select(_ => Around(new float[Dimensions], 1)).ToArray();
-        }
-
-        public VectorSet Page(out int index)
-        {
-            var chosen = Enumerable.Range(0, TopicsPerPage).Select(_ => random.Next(TopicCount)).ToArray();
-            index = pageTopics.Count;
-            pageTopics.Add(chosen);
-            var vectors = new float[VectorsPerPage * Dimensions];
-            var regions = new PageBox[VectorsPerPage];
-            for (var v = 0; v < VectorsPerPage; v++)
-            {
-                Around(topics[chosen[random.Next(chosen.Length)]], 0.8).CopyTo(vectors, v * Dimensions);
-                regions[v] = new PageBox(v % 32 * 18, v / 32 * 26, (v % 32 * 18) + 18, (v / 32 * 26) + 26);
-            }
-
-            return new VectorSet(Dimensions, vectors, regions);
-        }
-
-        public VectorSet Query(int page)
-        {
-            var chosen = pageTopics[page];
-            var vectors = new float[QueryTokens * Dimensions];
-            for (var t = 0; t < QueryTokens; t++)
-            {
-                Around(topics[chosen[random.Next(chosen.Length)]], 1.0).CopyTo(vectors, t * Dimensions);
-            }
-
-            return new VectorSet(Dimensions, vectors, new PageBox[QueryTokens]);
-        }
-
-        // A unit vector near the direction: direction plus Gaussian noise of expected norm `noise`, renormalised.
-        private float[] Around(float[] direction, double noise)
-        {
-            var vector = new float[Dimensions];
-            var scale = noise / Math.Sqrt(Dimensions);
-            for (var i = 0; i < Dimensions; i += 2)
-            {
-                // Box–Muller transform gives two normal deviates (common practice).
-                var radius = Math.Sqrt(-2 * Math.Log(1 - random.NextDouble()));
-                var angle = 2 * Math.PI * random.NextDouble();
-                vector[i] = direction[i] + (float)(scale * radius * Math.Cos(angle));
-                vector[i + 1] = direction[i + 1] + (float)(scale * radius * Math.Sin(angle));
-            }
-
-            var norm = (float)Math.Sqrt(TensorPrimitives.SumOfSquares(vector));
-            TensorPrimitives.Divide(vector, norm, vector);
-            return vector;
-        }
     }
 }

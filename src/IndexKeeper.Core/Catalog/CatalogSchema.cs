@@ -22,4 +22,5 @@ public static class CatalogSchema
     internal const string SchemaMetaId = "schema";
     internal const string ServingEncoderMetaId = "servingEncoder";
     internal const string RetiredSegmentsMetaId = "retiredSegments";
+    internal const string VectorSetGenerationMetaId = "vectorSetGeneration";
 }

@@ -35,6 +35,28 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
 
     public ILiteCollection<VectorSetRecord> VectorSets { get; } = database.GetCollection<VectorSetRecord>(CatalogSchema.VectorSets);
 
+    /// <summary>
+    /// Vector sets whose liveness or location a change of the running transaction touched (their state after
+    /// it); empty outside a transaction. Read by <see cref="InTransaction{T}"/> to count the generation.
+    /// </summary>
+    private readonly List<VectorSetRecord> touched = [];
+
+    /// <summary>Commits since the catalog was opened in this process (any change, transactions only).</summary>
+    public long Commits { get; private set; }
+
+    /// <summary>Called after a commit that touched vector sets, with the new generation and what changed.</summary>
+    public Action<VectorSetChanges>? VectorSetsCommitted { get; set; }
+
+    /// <summary>
+    /// The vector-set generation: how many committed transactions changed which vector sets are live or where
+    /// they lie (meta <c>vectorSetGeneration</c>, docs/catalog.md). 0 for a catalog that never counted.
+    /// </summary>
+    public long VectorSetGeneration() =>
+        Meta.FindById(CatalogSchema.VectorSetGenerationMetaId) is { } generation ? generation["value"].AsInt64 : 0;
+
+    /// <summary>REQUIRES: inside a transaction. Records a vector set as the transaction leaves it (deleted = not live).</summary>
+    public void Touch(VectorSetRecord set) => touched.Add(set);
+
     /// <summary>Runs <paramref name="change"/> as one transaction: all of it is committed, or none (rolled back on any exception).</summary>
     public void InTransaction(Action change) => InTransaction(() =>
     {
@@ -47,19 +69,39 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
     {
         ArgumentNullException.ThrowIfNull(change);
         Database.BeginTrans();
+        touched.Clear();
+        VectorSetChanges? changes = null;
         try
         {
             var result = change();
+            if (touched.Count > 0)
+            {
+                // Counted inside the transaction, so a serving view stamped with a generation names exactly one state.
+                var generation = VectorSetGeneration() + 1;
+                Meta.Upsert(new BsonDocument { ["_id"] = CatalogSchema.VectorSetGenerationMetaId, ["value"] = generation });
+                changes = new VectorSetChanges(generation, [.. touched]);
+            }
+
             FaultInjection.Reach(FaultPoints.CatalogCommitBefore);
             Database.Commit();
+            Commits++;
             FaultInjection.Reach(FaultPoints.CatalogCommitAfter);
             CheckpointIfNoReader(CheckpointLogBytes);
+            if (changes is not null)
+            {
+                VectorSetsCommitted?.Invoke(changes);
+            }
+
             return result;
         }
         catch
         {
             Database.Rollback();
             throw;
+        }
+        finally
+        {
+            touched.Clear();
         }
     }
 

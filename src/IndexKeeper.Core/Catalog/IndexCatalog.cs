@@ -43,6 +43,28 @@ public sealed class IndexCatalog : IDisposable
 
     public HistoryTable History { get; }
 
+    /// <summary>How many committed transactions changed which vector sets are live or where they lie (docs/catalog.md).</summary>
+    public long VectorSetGeneration => store.VectorSetGeneration();
+
+    /// <summary>
+    /// When the catalog was made (meta <c>schema.createdUtc</c>), in ticks; 0 when unknown. With
+    /// <see cref="VectorSetGeneration"/> it names one state of one catalog: a rebuilt catalog counts anew.
+    /// </summary>
+    public long CreatedTicks => store.Meta.FindById(CatalogSchema.SchemaMetaId) is { } schema && schema["createdUtc"].IsDateTime ? schema["createdUtc"].AsDateTime.ToUniversalTime().Ticks : 0;
+
+    /// <summary>Transactions committed through this instance: a cheap test of "has anything changed since".</summary>
+    public long Commits => store.Commits;
+
+    /// <summary>
+    /// Raised on the committing thread after each commit that touched vector sets, in commit order. A handler
+    /// must be quick (it runs inside the writer's work) and must not write the catalog.
+    /// </summary>
+    public event Action<VectorSetChanges>? VectorSetsCommitted
+    {
+        add => store.VectorSetsCommitted += value;
+        remove => store.VectorSetsCommitted -= value;
+    }
+
     /// <summary>Opens or creates the catalog in the locked directory; refuses a newer schema without writing.</summary>
     public static IndexCatalog Open(IndexLock heldLock)
     {
@@ -199,6 +221,11 @@ public sealed class IndexCatalog : IDisposable
 
             store.Segments.Upsert(segment);
             store.VectorSets.Upsert(added);
+            foreach (var set in added)
+            {
+                store.Touch(set);
+            }
+
             foreach (var key in dequeued)
             {
                 store.Queue.Delete(key);
@@ -227,6 +254,7 @@ public sealed class IndexCatalog : IDisposable
                         set.SegmentId = to.SegmentId;
                         set.Offset = to.Offset;
                         store.VectorSets.Update(set);
+                        store.Touch(set);
                     }
                     else if (set.Live)
                     {
@@ -262,6 +290,7 @@ public sealed class IndexCatalog : IDisposable
             foreach (var set in lost)
             {
                 store.VectorSets.Delete(set.Id);
+                store.Touch(new VectorSetRecord { Id = set.Id, EncoderId = set.EncoderId, PageKey = set.PageKey, SegmentId = set.SegmentId, Offset = set.Offset, Length = set.Length, Checksum = set.Checksum, VectorCount = set.VectorCount, Live = false });
                 if (store.Segments.FindById(set.SegmentId) is { } segment)
                 {
                     segment.RecordCount--;
@@ -380,6 +409,7 @@ public sealed class IndexCatalog : IDisposable
         {
             set.Live = false;
             store.VectorSets.Update(set);
+            store.Touch(set);
             AdjustLive(set, -1);
         }
 
@@ -404,6 +434,7 @@ public sealed class IndexCatalog : IDisposable
 
             set.Live = live;
             store.VectorSets.Update(set);
+            store.Touch(set);
         }
     }
 

@@ -50,6 +50,8 @@ public sealed class IndexSettings
         Canaries = new CanarySettings(options.Drift.CanaryPages, options.Drift.CanaryMinimumMeanCosine, options.Drift.CanaryMinimumCosine);
         CanaryInterval = TimeSpan.FromHours(options.Drift.CanaryIntervalHours);
         Encoder = options.Encoder;
+        MinimumTokenSimilarity = options.Query.MinimumTokenSimilarity;
+        CandidatesFromGraph = options.Query.Candidates == "graph";
         EncoderRecord = EncoderSettings.Record(options.Encoder);
         EmbedBatchSize = options.Encoder.BatchSize;
         Calendar = ScheduleSetup.Calendar(options.Schedule);
@@ -73,7 +75,15 @@ public sealed class IndexSettings
         EmbedBatchSize = encoder.BatchSize;
         Calendar = other.Calendar;
         BudgetPagesPerHour = other.BudgetPagesPerHour;
+        MinimumTokenSimilarity = other.MinimumTokenSimilarity;
+        CandidatesFromGraph = other.CandidatesFromGraph;
     }
+
+    /// <summary>The least best-match similarity one query vector must reach on a page for the page to be a hit.</summary>
+    public double MinimumTokenSimilarity { get; }
+
+    /// <summary>True when search candidates come from the serving view's graph, false when every live page is one.</summary>
+    public bool CandidatesFromGraph { get; }
 
     /// <summary>The index directory (catalog, segments, lock).</summary>
     public string Directory { get; }

@@ -18,6 +18,7 @@ public sealed class OpenIndex : IDisposable
     private readonly IDisposable held;
     private VectorStore? store;
     private IPageEncoder? encoder;
+    private ServingViews? serving;
 
     private OpenIndex(IndexSettings settings, IDisposable held, string directory, IndexCatalog catalog, IDocumentReader reader, bool readOnly)
     {
@@ -27,6 +28,9 @@ public sealed class OpenIndex : IDisposable
         Catalog = catalog;
         Reader = reader;
         ReadOnly = readOnly;
+
+        // A writer hears every commit from the open on, so its serving views move forward instead of being rebuilt.
+        serving = readOnly ? null : new ServingViews(catalog, () => Store, directory, readOnly: false);
     }
 
     /// <summary>
@@ -51,6 +55,9 @@ public sealed class OpenIndex : IDisposable
     public VectorStore Store => store ??= ReadOnly
         ? VectorStore.OpenForReading(Catalog, Directory)
         : VectorStore.Open(Catalog, Directory, Settings.Segments);
+
+    /// <summary>The serving views (page directory and candidate graph per encoder) that search reads.</summary>
+    public ServingViews Serving => serving ??= new ServingViews(Catalog, () => Store, Directory, ReadOnly);
 
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
     public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(Settings.Encoder);
@@ -105,10 +112,29 @@ public sealed class OpenIndex : IDisposable
 
     public void Dispose()
     {
+        PersistServingViews();
+        serving?.Dispose();
         store?.Dispose();
         (encoder as IDisposable)?.Dispose();
         (Reader as IDisposable)?.Dispose();
         Catalog.Dispose();
         held.Dispose();
+    }
+
+    /// <summary>
+    /// A writer leaves its serving views on disk for the next search process. They are a cache of the catalog:
+    /// when this fails (a fault left the catalog unusable, the disk is full) the file stays stale and the next
+    /// search builds the view in memory, so nothing is lost and the command's own outcome stands.
+    /// </summary>
+    private void PersistServingViews()
+    {
+        try
+        {
+            serving?.Persist(CancellationToken.None);
+        }
+        catch (Exception ex) when (ex is not OutOfMemoryException)
+        {
+            System.Diagnostics.Trace.TraceWarning($"The serving view was not written: {ex.Message}");
+        }
     }
 }

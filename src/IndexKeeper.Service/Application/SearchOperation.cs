@@ -11,24 +11,27 @@ namespace IndexKeeper.Service.Application;
 /// </summary>
 public sealed class SearchOperation(OpenIndex index, IndexSettings settings, DriftOperation drift)
 {
+    // Words a snippet shows before and after its first matched word: a line or two of a page (common practice).
+    private const int SnippetBefore = 12;
+    private const int SnippetAfter = 24;
+
     public SearchReport Search(string text, int k, CancellationToken cancellationToken)
     {
         var stopwatch = Stopwatch.StartNew();
         using var ranking = RankingEncoder.Choose(index, settings.Encoder, drift);
         var encoder = ranking.Encoder;
         var query = encoder.EncodeQuery(text, cancellationToken);
-        using var live = index.Store.OpenLive(encoder.Identity.Id);
-        var result = query.Count == 0 || live.Records.Count == 0
-            ? new SearchResult([], live.Records.Count, 0)
-            : LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, k, settings.CandidatesFromGraph, cancellationToken);
         var hits = new List<SearchReportHit>(result.Hits.Count);
-        foreach (var hit in result.Hits)
+        foreach (var hit in result.Hits.Where(h => h.Matches.Any(m => m.Similarity >= settings.MinimumTokenSimilarity)))
         {
-            var locations = Locate(index.Catalog, hit.Key.Hex);
+            var (locations, document) = Locate(index.Catalog, hit.Key.Hex);
             if (locations.Count == 0)
             {
                 continue;
             }
+
+            var matched = hit.Matches.Where(m => m.Similarity >= settings.MinimumTokenSimilarity).Select(m => m.Region).ToHashSet();
 
             var page = index.Catalog.Pages.Find(hit.Key.Hex);
             hits.Add(new SearchReportHit
@@ -41,6 +44,10 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
                 AlsoAt = locations.Skip(1).ToList(),
                 Matches = hit.Matches.Select((m, i) => new SearchReportMatch(
                     i, m.VectorIndex, Math.Round(m.Similarity, 6), m.Region.Left, m.Region.Bottom, m.Region.Right, m.Region.Top, WordAt(page, m))).ToList(),
+                Snippet = Snippet(page, matched),
+                DocumentSize = document!.Size,
+                DocumentModifiedUtc = new DateTime(document.ModifiedTicksUtc, DateTimeKind.Utc),
+                DocumentKind = document.Kind.ToString(),
             });
         }
 
@@ -55,15 +62,18 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
             CandidatesReranked = result.CandidatesReranked,
             ElapsedMilliseconds = Math.Round(stopwatch.Elapsed.TotalMilliseconds, 2),
             Hits = hits,
-            VectorSetsUnreadable = live.Unreadable.Count,
+            VectorSetsUnreadable = unreadable,
         };
     }
 
-    private static List<PageLocation> Locate(IndexCatalog catalog, string pageKey)
+    /// <summary>Every location of the page key, first by root and path, and the document of the first.</summary>
+    private static (List<PageLocation> Locations, DocumentRecord? First) Locate(IndexCatalog catalog, string pageKey)
     {
         var locations = new List<PageLocation>();
+        DocumentRecord? first = null;
         foreach (var document in catalog.Documents.Holding(pageKey).OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal))
         {
+            first ??= document;
             for (var i = 0; i < document.PageKeys.Count; i++)
             {
                 if (document.PageKeys[i] == pageKey)
@@ -73,7 +83,23 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
             }
         }
 
-        return locations;
+        return (locations, first);
+    }
+
+    /// <summary>The page's words around the first word whose box a query vector matched, matched words in «».</summary>
+    internal static string Snippet(PageRecord? page, IReadOnlySet<Core.Documents.PageBox> matched)
+    {
+        if (page is null || page.Words.Count == 0)
+        {
+            return string.Empty;
+        }
+
+        bool IsMatched(WordRecord w) => matched.Contains(new Core.Documents.PageBox(w.L, w.B, w.R, w.U));
+        var first = page.Words.FindIndex(IsMatched);
+        var start = Math.Max(0, first - SnippetBefore);
+        var end = Math.Min(page.Words.Count, Math.Max(first, 0) + SnippetAfter + 1);
+        var words = page.Words.Skip(start).Take(end - start).Select(w => IsMatched(w) ? "«" + w.T + "»" : w.T);
+        return (start > 0 ? "… " : string.Empty) + string.Join(' ', words) + (end < page.Words.Count ? " …" : string.Empty);
     }
 
     private static string? WordAt(PageRecord? page, TokenMatch match) =>

@@ -15,4 +15,17 @@ public sealed class QueryOptions
 
     /// <summary>The largest k (pages in one answer).</summary>
     public int MaxResults { get; set; } = 100;
+
+    /// <summary>
+    /// A page is a hit only when at least one query vector finds a page vector at least this similar (cosine);
+    /// a query whose terms match nothing gets no hits (docs/search.md, "Minimum match").
+    /// </summary>
+    public double MinimumTokenSimilarity { get; set; } = 0.5;
+
+    /// <summary>
+    /// Where the candidates of a search come from (docs/search.md, "Candidates"): <c>all</c> hands every live
+    /// page to the sign-code stage (the exhaustive two stages); <c>graph</c> asks the serving view's candidate
+    /// graph (sublinear, but it keeps less of the exhaustive top-10: docs/benchmarks.md, <c>serving</c>).
+    /// </summary>
+    public string Candidates { get; set; } = "all";
 }

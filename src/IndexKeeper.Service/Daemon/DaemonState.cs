@@ -99,12 +99,17 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     }
 
     /// <summary>Runs the waiting requests; called by the work loop only.</summary>
-    public void RunRequests()
+    /// <summary>Runs the queued requests on the calling (work loop) thread; true when there was any.</summary>
+    public bool RunRequests()
     {
+        var ran = false;
         while (requests.Reader.TryRead(out var request))
         {
             request();
+            ran = true;
         }
+
+        return ran;
     }
 
     public void SetRoot(RootState root) => roots[root.Name] = root;

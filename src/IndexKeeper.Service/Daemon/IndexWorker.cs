@@ -50,6 +50,14 @@ internal sealed class IndexWorker(
     private long embeddedSinceSample;
     private bool migrating;
 
+    // The last sample and the catalog commit count it was read at: an idle loop republishes it instead of
+    // reading every document, page and vector-set record again (issue 13: idle CPU grew with the index).
+    private DaemonFigures? lastSample;
+    private long commitsAtSample = -1;
+    private bool workSinceSample = true;
+    private DateTimeOffset servingWrittenAt = DateTimeOffset.MinValue;
+    private DateTimeOffset sampledFullyAt = DateTimeOffset.MinValue;
+
     /// <summary>Completes when the loop's thread has ended (or never started): only then may the index be closed.</summary>
     public Task Completion => completion.Task;
 
@@ -140,7 +148,7 @@ internal sealed class IndexWorker(
                     ForgetRoot(gone);
                 }
 
-                state.RunRequests();
+                workSinceSample |= state.RunRequests();
                 var busy = false;
                 if (now >= nextFullWalk)
                 {
@@ -182,6 +190,7 @@ internal sealed class IndexWorker(
                     busy |= CheckCanariesIfDue();
                 }
 
+                workSinceSample |= busy;
                 now = clock.GetUtcNow();
                 if (now >= nextSample)
                 {
@@ -199,6 +208,7 @@ internal sealed class IndexWorker(
                 supervisor.Succeeded();
                 if (!busy)
                 {
+                    KeepServingViewWarm(clock.GetUtcNow());
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
                     if (nextSettle is { } settle)
@@ -457,27 +467,53 @@ internal sealed class IndexWorker(
     {
         if (index.Store.OldestOpenSince() is { } since && state.Clock.GetUtcNow() - since >= settings.Segments.SealAtAge)
         {
+            workSinceSample = true;
             index.Store.SealAll();
+        }
+    }
+
+    /// <summary>
+    /// When idle: brings the serving view up to date (so the first search after a start or a sync does not pay
+    /// for it) and writes it for command-line searches, at most once a minute and only when the catalog moved.
+    /// </summary>
+    private void KeepServingViewWarm(DateTimeOffset now)
+    {
+        if (now - servingWrittenAt < TimeSpan.FromMinutes(1))
+        {
+            return;
+        }
+
+        servingWrittenAt = now;
+        try
+        {
+            index.Serving.Persist(CancellationToken.None);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
+        {
+            // A cache of the catalog: searches build it in memory when the file is stale, so this is only logged.
+            log.LogWarning("The serving view was not written: {Message}", ex.Message);
         }
     }
 
     private void Sample(DateTimeOffset now)
     {
         var catalog = index.Catalog;
+        // Damage can come from outside (a segment file removed by hand), so the whole survey runs every five minutes.
+        if (!workSinceSample && catalog.Commits == commitsAtSample && lastSample is not null && now - sampledFullyAt < TimeSpan.FromMinutes(5))
+        {
+            // Nothing was done and nothing committed since the last read: only the clock and the disk moved.
+            state.Publish(lastSample with { At = now, FreeShare = FreeShare() }, Interlocked.Exchange(ref embeddedSinceSample, 0));
+            return;
+        }
+
+        workSinceSample = false;
+        commitsAtSample = catalog.Commits;
+        sampledFullyAt = now;
         var figures = catalog.Figures();
         var depths = catalog.Queue.Depths();
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
-        double? free = null;
-        try
-        {
-            var drive = new DriveInfo(index.Directory);
-            free = drive.TotalSize > 0 ? (double)drive.AvailableFreeSpace / drive.TotalSize : null;
-        }
-        catch (Exception ex) when (ex is IOException or ArgumentException or UnauthorizedAccessException)
-        {
-            log.LogDebug("Free space of the index volume unknown: {Message}", ex.Message);
-        }
+        var free = FreeShare();
 
         var lastScan = catalog.History.LastScan();
         var latest = new DaemonFigures(
@@ -499,7 +535,22 @@ internal sealed class IndexWorker(
             DirectorySize.Of(index.Directory),
             free,
             DamageSurvey.Run(catalog, index.Store.Directory, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
+        lastSample = latest;
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
+    }
+
+    private double? FreeShare()
+    {
+        try
+        {
+            var drive = new DriveInfo(index.Directory);
+            return drive.TotalSize > 0 ? (double)drive.AvailableFreeSpace / drive.TotalSize : null;
+        }
+        catch (Exception ex) when (ex is IOException or ArgumentException or UnauthorizedAccessException)
+        {
+            log.LogDebug("Free space of the index volume unknown: {Message}", ex.Message);
+            return null;
+        }
     }
 
     private void SealOnExit()

@@ -19,4 +19,17 @@ public sealed class SearchReportHit
     public IReadOnlyList<PageLocation> AlsoAt { get; init; } = [];
 
     public IReadOnlyList<SearchReportMatch> Matches { get; init; } = [];
+
+    /// <summary>
+    /// Words of the page around the first matched word, in reading order, each matched word in «»; empty
+    /// when the page has no words (docs/search.md, "Hits").
+    /// </summary>
+    public string Snippet { get; init; } = string.Empty;
+
+    /// <summary>Facts of the document at the first location: its size in bytes, modification time (UTC) and kind.</summary>
+    public long DocumentSize { get; init; }
+
+    public DateTime DocumentModifiedUtc { get; init; }
+
+    public string DocumentKind { get; init; } = string.Empty;
 }

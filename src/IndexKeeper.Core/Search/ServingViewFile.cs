@@ -1,0 +1,282 @@
+using System.Buffers.Binary;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Storage;
+
+namespace IndexKeeper.Core.Search;
+
+/// <summary>
+/// The serving view on disk (docs/serving-view.md, version <see cref="Version"/>): in the index's
+/// <c>serving/</c> folder, per encoder a view file (header, page directory, CRC-32C trailer) naming a graph
+/// file (the candidate graph as the USearch package saves it, its length and CRC-32C in the view file). A
+/// writer publishes a new graph file, then the view file by rename; a reader checks version, generation,
+/// encoding parameters and both checksums, and treats any mismatch as "stale", never as data.
+/// </summary>
+internal static class ServingViewFile
+{
+    /// <summary>The format this build reads and writes. Never reuse a number.</summary>
+    public const int Version = 1;
+
+    public const string Folder = "serving";
+
+    private const int EntryLength = PageKey.ByteLength + 8 + 8 + 8 + 4 + 4 + 4;
+    private static readonly byte[] Magic = "IKSV"u8.ToArray();
+
+    /// <summary>The view file of an encoder: the first 16 hex digits of its id name it.</summary>
+    public static string PathOf(string indexDirectory, string encoderId) => Path.Combine(indexDirectory, Folder, Stem(encoderId) + ".view");
+
+    /// <summary>
+    /// Reads the view of <paramref name="encoderId"/> if it shows <paramref name="generation"/>; null with the
+    /// reason otherwise. <paramref name="mapOnly"/> maps the graph read-only (search), else loads it (to apply
+    /// changes). Nothing is written.
+    /// </summary>
+    public static ServingView? TryRead(string indexDirectory, string encoderId, long catalogStamp, long generation, bool mapOnly, out string reason)
+    {
+        var path = PathOf(indexDirectory, encoderId);
+        byte[] bytes;
+        try
+        {
+            bytes = File.ReadAllBytes(path);
+        }
+        catch (Exception ex) when (ex is FileNotFoundException or DirectoryNotFoundException)
+        {
+            reason = "no serving view on disk";
+            return null;
+        }
+
+        try
+        {
+            return Parse(bytes, indexDirectory, encoderId, catalogStamp, generation, mapOnly, out reason);
+        }
+        catch (Exception ex) when (ex is ArgumentException or IndexOutOfRangeException or FormatException or IOException)
+        {
+            reason = $"serving view {path} cannot be read ({ex.Message})";
+            return null;
+        }
+    }
+
+    /// <summary>
+    /// Publishes <paramref name="view"/>: the graph under a new name, synced; the view file written beside,
+    /// synced and renamed over the old one; then older graph files of the encoder are deleted.
+    /// </summary>
+    public static void Write(string indexDirectory, ServingView view, long catalogStamp)
+    {
+        ArgumentNullException.ThrowIfNull(view);
+        var folder = Path.Combine(indexDirectory, Folder);
+        Directory.CreateDirectory(folder);
+        var stem = Stem(view.EncoderId);
+        view.Write((entries, nextId, graph) =>
+        {
+            var graphName = string.Empty;
+            long graphLength = 0;
+            uint graphChecksum = 0;
+            if (graph is not null && entries.Count > 0)
+            {
+                graphName = $"{stem}-{view.Generation}-{Environment.ProcessId}.graph";
+                var graphPath = Path.Combine(folder, graphName);
+                graph.Save(graphPath);
+                (graphLength, graphChecksum) = SyncAndChecksum(graphPath);
+            }
+
+            using var body = new MemoryStream();
+            using (var writer = new BinaryWriter(body, System.Text.Encoding.UTF8, leaveOpen: true))
+            {
+                writer.Write(Magic);
+                writer.Write(Version);
+                writer.Write(catalogStamp);
+                writer.Write(view.Generation);
+                WriteString(writer, view.EncoderId);
+                writer.Write(view.Dimensions);
+                writer.Write(FixedDimensionalEncoding.Seed);
+                writer.Write(FixedDimensionalEncoding.Repetitions);
+                writer.Write(FixedDimensionalEncoding.BucketBits);
+                writer.Write(FixedDimensionalEncoding.ProjectionDimensions);
+                writer.Write(nextId);
+                writer.Write(entries.Count);
+                WriteString(writer, graphName);
+                writer.Write(graphLength);
+                writer.Write(graphChecksum);
+                foreach (var (id, entry) in entries)
+                {
+                    writer.Write(entry.Key.ToBytes());
+                    writer.Write(id);
+                    writer.Write(entry.Location.SegmentId);
+                    writer.Write(entry.Location.Offset);
+                    writer.Write(entry.Location.Length);
+                    writer.Write(entry.Location.Checksum);
+                    writer.Write(entry.VectorCount);
+                }
+            }
+
+            body.Write(BitConverter.GetBytes(Crc32C.Compute(body.GetBuffer().AsSpan(0, (int)body.Length))));
+            var path = PathOf(indexDirectory, view.EncoderId);
+            var temporary = path + ".tmp";
+            using (var file = new FileStream(temporary, FileMode.Create, FileAccess.Write, FileShare.None))
+            {
+                body.Position = 0;
+                body.CopyTo(file);
+                file.Flush(flushToDisk: true);
+            }
+
+            File.Move(temporary, path, overwrite: true);
+            DirectorySync.Flush(folder);
+            foreach (var old in Directory.EnumerateFiles(folder, stem + "-*.graph"))
+            {
+                if (Path.GetFileName(old) != graphName)
+                {
+                    TryDelete(old);
+                }
+            }
+        });
+    }
+
+    private static ServingView? Parse(byte[] bytes, string indexDirectory, string encoderId, long catalogStamp, long generation, bool mapOnly, out string reason)
+    {
+        if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic))
+        {
+            reason = "the serving view file is not one (magic)";
+            return null;
+        }
+
+        var version = BinaryPrimitives.ReadInt32LittleEndian(bytes.AsSpan(Magic.Length));
+        if (version != Version)
+        {
+            reason = $"the serving view file has version {version}, this build reads {Version}";
+            return null;
+        }
+
+        var stored = BinaryPrimitives.ReadUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4));
+        if (Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)) != stored)
+        {
+            reason = "the serving view file's checksum does not match";
+            return null;
+        }
+
+        using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
+        var fileStamp = reader.ReadInt64();
+        var fileGeneration = reader.ReadInt64();
+        var fileEncoder = ReadString(reader);
+        var dimensions = reader.ReadInt32();
+        var parameters = (reader.ReadUInt64(), reader.ReadInt32(), reader.ReadInt32(), reader.ReadInt32());
+        var nextId = reader.ReadUInt64();
+        var count = reader.ReadInt32();
+        var graphName = ReadString(reader);
+        var graphLength = reader.ReadInt64();
+        var graphChecksum = reader.ReadUInt32();
+        if (fileEncoder != encoderId)
+        {
+            reason = $"the serving view file is of encoder {fileEncoder}";
+            return null;
+        }
+
+        if (fileStamp != catalogStamp)
+        {
+            reason = "the serving view was made for another catalog (it was rebuilt or replaced)";
+            return null;
+        }
+
+        if (fileGeneration != generation)
+        {
+            reason = $"the serving view shows catalog generation {fileGeneration}, the catalog is at {generation}";
+            return null;
+        }
+
+        if (parameters != (FixedDimensionalEncoding.Seed, FixedDimensionalEncoding.Repetitions, FixedDimensionalEncoding.BucketBits, FixedDimensionalEncoding.ProjectionDimensions))
+        {
+            reason = "the serving view was encoded with other parameters";
+            return null;
+        }
+
+        if (count < 0 || (long)count * EntryLength != reader.BaseStream.Length - reader.BaseStream.Position)
+        {
+            reason = "the serving view file's directory has the wrong length";
+            return null;
+        }
+
+        var entries = new List<(ulong Id, ServingEntry Entry)>(count);
+        for (var i = 0; i < count; i++)
+        {
+            var key = PageKey.FromHash(reader.ReadBytes(PageKey.ByteLength));
+            var id = reader.ReadUInt64();
+            var location = new RecordLocation(reader.ReadInt64(), reader.ReadInt64(), reader.ReadInt32(), reader.ReadUInt32());
+            entries.Add((id, new ServingEntry(key, location, reader.ReadInt32())));
+        }
+
+        CandidateGraph? graph = null;
+        if (count > 0)
+        {
+            var graphPath = Path.Combine(indexDirectory, Folder, graphName);
+            if (graphName.Length == 0 || graphName.Contains(Path.DirectorySeparatorChar, StringComparison.Ordinal) || !File.Exists(graphPath))
+            {
+                reason = $"the serving view's graph file '{graphName}' is missing";
+                return null;
+            }
+
+            var (length, checksum) = Checksum(graphPath);
+            if (length != graphLength || checksum != graphChecksum)
+            {
+                reason = $"the serving view's graph file '{graphName}' does not match its checksum";
+                return null;
+            }
+
+            graph = CandidateGraph.Open(graphPath, mapOnly);
+            if (graph.Count != count)
+            {
+                graph.Dispose();
+                reason = $"the serving view's graph holds {graph.Count} pages, its directory {count}";
+                return null;
+            }
+        }
+
+        reason = string.Empty;
+        return ServingView.Restore(encoderId, generation, dimensions, nextId, entries, graph);
+    }
+
+    private static string Stem(string encoderId) => encoderId.Length > 16 ? encoderId[..16] : encoderId;
+
+    private static (long Length, uint Checksum) SyncAndChecksum(string path)
+    {
+        using (var file = new FileStream(path, FileMode.Open, FileAccess.ReadWrite, FileShare.Read))
+        {
+            file.Flush(flushToDisk: true);
+        }
+
+        return Checksum(path);
+    }
+
+    private static (long Length, uint Checksum) Checksum(string path)
+    {
+        using var file = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read | FileShare.Delete, 1 << 20);
+        var buffer = new byte[1 << 20];
+        uint crc = 0;
+        long length = 0;
+        int read;
+        while ((read = file.Read(buffer)) > 0)
+        {
+            crc = Crc32C.Append(crc, buffer.AsSpan(0, read));
+            length += read;
+        }
+
+        return (length, crc);
+    }
+
+    private static void WriteString(BinaryWriter writer, string value)
+    {
+        var bytes = System.Text.Encoding.UTF8.GetBytes(value);
+        writer.Write(checked((ushort)bytes.Length));
+        writer.Write(bytes);
+    }
+
+    private static string ReadString(BinaryReader reader) => System.Text.Encoding.UTF8.GetString(reader.ReadBytes(reader.ReadUInt16()));
+
+    private static void TryDelete(string path)
+    {
+        try
+        {
+            File.Delete(path);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            // A reader on Windows may still map it; the next publish deletes it.
+        }
+    }
+}

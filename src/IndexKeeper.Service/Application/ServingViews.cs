@@ -1,0 +1,305 @@
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Search;
+using IndexKeeper.Core.Storage;
+
+namespace IndexKeeper.Service.Application;
+
+/// <summary>
+/// The serving views of an open index, one per encoder searched (docs/search.md, "Serving view"). A writing
+/// process hears every commit that touches vector sets and moves its views forward by those changes alone;
+/// a view is read from <c>serving/</c> when the file shows the catalog's state, and built from the catalog
+/// only when no change list reaches it. Read-only opens never write the file (reads never write).
+/// </summary>
+/// <remarks>
+/// Locking: <c>gate</c> orders catch-ups, builds and writes of the views; <c>pendingGate</c> guards the
+/// change list the commit handler fills on the writer's thread (it only appends, never waits for a view).
+/// </remarks>
+public sealed class ServingViews : IDisposable
+{
+    // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
+    private const int BuildChunk = 1024;
+
+    private readonly IndexCatalog catalog;
+    private readonly Func<VectorStore> store;
+    private readonly string directory;
+    private readonly bool readOnly;
+    private readonly object gate = new();
+    private readonly object pendingGate = new();
+    private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
+    private readonly List<VectorSetChanges> pending = [];
+    private readonly long openedAt;
+    private long writtenAt;
+
+    /// <param name="store">The segment store, asked for only when vector sets are read (opened on first use).</param>
+    /// <param name="readOnly">True for a read-only open: the views are never written to disk and no commit is heard.</param>
+    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly)
+    {
+        ArgumentNullException.ThrowIfNull(catalog);
+        ArgumentNullException.ThrowIfNull(store);
+        ArgumentException.ThrowIfNullOrEmpty(directory);
+        this.catalog = catalog;
+        this.store = store;
+        this.directory = directory;
+        this.readOnly = readOnly;
+        openedAt = catalog.VectorSetGeneration;
+        writtenAt = long.MinValue;
+        if (!readOnly)
+        {
+            catalog.VectorSetsCommitted += Heard;
+        }
+    }
+
+    /// <summary>Views built from the whole catalog in this process (not read from disk, not moved forward by changes).</summary>
+    public int Builds { get; private set; }
+
+    /// <summary>The view of <paramref name="encoderId"/> at the catalog's current state.</summary>
+    public ServingView For(string encoderId, CancellationToken cancellationToken)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(encoderId);
+        lock (gate)
+        {
+            var generation = catalog.VectorSetGeneration;
+            if (views.TryGetValue(encoderId, out var view) && view.Generation == generation)
+            {
+                return view;
+            }
+
+            if (view is not null && CatchUp(view, generation, cancellationToken))
+            {
+                return view;
+            }
+
+            view?.Dispose();
+            views.Remove(encoderId);
+            view = Load(encoderId, generation, cancellationToken);
+            views[encoderId] = view;
+            return view;
+        }
+    }
+
+    /// <summary>
+    /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
+    /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
+    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives (docs/search.md,
+    /// "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
+    /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
+    /// </summary>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(query);
+        for (var attempt = 1; ; attempt++)
+        {
+            var view = For(encoderId, cancellationToken);
+            if (query.Count == 0 || view.Count == 0)
+            {
+                return (new SearchResult([], view.Count, 0), view.Unreadable);
+            }
+
+            var candidates = fromGraph ? view.Candidates(query, CandidateCount(k)) : view.Entries();
+            try
+            {
+                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
+                {
+                    EncoderId = encoderId,
+                    PageKey = c.Key.Hex,
+                    SegmentId = c.Location.SegmentId,
+                    Offset = c.Location.Offset,
+                    Length = c.Location.Length,
+                    Checksum = c.Location.Checksum,
+                    VectorCount = c.VectorCount,
+                    Live = true,
+                })]);
+                var ranked = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+                return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
+            }
+            catch (InvalidOperationException) when (attempt < 3)
+            {
+                // A segment retired by a compaction committed after the view was taken; the next view names its successor.
+            }
+        }
+    }
+
+    /// <summary>Pages the candidate graph hands to the sign-code stage (docs/search.md, "Candidates").</summary>
+    public static int CandidateCount(int k) => Math.Max(200 * k, 2000);
+
+    /// <summary>
+    /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
+    /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale.
+    /// </summary>
+    public void Persist(CancellationToken cancellationToken)
+    {
+        if (readOnly)
+        {
+            return;
+        }
+
+        lock (gate)
+        {
+            var generation = catalog.VectorSetGeneration;
+            if (generation == writtenAt)
+            {
+                return;
+            }
+
+            var stamp = catalog.CreatedTicks;
+            var encoders = new HashSet<string>(views.Keys, StringComparer.Ordinal);
+            if (catalog.Encoders.ServingId() is { } serving)
+            {
+                encoders.Add(serving);
+            }
+
+            foreach (var encoderId in encoders)
+            {
+                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: true, out _) is { } fresh)
+                {
+                    // Already on disk as it is now (an earlier process wrote it): nothing to do.
+                    fresh.Dispose();
+                    continue;
+                }
+
+                ServingViewFile.Write(directory, For(encoderId, cancellationToken), stamp);
+            }
+
+            writtenAt = generation;
+        }
+    }
+
+    public void Dispose()
+    {
+        if (!readOnly)
+        {
+            catalog.VectorSetsCommitted -= Heard;
+        }
+
+        lock (gate)
+        {
+            foreach (var view in views.Values)
+            {
+                view.Dispose();
+            }
+
+            views.Clear();
+        }
+    }
+
+    /// <summary>REQUIRES: <c>gate</c> is held.</summary>
+    private ServingView Load(string encoderId, long generation, CancellationToken cancellationToken)
+    {
+        var stamp = catalog.CreatedTicks;
+        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: readOnly, out _) is { } current)
+        {
+            return current;
+        }
+
+        // A writer that heard every commit since it opened can start from the file as it was then.
+        if (!readOnly && openedAt != generation
+            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, mapOnly: false, out _) is { } older)
+        {
+            if (CatchUp(older, generation, cancellationToken))
+            {
+                return older;
+            }
+
+            older.Dispose();
+        }
+
+        return Build(encoderId, generation, cancellationToken);
+    }
+
+    /// <summary>
+    /// Moves <paramref name="view"/> to <paramref name="generation"/> by the heard changes; false when they do
+    /// not reach from its generation to that one (a commit not heard). REQUIRES: <c>gate</c> is held.
+    /// </summary>
+    private bool CatchUp(ServingView view, long generation, CancellationToken cancellationToken)
+    {
+        List<VectorSetChanges> steps;
+        lock (pendingGate)
+        {
+            steps = [.. pending.Where(p => p.Generation > view.Generation && p.Generation <= generation).OrderBy(p => p.Generation)];
+        }
+
+        for (var i = 0; i < steps.Count; i++)
+        {
+            if (steps[i].Generation != view.Generation + 1 + i)
+            {
+                return false;
+            }
+        }
+
+        if (view.Generation + steps.Count != generation)
+        {
+            return false;
+        }
+
+        var changes = steps.SelectMany(s => s.Changed).Where(c => c.EncoderId == view.EncoderId).Select(ToChange).ToList();
+        view.Apply(generation, changes, locations => Open(view.EncoderId, locations), cancellationToken);
+        Trim();
+        return true;
+    }
+
+    /// <summary>The view from the catalog's live vector sets, every one read and encoded. REQUIRES: <c>gate</c> is held.</summary>
+    private ServingView Build(string encoderId, long generation, CancellationToken cancellationToken)
+    {
+        // Stamped with the generation read before the list: commits that land while it is read (the daemon's
+        // writer does not wait for searches) are applied again by the next catch-up, and each change states a
+        // final state, so one already in the list changes nothing.
+        var view = new ServingView(encoderId, generation);
+        try
+        {
+            var live = catalog.VectorSets.Live(encoderId);
+            for (var at = 0; at < live.Count; at += BuildChunk)
+            {
+                var chunk = live.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
+                view.Apply(generation, chunk, locations => Open(encoderId, locations), cancellationToken);
+            }
+
+            Builds++;
+            return view;
+        }
+        catch
+        {
+            view.Dispose();
+            throw;
+        }
+    }
+
+    private (IVectorSetSource Source, IReadOnlyList<int> Given) Open(string encoderId, IReadOnlyList<RecordLocation> locations)
+    {
+        var records = locations.Select(l => new VectorSetRecord
+        {
+            EncoderId = encoderId,
+            SegmentId = l.SegmentId,
+            Offset = l.Offset,
+            Length = l.Length,
+            Checksum = l.Checksum,
+        }).ToList();
+        var live = store().OpenSelected(encoderId, records);
+        var unreadable = live.Unreadable.Select(u => u.Record).ToHashSet();
+        return (live.Source, [.. Enumerable.Range(0, records.Count).Where(i => !unreadable.Contains(records[i]))]);
+    }
+
+    private void Heard(VectorSetChanges changes)
+    {
+        lock (pendingGate)
+        {
+            pending.Add(changes);
+        }
+    }
+
+    /// <summary>Forgets heard changes every view and the file of the open already have.</summary>
+    private void Trim()
+    {
+        // Until a view exists the list reaches back to the open, so a writer can move the file of then forward.
+        var floor = views.Count == 0 ? openedAt : views.Values.Min(v => v.Generation);
+        lock (pendingGate)
+        {
+            pending.RemoveAll(p => p.Generation <= floor);
+        }
+    }
+
+    private static ServingChange ToChange(VectorSetRecord record) =>
+        new(PageKey.Parse(record.PageKey), record.Live ? new RecordLocation(record.SegmentId, record.Offset, record.Length, unchecked((uint)record.Checksum)) : null, record.VectorCount);
+}

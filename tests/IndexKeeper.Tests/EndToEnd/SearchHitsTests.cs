@@ -1,0 +1,44 @@
+namespace IndexKeeper.Tests.EndToEnd;
+
+/// <summary>
+/// What a search answer gives a retrieval pipeline (issue 13), on the real executable: the page's words
+/// around the match with the matched words marked, the document's facts as the file system states them, no
+/// hits for a query whose words appear nowhere, and a serving view the sync left that the search maps
+/// without writing it.
+/// </summary>
+public sealed class SearchHitsTests : IDisposable
+{
+    private const string Line = "Reservoir spillway inspected after the northern storm";
+    private readonly CliIndex index = new("store");
+
+    public void Dispose() => index.Dispose();
+
+    [Fact]
+    public void A_hit_carries_its_snippet_and_document_facts_and_nonsense_finds_nothing()
+    {
+        var file = index.Put("store/logs/spillway.pdf", StorePdfs.Document("spillway", 4, 3, Line));
+        index.Json("sync");
+        var view = Directory.GetFiles(index.PathOf("index/serving"), "*.view").Single();
+        var written = File.ReadAllBytes(view);
+
+        var search = index.Json("search", "spillway storm", "-k", "3");
+        var top = search.GetProperty("hits").EnumerateArray().First();
+        Assert.Equal(3, top.GetProperty("page").GetInt32());
+        var snippet = top.GetProperty("snippet").GetString()!;
+        Assert.Contains("«spillway»", snippet, StringComparison.Ordinal);
+        Assert.Contains("«storm»", snippet, StringComparison.Ordinal);
+        Assert.Contains("inspected", snippet, StringComparison.Ordinal);
+
+        // The file system's own account of the file is the reference for the document facts.
+        var facts = new FileInfo(file);
+        Assert.Equal(facts.Length, top.GetProperty("documentSize").GetInt64());
+        Assert.Equal(facts.LastWriteTimeUtc, top.GetProperty("documentModifiedUtc").GetDateTime().ToUniversalTime());
+        Assert.Equal("Pdf", top.GetProperty("documentKind").GetString());
+
+        var nonsense = index.Json("search", "qzxvwk jjfpqh", "-k", "3");
+        Assert.Empty(nonsense.GetProperty("hits").EnumerateArray());
+
+        // Reads never write: the view the sync wrote is mapped as it is.
+        Assert.Equal(written, File.ReadAllBytes(view));
+    }
+}

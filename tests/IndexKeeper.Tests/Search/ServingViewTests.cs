@@ -1,0 +1,233 @@
+using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Search;
+using IndexKeeper.Service.Application;
+using IndexKeeper.Tests.Storage;
+
+namespace IndexKeeper.Tests.Search;
+
+/// <summary>
+/// The serving view (docs/search.md, "Serving view"; docs/serving-view.md) against the catalog it serves: the
+/// catalog's own live list is the reference for what the view must hold after each commit, and the search over
+/// the view must give the hits of the search over every live vector set when the candidates cover the index.
+/// </summary>
+public sealed class ServingViewTests : IDisposable
+{
+    private const int Dimensions = 64;
+    private static readonly EncoderIdentity Encoder = new(TestVectors.EncoderId, "test", "serving view test encoder", Dimensions);
+    private readonly Support.TempDirectory directory = new();
+
+    public void Dispose() => directory.Dispose();
+
+    [Fact]
+    public void The_generation_counts_commits_that_touch_vector_sets_and_only_those()
+    {
+        using var index = Index.Open(directory.Path);
+        Assert.Equal(0, index.Catalog.VectorSetGeneration);
+        var heard = new List<VectorSetChanges>();
+        index.Catalog.VectorSetsCommitted += heard.Add;
+
+        index.AddPages(0, 1, 2);
+        Assert.Equal(0, index.Catalog.VectorSetGeneration);
+        index.Embed(0, 1, 2);
+        Assert.Equal(1, index.Catalog.VectorSetGeneration);
+
+        index.Unreference(1);
+        Assert.Equal(2, index.Catalog.VectorSetGeneration);
+        Assert.Equal([1L, 2L], heard.Select(h => h.Generation));
+        var gone = Assert.Single(heard[1].Changed);
+        Assert.Equal(TestVectors.Key(1).Hex, gone.PageKey);
+        Assert.False(gone.Live);
+    }
+
+    [Fact]
+    public void A_writer_moves_its_view_forward_by_each_commit_and_matches_the_catalog()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 30)]);
+        index.Embed([.. Enumerable.Range(0, 30)]);
+        using var views = index.Views(readOnly: false);
+        AssertMatchesCatalog(index, views.For(Encoder.Id, CancellationToken.None));
+
+        index.AddPages(30, 31);
+        index.Embed(30, 31);
+        index.Unreference(3, 4, 5);
+        index.Store.SealAll();
+        index.Store.Compact(new Core.Compaction.CompactionOptions { DeadShareThreshold = 0.01 }, CancellationToken.None);
+
+        AssertMatchesCatalog(index, views.For(Encoder.Id, CancellationToken.None));
+        Assert.Equal(1, views.Builds);
+    }
+
+    [Fact]
+    public void A_read_only_open_uses_the_file_when_current_and_never_writes_it_when_stale()
+    {
+        using (var index = Index.Open(directory.Path))
+        {
+            index.AddPages(0, 1, 2, 3);
+            index.Embed(0, 1, 2, 3);
+            using var writer = index.Views(readOnly: false);
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+            using var reader = index.Views(readOnly: true);
+            AssertMatchesCatalog(index, reader.For(Encoder.Id, CancellationToken.None));
+            Assert.Equal(0, reader.Builds);
+
+            index.Unreference(2);
+        }
+
+        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
+        var before = File.ReadAllBytes(file);
+        var written = File.GetLastWriteTimeUtc(file);
+        using (var index = Index.Open(directory.Path))
+        using (var reader = index.Views(readOnly: true))
+        {
+            AssertMatchesCatalog(index, reader.For(Encoder.Id, CancellationToken.None));
+            Assert.Equal(1, reader.Builds);
+            reader.Persist(CancellationToken.None);
+        }
+
+        Assert.Equal(before, File.ReadAllBytes(file));
+        Assert.Equal(written, File.GetLastWriteTimeUtc(file));
+    }
+
+    [Theory]
+    [InlineData(4)]
+    [InlineData(12)]
+    [InlineData(-8)]
+    public void A_damaged_view_file_reads_as_stale_and_the_view_is_built_from_the_catalog(int offset)
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages(0, 1, 2);
+        index.Embed(0, 1, 2);
+        using (var writer = index.Views(readOnly: false))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+        }
+
+        // Offset 4 is the version, 12 the catalog stamp, −8 a byte of the last entry (a checksum mismatch).
+        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
+        var bytes = File.ReadAllBytes(file);
+        bytes[offset >= 0 ? offset : bytes.Length + offset] ^= 0x5A;
+        File.WriteAllBytes(file, bytes);
+        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, mapOnly: true, out var reason));
+        Assert.NotEmpty(reason);
+
+        using var reader = index.Views(readOnly: true);
+        AssertMatchesCatalog(index, reader.For(Encoder.Id, CancellationToken.None));
+        Assert.Equal(1, reader.Builds);
+    }
+
+    [Fact]
+    public void Search_over_the_view_gives_the_hits_of_the_search_over_every_live_vector_set()
+    {
+        // Fewer pages than the candidate count, so the graph hands over every page and the two must agree exactly.
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 60)]);
+        index.Embed([.. Enumerable.Range(0, 60)]);
+        index.Unreference(7, 8);
+        using var views = index.Views(readOnly: false);
+        foreach (var (seed, fromGraph) in new[] { (101, true), (102, true), (103, false), (104, false) })
+        {
+            var query = TestVectors.Set(seed, 4, Dimensions);
+            var (result, unreadable) = views.Search(Encoder.Id, query, 10, fromGraph, CancellationToken.None);
+            using var live = index.Store.OpenLive(Encoder.Id);
+            var expected = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None);
+            Assert.Equal(expected.Hits.Select(h => (h.Key, h.Score)), result.Hits.Select(h => (h.Key, h.Score)));
+            Assert.Equal(58, result.PagesScanned);
+            Assert.Equal(0, unreadable);
+        }
+    }
+
+    [Fact]
+    public void Fixed_dimensional_encodings_follow_the_definition_for_one_vector()
+    {
+        // Dhulipala et al., "MUVERA" (NeurIPS 2024), §2: a query sums its vectors per bucket, a page averages
+        // them, and an empty page bucket takes the page vector of the nearest bucket. With one vector, the page
+        // therefore holds its projection in every bucket, and the query in exactly one bucket per repetition.
+        var encoding = new FixedDimensionalEncoding(Dimensions);
+        var vector = TestVectors.Set(5, 1, Dimensions);
+        var halves = vector.Vectors.ToArray().Select(v => (Half)v).ToArray();
+        var page = new float[FixedDimensionalEncoding.Length];
+        encoding.EncodePage(halves, page);
+        var query = new float[FixedDimensionalEncoding.Length];
+        encoding.EncodeQuery(halves.Select(h => (float)h).ToArray(), query);
+        var cell = FixedDimensionalEncoding.ProjectionDimensions;
+        var buckets = 1 << FixedDimensionalEncoding.BucketBits;
+        for (var r = 0; r < FixedDimensionalEncoding.Repetitions; r++)
+        {
+            var first = page.AsSpan(r * buckets * cell, cell).ToArray();
+            var filled = 0;
+            for (var b = 0; b < buckets; b++)
+            {
+                Assert.Equal(first, page.AsSpan(((r * buckets) + b) * cell, cell).ToArray());
+                if (query.AsSpan(((r * buckets) + b) * cell, cell).ToArray().Any(x => x != 0))
+                {
+                    filled++;
+                    Assert.Equal(first, query.AsSpan(((r * buckets) + b) * cell, cell).ToArray());
+                }
+            }
+
+            Assert.Equal(1, filled);
+        }
+    }
+
+    private static void AssertMatchesCatalog(Index index, ServingView view)
+    {
+        var live = index.Catalog.VectorSets.Live(Encoder.Id);
+        Assert.Equal(index.Catalog.VectorSetGeneration, view.Generation);
+        Assert.Equal(
+            live.Select(v => (v.PageKey, v.SegmentId, v.Offset, v.Length, v.VectorCount)),
+            view.Entries().Select(e => (e.Key.Hex, e.Location.SegmentId, e.Location.Offset, e.Location.Length, e.VectorCount)));
+    }
+
+    /// <summary>A small index opened for writing, with the few changes the tests make.</summary>
+    private sealed class Index : IDisposable
+    {
+        private readonly IndexLock held;
+
+        private Index(string path)
+        {
+            Path = path;
+            held = IndexLock.Acquire(path, "serving view test");
+            Catalog = IndexCatalog.Open(held);
+            Store = VectorStore.Open(Catalog, path);
+        }
+
+        public string Path { get; }
+
+        public IndexCatalog Catalog { get; }
+
+        public VectorStore Store { get; }
+
+        public static Index Open(string path) => new(path);
+
+        public ServingViews Views(bool readOnly) => new(Catalog, () => Store, Path, readOnly);
+
+        public void AddPages(params int[] pages)
+        {
+            var edit = new CatalogEdit();
+            edit.AddPages.AddRange(pages.Select(p => new PageRecord { Id = TestVectors.Key(p).Hex, References = 1 }));
+            Catalog.Apply(edit);
+        }
+
+        public void Embed(params int[] pages) => Store.AppendAndCommit(Encoder, [.. pages.Select(p => (TestVectors.Key(p), TestVectors.Set(p, 3 + (p % 5), Dimensions)))]);
+
+        public void Unreference(params int[] pages)
+        {
+            var edit = new CatalogEdit();
+            edit.SetReferences.AddRange(pages.Select(p => (TestVectors.Key(p).Hex, 0)));
+            Catalog.Apply(edit);
+            Catalog.RemoveUnreferencedPages();
+        }
+
+        public void Dispose()
+        {
+            Store.Dispose();
+            Catalog.Dispose();
+            held.Dispose();
+        }
+    }
+}
