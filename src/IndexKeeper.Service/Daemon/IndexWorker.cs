@@ -47,6 +47,7 @@ internal sealed class IndexWorker(
     private readonly CancellationTokenSource hardStop = new();
     private readonly TaskCompletionSource completion = new(TaskCreationOptions.RunContinuationsAsynchronously);
     private readonly Dictionary<string, DateTimeOffset> nextPoll = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, TimeSpan?> pollIntervals = new(StringComparer.Ordinal);
     private long embeddedSinceSample;
     private bool migrating;
 
@@ -277,8 +278,6 @@ internal sealed class IndexWorker(
 
         return due;
     }
-
-    private readonly Dictionary<string, TimeSpan?> pollIntervals = new(StringComparer.Ordinal);
 
     private TimeSpan? PollInterval(RootSpec root)
     {
