@@ -58,7 +58,19 @@ internal sealed class CandidateGraph : IDisposable
         return found == keys.Length ? keys : keys[..found];
     }
 
-    public void Save(string path) => index.Save(path);
+    /// <summary>Writes the graph to <paramref name="path"/>; a failed write (full disk, I/O error) is an <see cref="IOException"/>.</summary>
+    public void Save(string path)
+    {
+        try
+        {
+            index.Save(path);
+        }
+        catch (Cloud.Unum.USearch.USearchException ex)
+        {
+            // The native library reports a failed write only as its own exception ("Failed to serialize into stream").
+            throw new IOException($"The candidate graph could not be written to '{path}': {ex.Message}", ex);
+        }
+    }
 
     public void Dispose() => index.Dispose();
 

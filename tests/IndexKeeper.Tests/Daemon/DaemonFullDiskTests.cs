@@ -41,8 +41,10 @@ public sealed class DaemonFullDiskTests(ITestOutputHelper output)
                 }
 
                 daemon.WaitUntilOrExit("health reports the work loop retrying", () => daemon.Health().Contains("work-loop-retrying", StringComparison.Ordinal));
-                Assert.Contains("The work loop hit a fault", daemon.Stderr, StringComparison.Ordinal);
-                Assert.Contains("No space left on device", daemon.Stderr, StringComparison.Ordinal);
+                // The log line reaches our end of the stderr pipe after the health state is published: wait for it.
+                daemon.WaitUntilOrExit("the fault is logged", () => daemon.Stderr.Contains("The work loop hit a fault", StringComparison.Ordinal) && daemon.Stderr.Contains("No space left on device", StringComparison.Ordinal));
+                Assert.True(daemon.Stderr.Contains("The work loop hit a fault", StringComparison.Ordinal), daemon.Stderr);
+                Assert.True(daemon.Stderr.Contains("No space left on device", StringComparison.Ordinal), daemon.Stderr);
                 File.Delete(filler);
 
                 // Room again: either the loop carries on by itself, or it has found the catalog unusable and exited.
