@@ -6,6 +6,12 @@ namespace IndexKeeper.Core.Catalog;
 /// </summary>
 public sealed class ScanRecord
 {
+    /// <summary>The <see cref="Counts"/> key of files a pass's globs left out. Reaches the catalog: never change it.</summary>
+    public const string FilesSkippedByPatternKey = "filesSkippedByPattern";
+
+    /// <summary>The <see cref="Counts"/> key of files of a type no reader takes. Reaches the catalog: never change it.</summary>
+    public const string FilesUnsupportedKey = "filesUnsupported";
+
     public int Id { get; set; }
 
     public DateTime StartedUtc { get; set; }

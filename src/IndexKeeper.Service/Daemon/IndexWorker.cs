@@ -1,5 +1,6 @@
 using System.Diagnostics;
 using System.ServiceProcess;
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
@@ -520,8 +521,8 @@ internal sealed class IndexWorker(
             figures.Documents,
             figures.QuarantinedDocuments,
             figures.UnsupportedDocuments,
-            lastScan?.Counts.GetValueOrDefault("filesSkippedByPattern") ?? 0,
-            lastScan?.Counts.GetValueOrDefault("filesUnsupported") ?? 0,
+            lastScan?.Counts.GetValueOrDefault(ScanRecord.FilesSkippedByPatternKey) ?? 0,
+            lastScan?.Counts.GetValueOrDefault(ScanRecord.FilesUnsupportedKey) ?? 0,
             figures.Pages,
             catalog.VectorSets.Count(liveOnly: true),
             depths[QueuePriority.Fresh],

@@ -37,8 +37,8 @@ public sealed class FileTally
             IndexedByKind = catalog.Documents.LiveByKind().OrderBy(k => k.Key).ToDictionary(k => k.Key.ToString(), k => k.Value, StringComparer.Ordinal),
             Quarantined = figures.QuarantinedDocuments,
             SelectedButUnsupported = figures.UnsupportedDocuments,
-            SkippedByPattern = last?.Counts.GetValueOrDefault("filesSkippedByPattern") ?? 0,
-            Unsupported = last?.Counts.GetValueOrDefault("filesUnsupported") ?? 0,
+            SkippedByPattern = last?.Counts.GetValueOrDefault(ScanRecord.FilesSkippedByPatternKey) ?? 0,
+            Unsupported = last?.Counts.GetValueOrDefault(ScanRecord.FilesUnsupportedKey) ?? 0,
             UnsupportedTypes = last?.UnsupportedTypes.OrderByDescending(t => t.Files).ThenBy(t => t.Type, StringComparer.Ordinal).ToList() ?? [],
         };
     }
