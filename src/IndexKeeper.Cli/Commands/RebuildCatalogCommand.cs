@@ -55,6 +55,7 @@ internal sealed class RebuildCatalogCommand() : CommandBase(
             scan.PagesSeen,
             catalog.Figures().Queued,
             PagesEmbedded: 0,
+            rebuild.FilesTakenBack,
             rebuild.Problems);
         return context.Print(report, Write, rebuild.Problems.Count > 0 || scan.RootsMissing.Count > 0 ? 1 : 0);
     }
@@ -65,6 +66,11 @@ internal sealed class RebuildCatalogCommand() : CommandBase(
         o.WriteLine(r.OldCatalogMovedTo is null ? "No old catalog was there." : $"The old catalog was moved to {r.OldCatalogMovedTo} (kept).");
         o.WriteLine(string.Create(c, $"Took back {r.SegmentsRestored} segment(s) and {r.VectorSetsRestored} vector set(s); {r.LiveVectorSets} are live after a scan of {r.DocumentsSeen} document(s), {r.PagesSeen} page(s)."));
         o.WriteLine(string.Create(c, $"{r.PagesEmbedded} pages embedded; {r.PagesQueued} page(s) without vectors queued for `indexkeeper sync`."));
+        foreach (var taken in r.FilesTakenBack)
+        {
+            o.WriteLine("  taken back: " + taken);
+        }
+
         foreach (var problem in r.Problems)
         {
             o.WriteLine("  problem: " + problem);

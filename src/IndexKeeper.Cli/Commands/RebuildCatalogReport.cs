@@ -11,4 +11,5 @@ internal sealed record RebuildCatalogReport(
     long PagesSeen,
     long PagesQueued,
     int PagesEmbedded,
+    IReadOnlyList<string> FilesTakenBack,
     IReadOnlyList<string> Problems);

@@ -16,6 +16,9 @@ public sealed class CatalogRebuild
     /// <summary>Encoder ids found in segment headers, with d.</summary>
     public Dictionary<string, int> Encoders { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>Set-aside segment files (orphaned or damaged) moved back to the segments folder, each with where it was.</summary>
+    public List<string> FilesTakenBack { get; } = [];
+
     /// <summary>Files or parts of files that could not be taken back, with the reason.</summary>
     public List<string> Problems { get; } = [];
 }

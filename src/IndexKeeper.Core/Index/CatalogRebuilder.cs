@@ -64,37 +64,53 @@ public static class CatalogRebuilder
         var result = new CatalogRebuild();
         var newest = new Dictionary<(string Encoder, string Key), (SegmentRecord Segment, ScannedRecord Record)>();
         var segments = new List<SegmentRecord>();
+        TakeBackSetAside(segmentsDirectory, result);
         foreach (var (id, path) in SegmentFiles(segmentsDirectory))
         {
             cancellationToken.ThrowIfCancellationRequested();
             try
             {
-                using var reader = SegmentReader.Open(path);
-                if (reader.Header.SegmentId != id)
+                SegmentHeader header;
+                SegmentScan scan;
+                long length;
+                bool sealedWithDamage;
+                using (var reader = SegmentReader.Open(path))
                 {
-                    result.Problems.Add($"{Path.GetFileName(path)}: the header names segment {reader.Header.SegmentId}; left out");
+                    header = reader.Header;
+                    scan = reader.Scan();
+                    length = reader.Length;
+                    sealedWithDamage = reader.IsSealed || scan.DamageOffset == reader.Length - SegmentFormat.SealRecordLength;
+                }
+
+                if (header.SegmentId != id)
+                {
+                    result.Problems.Add($"{Path.GetFileName(path)}: the header names segment {header.SegmentId}; left out");
                     continue;
                 }
 
-                var scan = reader.Scan();
                 var clean = scan.End is SegmentEnd.Sealed or SegmentEnd.Open or SegmentEnd.TornTail;
                 if (!clean)
                 {
-                    result.Problems.Add($"{Path.GetFileName(path)}: {scan.Problem} at byte {scan.DamageOffset}; {scan.Records.Count} record(s) before it taken back, none after");
+                    // A damaged file is never appended to again: an unsealed one is sealed as it is (40 bytes
+                    // appended, nothing changed), so verify finds a whole seal and the damage costs one record.
+                    var sealing = sealedWithDamage ? null : SegmentResealer.SealAfterDamage(path);
+                    length = new FileInfo(path).Length;
+                    result.Problems.Add($"{Path.GetFileName(path)}: {scan.Problem} at byte {scan.DamageOffset}; {scan.Records.Count} record(s) before it and {scan.RecordsAfterDamage.Count} good one(s) after it taken back" +
+                        (sealedWithDamage ? string.Empty : sealing is null ? "; the unsealed file was sealed as it is" : "; not sealed: " + sealing));
                 }
 
                 var segment = new SegmentRecord
                 {
                     Id = id,
-                    EncoderId = reader.Header.EncoderId,
-                    Dimensions = reader.Header.Dimensions,
+                    EncoderId = header.EncoderId,
+                    Dimensions = header.Dimensions,
                     Sealed = scan.End == SegmentEnd.Sealed || !clean,
-                    Length = scan.End == SegmentEnd.Sealed || !clean ? reader.Length : scan.ValidLength,
-                    CreatedUtc = reader.Header.Created.UtcDateTime,
+                    Length = scan.End == SegmentEnd.Sealed || !clean ? length : scan.ValidLength,
+                    CreatedUtc = header.Created.UtcDateTime,
                 };
                 segments.Add(segment);
                 result.Encoders[segment.EncoderId] = segment.Dimensions;
-                foreach (var record in scan.Records)
+                foreach (var record in scan.Records.Concat(scan.RecordsAfterDamage))
                 {
                     // Ids only grow and offsets within a file too: the later record is the one written last.
                     if (newest.ContainsKey((segment.EncoderId, record.Key.Hex)))
@@ -145,6 +161,50 @@ public static class CatalogRebuilder
         var satisfied = catalog.Queue.InOrder().Select(q => q.Id).Where(covered.Contains).ToList();
         catalog.Queue.Remove(satisfied);
         return satisfied.Count;
+    }
+
+    /// <summary>
+    /// Moves the segment files that recovery set aside in <c>orphaned/</c> and <c>repair</c> in <c>damaged/</c>
+    /// back to their own names, so their good records are taken back like any other: they were set aside
+    /// because the old catalog did not name them or could not read them, and that catalog is gone. A file whose
+    /// header cannot be read, or whose id another file already holds, stays where it is and is reported.
+    /// </summary>
+    private static void TakeBackSetAside(string segmentsDirectory, CatalogRebuild result)
+    {
+        foreach (var folder in new[] { StoreRecovery.OrphanedFolder, DamageRepair.DamagedFolder })
+        {
+            var aside = Path.Combine(segmentsDirectory, folder);
+            if (!Directory.Exists(aside))
+            {
+                continue;
+            }
+
+            foreach (var path in Directory.EnumerateFiles(aside, SegmentFileNames.Prefix + "*").Order(StringComparer.Ordinal))
+            {
+                var shown = folder + "/" + Path.GetFileName(path);
+                long id;
+                try
+                {
+                    using var reader = SegmentReader.Open(path);
+                    id = reader.Header.SegmentId;
+                }
+                catch (Exception ex) when (ex is SegmentFormatException or IOException or UnauthorizedAccessException)
+                {
+                    result.Problems.Add($"{shown}: {ex.Message}; left where it is");
+                    continue;
+                }
+
+                var target = SegmentFileNames.PathOf(segmentsDirectory, id);
+                if (File.Exists(target))
+                {
+                    result.Problems.Add($"{shown}: segment {id} is already in the segments folder; left where it is");
+                    continue;
+                }
+
+                File.Move(path, target);
+                result.FilesTakenBack.Add($"{shown} moved back to {SegmentFileNames.Name(id)}");
+            }
+        }
     }
 
     private static IEnumerable<(long Id, string Path)> SegmentFiles(string segmentsDirectory)

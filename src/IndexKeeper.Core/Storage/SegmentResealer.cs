@@ -43,6 +43,56 @@ public static class SegmentResealer
         return null;
     }
 
+    /// <summary>
+    /// Seals a segment that has no seal and a damaged record, for a catalog rebuild that takes its good records
+    /// back: a damaged file can never be appended to again, so it is closed as it is. The seal is appended after
+    /// the last byte (zero-padded to 8), covers every byte before it, and counts the good records on both sides
+    /// of the damage; no byte already in the file changes. Returns null, or why it was left as it is.
+    /// </summary>
+    public static string? SealAfterDamage(string path)
+    {
+        long length;
+        int records;
+        using (var reader = SegmentReader.Open(path))
+        {
+            var scan = reader.Scan();
+            if (scan.End != SegmentEnd.Damaged || reader.IsSealed || scan.DamageOffset == reader.Length - SegmentFormat.SealRecordLength)
+            {
+                return "it is not an unsealed segment with a damaged record";
+            }
+
+            length = reader.Length;
+            records = scan.Records.Count + scan.RecordsAfterDamage.Count;
+        }
+
+        var padding = (int)(SegmentFormat.AlignUp((int)(length % SegmentFormat.Alignment)) - (length % SegmentFormat.Alignment));
+        MakeWritable(path);
+        using (var stream = new FileStream(path, FileMode.Open, FileAccess.ReadWrite, FileShare.Read))
+        {
+            stream.Position = length;
+            stream.Write(new byte[padding]);
+            stream.Flush(flushToDisk: true);
+        }
+
+        uint checksum;
+        using (var reader = SegmentReader.Open(path))
+        {
+            checksum = reader.ChecksumOfPrefix(length + padding);
+        }
+
+        Span<byte> seal = stackalloc byte[SegmentFormat.SealRecordLength];
+        RecordCodec.EncodeSeal(seal, records, length + padding, checksum);
+        using (var stream = new FileStream(path, FileMode.Open, FileAccess.Write, FileShare.Read))
+        {
+            stream.Position = length + padding;
+            stream.Write(seal);
+            stream.Flush(flushToDisk: true);
+        }
+
+        SegmentWriter.MakeReadOnly(path);
+        return null;
+    }
+
     private static void MakeWritable(string path)
     {
         if (OperatingSystem.IsWindows())

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.EndToEnd;
 using IndexKeeper.Tests.Support;
 
@@ -49,6 +50,57 @@ public sealed class RebuildCatalogTests
         var again = CliRunner.Run(temp.Path, ["rebuild-catalog", "--root", "store", "--json", .. common]);
         Assert.True(again.ExitCode == 0, again.Stderr);
         Assert.Single(Directory.GetFiles(temp.Combine("index"), "catalog.db.before-rebuild-*"));
+    }
+
+    [Fact]
+    public void A_set_aside_segment_with_a_bad_record_gives_back_every_other_record()
+    {
+        // Before: the rebuild read no file in segments/orphaned/, and its walk stopped at the first bad record,
+        // so every page after it was embedded again.
+        using var temp = new TempDirectory();
+        Directory.CreateDirectory(temp.Combine("store"));
+        File.WriteAllBytes(temp.Combine("store", "ferry-timetable.pdf"), StorePdfs.Document("Gullstone ferry", 3));
+        File.WriteAllBytes(temp.Combine("store", "tide-tables.pdf"), StorePdfs.Document("Marrowby tide", 2));
+        File.WriteAllBytes(temp.Combine("store", "harbour-dues.pdf"), StorePdfs.Document("Quillan harbour dues", 2));
+        string[] common = ["--index", "index", "--encoder", "hashed-terms"];
+        var sync = CliRunner.Run(temp.Path, ["sync", "--root", "store", .. common]);
+        Assert.True(sync.ExitCode == 0, sync.Stderr);
+        var before = Queries.Select(q => Hits(temp.Path, q, common)).ToList();
+        var segment = Assert.Single(Directory.GetFiles(temp.Combine("index", "segments"), "seg-*.vec"));
+        RecordLocation second;
+        using (var reader = SegmentReader.Open(segment))
+        {
+            second = reader.Scan().Records[1].Location;
+        }
+
+        var bytes = File.ReadAllBytes(segment);
+        bytes[second.Offset + (second.Length / 2)] ^= 0x10;
+        File.Delete(segment);
+        Directory.CreateDirectory(temp.Combine("index", "segments", "orphaned"));
+        File.WriteAllBytes(temp.Combine("index", "segments", "orphaned", Path.GetFileName(segment)), bytes);
+        File.Delete(temp.Combine("index", "catalog.db"));
+
+        var rebuild = CliRunner.Run(temp.Path, ["rebuild-catalog", "--root", "store", "--json", .. common]);
+
+        // Exit 1: a record was lost to damage and is named; the file came back under its own name.
+        Assert.True(rebuild.ExitCode == 1, rebuild.Stderr + rebuild.Stdout);
+        using var summary = JsonDocument.Parse(rebuild.Stdout);
+        Assert.Contains("orphaned/" + Path.GetFileName(segment), Assert.Single(summary.RootElement.GetProperty("filesTakenBack").EnumerateArray()).GetString(), StringComparison.Ordinal);
+        Assert.Contains("1 record(s) before it and 5 good one(s) after it", Assert.Single(summary.RootElement.GetProperty("problems").EnumerateArray()).GetString(), StringComparison.Ordinal);
+        Assert.True(File.Exists(segment));
+        Assert.Equal(6, summary.RootElement.GetProperty("liveVectorSets").GetInt64());
+        Assert.Equal(1, summary.RootElement.GetProperty("pagesQueued").GetInt64());
+
+        // The next sync embeds only the page whose record was bad, and the search answers as before.
+        var resync = CliRunner.Run(temp.Path, ["sync", "--root", "store", "--json", .. common]);
+        Assert.True(resync.ExitCode == 0, resync.Stderr + resync.Stdout);
+        using var resyncSummary = JsonDocument.Parse(resync.Stdout);
+        Assert.Equal(1, resyncSummary.RootElement.GetProperty("pagesEmbedded").GetInt32());
+        Assert.Equal(before, Queries.Select(q => Hits(temp.Path, q, common)).ToList());
+
+        // The unsealed damaged file was sealed as it was, so verify finds nothing left to repair.
+        var verify = CliRunner.Run(temp.Path, ["verify", .. common]);
+        Assert.True(verify.ExitCode == 0, verify.Stdout + verify.Stderr);
     }
 
     /// <summary>Each hit as path, page and score.</summary>
