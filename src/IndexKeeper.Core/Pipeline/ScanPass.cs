@@ -306,6 +306,14 @@ public sealed class ScanPass
         var summary = state.Summary;
         var existing = state.Find(file.Root, DocumentRecord.MakeId(file.Root, file.RelativePath));
         var stored = existing is null ? null : StoredState.Of(existing);
+        var toolRetry = existing is { State: DocumentState.Quarantined, QuarantineReason: QuarantineReason.ToolMissing }
+            && !state.ToolsStillMissing.Contains(existing.QuarantineMessage ?? string.Empty);
+        if (toolRetry)
+        {
+            // Read again although unchanged: the missing program may have been installed since.
+            stored = null;
+        }
+
         if (QuickCheck.BeforeHash(stored, file.Stat).Verdict == QuickCheckVerdict.Unchanged)
         {
             summary.DocumentsUnchanged++;
@@ -371,6 +379,14 @@ public sealed class ScanPass
 
             if (content.Value.Quarantine is { } failure)
             {
+                if (toolRetry && failure.Reason == QuarantineReason.ToolMissing && failure.Message == existing!.QuarantineMessage)
+                {
+                    // Still missing: one read per pass proves it for every document waiting on the same program.
+                    state.ToolsStillMissing.Add(failure.Message);
+                    summary.DocumentsUnchanged++;
+                    return;
+                }
+
                 record.State = DocumentState.Quarantined;
                 record.Kind = DocumentKind.Unknown;
                 record.PageKeys = [];

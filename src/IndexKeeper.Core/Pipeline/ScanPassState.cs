@@ -104,6 +104,9 @@ internal sealed class ScanPassState(IndexCatalog catalog, bool dryRun, DateTime 
 
     public HashSet<string> DeletedHashes { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>Messages of <c>ToolMissing</c> quarantines read again this pass and failing the same way: the rest waiting on them are not read again.</summary>
+    public HashSet<string> ToolsStillMissing { get; } = new(StringComparer.Ordinal);
+
     public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.Pages.Find(key.Hex) is not null;
 
     public DocumentRecord? FindCopySource(string hash)

@@ -136,7 +136,7 @@ public sealed partial class OcrTests : IDisposable
         return stream.ToArray();
     }
 
-    private static byte[] Render(string text)
+    internal static byte[] Render(string text)
     {
         using var surface = SKSurface.Create(new SKImageInfo(900, 200));
         surface.Canvas.Clear(SKColors.White);
