@@ -41,6 +41,11 @@ internal sealed class PlanCommand() : CommandBase(
         o.WriteLine(string.Create(C, $"  pages        {r.PagesNew} new, {r.PagesFree} free (keys already held), {r.PagesToRemove} to remove"));
         o.WriteLine(string.Create(C, $"Queued         {r.Queued.Fresh} fresh, {r.Queued.Migration} migration, {r.Queued.Canary} canary"));
         o.WriteLine(string.Create(C, $"Drift          {r.DriftedPages} page(s) only under another encoder ({r.DriftedNotQueued} not yet queued)"));
+        if (r.ReadSeconds > 0)
+        {
+            o.WriteLine(string.Create(C, $"Reading        {r.ReadSeconds:0.0} s for new and changed documents ({string.Join(", ", r.ReadSecondsByKind.Select(k => $"{k.Key} {k.Value:0.0} s"))}); conversion and OCR included"));
+        }
+
         o.WriteLine($"Roots missing  {(r.RootsMissing.Count == 0 ? "none" : string.Join(", ", r.RootsMissing) + " (their documents are kept)")}");
         o.WriteLine(string.Create(C, $"To embed       {r.PagesToEmbed} page(s): {r.Work.Fresh} fresh, {r.Work.Migration} migration, {r.Work.Canary} canary"));
         o.WriteLine(r.EncoderSecondsPerPage is { } spp

@@ -12,6 +12,9 @@ public sealed class ScanRecord
     /// <summary>The <see cref="Counts"/> key of files of a type no reader takes. Reaches the catalog: never change it.</summary>
     public const string FilesUnsupportedKey = "filesUnsupported";
 
+    /// <summary>Milliseconds inside the reader (parsing, conversion, OCR) during the pass.</summary>
+    public const string ReadMillisecondsKey = "readMilliseconds";
+
     public int Id { get; set; }
 
     public DateTime StartedUtc { get; set; }

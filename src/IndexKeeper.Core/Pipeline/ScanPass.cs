@@ -460,6 +460,7 @@ public sealed class ScanPass
         }
 
         (DocumentContent?, DocumentReadException?) result;
+        var started = Stopwatch.GetTimestamp();
         try
         {
             state.Summary.DocumentsRead++;
@@ -469,6 +470,9 @@ public sealed class ScanPass
         {
             result = (null, failure);
         }
+
+        var kind = result.Item1 is { } read ? ReadKindName(read.Kind) : UnreadableKind;
+        state.Summary.ReadSecondsByKind[kind] = state.Summary.ReadSecondsByKind.GetValueOrDefault(kind) + Stopwatch.GetElapsedTime(started).TotalSeconds;
 
         if (probe.Stat(file.FullPath) != hashedStat)
         {
@@ -530,6 +534,11 @@ public sealed class ScanPass
         state.Edit = new CatalogEdit();
     }
 
+    /// <summary>The key under which failed reads count their time in <see cref="ScanSummary.ReadSecondsByKind"/>.</summary>
+    private const string UnreadableKind = "unreadable";
+
+    private static string ReadKindName(DocumentKind kind) => kind.ToString().ToLowerInvariant();
+
     private static ScanRecord ToRecord(string command, DateTime started, ScanSummary summary) => new()
     {
         StartedUtc = started,
@@ -548,6 +557,7 @@ public sealed class ScanPass
             ["pagesNew"] = summary.PagesNew,
             ["pagesReused"] = summary.PagesReused,
             ["pagesRemoved"] = summary.PagesRemoved,
+            [ScanRecord.ReadMillisecondsKey] = (long)Math.Round(summary.ReadSeconds * 1000),
         },
         UnsupportedTypes = summary.UnsupportedTypes.Select(t => new TypeCount { Type = t.Key, Files = t.Value }).ToList(),
     };

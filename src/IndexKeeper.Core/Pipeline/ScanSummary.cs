@@ -74,6 +74,12 @@ public sealed class ScanSummary
     /// <summary>Documents parsed by the reader.</summary>
     public long DocumentsRead { get; set; }
 
+    /// <summary>Wall time inside the reader (parsing, conversion by LibreOffice, OCR), by the kind read; failed reads under "unreadable".</summary>
+    public SortedDictionary<string, double> ReadSecondsByKind { get; } = new(StringComparer.Ordinal);
+
+    /// <summary>Wall time inside the reader, all kinds.</summary>
+    public double ReadSeconds => ReadSecondsByKind.Values.Sum();
+
     public double ElapsedSeconds { get; set; }
 
     /// <summary>The encoder searches rank with after the pass (differs from the active one while migrating).</summary>

@@ -76,7 +76,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
         var compaction = Compaction(compact.Jobs());
         var now = TimeZoneInfo.ConvertTime(request.Now, zone);
         var forecast = secondsPerPage is { } spp
-            ? WorkSimulator.Simulate(new EncoderGate(calendar, settings.BudgetPagesPerHour), now, work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
+            ? WorkSimulator.Simulate(new EncoderGate(calendar, settings.BudgetPagesPerHour), now.AddSeconds(summary.ReadSeconds), work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
             : null;
         if (forecast is { AllDone: null })
         {
@@ -117,6 +117,8 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             DriftedNotQueued = driftedNotQueued.Count,
             Work = work,
             RootsMissing = summary.RootsMissing,
+            ReadSecondsByKind = summary.ReadSecondsByKind,
+            ReadSeconds = summary.ReadSeconds,
             ThroughputSource = source,
             EncoderSecondsPerPage = secondsPerPage,
             VectorsPerPage = vectorsPerPage,

@@ -60,6 +60,14 @@ public sealed class PlanReport
 
     public IReadOnlyList<string> RootsMissing { get; init; } = [];
 
+    /// <summary>
+    /// Seconds this plan spent reading new and changed documents (parsing, LibreOffice conversion, OCR), by
+    /// kind: what the run's own read costs before any encoder call (OCR less: its results are cached by page).
+    /// </summary>
+    public IReadOnlyDictionary<string, double> ReadSecondsByKind { get; init; } = new Dictionary<string, double>();
+
+    public double ReadSeconds { get; init; }
+
     /// <summary>Where the encoder cost comes from: <c>history</c>, <c>calibration</c> or <c>none</c>.</summary>
     public string ThroughputSource { get; init; } = "none";
 

@@ -62,12 +62,16 @@ public sealed class PlanContractTests : IDisposable
             ("pagesFree", 5),
             ("pagesToRemove", 3));
 
-        // Always open: finish = start + encoder time, in Berlin's offset for that instant (IANA tz database).
+        // Always open: finish = start + the read of the new document + encoder time, in Berlin's offset for
+        // that instant (IANA tz database).
         var seconds = plan.GetProperty("estimatedEncoderSeconds").GetDouble();
         Assert.Equal(4 * plan.GetProperty("encoderSecondsPerPage").GetDouble(), seconds, 9);
+        var read = plan.GetProperty("readSeconds").GetDouble();
+        Assert.True(read > 0);
+        Assert.Equal(read, plan.GetProperty("readSecondsByKind").GetProperty("pdf").GetDouble(), 9);
         var finish = Instant(plan, "estimatedFinish");
         Assert.Equal(Berlin.GetUtcOffset(finish), finish.Offset);
-        Assert.InRange((finish - Instant(plan, "generatedAt")).TotalSeconds, seconds - 0.001, seconds + 0.001);
+        Assert.InRange((finish - Instant(plan, "generatedAt")).TotalSeconds, read + seconds - 0.001, read + seconds + 0.001);
 
         // The real pass that follows does what the plan said.
         var scan = index.Json("scan");
