@@ -8,6 +8,9 @@ public static class CatalogSchema
 
     public const string FileName = "catalog.db";
 
+    /// <summary>A new catalog while it is made whole, before it is renamed to <see cref="FileName"/>; holds no data but the empty schema.</summary>
+    public const string CreatingFileName = "catalog.creating.db";
+
     /// <summary>LiteDB's write-ahead log beside <see cref="FileName"/> (LiteDB names it, not we).</summary>
     public const string LogFileName = "catalog-log.db";
     public const string Meta = "meta";

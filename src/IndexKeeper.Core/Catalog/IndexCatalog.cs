@@ -1,6 +1,8 @@
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Faults;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using LiteDB;
 
 namespace IndexKeeper.Core.Catalog;
@@ -70,6 +72,39 @@ public sealed class IndexCatalog : IDisposable
     {
         ArgumentNullException.ThrowIfNull(heldLock);
         var path = Path.Combine(heldLock.Directory, CatalogSchema.FileName);
+        if (!File.Exists(path))
+        {
+            CreateWhole(heldLock.Directory, path);
+        }
+
+        return OpenWritable(path, heldLock.Directory);
+    }
+
+    /// <summary>
+    /// Makes a new catalog whole (schema record, every collection and index, log folded) under a temporary
+    /// name and renames it in, then fsyncs the directory: a reader opening beside the first sync sees either
+    /// no catalog or a complete one, never a file LiteDB is half-way through creating. A leftover of a
+    /// creation that crashed before its rename holds only that empty schema, so it is replaced.
+    /// </summary>
+    private static void CreateWhole(string directory, string path)
+    {
+        var creating = Path.Combine(directory, CatalogSchema.CreatingFileName);
+        var creatingLog = Path.Combine(directory, Path.GetFileNameWithoutExtension(creating) + "-log" + Path.GetExtension(creating));
+        File.Delete(creating);
+        File.Delete(creatingLog);
+        using (var catalog = OpenWritable(creating, writerDirectory: null))
+        {
+            catalog.store.Database.Checkpoint();
+        }
+
+        File.Delete(creatingLog);
+        FaultInjection.Reach(FaultPoints.CatalogCreateRename);
+        File.Move(creating, path);
+        DirectorySync.Flush(directory);
+    }
+
+    private static IndexCatalog OpenWritable(string path, string? writerDirectory)
+    {
         var database = Damaged(path, () => new LiteDatabase(new ConnectionString { Filename = path, Connection = ConnectionType.Direct }, Mapper()));
         try
         {
@@ -82,7 +117,7 @@ public sealed class IndexCatalog : IDisposable
                 database.CheckpointSize = 0;
             }
 
-            var catalog = new IndexCatalog(database, heldLock.Directory);
+            var catalog = new IndexCatalog(database, writerDirectory);
             var s = catalog.store;
             s.Documents.EnsureIndex(d => d.FileHash);
             s.Documents.EnsureIndex(d => d.Root);

@@ -67,6 +67,13 @@ internal static class FaultPoints
     /// <summary>Recovery at open is about to set a segment no catalog commit references aside in <c>segments/orphaned/</c>.</summary>
     public const string RecoverySetAside = "recovery.set-aside";
 
+    /// <summary>
+    /// A new catalog is whole under its temporary name and is about to be renamed to <c>catalog.db</c>. Not in
+    /// <see cref="All"/>: the matrix starts from an existing index, so this point has tests of its own
+    /// (a reader beside the first sync, a leftover of a creation that stopped here; ReadersBesideWriterTests).
+    /// </summary>
+    public const string CatalogCreateRename = "catalog.create.rename";
+
     /// <summary>Every point, in the order of the write path.</summary>
     public static IReadOnlyList<string> All { get; } =
     [
@@ -75,4 +82,7 @@ internal static class FaultPoints
         CatalogCommitBefore, CatalogCommitAfter, CompactionSwapBeforeCommit, CompactionSwapAfterCommit,
         CompactionDeleteBefore, CompactionDeleteAfter, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
     ];
+
+    /// <summary>Points with tests of their own instead of rows of the matrix (each says which).</summary>
+    public static IReadOnlyList<string> OutsideMatrix { get; } = [CatalogCreateRename];
 }

@@ -35,7 +35,7 @@ public sealed class LayeringTests
         ["Planning"] = ["Queue", "Scheduling"],
 
         // The catalog knows records and the leaf values they carry.
-        ["Catalog"] = ["Detect", "Documents", "Encoding", "Queue", "Faults"], // Detect: which names are of a readable type
+        ["Catalog"] = ["Detect", "Documents", "Encoding", "Queue", "Faults", "Storage"], // Detect: which names are of a readable type; Storage: the directory fsync of a new catalog
 
         // The composing layer.
         ["Index"] = ["Catalog", "Compaction", "Documents", "Encoding", "Faults", "Queue", "Storage", "Telemetry"],

@@ -56,6 +56,43 @@ public sealed class ReadersBesideWriterTests
     }
 
     [Fact]
+    public void A_reader_beside_the_first_sync_finds_no_index_yet_never_a_half_made_catalog()
+    {
+        // Before: the first sync created catalog.db in place, and a status at that moment could open a file
+        // LiteDB had not finished ("catalog cannot be read", exit 1).
+        using var temp = new TempDirectory();
+        Directory.CreateDirectory(temp.Combine("store"));
+        File.WriteAllBytes(temp.Combine("store", "ferry-timetable.pdf"), StorePdfs.Document("Gullstone", 2));
+        var resume = temp.Combine("resume");
+        using var writer = StartPaused(temp.Path, FaultPoints.CatalogCreateRename, resume, ["sync", "--index", "index", "--root", "store", .. Encoder]);
+
+        Assert.False(File.Exists(temp.Combine("index", CatalogSchema.FileName)));
+        var status = CliRunner.Run(temp.Path, "status", "--index", "index");
+        Assert.True(status.ExitCode == 2, status.Stdout + status.Stderr);
+        Assert.Contains("no index", status.Stderr, StringComparison.Ordinal);
+
+        File.WriteAllText(resume, string.Empty);
+        Assert.Equal(0, Finish(writer));
+        Assert.False(File.Exists(temp.Combine("index", CatalogSchema.CreatingFileName)));
+        Assert.Equal(0, CliRunner.Run(temp.Path, "status", "--index", "index").ExitCode);
+    }
+
+    [Fact]
+    public void A_creation_that_crashed_before_its_rename_is_made_again()
+    {
+        using var temp = new TempDirectory();
+        File.WriteAllText(temp.Combine(CatalogSchema.CreatingFileName), "left by a creation that crashed");
+        using (var held = IndexLock.Acquire(temp.Path, "writer"))
+        using (var catalog = IndexCatalog.Open(held))
+        {
+            Assert.Empty(catalog.Documents.All());
+        }
+
+        Assert.False(File.Exists(temp.Combine(CatalogSchema.CreatingFileName)));
+        Assert.True(File.Exists(temp.Combine(CatalogSchema.FileName)));
+    }
+
+    [Fact]
     public void A_writer_closing_while_a_reader_is_open_leaves_the_catalog_log_for_later()
     {
         using var temp = new TempDirectory();
