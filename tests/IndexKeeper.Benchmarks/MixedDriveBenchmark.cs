@@ -53,9 +53,10 @@ public sealed class MixedDriveBenchmark : IBenchmark
             File.WriteAllBytes(LetterPath(drive, i), OfficeSamples.Letter("J. Oakhurst", Monday.AddDays(1).AddMinutes(i), FirstLine(i)));
         }
 
-        // The edit uses only letters the document already shows, so the converter's embedded font subset,
-        // which every page of the PDF shares, stays the same.
-        File.WriteAllBytes(LetterPath(drive, 0), OfficeSamples.Letter("J. Oakhurst", Monday.AddDays(1), FirstLine(0).Replace("spring", "winter", StringComparison.Ordinal)));
+        // The edit uses only letters the document already shows: the converter embeds one font subset that
+        // every page of the PDF shares, so an edit that adds or drops a glyph gives every page a new key
+        // (docs/page-keys.md; "spring" → "winter" drops the only "g" and costs both pages).
+        File.WriteAllBytes(LetterPath(drive, 0), OfficeSamples.Letter("J. Oakhurst", Monday.AddDays(1), FirstLine(0).Replace("season", "seasons", StringComparison.Ordinal)));
         var archive = Path.Combine(drive, "archive");
         Directory.CreateDirectory(archive);
         foreach (var scan in scans.Values.SelectMany(f => f))

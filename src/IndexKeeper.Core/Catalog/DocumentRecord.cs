@@ -37,6 +37,9 @@ public sealed class DocumentRecord
 
     public string? QuarantineMessage { get; set; }
 
+    /// <summary>The <see cref="Documents.ReaderVersion"/> the document was read under; 0 when recorded before the number existed.</summary>
+    public int ReaderVersion { get; set; }
+
     public DateTime FirstSeenUtc { get; set; }
 
     public DateTime LastChangedUtc { get; set; }

@@ -21,6 +21,9 @@ internal static class PageKeyFormat
     /// <summary>A PDF page a converter drew from another format, salted with the converter's version. Never change.</summary>
     public const byte ConvertedPage = (byte)'C';
 
+    /// <summary>A page whose words came from OCR, salted with the OCR identity. Never change.</summary>
+    public const byte RecognisedPage = (byte)'O';
+
     /// <summary>A page of text laid out by the text page rule (plain text, Markdown, HTML, e-mail). Never change.</summary>
     public const byte TextPage = (byte)'T';
 }

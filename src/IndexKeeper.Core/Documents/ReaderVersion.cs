@@ -1,16 +1,16 @@
 namespace IndexKeeper.Core.Documents;
 
 /// <summary>
-/// The version of the reading rules beyond the page-key form: which files become pages and how (office
-/// conversion, text pagination, e-mail parts) and where words come from (text layer or OCR, and the OCR
-/// rule). A page read under an older version may lack words or pages the current rules give, so the
-/// version is recorded with what was read and a change is planned as re-read work (docs/readers.md).
+/// What the readers can give beyond a file's bytes, numbered (docs/readers.md, "Reader version"). Each
+/// document records the number it was read under, so a build whose readers give more reads again, once,
+/// the documents an older build could not read fully: quarantined ones, and live ones with a page
+/// without words. Documents recorded before the number existed read as 0. Never reuse a number.
 /// </summary>
 public static class ReaderVersion
 {
     /// <summary>
-    /// 1: PDF, PNG, JPEG, TIFF with the PDF text layer. 2: office and OpenDocument files through LibreOffice,
-    /// text-like files, e-mail, OCR of pages without a text layer. Never reuse a number.
+    /// 1: PDF text layers; image pages without words. 2: office, OpenDocument and text-like files; OCR of
+    /// pages without a text layer, whose keys are salted with the OCR identity.
     /// </summary>
     public const int Current = 2;
 }

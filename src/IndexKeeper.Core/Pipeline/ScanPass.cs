@@ -308,9 +308,12 @@ public sealed class ScanPass
         var stored = existing is null ? null : StoredState.Of(existing);
         var toolRetry = existing is { State: DocumentState.Quarantined, QuarantineReason: QuarantineReason.ToolMissing }
             && !state.ToolsStillMissing.Contains(existing.QuarantineMessage ?? string.Empty);
-        if (toolRetry)
+        var readsDifferently = existing is not null && existing.ReaderVersion < ReaderVersion.Current && ReadsDifferently(existing);
+        var reread = readsDifferently && !state.RereadsHeld;
+        if (toolRetry || reread)
         {
-            // Read again although unchanged: the missing program may have been installed since.
+            // Read again although unchanged: the missing program may have been installed since, or this
+            // build's readers give what an older one could not (words by OCR, a format it did not read).
             stored = null;
         }
 
@@ -318,6 +321,11 @@ public sealed class ScanPass
         {
             summary.DocumentsUnchanged++;
             summary.PagesSeen += existing!.PageKeys.Count;
+            if (!readsDifferently)
+            {
+                StampReaderVersion(state, existing);
+            }
+
             return;
         }
 
@@ -340,6 +348,11 @@ public sealed class ScanPass
                 return;
             case HashVerdict.Unchanged:
                 // Touched but identical: one hash, no parse. Only the stat moves on.
+                if (!readsDifferently)
+                {
+                    existing!.ReaderVersion = ReaderVersion.Current;
+                }
+
                 StoredState.Stamp(existing!, hashed);
                 state.Edit.PutDocuments.Add(existing!);
                 summary.DocumentsUnchanged++;
@@ -361,11 +374,12 @@ public sealed class ScanPass
         record.LastChangedUtc = now;
 
         IReadOnlyList<PageKey> newKeys;
-        if (state.FindCopySource(hash) is { } source && source.PageKeys.All(k => state.IsKnownPage(PageKey.Parse(k))))
+        if (!reread && state.FindCopySource(hash) is { } source && source.PageKeys.All(k => state.IsKnownPage(PageKey.Parse(k))))
         {
             // A copy, rename or move of bytes the index already holds: take its pages without reading.
             summary.DocumentsCopied++;
             record.Kind = source.Kind;
+            record.ReaderVersion = source.ReaderVersion;
             newKeys = source.PageKeys.Select(PageKey.Parse).ToList();
             state.Note(file, existing is null ? ChangeKind.Copied : ChangeKind.Changed, newKeys.Count, state.Ledger.Replace(oldKeys, newKeys).Count);
         }
@@ -377,8 +391,29 @@ public sealed class ScanPass
                 return;
             }
 
+            if (reread)
+            {
+                summary.DocumentsReread++;
+            }
+
             if (content.Value.Quarantine is { } failure)
             {
+                if (reread && existing!.State == DocumentState.Live)
+                {
+                    // A live document read again for more never loses its pages to that read: it stays as
+                    // it was. A missing program holds the other re-reads of this pass; another failure is
+                    // final for this build.
+                    summary.Problems.Add($"{file.Root}/{file.RelativePath}: read again for this build's readers and kept as it was: {failure.Message}");
+                    state.RereadsHeld |= failure.Reason == QuarantineReason.ToolMissing;
+                    if (failure.Reason != QuarantineReason.ToolMissing)
+                    {
+                        StampReaderVersion(state, existing);
+                    }
+
+                    summary.DocumentsUnchanged++;
+                    return;
+                }
+
                 if (toolRetry && failure.Reason == QuarantineReason.ToolMissing && failure.Message == existing!.QuarantineMessage)
                 {
                     // Still missing: one read per pass proves it for every document waiting on the same program.
@@ -388,6 +423,7 @@ public sealed class ScanPass
                 }
 
                 record.State = DocumentState.Quarantined;
+                record.ReaderVersion = ReaderVersion.Current;
                 record.Kind = DocumentKind.Unknown;
                 record.PageKeys = [];
                 record.QuarantineReason = failure.Reason;
@@ -412,6 +448,7 @@ public sealed class ScanPass
 
             var document = content.Value.Content!;
             record.Kind = document.Kind;
+            record.ReaderVersion = ReaderVersion.Current;
             newKeys = document.Pages.Select(p => p.Key).ToList();
             var fresh = state.Ledger.Replace(oldKeys, newKeys).ToHashSet();
             state.Note(file, existing is null ? ChangeKind.New : ChangeKind.Changed, newKeys.Count, fresh.Count);
@@ -435,6 +472,24 @@ public sealed class ScanPass
 
         summary.PagesSeen += newKeys.Count;
         CountNewOrChanged(summary, existing);
+    }
+
+    /// <summary>
+    /// Whether a document read under an older <see cref="ReaderVersion"/> may read differently now: a
+    /// quarantined one (a format or a program it lacked), or a live one with a page without words (OCR).
+    /// </summary>
+    private bool ReadsDifferently(DocumentRecord document) =>
+        document is { State: DocumentState.Quarantined, QuarantineReason: not QuarantineReason.ToolMissing }
+        || (document.State == DocumentState.Live && document.PageKeys.Any(k => catalog.Pages.Find(k) is { Words.Count: 0 }));
+
+    /// <summary>Records an unchanged document that needs no new read as read under this build's readers, once.</summary>
+    private static void StampReaderVersion(ScanPassState state, DocumentRecord document)
+    {
+        if (document.ReaderVersion < ReaderVersion.Current)
+        {
+            document.ReaderVersion = ReaderVersion.Current;
+            state.Edit.PutDocuments.Add(document);
+        }
     }
 
     private static void CountNewOrChanged(ScanSummary summary, DocumentRecord? existing)

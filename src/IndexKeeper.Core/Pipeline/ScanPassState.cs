@@ -104,6 +104,9 @@ internal sealed class ScanPassState(IndexCatalog catalog, bool dryRun, DateTime 
 
     public HashSet<string> DeletedHashes { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>Set when a re-read for this build's readers met a missing program: the pass reads no more documents again for it.</summary>
+    public bool RereadsHeld { get; set; }
+
     /// <summary>Messages of <c>ToolMissing</c> quarantines read again this pass and failing the same way: the rest waiting on them are not read again.</summary>
     public HashSet<string> ToolsStillMissing { get; } = new(StringComparer.Ordinal);
 

@@ -74,6 +74,9 @@ public sealed class ScanSummary
     /// <summary>Documents parsed by the reader.</summary>
     public long DocumentsRead { get; set; }
 
+    /// <summary>Unchanged documents read again because this build's readers give more than the one that read them (<see cref="Documents.ReaderVersion"/>).</summary>
+    public long DocumentsReread { get; set; }
+
     /// <summary>Wall time inside the reader (parsing, conversion by LibreOffice, OCR), by the kind read; failed reads under "unreadable".</summary>
     public SortedDictionary<string, double> ReadSecondsByKind { get; } = new(StringComparer.Ordinal);
 

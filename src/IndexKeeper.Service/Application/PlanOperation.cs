@@ -108,6 +108,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             DocumentsDeleted = preview.Changes.LongCount(c => c.Kind == ChangeKind.Deleted),
             DocumentsQuarantined = preview.Changes.LongCount(c => c.Kind == ChangeKind.Quarantined),
             DocumentsUnchanged = summary.DocumentsUnchanged,
+            DocumentsReread = summary.DocumentsReread,
             PagesToEmbed = work.Total,
             PagesFree = summary.PagesReused + revived,
             PagesToRemove = removed.Count,

@@ -34,6 +34,9 @@ public sealed class PlanReport
 
     public long DocumentsUnchanged { get; init; }
 
+    /// <summary>Unchanged documents this build's readers read again (docs/readers.md, "Reader version"); their new pages are in <see cref="PagesToEmbed"/>.</summary>
+    public long DocumentsReread { get; init; }
+
     /// <summary>Every page the encoder would embed: new pages of the scan, the queue, and drifted pages not yet queued.</summary>
     public long PagesToEmbed { get; init; }
 

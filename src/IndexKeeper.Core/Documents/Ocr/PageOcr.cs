@@ -25,7 +25,7 @@ internal sealed partial class PageOcr(ReaderSettings settings)
             return content;
         }
 
-        var (tesseract, cache) = Setup();
+        var (tesseract, identity, cache) = Setup();
         var rasterizer = ToolVersion.Require(settings.Rasterizer, "pdftoppm", "poppler-utils", "OCR of PDF pages").Path;
         using var scratch = new ScratchDirectory();
         var input = scratch.File("document.pdf");
@@ -52,7 +52,7 @@ internal sealed partial class PageOcr(ReaderSettings settings)
                 cache?.Put(page.Key, words);
             }
 
-            pages.Add(page with { Words = OcrRule.Better(page.Words, words) });
+            pages.Add(Recognised(page, words, identity));
         }
 
         return content with { Pages = pages };
@@ -66,11 +66,11 @@ internal sealed partial class PageOcr(ReaderSettings settings)
             return content;
         }
 
-        var (tesseract, cache) = Setup();
+        var (tesseract, identity, cache) = Setup();
         var cached = content.Pages.Select(p => cache?.TryGet(p.Key)).ToList();
         if (cached.All(w => w is not null))
         {
-            return content with { Pages = content.Pages.Select((p, i) => p with { Words = OcrRule.Better(p.Words, cached[i]!) }).ToList() };
+            return content with { Pages = content.Pages.Select((p, i) => Recognised(p, cached[i]!, identity)).ToList() };
         }
 
         using var scratch = new ScratchDirectory();
@@ -83,17 +83,24 @@ internal sealed partial class PageOcr(ReaderSettings settings)
                 .Select(w => new PageWord(w.Text, new PageBox(w.Left, page.Height - w.Top - w.Height, w.Left + w.Width, page.Height - w.Top)))
                 .ToList();
             cache?.Put(page.Key, words);
-            return page with { Words = OcrRule.Better(page.Words, words) };
+            return Recognised(page, words, identity);
         }).ToList();
         return content with { Pages = pages };
     }
 
-    private ((string Path, string Version) Tesseract, OcrCache? Cache) Setup()
+    /// <summary>The page with OCR's words when they are better than its text layer's, keyed anew for them (<see cref="RecognisedPageKey"/>).</summary>
+    private static PageContent Recognised(PageContent page, IReadOnlyList<PageWord> recognised, string identity)
+    {
+        var better = OcrRule.Better(page.Words, recognised);
+        return ReferenceEquals(better, page.Words) ? page : page with { Words = better, Key = RecognisedPageKey.Of(identity, page.Key) };
+    }
+
+    private ((string Path, string Version) Tesseract, string Identity, OcrCache? Cache) Setup()
     {
         var tesseract = ToolVersion.Require(settings.OcrProgram, "tesseract", Package, "OCR of pages without a text layer");
         // What decides OCR output besides the page: the program's version, the languages, the resolution.
         var identity = tesseract.Version + "; " + Languages() + "; " + Dpi.ToString(CultureInfo.InvariantCulture) + " dpi";
-        return (tesseract, settings.OcrCacheDirectory is { } directory ? new OcrCache(directory, identity) : null);
+        return (tesseract, identity, settings.OcrCacheDirectory is { } directory ? new OcrCache(directory, identity) : null);
     }
 
     private string Languages() => string.Join('+', settings.OcrLanguages);
