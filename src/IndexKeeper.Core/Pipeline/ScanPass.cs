@@ -370,6 +370,7 @@ public sealed class ScanPass
             FirstSeenUtc = now,
         };
         var oldKeys = existing is { State: DocumentState.Live } ? existing.PageKeys.Select(PageKey.Parse).ToList() : [];
+        var changedBefore = record.LastChangedUtc;
         StoredState.Stamp(record, hashed);
         record.LastChangedUtc = now;
 
@@ -405,6 +406,7 @@ public sealed class ScanPass
                     // final for this build.
                     summary.Problems.Add($"{file.Root}/{file.RelativePath}: read again for this build's readers and kept as it was: {failure.Message}");
                     state.RereadsHeld |= failure.Reason == QuarantineReason.ToolMissing;
+                    existing.LastChangedUtc = changedBefore;
                     if (failure.Reason != QuarantineReason.ToolMissing)
                     {
                         StampReaderVersion(state, existing);
