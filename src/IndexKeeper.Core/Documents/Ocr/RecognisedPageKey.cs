@@ -8,14 +8,6 @@ namespace IndexKeeper.Core.Documents.Ocr;
 /// </summary>
 internal static class RecognisedPageKey
 {
-    public static PageKey Of(string ocrIdentity, PageKey pageKey)
-    {
-        var writer = new Pdf.CanonicalWriter();
-        writer.Raw(PageKeyFormat.Magic);
-        writer.UInt32(PageKeyFormat.Version);
-        writer.Byte(PageKeyFormat.RecognisedPage);
-        writer.String(System.Text.Encoding.UTF8.GetBytes(ocrIdentity));
-        writer.Hash(pageKey.ToBytes());
-        return PageKey.Of(writer.WrittenSpan);
-    }
+    public static PageKey Of(string ocrIdentity, PageKey pageKey) =>
+        SaltedPageKey.Of(PageKeyFormat.RecognisedPage, ocrIdentity, pageKey);
 }

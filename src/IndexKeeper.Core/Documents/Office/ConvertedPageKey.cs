@@ -7,14 +7,6 @@ namespace IndexKeeper.Core.Documents.Office;
 /// </summary>
 internal static class ConvertedPageKey
 {
-    public static PageKey Of(string converterVersion, PageKey pdfPageKey)
-    {
-        var writer = new Pdf.CanonicalWriter();
-        writer.Raw(PageKeyFormat.Magic);
-        writer.UInt32(PageKeyFormat.Version);
-        writer.Byte(PageKeyFormat.ConvertedPage);
-        writer.String(System.Text.Encoding.UTF8.GetBytes(converterVersion));
-        writer.Hash(pdfPageKey.ToBytes());
-        return PageKey.Of(writer.WrittenSpan);
-    }
+    public static PageKey Of(string converterVersion, PageKey pdfPageKey) =>
+        SaltedPageKey.Of(PageKeyFormat.ConvertedPage, converterVersion, pdfPageKey);
 }

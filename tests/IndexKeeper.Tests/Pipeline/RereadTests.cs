@@ -9,17 +9,19 @@ using IndexKeeper.Tests.Support;
 namespace IndexKeeper.Tests.Pipeline;
 
 /// <summary>
-/// Documents read by an older build (<see cref="ReaderVersion"/>) are read again once when this build's
-/// readers can give more: a scan indexed without words gets OCR words under a new key, which is embedded;
-/// a document that reads the same is only stamped; a re-read never costs a live document its pages.
+/// Unchanged documents read again. Those read by an older build (<see cref="ReaderVersion"/>) are read once
+/// more when this build's readers can give more: a scan indexed without words gets OCR words under a new key,
+/// which is embedded; a document that reads the same is only stamped; a re-read never costs a live document
+/// its pages. Those quarantined because a program was missing are read again once it is installed; while it
+/// is still missing one read per pass proves it for all of them.
 /// </summary>
-public sealed class ReaderVersionTests : IDisposable
+public sealed class RereadTests : IDisposable
 {
     private readonly TempDirectory temp = new();
     private readonly IndexLock heldLock;
     private readonly IndexCatalog catalog;
 
-    public ReaderVersionTests()
+    public RereadTests()
     {
         heldLock = IndexLock.Acquire(temp.Combine("index"), "test");
         catalog = IndexCatalog.Open(heldLock);
@@ -64,6 +66,31 @@ public sealed class ReaderVersionTests : IDisposable
         Assert.Equal((1L, 0L), (pass.DocumentsRead, pass.DocumentsQuarantined));
         Assert.Contains(pass.Problems, p => p.Contains("kept as it was", StringComparison.Ordinal));
         Assert.All(catalog.Documents.All(), d => Assert.Equal((DocumentState.Live, before[d.Path], 0), (d.State, string.Join(",", d.PageKeys), d.ReaderVersion)));
+    }
+
+    [LinuxFact]
+    public void Scans_waiting_on_a_missing_ocr_program_are_read_once_it_is_installed()
+    {
+        // Before: a quarantine for a missing program lasted until the file itself changed.
+        File.WriteAllBytes(temp.Write("a/dredging-notice.png", string.Empty), OcrTests.Render("Kellmarsh dredging notice"));
+        File.WriteAllBytes(temp.Write("a/mooring-fees.png", string.Empty), OcrTests.Render("Kellmarsh mooring fees"));
+        var program = temp.Combine("tools", "tesseract");
+        var reader = DocumentReaderFactory.Create(ReaderSettings.Default with { OcrProgram = program });
+
+        var first = Scan(reader);
+        Assert.Equal((2L, 2L), (first.DocumentsRead, first.DocumentsQuarantined));
+        Assert.All(catalog.Documents.All(), d => Assert.Equal(QuarantineReason.ToolMissing, d.QuarantineReason));
+
+        var stillMissing = Scan(reader);
+        Assert.Equal((1L, 2L, 0L), (stillMissing.DocumentsRead, stillMissing.DocumentsUnchanged, stillMissing.DocumentsChanged));
+
+        // "Installing" it: Debian's tesseract (package tesseract-ocr) appears at the configured path.
+        Directory.CreateDirectory(Path.GetDirectoryName(program)!);
+        File.CreateSymbolicLink(program, "/usr/bin/tesseract");
+        var installed = Scan(reader);
+        Assert.Equal((2L, 2L), (installed.DocumentsRead, installed.DocumentsChanged));
+        Assert.All(catalog.Documents.All(), d => Assert.Equal(DocumentState.Live, d.State));
+        Assert.Equal(0L, Scan(reader).DocumentsRead);
     }
 
     public void Dispose()
