@@ -54,7 +54,7 @@ internal sealed class SearchCommand() : CommandBase(
             var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
             if (context.Value(maps) is { } mapsDirectory)
             {
-                MatchMaps.Write(composed.Index.Catalog, found, mapsDirectory);
+                MatchMaps.Write(composed.Index.Catalog, composed.Index.Words, found, mapsDirectory);
             }
 
             return found;

@@ -1,5 +1,7 @@
 using System.Diagnostics;
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Search;
 using IndexKeeper.Service.Querying;
 
@@ -33,7 +35,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
 
             var matched = hit.Matches.Where(m => m.Similarity >= settings.MinimumTokenSimilarity).Select(m => m.Region).ToHashSet();
 
-            var page = index.Catalog.Pages.Find(hit.Key.Hex);
+            var page = WordsOf(index.Catalog.Pages.Find(hit.Key.Hex));
             hits.Add(new SearchReportHit
             {
                 Root = locations[0].Root,
@@ -86,22 +88,41 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
         return (locations, first);
     }
 
-    /// <summary>The page's words around the first word whose box a query vector matched, matched words in «».</summary>
-    internal static string Snippet(PageRecord? page, IReadOnlySet<Core.Documents.PageBox> matched)
+    /// <summary>The page's words in reading order; none when the page is gone or its stored words fail their checks (verify names those).</summary>
+    private IReadOnlyList<PageWord> WordsOf(PageRecord? page)
     {
-        if (page is null || page.Words.Count == 0)
+        if (page is null)
+        {
+            return [];
+        }
+
+        try
+        {
+            return PageInput.WordsOf(page, index.Words);
+        }
+        catch (Exception ex) when (ex is InvalidDataException or IOException)
+        {
+            Trace.TraceWarning($"No snippet for page {page.Id}: {ex.Message}");
+            return [];
+        }
+    }
+
+    /// <summary>The page's words around the first word whose box a query vector matched, matched words in «».</summary>
+    internal static string Snippet(IReadOnlyList<PageWord> page, IReadOnlySet<PageBox> matched)
+    {
+        if (page.Count == 0)
         {
             return string.Empty;
         }
 
-        bool IsMatched(WordRecord w) => matched.Contains(new Core.Documents.PageBox(w.L, w.B, w.R, w.U));
-        var first = page.Words.FindIndex(IsMatched);
+        bool IsMatched(PageWord w) => matched.Contains(w.Box);
+        var first = page.ToList().FindIndex(IsMatched);
         var start = Math.Max(0, first - SnippetBefore);
-        var end = Math.Min(page.Words.Count, Math.Max(first, 0) + SnippetAfter + 1);
-        var words = page.Words.Skip(start).Take(end - start).Select(w => IsMatched(w) ? "«" + w.T + "»" : w.T);
-        return (start > 0 ? "… " : string.Empty) + string.Join(' ', words) + (end < page.Words.Count ? " …" : string.Empty);
+        var end = Math.Min(page.Count, Math.Max(first, 0) + SnippetAfter + 1);
+        var words = page.Skip(start).Take(end - start).Select(w => IsMatched(w) ? "«" + w.Text + "»" : w.Text);
+        return (start > 0 ? "… " : string.Empty) + string.Join(' ', words) + (end < page.Count ? " …" : string.Empty);
     }
 
-    private static string? WordAt(PageRecord? page, TokenMatch match) =>
-        page?.Words.FirstOrDefault(w => w.L == match.Region.Left && w.B == match.Region.Bottom && w.R == match.Region.Right && w.U == match.Region.Top)?.T;
+    private static string? WordAt(IReadOnlyList<PageWord> page, TokenMatch match) =>
+        page.FirstOrDefault(w => w.Box == match.Region)?.Text;
 }
