@@ -83,8 +83,8 @@ public sealed class ServingViews : IDisposable
     /// <summary>
     /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
     /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
-    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives (docs/search.md,
-    /// "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
+    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives, each count growing
+    /// with the index (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
     public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken)
@@ -98,7 +98,7 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var candidates = fromGraph ? view.Candidates(query, CandidateCount(k)) : view.Entries();
+            var candidates = fromGraph ? view.Candidates(query, CandidateCounts.FromGraph(k, view.Count)) : view.Entries();
             try
             {
                 using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
@@ -112,7 +112,8 @@ public sealed class ServingViews : IDisposable
                     VectorCount = c.VectorCount,
                     Live = true,
                 })]);
-                var ranked = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+                var options = new SearchOptions { Top = k, Candidates = CandidateCounts.Reranked(k, view.Count) };
+                var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
                 return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
             }
             catch (InvalidOperationException) when (attempt < 3)
@@ -121,9 +122,6 @@ public sealed class ServingViews : IDisposable
             }
         }
     }
-
-    /// <summary>Pages the candidate graph hands to the sign-code stage (docs/search.md, "Candidates").</summary>
-    public static int CandidateCount(int k) => Math.Max(200 * k, 2000);
 
     /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
