@@ -87,7 +87,9 @@ public sealed class ServingViews : IDisposable
     /// with the index (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
-    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken)
+    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the graph would
+    /// give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
     {
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
@@ -98,7 +100,15 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var candidates = fromGraph ? view.Candidates(query, CandidateCounts.FromGraph(k, view.Count)) : view.Entries();
+            var fromGraphCount = CandidateCounts.FromGraph(k, view.Count);
+            IEnumerable<ServingEntry> candidates = fromGraph && (allowed is null || allowed.Count > fromGraphCount)
+                ? view.Candidates(query, fromGraphCount)
+                : view.Entries();
+            if (allowed is not null)
+            {
+                candidates = candidates.Where(c => allowed.Contains(c.Key.Hex));
+            }
+
             try
             {
                 using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord

@@ -65,6 +65,21 @@ public sealed class PageWordStoreTests : IDisposable
     }
 
     [Fact]
+    public void The_worked_example_of_the_format_document_holds()
+    {
+        // docs/page-words-format.md, "Worked example": one word "Weir" at (72, 700)–(96, 712).
+        PageWordsLocation at;
+        using (var store = PageWordStore.OpenForWriting(temp.Path))
+        {
+            at = store.Append([(First, [new PageWord("Weir", new PageBox(72, 700, 96, 712))])])[0];
+        }
+
+        var file = new FileInfo(Path.Combine(temp.Path, "words", "words-000001.words"));
+        Assert.Equal((1L, 16L, 66), (at.File, at.Offset, at.Length));
+        Assert.Equal(82, file.Length);
+    }
+
+    [Fact]
     public void A_flipped_byte_a_wrong_key_a_cut_file_and_a_missing_file_are_refused()
     {
         PageWordsLocation at;
