@@ -154,7 +154,7 @@ internal static class UnicodeTableSource
         }
     }
 
-    private static IEnumerable<(int First, int Last, string Property)> Properties(string path)
+    internal static IEnumerable<(int First, int Last, string Property)> Properties(string path)
     {
         foreach (var line in DataLines(path))
         {
