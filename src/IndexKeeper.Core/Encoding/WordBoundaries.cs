@@ -1,4 +1,3 @@
-using System.Globalization;
 using P = IndexKeeper.Core.Encoding.WordBreakProperty;
 
 namespace IndexKeeper.Core.Encoding;
@@ -10,8 +9,8 @@ namespace IndexKeeper.Core.Encoding;
 /// </summary>
 internal static class WordBoundaries
 {
-    private static readonly (int First, int Last, int Value)[] Properties = Parse(WordBreakTables.Properties);
-    private static readonly (int First, int Last, int Value)[] Pictographic = Parse(WordBreakTables.ExtendedPictographic);
+    private static readonly (int First, int Last, int Value)[] Properties = UnicodeRanges.Parse(WordBreakTables.Properties);
+    private static readonly (int First, int Last, int Value)[] Pictographic = UnicodeRanges.Parse(WordBreakTables.ExtendedPictographic);
 
     /// <summary>The segments of <paramref name="text"/> between its word boundaries, in order (spaces and punctuation included).</summary>
     public static List<string> Segments(string text)
@@ -49,7 +48,7 @@ internal static class WordBoundaries
         var p = new P[n];
         for (var i = 0; i < n; i++)
         {
-            p[i] = (P)Lookup(Properties, codePoints[i]);
+            p[i] = (P)UnicodeRanges.Lookup(Properties, codePoints[i]);
         }
 
         for (var i = 1; i < n; i++)
@@ -80,7 +79,7 @@ internal static class WordBoundaries
             return true; // WB3a, WB3b
         }
 
-        if (before == P.ZeroWidthJoiner && Lookup(Pictographic, codePoints[i]) != 0)
+        if (before == P.ZeroWidthJoiner && UnicodeRanges.Lookup(Pictographic, codePoints[i]) != 0)
         {
             return false; // WB3c
         }
@@ -155,37 +154,4 @@ internal static class WordBoundaries
     private static bool IsAHLetter(P property) => property is P.ALetter or P.HebrewLetter;
 
     private static bool IsMidNumLetQ(P property) => property is P.MidNumLet or P.SingleQuote;
-
-    private static int Lookup((int First, int Last, int Value)[] ranges, int codePoint)
-    {
-        int low = 0, high = ranges.Length - 1;
-        while (low <= high)
-        {
-            var middle = (low + high) >>> 1;
-            if (codePoint < ranges[middle].First)
-            {
-                high = middle - 1;
-            }
-            else if (codePoint > ranges[middle].Last)
-            {
-                low = middle + 1;
-            }
-            else
-            {
-                return ranges[middle].Value;
-            }
-        }
-
-        return 0;
-    }
-
-    private static (int First, int Last, int Value)[] Parse(string table) =>
-        table.Split(';', StringSplitOptions.RemoveEmptyEntries).Select(e =>
-        {
-            var parts = e.Split(':');
-            var range = parts[0].Split('-');
-            return (Hex(range[0]), Hex(range[^1]), Hex(parts[1]));
-        }).ToArray();
-
-    private static int Hex(string text) => int.Parse(text, NumberStyles.HexNumber, CultureInfo.InvariantCulture);
 }

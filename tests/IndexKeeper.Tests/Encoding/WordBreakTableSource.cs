@@ -39,12 +39,9 @@ internal static class WordBreakTableSource
         output.Append("// </auto-generated>\n");
         output.Append("namespace IndexKeeper.Core.Encoding;\n\n");
         output.Append("/// <summary>Unicode 15.0.0 word-break data (UAX #29): \"first[-last]:value\" hex entries separated by ';'.</summary>\n");
-        output.Append("internal static class WordBreakTables\n{\n");
-        output.Append("    /// <summary>Word_Break property values, numbered as <see cref=\"WordBreakProperty\"/>.</summary>\n");
-        Write(output, "Properties", Merge(properties), c);
-        output.Append('\n');
-        output.Append("    /// <summary>Extended_Pictographic code points (UTS #51), for rule WB3c.</summary>\n");
-        Write(output, "ExtendedPictographic", pictographic, c);
+        output.Append("internal static class WordBreakTables\n{");
+        UnicodeTableSource.Constant(output, "Word_Break property values, numbered as <see cref=\"WordBreakProperty\"/>.", "Properties", Entries(Merge(properties), c));
+        UnicodeTableSource.Constant(output, "Extended_Pictographic code points (UTS #51), for rule WB3c.", "ExtendedPictographic", Entries(pictographic, c));
         output.Append("}\n");
         return output.ToString();
     }
@@ -67,24 +64,6 @@ internal static class WordBreakTableSource
         return merged;
     }
 
-    private static void Write(StringBuilder output, string name, List<(int First, int Last, int Value)> ranges, CultureInfo c)
-    {
-        var entries = ranges.Select(r => (r.First == r.Last ? r.First.ToString("X", c) : r.First.ToString("X", c) + "-" + r.Last.ToString("X", c)) + ":" + r.Value.ToString("X", c)).ToList();
-        output.Append("    public const string ").Append(name).Append(" =\n");
-        var lines = new List<string>();
-        var line = new StringBuilder();
-        foreach (var entry in entries)
-        {
-            if (line.Length + entry.Length + 1 > 110)
-            {
-                lines.Add(line.ToString());
-                line.Clear();
-            }
-
-            line.Append(entry).Append(';');
-        }
-
-        lines.Add(line.ToString());
-        output.Append(string.Join(" +\n", lines.Select(l => "        \"" + l + "\""))).Append(";\n");
-    }
+    private static IEnumerable<string> Entries(List<(int First, int Last, int Value)> ranges, CultureInfo c) =>
+        ranges.Select(r => (r.First == r.Last ? r.First.ToString("X", c) : r.First.ToString("X", c) + "-" + r.Last.ToString("X", c)) + ":" + r.Value.ToString("X", c));
 }
