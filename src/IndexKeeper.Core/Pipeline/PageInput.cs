@@ -6,7 +6,7 @@ using IndexKeeper.Core.Storage;
 namespace IndexKeeper.Core.Pipeline;
 
 /// <summary>Turns a catalog page record back into what an encoder takes (words, geometry, and where its file is).</summary>
-internal static class PageInput
+public static class PageInput
 {
     public static PageToEncode From(PageRecord page, PageWordStore words, IReadOnlyDictionary<string, string> rootPaths)
     {
