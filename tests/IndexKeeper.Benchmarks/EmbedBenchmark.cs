@@ -39,7 +39,7 @@ public sealed class EmbedBenchmark : IBenchmark
         var (scan, scanCpu) = Measure.Once(() => summary = composed.Get<ScanOperation>().Walk("benchmark", composed.Settings.Scan.Roots, CancellationToken.None));
         // The embed pass itself, around an encoder that records its batches (the store append is replayed from them).
         var (embed, embedCpu) = Measure.Once(() =>
-            new EmbedPass(session.Catalog, store, encoder, composed.Settings.RootPaths, composed.Settings.EmbedBatchSize).Run(summary, CancellationToken.None));
+            new EmbedPass(session.Catalog, store, session.Words, encoder, composed.Settings.RootPaths, composed.Settings.EmbedBatchSize).Run(summary, CancellationToken.None));
         if (summary.PagesEmbedded != summary.PagesNew || summary.PagesFailed != 0 || summary.DocumentsQuarantined != 0)
         {
             throw new InvalidOperationException($"sync embedded {summary.PagesEmbedded} of {summary.PagesNew} new pages, {summary.PagesFailed} failed, {summary.DocumentsQuarantined} quarantined");

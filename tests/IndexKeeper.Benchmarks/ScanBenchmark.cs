@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Benchmarks;
 
@@ -34,7 +35,8 @@ public sealed class ScanBenchmark : IBenchmark
         var settings = new ScanSettings([spec], ReadLimits.Default, TimeSpan.FromSeconds(2));
         using var heldLock = IndexLock.Acquire(Path.Combine(context.WorkDirectory, "index"), "benchmark scan");
         using var catalog = IndexCatalog.Open(heldLock);
-        var pass = new ScanPass(catalog, DocumentReaderFactory.Create(), settings);
+        using var words = PageWordStore.OpenForWriting(heldLock.Directory);
+        var pass = new ScanPass(catalog, words, DocumentReaderFactory.Create(), settings);
 
         ScanSummary first = null!;
         var (initialWall, initialCpu) = Measure.Once(() => first = pass.Run("benchmark", CancellationToken.None));

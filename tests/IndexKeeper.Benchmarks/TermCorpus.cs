@@ -39,7 +39,10 @@ internal sealed class TermCorpus
     public EncoderIdentity Identity => encoder.Identity;
 
     /// <summary>The vectors of page <paramref name="index"/> (pages are made once each, in any order).</summary>
-    public VectorSet Page(int index)
+    public VectorSet Page(int index) => PageAndWords(index).Vectors;
+
+    /// <summary>The vectors of page <paramref name="index"/> and the placed words they were made from.</summary>
+    public (VectorSet Vectors, PageWord[] Words) PageAndWords(int index)
     {
         var count = random.Next(minWords, maxWords + 1);
         var text = new string[count];
@@ -57,7 +60,7 @@ internal sealed class TermCorpus
         }
 
         var page = new PageToEncode(PageKey.Of(BitConverter.GetBytes(index)), "generated", 1, 612, 792, placed);
-        return encoder.EncodePages([page], CancellationToken.None)[0];
+        return (encoder.EncodePages([page], CancellationToken.None)[0], placed);
     }
 
     /// <summary>A query of the page's rarer words; the page's index must be a multiple of 97.</summary>

@@ -7,7 +7,10 @@ using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Cli.Commands;
 
-/// <summary><c>search "text" [-k N] [--maps DIR]</c>: top-k pages by late interaction, with what matched where.</summary>
+/// <summary>
+/// <c>search "text" [-k N] [--maps DIR] [filters]</c>: top-k pages by late interaction, with what matched where;
+/// filters and paging as <see cref="SearchFilter"/> (a bad one is exit 2 naming it).
+/// </summary>
 internal sealed class SearchCommand() : CommandBase(
     "search",
     "top-k pages for a query by MaxSim over live vector sets; --maps DIR draws match maps")
@@ -31,7 +34,43 @@ internal sealed class SearchCommand() : CommandBase(
         HelpName = "DIR",
     });
 
-    public override IEnumerable<Symbol> Symbols => [query, k, maps];
+    private readonly Option<string[]> inRoot = new("--in-root")
+    {
+        Description = "only documents of this root (by its name); repeat for more",
+        HelpName = "NAME",
+    };
+
+    private readonly Option<string[]> inFolder = new("--in-folder")
+    {
+        Description = "only documents whose path under their root matches this glob (a folder takes all below it); repeat for more",
+        HelpName = "GLOB",
+    };
+
+    private readonly Option<string[]> type = new("--type")
+    {
+        Description = "only documents of this type (pdf, png, jpeg, tiff, markdown, …); repeat for more",
+        HelpName = "TYPE",
+    };
+
+    private readonly Option<string?> modifiedSince = LastValue.Wins(new("--modified-since")
+    {
+        Description = "only documents modified at or after this ISO 8601 date or time (UTC unless an offset is given)",
+        HelpName = "DATE",
+    });
+
+    private readonly Option<string?> minScore = LastValue.Wins(new("--min-score")
+    {
+        Description = "leave out hits scoring below this",
+        HelpName = "SCORE",
+    });
+
+    private readonly Option<string?> offset = LastValue.Wins(new("--offset")
+    {
+        Description = "skip this many hits (the next page starts at the answer's nextOffset)",
+        HelpName = "N",
+    });
+
+    public override IEnumerable<Symbol> Symbols => [query, k, maps, inRoot, inFolder, type, modifiedSince, minScore, offset];
 
     public override int Run(CommandContext context, CancellationToken cancellationToken)
     {
@@ -48,19 +87,32 @@ internal sealed class SearchCommand() : CommandBase(
             throw new UsageException(problem);
         }
 
+        var (roots, folders, types) = (context.Value(inRoot) ?? [], context.Value(inFolder) ?? [], context.Value(type) ?? []);
+        var (filter, filterProblem) = SearchFilter.Parse(roots, folders, types, context.Value(modifiedSince), context.Value(minScore), context.Value(offset));
+        if (filterProblem is not null)
+        {
+            throw new UsageException(filterProblem);
+        }
+
         var report = ThroughDaemon.Ask(options, () =>
         {
             using var composed = CommandContext.OpenForReading(options);
-            var found = composed.Get<SearchOperation>().Search(text, k, cancellationToken);
+            var search = composed.Get<SearchOperation>();
+            if (search.UnknownRoot(filter!) is { } unknown)
+            {
+                throw new UsageException(unknown);
+            }
+
+            var found = search.Search(text, k, filter!, cancellationToken);
             if (context.Value(maps) is { } mapsDirectory)
             {
-                MatchMaps.Write(composed.Index.Catalog, found, mapsDirectory);
+                MatchMaps.Write(composed.Index.Catalog, composed.Index.Words, found, mapsDirectory);
             }
 
             return found;
         }, daemon => context.Value(maps) is not null
             ? throw new UsageException("--maps draws from the index itself, which the running daemon holds; search without --maps, or stop the daemon.")
-            : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}")));
+            : daemon.Get<SearchReport>(string.Create(CultureInfo.InvariantCulture, $"/api/search?q={Uri.EscapeDataString(text)}&k={k}") + FilterQuery(roots, folders, types, [("modified-since", context.Value(modifiedSince)), ("min-score", context.Value(minScore)), ("offset", context.Value(offset))])));
 
         // A search that could not read every vector set is a partial failure (exit 1), said on stderr.
         if (report.VectorSetsUnreadable > 0)
@@ -69,6 +121,14 @@ internal sealed class SearchCommand() : CommandBase(
         }
 
         return context.Print(report, Write, report.VectorSetsUnreadable > 0 ? 1 : 0);
+    }
+
+    /// <summary>The filters as <c>/api/search</c> parameters, as given (the daemon checks them again).</summary>
+    private static string FilterQuery(string[] roots, string[] folders, string[] types, (string Name, string? Value)[] singles)
+    {
+        var parts = roots.Select(r => ("root", r)).Concat(folders.Select(f => ("folder", f))).Concat(types.Select(t => ("type", t)))
+            .Concat(singles.Where(s => s.Value is not null).Select(s => (s.Name, s.Value!)));
+        return string.Concat(parts.Select(p => "&" + p.Item1 + "=" + Uri.EscapeDataString(p.Item2)));
     }
 
     private static void Write(TextWriter o, SearchReport report)

@@ -1,7 +1,9 @@
 using System.Globalization;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Search;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Querying;
 
 namespace IndexKeeper.Cli.Output;
@@ -12,7 +14,7 @@ namespace IndexKeeper.Cli.Output;
 /// </summary>
 internal static class MatchMaps
 {
-    public static void Write(IndexCatalog catalog, SearchReport report, string directory)
+    public static void Write(IndexCatalog catalog, PageWordStore store, SearchReport report, string directory)
     {
         Directory.CreateDirectory(directory);
         var rank = 0;
@@ -24,7 +26,7 @@ internal static class MatchMaps
                 continue;
             }
 
-            var words = page.Words.Select(w => new PageBox(w.L, w.B, w.R, w.U)).ToList();
+            var words = PageInput.WordsOf(page, store).Select(w => w.Box).ToList();
             var regions = hit.Matches.Select(m => new PageBox(m.Left, m.Bottom, m.Right, m.Top)).ToList();
             var name = string.Create(CultureInfo.InvariantCulture, $"{rank:00}-{Safe(hit.Path)}-p{hit.Page}.png");
             using var file = File.Create(Path.Combine(directory, name));

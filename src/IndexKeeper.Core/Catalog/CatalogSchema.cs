@@ -4,7 +4,12 @@ namespace IndexKeeper.Core.Catalog;
 public static class CatalogSchema
 {
     /// <summary>The schema this build reads and writes (docs/catalog.md, "Version").</summary>
-    public const int Version = 1;
+    /// <summary>
+    /// Version 2 keeps page words in the page-word store instead of the page records; a version-1 catalog is
+    /// raised to 2 by its first writing open (no record rewritten: its pages keep their words where they are
+    /// and are read there), so a build that knows only version 1 refuses it rather than miss new pages' words.
+    /// </summary>
+    public const int Version = 2;
 
     public const string FileName = "catalog.db";
 

@@ -518,5 +518,13 @@ public sealed class IndexCatalog : IDisposable
         {
             throw new CatalogVersionException($"The catalog '{path}' has an invalid schema version {version}. Nothing was changed.");
         }
+
+        if (version == 1)
+        {
+            // Version 1 → 2: page words of records written so far stay inside them and are read there;
+            // pages added from now on keep theirs in the page-word store.
+            schema["version"] = CatalogSchema.Version;
+            meta.Update(schema);
+        }
     }
 }

@@ -47,10 +47,13 @@ internal sealed class HashedTermEncoder : IPageEncoder
             var regions = new List<PageBox>(words.Count);
             foreach (var word in words)
             {
-                if (TermVector(word.Text, cache) is { } vector)
+                foreach (var term in Terms(word.Text))
                 {
-                    vectors.Add(vector);
-                    regions.Add(word.Box);
+                    if (TermVector(term, cache) is { } vector)
+                    {
+                        vectors.Add(vector);
+                        regions.Add(word.Box);
+                    }
                 }
             }
 
@@ -67,13 +70,33 @@ internal sealed class HashedTermEncoder : IPageEncoder
         cancellationToken.ThrowIfCancellationRequested();
         var cache = new Dictionary<string, float[]?>(StringComparer.Ordinal);
         var vectors = text.Split((char[]?)null, StringSplitOptions.RemoveEmptyEntries)
-            .Select(word => TermVector(word, cache))
+            .SelectMany(Terms)
+            .Select(term => TermVector(term, cache))
             .OfType<float[]>()
             .ToList();
         return new VectorSet(dimensions, Flatten(vectors), new PageBox[vectors.Count]);
     }
 
-    /// <summary>The unit vector of one word, or null when nothing of it survives normalisation.</summary>
+    /// <summary>
+    /// The terms of one white-space word (scheme 2): each UAX #29 word in it that keeps a letter, mark or digit,
+    /// then the whole word when it holds more than one, so that "pre-filter" and "A-113" are found by their parts
+    /// and as written, and "KESTREL53" (one UAX #29 word) stays one term.
+    /// </summary>
+    internal static IEnumerable<string> Terms(string word)
+    {
+        var parts = WordBoundaries.Segments(word).Where(s => TermNormalizer.Normalize(s).Length > 0).ToList();
+        foreach (var part in parts)
+        {
+            yield return part;
+        }
+
+        if (parts.Count > 1)
+        {
+            yield return word;
+        }
+    }
+
+    /// <summary>The unit vector of one term, or null when nothing of it survives normalisation.</summary>
     internal float[]? TermVector(string word, Dictionary<string, float[]?> cache)
     {
         if (cache.TryGetValue(word, out var cached))

@@ -8,8 +8,12 @@ public static class HashedTermEncoderFactory
 {
     public const string Name = "hashed-terms";
 
-    /// <summary>Version of the hashing scheme; raise it on any change that alters vectors. Never reuse a number.</summary>
-    public const int SchemeVersion = 1;
+    /// <summary>
+    /// Version of the hashing scheme; raise it on any change that alters vectors. Never reuse a number.
+    /// 1: one term per white-space word. 2: a word's terms are its UAX #29 words and, when there are several, the
+    /// whole word as well (docs/encoders.md).
+    /// </summary>
+    public const int SchemeVersion = 2;
 
     /// <exception cref="ArgumentException">One or more settings are bad; the message names each.</exception>
     public static IPageEncoder Create(HashedTermEncoderOptions options)
@@ -29,7 +33,7 @@ public static class HashedTermEncoderFactory
     {
         var description = string.Create(
             CultureInfo.InvariantCulture,
-            $"{Name};scheme={SchemeVersion};hash=fnv1a64;unicode={UnicodeTables.Version};normalise=nfkc+casefold+letters-marks-digits;" +
+            $"{Name};scheme={SchemeVersion};hash=fnv1a64;unicode={UnicodeTables.Version};normalise=nfkc+casefold+letters-marks-digits;terms=uax29-words+whole;" +
             $"dimensions={options.Dimensions};probes={options.Probes};ngram={options.CharacterNGramLength};seed={options.Seed};pool={options.PoolFactor};" +
             $"pooling={VectorPooling.Scheme};stored={Storage.VectorQuantization.StoredForm}");
         var id = Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(description)));

@@ -17,8 +17,8 @@ internal static class TermNormalizer
     private static readonly Dictionary<int, int[]> Decompositions = ParseMap(UnicodeTables.Decompositions, v => v.Split(' ').Select(Hex).ToArray());
     private static readonly Dictionary<int, int> CaseFolds = ParseMap(UnicodeTables.CaseFolds, Hex);
     private static readonly Dictionary<long, int> Compositions = ParseCompositions();
-    private static readonly (int First, int Last, int Value)[] CombiningClasses = ParseRanges(UnicodeTables.CombiningClasses);
-    private static readonly (int First, int Last, int Value)[] Kept = ParseRanges(UnicodeTables.KeptRanges);
+    private static readonly (int First, int Last, int Value)[] CombiningClasses = UnicodeRanges.Parse(UnicodeTables.CombiningClasses);
+    private static readonly (int First, int Last, int Value)[] Kept = UnicodeRanges.Parse(UnicodeTables.KeptRanges);
 
     /// <summary>The normalised term, possibly empty (a word of punctuation only).</summary>
     public static string Normalize(string word)
@@ -33,7 +33,7 @@ internal static class TermNormalizer
         foreach (var codePoint in Nfkc(CodePoints(word)))
         {
             var folded = CaseFolds.TryGetValue(codePoint, out var f) ? f : codePoint;
-            if (Lookup(Kept, folded) != 0)
+            if (UnicodeRanges.Lookup(Kept, folded) != 0)
             {
                 output.Append(char.ConvertFromUtf32(folded));
             }
@@ -59,7 +59,7 @@ internal static class TermNormalizer
         var output = new StringBuilder(buffer.Count);
         foreach (var codePoint in buffer)
         {
-            if (Lookup(CombiningClasses, codePoint) == 0)
+            if (UnicodeRanges.Lookup(CombiningClasses, codePoint) == 0)
             {
                 output.Append(char.ConvertFromUtf32(codePoint));
             }
@@ -122,14 +122,14 @@ internal static class TermNormalizer
         for (var i = 1; i < buffer.Count; i++)
         {
             var current = buffer[i];
-            var currentClass = Lookup(CombiningClasses, current);
+            var currentClass = UnicodeRanges.Lookup(CombiningClasses, current);
             if (currentClass == 0)
             {
                 continue;
             }
 
             var j = i;
-            while (j > 0 && Lookup(CombiningClasses, buffer[j - 1]) > currentClass)
+            while (j > 0 && UnicodeRanges.Lookup(CombiningClasses, buffer[j - 1]) > currentClass)
             {
                 buffer[j] = buffer[j - 1];
                 j--;
@@ -150,12 +150,12 @@ internal static class TermNormalizer
 
         var starterPosition = 0;
         var starter = buffer[0];
-        var lastClass = Lookup(CombiningClasses, starter) == 0 ? 0 : 256;
+        var lastClass = UnicodeRanges.Lookup(CombiningClasses, starter) == 0 ? 0 : 256;
         var written = 1;
         for (var read = 1; read < buffer.Count; read++)
         {
             var current = buffer[read];
-            var currentClass = Lookup(CombiningClasses, current);
+            var currentClass = UnicodeRanges.Lookup(CombiningClasses, current);
             var composite = ComposePair(starter, current);
             if (composite >= 0 && (lastClass < currentClass || lastClass == 0))
             {
@@ -234,29 +234,6 @@ internal static class TermNormalizer
         return result;
     }
 
-    private static int Lookup((int First, int Last, int Value)[] ranges, int codePoint)
-    {
-        int low = 0, high = ranges.Length - 1;
-        while (low <= high)
-        {
-            var middle = (low + high) >>> 1;
-            if (codePoint < ranges[middle].First)
-            {
-                high = middle - 1;
-            }
-            else if (codePoint > ranges[middle].Last)
-            {
-                low = middle + 1;
-            }
-            else
-            {
-                return ranges[middle].Value;
-            }
-        }
-
-        return 0;
-    }
-
     private static long PairKey(int first, int second) => ((long)first << 21) | (uint)second;
 
     private static Dictionary<int, T> ParseMap<T>(string table, Func<string, T> value) =>
@@ -266,15 +243,6 @@ internal static class TermNormalizer
         Entries(UnicodeTables.Compositions).Select(e => e.Split('>')).ToDictionary(
             p => PairKey(Hex(p[0].Split(' ')[0]), Hex(p[0].Split(' ')[1])),
             p => Hex(p[1]));
-
-    // "first[-last][:value]" entries; a missing value means 1.
-    private static (int First, int Last, int Value)[] ParseRanges(string table) =>
-        Entries(table).Select(e =>
-        {
-            var parts = e.Split(':');
-            var range = parts[0].Split('-');
-            return (Hex(range[0]), Hex(range[^1]), parts.Length > 1 ? Hex(parts[1]) : 1);
-        }).ToArray();
 
     private static IEnumerable<string> Entries(string table) => table.Split(';', StringSplitOptions.RemoveEmptyEntries);
 

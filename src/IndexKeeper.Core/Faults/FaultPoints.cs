@@ -55,6 +55,12 @@ internal static class FaultPoints
     /// <summary>An old segment was deleted.</summary>
     public const string CompactionDeleteAfter = "compaction.delete.after";
 
+    /// <summary>A scan batch's new page words are written to the page-word store, not yet fsynced; the catalog does not name them.</summary>
+    public const string WordsAppendBeforeFsync = "words.append.before-fsync";
+
+    /// <summary>The page words are durable; the catalog commit that names them (the scan batch) has not run.</summary>
+    public const string WordsAppendAfterFsync = "words.append.after-fsync";
+
     /// <summary>Recovery (at open, or after a failed append) is about to cut an open segment to its committed length.</summary>
     public const string RecoveryCutBefore = "recovery.cut.before";
 
@@ -80,7 +86,7 @@ internal static class FaultPoints
         SegmentAppendBeforeFsync, SegmentAppendAfterFsync, SegmentSealBefore, SegmentSealAfterFsync, SegmentRenameBefore,
         SegmentRenameAfter, SegmentSealAfter, CompactionOutputWrite, DirectoryFsyncBefore, DirectoryFsyncAfter,
         CatalogCommitBefore, CatalogCommitAfter, CompactionSwapBeforeCommit, CompactionSwapAfterCommit,
-        CompactionDeleteBefore, CompactionDeleteAfter, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
+        CompactionDeleteBefore, CompactionDeleteAfter, WordsAppendBeforeFsync, WordsAppendAfterFsync, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
     ];
 
     /// <summary>Points with tests of their own instead of rows of the matrix (each says which).</summary>

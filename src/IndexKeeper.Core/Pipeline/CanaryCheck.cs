@@ -19,6 +19,7 @@ public static class CanaryCheck
     public static CanaryFigures Run(
         IndexCatalog catalog,
         VectorStore store,
+        PageWordStore words,
         IPageEncoder encoder,
         IReadOnlyDictionary<string, string> rootPaths,
         CanarySettings settings,
@@ -27,6 +28,7 @@ public static class CanaryCheck
     {
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(words);
         ArgumentNullException.ThrowIfNull(encoder);
         ArgumentNullException.ThrowIfNull(rootPaths);
         ArgumentNullException.ThrowIfNull(settings);
@@ -38,7 +40,7 @@ public static class CanaryCheck
             if (catalog.VectorSets.Find(encoderId, key) is { Live: true } record && catalog.Pages.Find(key) is { } page)
             {
                 records.Add(record);
-                pages.Add(PageInput.From(page, rootPaths));
+                pages.Add(PageInput.From(page, words, rootPaths));
             }
         }
 

@@ -3,6 +3,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Pipeline;
@@ -18,6 +19,7 @@ namespace IndexKeeper.Core.Pipeline;
 public sealed class EmbedPass(
     IndexCatalog catalog,
     VectorStore store,
+    PageWordStore words,
     IPageEncoder encoder,
     IReadOnlyDictionary<string, string> rootPaths,
     int batchSize = 32,
@@ -66,7 +68,7 @@ public sealed class EmbedPass(
                     continue;
                 }
 
-                batch.Add(PageInput.From(page, rootPaths));
+                batch.Add(PageInput.From(page, words, rootPaths));
             }
 
             catalog.Queue.Remove(satisfied);

@@ -13,19 +13,20 @@ namespace IndexKeeper.Core.Pipeline;
 /// <remarks>REQUIRES: the index lock is held (no writer is half-way through a commit).</remarks>
 public static class IndexVerifier
 {
-    public static VerifyReport Verify(IndexCatalog catalog, string segmentsDirectory, string? activeEncoderId, CancellationToken cancellationToken)
+    public static VerifyReport Verify(IndexCatalog catalog, PageWordStore words, string segmentsDirectory, string? activeEncoderId, CancellationToken cancellationToken)
     {
         ArgumentNullException.ThrowIfNull(catalog);
+        ArgumentNullException.ThrowIfNull(words);
         ArgumentNullException.ThrowIfNull(segmentsDirectory);
         var report = new VerifyReport();
-        var held = CheckReferences(catalog, report);
+        var held = CheckReferences(catalog, words, report);
         CheckSegments(catalog, segmentsDirectory, activeEncoderId, report, cancellationToken);
         CheckCoverage(catalog, activeEncoderId, held, report);
         return report;
     }
 
-    /// <summary>Checks every page's count against the documents; returns the keys a live document holds.</summary>
-    private static List<string> CheckReferences(IndexCatalog catalog, VerifyReport report)
+    /// <summary>Checks every page's count against the documents and reads its stored words back; returns the keys a live document holds.</summary>
+    private static List<string> CheckReferences(IndexCatalog catalog, PageWordStore words, VerifyReport report)
     {
         var held = new List<string>();
         var counts = new Dictionary<string, int>(StringComparer.Ordinal);
@@ -56,6 +57,15 @@ public static class IndexVerifier
             if (page.References != expected && !(expected == 0 && page.References == 0))
             {
                 report.Problems.Add($"page {page.Id}: the catalog counts {page.References} page locations, the documents hold {expected}");
+            }
+
+            try
+            {
+                PageInput.WordsOf(page, words);
+            }
+            catch (Exception ex) when (ex is InvalidDataException or IOException)
+            {
+                report.Problems.Add($"page {page.Id}: its words cannot be read ({ex.Message}); text encoders, snippets and match maps lack them until the page is read again");
             }
         }
 

@@ -4,6 +4,7 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Diff;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
 
 namespace IndexKeeper.Core.Pipeline;
@@ -17,6 +18,7 @@ namespace IndexKeeper.Core.Pipeline;
 public sealed class ScanPass
 {
     private readonly IndexCatalog catalog;
+    private readonly PageWordStore words;
     private readonly IDocumentReader reader;
     private readonly ScanSettings settings;
     private readonly IProgress<ScanProgress>? progress;
@@ -24,14 +26,15 @@ public sealed class ScanPass
     private readonly TimeProvider clock;
     private readonly Dictionary<string, RootGlobs> globs = new(StringComparer.Ordinal);
 
-    public ScanPass(IndexCatalog catalog, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress = null)
-        : this(catalog, reader, settings, progress, new FileSystemProbe(), TimeProvider.System)
+    public ScanPass(IndexCatalog catalog, PageWordStore words, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress = null)
+        : this(catalog, words, reader, settings, progress, new FileSystemProbe(), TimeProvider.System)
     {
     }
 
-    internal ScanPass(IndexCatalog catalog, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress, IFileProbe probe, TimeProvider clock)
+    internal ScanPass(IndexCatalog catalog, PageWordStore words, IDocumentReader reader, ScanSettings settings, IProgress<ScanProgress>? progress, IFileProbe probe, TimeProvider clock)
     {
         this.catalog = catalog;
+        this.words = words;
         this.reader = reader;
         this.settings = settings;
         this.progress = progress;
@@ -482,7 +485,7 @@ public sealed class ScanPass
     /// </summary>
     private bool ReadsDifferently(DocumentRecord document) =>
         document is { State: DocumentState.Quarantined, QuarantineReason: not QuarantineReason.ToolMissing }
-        || (document.State == DocumentState.Live && document.PageKeys.Any(k => catalog.Pages.Find(k) is { Words.Count: 0 }));
+        || (document.State == DocumentState.Live && document.PageKeys.Any(k => catalog.Pages.Find(k) is { Words.Count: 0, WordsAt: null }));
 
     /// <summary>Records an unchanged document that needs no new read as read under this build's readers, once.</summary>
     private static void StampReaderVersion(ScanPassState state, DocumentRecord document)
@@ -587,6 +590,7 @@ public sealed class ScanPass
             }
         }
 
+        StoreWords(edit.AddPages);
         catalog.Apply(edit);
         state.Edit = new CatalogEdit();
     }
@@ -595,6 +599,28 @@ public sealed class ScanPass
     private const string UnreadableKind = "unreadable";
 
     private static string ReadKindName(DocumentKind kind) => kind.ToString().ToLowerInvariant();
+
+    /// <summary>
+    /// Writes the new pages' words to the page-word store and leaves the records only their location. The
+    /// bytes are durable before the catalog commit that names them, so a crash never leaves a page pointing
+    /// at missing words; words written by a batch that never commits are named by nothing.
+    /// </summary>
+    private void StoreWords(List<PageRecord> added)
+    {
+        var withWords = added.Where(p => p.Words.Count > 0).ToList();
+        if (withWords.Count == 0)
+        {
+            return;
+        }
+
+        var locations = words.Append(withWords.Select(p => (PageKey.Parse(p.Id), (IReadOnlyList<PageWord>)PageInput.Words(p.Words))).ToList());
+        for (var i = 0; i < withWords.Count; i++)
+        {
+            var at = locations[i];
+            withWords[i].WordsAt = new WordsAtRecord { File = at.File, Offset = at.Offset, Length = at.Length, Checksum = at.Checksum };
+            withWords[i].Words = [];
+        }
+    }
 
     private static ScanRecord ToRecord(string command, DateTime started, ScanSummary summary) => new()
     {

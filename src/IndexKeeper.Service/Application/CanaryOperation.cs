@@ -16,5 +16,5 @@ public sealed class CanaryOperation(OpenIndex index, IndexSettings settings)
 
     /// <remarks>REQUIRES: the index is open for writing and nothing else writes it.</remarks>
     public CanaryFigures Check(CancellationToken cancellationToken) =>
-        CanaryCheck.Run(index.Catalog, index.Store, index.Encoder, settings.RootPaths, settings.Canaries, DateTime.UtcNow, cancellationToken);
+        CanaryCheck.Run(index.Catalog, index.Store, index.Words, index.Encoder, settings.RootPaths, settings.Canaries, DateTime.UtcNow, cancellationToken);
 }

@@ -24,5 +24,5 @@ public sealed class EmbedBatchOperation(OpenIndex index, IndexSettings settings,
         Pass(progress).Run(summary, cancellationToken);
 
     private EmbedPass Pass(IProgress<ScanProgress>? progress) =>
-        new(index.Catalog, index.Store, index.Encoder, settings.RootPaths, settings.EmbedBatchSize, progress, retry);
+        new(index.Catalog, index.Store, index.Words, index.Encoder, settings.RootPaths, settings.EmbedBatchSize, progress, retry);
 }

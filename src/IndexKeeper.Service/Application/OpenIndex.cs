@@ -3,6 +3,7 @@ using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Application;
@@ -19,6 +20,7 @@ public sealed class OpenIndex : IDisposable
     private VectorStore? store;
     private IPageEncoder? encoder;
     private ServingViews? serving;
+    private PageWordStore? words;
 
     private OpenIndex(IndexSettings settings, IDisposable held, string directory, IndexCatalog catalog, IDocumentReader reader, bool readOnly)
     {
@@ -55,6 +57,9 @@ public sealed class OpenIndex : IDisposable
     public VectorStore Store => store ??= ReadOnly
         ? VectorStore.OpenForReading(Catalog, Directory)
         : VectorStore.Open(Catalog, Directory, Settings.Segments);
+
+    /// <summary>Page words and boxes (for text encoders, snippets and match maps), opened on first use; read-only for a reader.</summary>
+    public PageWordStore Words => words ??= ReadOnly ? PageWordStore.OpenForReading(Directory) : PageWordStore.OpenForWriting(Directory);
 
     /// <summary>The serving views (page directory and candidate graph per encoder) that search reads.</summary>
     public ServingViews Serving => serving ??= new ServingViews(Catalog, () => Store, Directory, ReadOnly);
@@ -115,6 +120,7 @@ public sealed class OpenIndex : IDisposable
         PersistServingViews();
         serving?.Dispose();
         store?.Dispose();
+        words?.Dispose();
         (encoder as IDisposable)?.Dispose();
         (Reader as IDisposable)?.Dispose();
         Catalog.Dispose();

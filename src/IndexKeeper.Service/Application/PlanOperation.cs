@@ -143,7 +143,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
     {
         if (calibrate)
         {
-            if (EncoderCalibration.Run(index.Catalog, index.Encoder, settings.RootPaths, preview.SamplePages, cancellationToken) is { } measured)
+            if (EncoderCalibration.Run(index.Catalog, index.Words, index.Encoder, settings.RootPaths, preview.SamplePages, cancellationToken) is { } measured)
             {
                 return ("calibration", measured.SecondsPerPage, measured.VectorsPerPage);
             }

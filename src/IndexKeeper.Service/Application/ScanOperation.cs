@@ -34,5 +34,5 @@ public sealed class ScanOperation(OpenIndex index, IndexSettings settings, Drift
     public ScanPreview Preview(IProgress<ScanProgress>? progress, CancellationToken cancellationToken) =>
         Pass(settings.Scan, progress).Preview(cancellationToken);
 
-    private ScanPass Pass(ScanSettings scan, IProgress<ScanProgress>? progress) => new(index.Catalog, index.Reader, scan, progress);
+    private ScanPass Pass(ScanSettings scan, IProgress<ScanProgress>? progress) => new(index.Catalog, index.Words, index.Reader, scan, progress);
 }

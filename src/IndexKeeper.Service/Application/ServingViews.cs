@@ -83,11 +83,13 @@ public sealed class ServingViews : IDisposable
     /// <summary>
     /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
     /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
-    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives (docs/search.md,
-    /// "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
+    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives, each count growing
+    /// with the index (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
-    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken)
+    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the graph would
+    /// give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
     {
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
@@ -98,7 +100,15 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var candidates = fromGraph ? view.Candidates(query, CandidateCount(k)) : view.Entries();
+            var fromGraphCount = CandidateCounts.FromGraph(k, view.Count);
+            IEnumerable<ServingEntry> candidates = fromGraph && (allowed is null || allowed.Count > fromGraphCount)
+                ? view.Candidates(query, fromGraphCount)
+                : view.Entries();
+            if (allowed is not null)
+            {
+                candidates = candidates.Where(c => allowed.Contains(c.Key.Hex));
+            }
+
             try
             {
                 using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
@@ -112,7 +122,8 @@ public sealed class ServingViews : IDisposable
                     VectorCount = c.VectorCount,
                     Live = true,
                 })]);
-                var ranked = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = k }, cancellationToken);
+                var options = new SearchOptions { Top = k, Candidates = CandidateCounts.Reranked(k, view.Count) };
+                var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
                 return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
             }
             catch (InvalidOperationException) when (attempt < 3)
@@ -121,9 +132,6 @@ public sealed class ServingViews : IDisposable
             }
         }
     }
-
-    /// <summary>Pages the candidate graph hands to the sign-code stage (docs/search.md, "Candidates").</summary>
-    public static int CandidateCount(int k) => Math.Max(200 * k, 2000);
 
     /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last

@@ -6,5 +6,5 @@ namespace IndexKeeper.Service.Application;
 public sealed class VerifyOperation(OpenIndex index)
 {
     public VerifyReport Run(CancellationToken cancellationToken) =>
-        IndexVerifier.Verify(index.Catalog, index.Store.Directory, index.Encoder.Identity.Id, cancellationToken);
+        IndexVerifier.Verify(index.Catalog, index.Words, index.Store.Directory, index.Encoder.Identity.Id, cancellationToken);
 }

@@ -82,7 +82,7 @@ internal static class DaemonApi
         app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
         app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken));
+            SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.

@@ -6,15 +6,17 @@ using Microsoft.AspNetCore.Http;
 namespace IndexKeeper.Service.Daemon;
 
 /// <summary>
-/// <c>/api/search?q=TEXT&amp;k=N</c>: one q, at most one k, both within the caps (<see cref="QueryCaps"/>);
-/// anything else is a 400 naming the parameter or cap, before anything is encoded. Whether the search
+/// <c>/api/search?q=TEXT&amp;k=N</c>: one q, at most one k, both within the caps (<see cref="QueryCaps"/>), and the
+/// filters of <see cref="SearchFilter"/> (<c>root</c>, <c>folder</c>, <c>type</c> repeatable; <c>modified-since</c>,
+/// <c>min-score</c>, <c>offset</c> once); anything else is a 400 naming the parameter or cap, before anything is encoded. Whether the search
 /// itself fails or succeeds goes to <see cref="DaemonState"/>: a daemon whose searches fail is not healthy.
 /// </summary>
 internal static class SearchEndpoint
 {
     public static IResult Answer(
-        IQueryCollection query, QueryOptions caps, Func<string, int, CancellationToken, SearchReport> search, DaemonState state, CancellationToken cancellationToken)
+        IQueryCollection query, QueryOptions caps, Func<SearchFilter, string?> unknownRoot, Func<string, int, SearchFilter, CancellationToken, SearchReport> search, DaemonState state, CancellationToken cancellationToken)
     {
+        ArgumentNullException.ThrowIfNull(unknownRoot);
         ArgumentNullException.ThrowIfNull(state);
         ArgumentNullException.ThrowIfNull(query);
         ArgumentNullException.ThrowIfNull(search);
@@ -49,10 +51,26 @@ internal static class SearchEndpoint
             return BadRequest(problem);
         }
 
+        foreach (var single in new[] { "modified-since", "min-score", "offset" })
+        {
+            if (query[single].Count > 1)
+            {
+                return BadRequest(string.Create(CultureInfo.InvariantCulture, $"{single}: give it once; it came {query[single].Count} times."));
+            }
+        }
+
+        var (filter, filterProblem) = SearchFilter.Parse(
+            [.. query["root"].OfType<string>()], [.. query["folder"].OfType<string>()], [.. query["type"].OfType<string>()],
+            query["modified-since"].FirstOrDefault(), query["min-score"].FirstOrDefault(), query["offset"].FirstOrDefault());
+        if ((filterProblem ?? unknownRoot(filter!)) is { } badFilter)
+        {
+            return BadRequest(badFilter);
+        }
+
         SearchReport report;
         try
         {
-            report = search(text, k, cancellationToken);
+            report = search(text, k, filter!, cancellationToken);
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {

@@ -2,6 +2,7 @@ using System.Diagnostics;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Encoding;
+using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Service.Planning;
 
@@ -14,11 +15,11 @@ internal static class EncoderCalibration
     private const int SampleSize = 16;
 
     public static (double SecondsPerPage, double VectorsPerPage)? Run(
-        IndexCatalog catalog, IPageEncoder encoder, IReadOnlyDictionary<string, string> rootPaths, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
+        IndexCatalog catalog, PageWordStore words, IPageEncoder encoder, IReadOnlyDictionary<string, string> rootPaths, IReadOnlyList<PageRecord> pendingPages, CancellationToken cancellationToken)
     {
         var sample = catalog.Pages.ReferencedKeys().Take(SampleSize).Select(catalog.Pages.Find).OfType<PageRecord>()
             .Concat(pendingPages).Take(SampleSize)
-            .Select(p => PageInput.From(p, rootPaths)).ToList();
+            .Select(p => PageInput.From(p, words, rootPaths)).ToList();
         if (sample.Count == 0)
         {
             return null;

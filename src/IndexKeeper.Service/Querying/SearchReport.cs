@@ -5,6 +5,12 @@ public sealed class SearchReport
 {
     public string Query { get; init; } = string.Empty;
 
+    /// <summary>Rank of the first hit less one: the filter's offset.</summary>
+    public int Offset { get; init; }
+
+    /// <summary>The offset of the next page of hits; null when this page is the last.</summary>
+    public int? NextOffset { get; init; }
+
     /// <summary>The encoder that ranked this query: name and the first 12 digits of its id.</summary>
     public string Encoder { get; init; } = string.Empty;
 

@@ -2,6 +2,7 @@ using System.Diagnostics;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Encoding.TextTokens;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -16,10 +17,11 @@ internal static class MiniLmTiming
 {
     public static (double SecondsPerPage, int Pages) Measure(OpenIndex session, int sample)
     {
-        var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 0).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
+        var pages = session.Catalog.Pages.All().Where(p => p.References > 0).OrderBy(p => p.Id, StringComparer.Ordinal)
+            .Select(p => (Page: p, Words: PageInput.WordsOf(p, session.Words))).Where(p => p.Words.Count > 0).ToList();
         var step = Math.Max(1, pages.Count / Math.Max(1, sample));
         var chosen = pages.Where((_, i) => i % step == 0).Take(sample + 1).Select(p => new PageToEncode(
-            PageKey.Parse(p.Id), string.Empty, p.SourcePage, p.Width, p.Height, p.Words.Select(w => new PageWord(w.T, new PageBox(w.L, w.B, w.R, w.U))).ToList())).ToList();
+            PageKey.Parse(p.Page.Id), string.Empty, p.Page.SourcePage, p.Page.Width, p.Page.Height, p.Words)).ToList();
         if (chosen.Count < 2)
         {
             return (double.NaN, 0);

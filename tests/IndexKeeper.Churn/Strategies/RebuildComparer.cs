@@ -2,6 +2,7 @@ using System.Diagnostics;
 using System.Runtime.InteropServices;
 using IndexKeeper.Churn.Report;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Demo;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Querying;
@@ -113,14 +114,15 @@ internal static class RebuildComparer
     /// <summary>Queries of two to four words taken from pages of the store, chosen by the seed.</summary>
     private static List<string> Queries(OpenIndex session, int count, int seed)
     {
-        var pages = session.Catalog.Pages.All().Where(p => p.References > 0 && p.Words.Count > 4).OrderBy(p => p.Id, StringComparer.Ordinal).ToList();
+        var pages = session.Catalog.Pages.All().Where(p => p.References > 0).OrderBy(p => p.Id, StringComparer.Ordinal)
+            .Select(p => PageInput.WordsOf(p, session.Words)).Where(w => w.Count > 4).ToList();
         var random = DemoRandom.For(seed, "queries");
         var queries = new List<string>(count);
         while (queries.Count < count && pages.Count > 0)
         {
-            var words = random.Pick(pages).Words;
+            var words = random.Pick(pages);
             var start = random.Next(words.Count - 4);
-            queries.Add(string.Join(' ', words.Skip(start).Take(random.Next(2, 5)).Select(w => w.T)));
+            queries.Add(string.Join(' ', words.Skip(start).Take(random.Next(2, 5)).Select(w => w.Text)));
         }
 
         return queries;

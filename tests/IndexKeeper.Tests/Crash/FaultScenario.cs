@@ -11,11 +11,12 @@ internal sealed record FaultScenario(string Command, string Point, string Action
     public static readonly string[] Actions = ["exit", "enospc", "eio"];
 
     /// <summary>
-    /// Points a <c>sync</c> reaches when it embeds new pages into the open segment. Its seal is the same code as
+    /// Points a <c>sync</c> reaches when its scan writes new page words and it embeds new pages into the open segment. Its seal is the same code as
     /// the seal <c>compact</c> makes of the open segment first, so the seal and directory points run there.
     /// </summary>
     private static readonly string[] SyncPoints =
     [
+        FaultPoints.WordsAppendBeforeFsync, FaultPoints.WordsAppendAfterFsync,
         FaultPoints.SegmentAppendBeforeFsync, FaultPoints.SegmentAppendAfterFsync, FaultPoints.CatalogCommitBefore, FaultPoints.CatalogCommitAfter,
     ];
 

@@ -26,11 +26,14 @@ internal sealed class OpenIndex : IDisposable
         indexLock = IndexLock.Acquire(directory, "crash recovery test");
         Catalog = IndexCatalog.Open(indexLock);
         Store = readOnlyStore ? VectorStore.OpenForReading(Catalog, directory) : VectorStore.Open(Catalog, directory, writerOptions);
+        Words = readOnlyStore ? PageWordStore.OpenForReading(directory) : PageWordStore.OpenForWriting(directory);
     }
 
     public IndexCatalog Catalog { get; }
 
     public VectorStore Store { get; }
+
+    public PageWordStore Words { get; }
 
     public void Add(IEnumerable<int> pages)
     {
@@ -57,7 +60,7 @@ internal sealed class OpenIndex : IDisposable
     public void Commit(IEnumerable<int> pages) =>
         Store.AppendAndCommit(Encoder, pages.Select(p => (TestVectors.Key(p), TestVectors.Set(p, 12))).ToList());
 
-    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Store.Directory, Encoder.Id, CancellationToken.None);
+    public VerifyReport Verify() => IndexVerifier.Verify(Catalog, Words, Store.Directory, Encoder.Id, CancellationToken.None);
 
     /// <summary>Page keys (hex) with a live vector set whose bytes read back.</summary>
     public HashSet<string> Readable()
@@ -68,6 +71,7 @@ internal sealed class OpenIndex : IDisposable
 
     public void Dispose()
     {
+        Words.Dispose();
         Store.Dispose();
         Catalog.Dispose();
         indexLock.Dispose();

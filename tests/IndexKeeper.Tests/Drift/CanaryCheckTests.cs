@@ -17,7 +17,7 @@ public sealed class CanaryCheckTests : IDisposable
     public void The_unchanged_encoder_reports_no_drift_and_the_figures_are_recorded()
     {
         using var session = Indexed();
-        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
+        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Words, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
 
         Assert.False(figures.Drifted);
         Assert.Equal(4, figures.Pages);
@@ -33,7 +33,7 @@ public sealed class CanaryCheckTests : IDisposable
     {
         using var session = Indexed();
         var noisy = new NoisyEncoder(session.Index.Encoder, noise: 0.05, seed: 11);
-        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, noisy, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
+        var figures = CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Words, noisy, session.Settings.RootPaths, new CanarySettings(4), Now, CancellationToken.None);
 
         Assert.True(figures.Drifted);
         Assert.True(figures.MeanCosine < 0.999, $"mean {figures.MeanCosine}");
@@ -50,7 +50,7 @@ public sealed class CanaryCheckTests : IDisposable
         using var session = Indexed();
         var live = session.Index.Catalog.VectorSets.LivePageKeysOf(session.Index.Encoder.Identity.Id);
         Assert.Equal(live.Order(StringComparer.Ordinal).Take(2), CanarySelection.Choose(live, 2));
-        Assert.Equal(2, CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(2), Now, CancellationToken.None).Pages);
+        Assert.Equal(2, CanaryCheck.Run(session.Index.Catalog, session.Index.Store, session.Index.Words, session.Index.Encoder, session.Settings.RootPaths, new CanarySettings(2), Now, CancellationToken.None).Pages);
     }
 
     public void Dispose() => index.Dispose();

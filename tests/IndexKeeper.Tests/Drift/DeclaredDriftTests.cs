@@ -82,7 +82,7 @@ public sealed class DeclaredDriftTests : IDisposable
         second.Get<DriftOperation>().Reconcile();
         // Half a migration: one page gets vectors of the new encoder.
         var one = second.Index.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[0]))!;
-        var vectors = second.Index.Encoder.EncodePages([PageInput.From(one, NoRoots)], CancellationToken.None);
+        var vectors = second.Index.Encoder.EncodePages([PageInput.From(one, second.Index.Words, NoRoots)], CancellationToken.None);
         second.Index.Store.AppendAndCommit(second.Index.Encoder.Identity, [(Core.Documents.PageKey.Parse(one.Id), vectors[0])]);
         Assert.True(second.Get<DriftOperation>().Reconcile().Migrating);
 
@@ -112,7 +112,7 @@ public sealed class DeclaredDriftTests : IDisposable
         using var second = index.Open(64);
         second.Get<DriftOperation>().Reconcile();
         var page = second.Index.Catalog.Pages.Find(DriftIndex.KeyOf(Manual[1]))!;
-        second.Index.Store.AppendAndCommit(second.Index.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Index.Encoder.EncodePages([PageInput.From(page, NoRoots)], CancellationToken.None)[0])]);
+        second.Index.Store.AppendAndCommit(second.Index.Encoder.Identity, [(Core.Documents.PageKey.Parse(page.Id), second.Index.Encoder.EncodePages([PageInput.From(page, second.Index.Words, NoRoots)], CancellationToken.None)[0])]);
 
         var report = second.Get<SearchOperation>().Search("sluice gate inspection", 10, CancellationToken.None);
         Assert.StartsWith("hashed-terms " + second.Index.Encoder.Identity.Id[..12], report.Encoder, StringComparison.Ordinal);

@@ -35,6 +35,48 @@ public sealed class HashedTermEncoderTests
         Assert.Equal(golden, Describe(vector));
     }
 
+    [Theory]
+    [InlineData("pre-filter", "filter")]
+    [InlineData("pre-filter", "pre-filter")]
+    [InlineData("pre-filter", "prefilter")]
+    [InlineData("A-113", "113")]
+    [InlineData("A-113", "A113")]
+    [InlineData("A-113", "a-113")]
+    [InlineData("KESTREL53", "kestrel53")]
+    public void A_word_is_found_by_its_uax29_parts_and_whole(string onPage, string query)
+    {
+        // UAX #29 (WordBreakTest.txt-checked boundaries): a hyphen splits, letters and digits join.
+        var encoder = HashedTermEncoderFactory.Create(new HashedTermEncoderOptions());
+        var page = encoder.EncodePages([new PageToEncode(PageKey.Of("p"u8), "", 1, 612, 792, [new PageWord(onPage, new PageBox(0, 0, 10, 10))])], CancellationToken.None)[0];
+        var terms = encoder.EncodeQuery(query, CancellationToken.None);
+        for (var q = 0; q < terms.Count; q++)
+        {
+            var best = Enumerable.Range(0, page.Count).Max(r => Dot(terms.Row(q), page.Row(r)));
+            Assert.True(best > 0.999f, $"query term {q} of '{query}' meets '{onPage}' at {best}");
+        }
+    }
+
+    [Fact]
+    public void A_part_alone_does_not_match_another_word_nor_the_whole_of_a_different_one()
+    {
+        var encoder = HashedTermEncoderFactory.Create(new HashedTermEncoderOptions());
+        var page = encoder.EncodePages([new PageToEncode(PageKey.Of("p"u8), "", 1, 612, 792, [new PageWord("A-113", new PageBox(0, 0, 10, 10))])], CancellationToken.None)[0];
+        Assert.Equal(3, page.Count); // a, 113, a113
+        var other = encoder.EncodeQuery("B114", CancellationToken.None);
+        Assert.True(Enumerable.Range(0, page.Count).Max(r => Dot(other.Row(0), page.Row(r))) < 0.5f);
+    }
+
+    private static float Dot(ReadOnlySpan<float> a, ReadOnlySpan<float> b)
+    {
+        var sum = 0f;
+        for (var i = 0; i < a.Length; i++)
+        {
+            sum += a[i] * b[i];
+        }
+
+        return sum;
+    }
+
     [Fact]
     public void Identity_is_the_sha256_of_a_description_naming_every_setting()
     {
@@ -42,14 +84,14 @@ public sealed class HashedTermEncoderTests
         Assert.Equal("hashed-terms", identity.Name);
         Assert.Equal(128, identity.Dimensions);
         Assert.Equal(
-            "hashed-terms;scheme=1;hash=fnv1a64;unicode=15.0.0;normalise=nfkc+casefold+letters-marks-digits;dimensions=128;probes=16;ngram=0;seed=0;pool=1;pooling=ward-lance-williams-renormalised-mean-v1;stored=float16-binary16-nearest-even+sign-bits-64-per-word-lsb-first",
+            "hashed-terms;scheme=2;hash=fnv1a64;unicode=15.0.0;normalise=nfkc+casefold+letters-marks-digits;terms=uax29-words+whole;dimensions=128;probes=16;ngram=0;seed=0;pool=1;pooling=ward-lance-williams-renormalised-mean-v1;stored=float16-binary16-nearest-even+sign-bits-64-per-word-lsb-first",
             identity.Description);
 
         // FIPS 180-4 SHA-256 through the platform's implementation, an independent library.
         Assert.Equal(Convert.ToHexStringLower(SHA256.HashData(System.Text.Encoding.UTF8.GetBytes(identity.Description))), identity.Id);
 
         // The same digest from coreutils' sha256sum over the description, checked in as a regression guard.
-        Assert.Equal("0ad912fb3b31d34e0561fc1083a2e15b38ce545ab4dd132b3aada64262ca66b1", identity.Id);
+        Assert.Equal("d31d531eebc648a78bf5f33094b1d0d309c4195766bc01c949d484a107bc9c78", identity.Id);
     }
 
     [Fact]
@@ -91,7 +133,8 @@ public sealed class HashedTermEncoderTests
     public void A_query_has_one_vector_per_term_and_punctuation_gives_none()
     {
         var encoder = HashedTermEncoderFactory.Create(new HashedTermEncoderOptions());
-        Assert.Equal(4, encoder.EncodeQuery("  pressure — drop at\tpump-station ", CancellationToken.None).Count);
+        // pressure, drop, at, then pump, station and pumpstation (UAX #29 parts and the whole, scheme 2).
+        Assert.Equal(6, encoder.EncodeQuery("  pressure — drop at\tpump-station ", CancellationToken.None).Count);
         Assert.Equal(0, encoder.EncodeQuery("— ; !", CancellationToken.None).Count);
         Assert.Equal(1, encoder.EncodePages([Page(("§", 0), ("meter", 50))], CancellationToken.None)[0].Count);
     }

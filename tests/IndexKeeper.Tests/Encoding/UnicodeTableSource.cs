@@ -114,7 +114,7 @@ internal static class UnicodeTableSource
         return source.ToString().ReplaceLineEndings("\n");
     }
 
-    private static void Constant(StringBuilder source, string comment, string name, IEnumerable<string> entries)
+    internal static void Constant(StringBuilder source, string comment, string name, IEnumerable<string> entries)
     {
         source.Append("\n    /// <summary>").Append(comment).Append("</summary>\n");
         source.Append("    public const string ").Append(name).Append(" =\n");
@@ -154,7 +154,7 @@ internal static class UnicodeTableSource
         }
     }
 
-    private static IEnumerable<(int First, int Last, string Property)> Properties(string path)
+    internal static IEnumerable<(int First, int Last, string Property)> Properties(string path)
     {
         foreach (var line in DataLines(path))
         {

@@ -20,7 +20,7 @@ public sealed class EmbedRetryTests
         var bad = TestVectors.Key(4);
         var encoder = new PickyEncoder(bad);
         var policy = new RetryPolicy(3, TimeSpan.FromMilliseconds(1), TimeSpan.FromMilliseconds(1));
-        var pass = new EmbedPass(index.Catalog, index.Store, encoder, new Dictionary<string, string>(), batchSize: 6, retry: policy);
+        var pass = new EmbedPass(index.Catalog, index.Store, index.Words, encoder, new Dictionary<string, string>(), batchSize: 6, retry: policy);
 
         var summary = new ScanSummary();
         Assert.Equal(5, pass.Run(summary, long.MaxValue, QueuePriority.Canary, CancellationToken.None));
@@ -52,7 +52,7 @@ public sealed class EmbedRetryTests
         using var dir = new TempDirectory();
         using var index = new OpenIndex(dir.Path);
         Add(index, [1, 2, 3, 4, 5]);
-        var pass = new EmbedPass(index.Catalog, index.Store, new PickyEncoder(null), new Dictionary<string, string>(), batchSize: 2);
+        var pass = new EmbedPass(index.Catalog, index.Store, index.Words, new PickyEncoder(null), new Dictionary<string, string>(), batchSize: 2);
         Assert.Equal(3, pass.Run(new ScanSummary(), 3, QueuePriority.Fresh, CancellationToken.None));
         Assert.Equal(2, index.Catalog.Queue.Depths()[QueuePriority.Fresh]);
     }

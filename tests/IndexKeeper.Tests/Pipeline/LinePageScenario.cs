@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Catalog;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Pipeline;
@@ -12,6 +13,7 @@ public abstract class LinePageScenario : IDisposable
     {
         heldLock = IndexLock.Acquire(Temp.Combine("index"), "test");
         Catalog = IndexCatalog.Open(heldLock);
+        Words = PageWordStore.OpenForWriting(Temp.Combine("index"));
     }
 
     protected TempDirectory Temp { get; } = new();
@@ -20,8 +22,11 @@ public abstract class LinePageScenario : IDisposable
 
     protected IndexCatalog Catalog { get; }
 
+    protected PageWordStore Words { get; }
+
     public void Dispose()
     {
+        Words.Dispose();
         Catalog.Dispose();
         heldLock.Dispose();
         Temp.Dispose();

@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Detect;
 using IndexKeeper.Tests.Readers;
 using IndexKeeper.Tests.Support;
@@ -20,11 +21,13 @@ public sealed class RereadTests : IDisposable
     private readonly TempDirectory temp = new();
     private readonly IndexLock heldLock;
     private readonly IndexCatalog catalog;
+    private readonly PageWordStore words;
 
     public RereadTests()
     {
         heldLock = IndexLock.Acquire(temp.Combine("index"), "test");
         catalog = IndexCatalog.Open(heldLock);
+        words = PageWordStore.OpenForWriting(temp.Combine("index"));
     }
 
     [LinuxFact]
@@ -36,7 +39,7 @@ public sealed class RereadTests : IDisposable
         Scan(DocumentReaderFactory.Create(ReaderSettings.Default with { Ocr = false }));
         var scan = Document("dredging-notice.png");
         var oldKey = Assert.Single(scan.PageKeys);
-        Assert.Empty(catalog.Pages.Find(oldKey)!.Words);
+        Assert.Empty(PageInput.WordsOf(catalog.Pages.Find(oldKey)!, words));
         AsReadByAnOlderBuild();
 
         var pass = Scan(DocumentReaderFactory.Create());
@@ -45,7 +48,7 @@ public sealed class RereadTests : IDisposable
         var newKey = Assert.Single(Document("dredging-notice.png").PageKeys);
         Assert.NotEqual(oldKey, newKey);
         Assert.Null(catalog.Pages.Find(oldKey));
-        Assert.Contains(catalog.Pages.Find(newKey)!.Words, w => w.T == "dredging");
+        Assert.Contains(PageInput.WordsOf(catalog.Pages.Find(newKey)!, words), w => w.Text == "dredging");
         Assert.Contains(catalog.Queue.Keys(), q => q.PageKey == newKey);
         Assert.All(catalog.Documents.All(), d => Assert.Equal(ReaderVersion.Current, d.ReaderVersion));
         Assert.Equal(0L, Scan(DocumentReaderFactory.Create()).DocumentsRead);
@@ -95,6 +98,7 @@ public sealed class RereadTests : IDisposable
 
     public void Dispose()
     {
+        words.Dispose();
         catalog.Dispose();
         heldLock.Dispose();
         temp.Dispose();
@@ -118,6 +122,6 @@ public sealed class RereadTests : IDisposable
     private ScanSummary Scan(IDocumentReader reader)
     {
         var settings = new ScanSettings([new RootSpec("a", temp.Combine("a"), [], [])], ReadLimits.Default, TimeSpan.Zero, 256);
-        return new ScanPass(catalog, reader, settings).Run("test", CancellationToken.None);
+        return new ScanPass(catalog, words, reader, settings).Run("test", CancellationToken.None);
     }
 }

@@ -209,7 +209,7 @@ public sealed class ScanPassTests : LinePageScenario
         Temp.Write("a/exports/readings.bin", "ALIEN bytes");
         Temp.Write("a/notes/garbled.txt", "ALIEN bytes under a readable name");
         var settings = new ScanSettings([new RootSpec("a", RootA, ["**/*"], [])], ReadLimits.Default, TimeSpan.Zero, BatchSize: 256);
-        var s = new ScanPass(Catalog, Reader, settings).Run("test", CancellationToken.None);
+        var s = new ScanPass(Catalog, Words, Reader, settings).Run("test", CancellationToken.None);
 
         Assert.Equal((3, 1, 1), (s.DocumentsSeen, s.DocumentsQuarantined, s.FilesUnsupported));
         Assert.Equal([new KeyValuePair<string, long>(".bin", 1)], s.UnsupportedTypes);
@@ -227,6 +227,6 @@ public sealed class ScanPassTests : LinePageScenario
         }
 
         var settings = new ScanSettings(roots, ReadLimits.Default, TimeSpan.Zero, batchSize);
-        return new ScanPass(Catalog, Reader, settings).Run("test", CancellationToken.None);
+        return new ScanPass(Catalog, Words, Reader, settings).Run("test", CancellationToken.None);
     }
 }

@@ -61,10 +61,10 @@ public sealed class ScanPreviewTests : LinePageScenario
     {
         var settings = new ScanSettings([new RootSpec("a", Temp.Combine("a"), [], []), new RootSpec("b", Temp.Combine("b"), [], [])], ReadLimits.Default, TimeSpan.Zero, BatchSize: 3);
         var before = Snapshot();
-        var preview = new ScanPass(Catalog, Reader, settings).Preview(CancellationToken.None);
+        var preview = new ScanPass(Catalog, Words, Reader, settings).Preview(CancellationToken.None);
         Assert.Equal(before, Snapshot());
 
-        var real = new ScanPass(Catalog, Reader, settings).Run("test", CancellationToken.None);
+        var real = new ScanPass(Catalog, Words, Reader, settings).Run("test", CancellationToken.None);
         var p = preview.Summary;
         Assert.Equal(
             (real.DocumentsNew, real.DocumentsChanged, real.DocumentsDeleted, real.DocumentsCopied, real.DocumentsMoved, real.DocumentsUnchanged),

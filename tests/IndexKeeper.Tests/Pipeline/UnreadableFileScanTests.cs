@@ -2,6 +2,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Tests.Detect;
 using IndexKeeper.Tests.Support;
 
@@ -14,11 +15,13 @@ public sealed class UnreadableFileScanTests : IDisposable
     private readonly LinePageReader reader = new();
     private readonly IndexLock heldLock;
     private readonly IndexCatalog catalog;
+    private readonly PageWordStore words;
 
     public UnreadableFileScanTests()
     {
         heldLock = IndexLock.Acquire(temp.Combine("index"), "test");
         catalog = IndexCatalog.Open(heldLock);
+        words = PageWordStore.OpenForWriting(temp.Combine("index"));
     }
 
     [LinuxFact]
@@ -29,6 +32,10 @@ public sealed class UnreadableFileScanTests : IDisposable
         if (!OperatingSystem.IsWindows())
         {
             File.SetUnixFileMode(locked, UnixFileMode.None);
+
+            // The catalog is already open; the page-word store makes its file during the pass, so nobody may.
+            Directory.CreateDirectory(temp.Combine("index", "words"));
+            File.SetUnixFileMode(temp.Combine("index", "words"), (UnixFileMode)0b111_111_111);
         }
 
         // As root every file opens; the pass runs as nobody (Unprivileged) to meet the permission error a user meets.
@@ -40,6 +47,7 @@ public sealed class UnreadableFileScanTests : IDisposable
 
     public void Dispose()
     {
+        words.Dispose();
         catalog.Dispose();
         heldLock.Dispose();
         temp.Dispose();
@@ -48,6 +56,6 @@ public sealed class UnreadableFileScanTests : IDisposable
     private ScanSummary Scan()
     {
         var settings = new ScanSettings([new RootSpec("a", temp.Combine("a"), [], [])], ReadLimits.Default, TimeSpan.Zero, 256);
-        return new ScanPass(catalog, reader, settings).Run("test", CancellationToken.None);
+        return new ScanPass(catalog, words, reader, settings).Run("test", CancellationToken.None);
     }
 }
