@@ -76,7 +76,7 @@ internal static partial class FaultInjection
         var nth = 1;
         var resume = Environment.GetEnvironmentVariable(ResumeVariable);
         if (parts.Length is < 2 or > 3
-            || !FaultPoints.All.Contains(parts[0])
+            || !(FaultPoints.All.Contains(parts[0]) || FaultPoints.WorkQueue.Contains(parts[0]))
             || parts[1] is not ("exit" or "enospc" or "eio" or "pause")
             || (parts.Length == 3 && (!int.TryParse(parts[2], NumberStyles.None, CultureInfo.InvariantCulture, out nth) || nth < 1)))
         {

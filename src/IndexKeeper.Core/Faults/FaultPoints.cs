@@ -67,6 +67,15 @@ internal static class FaultPoints
     /// <summary>Recovery at open is about to set a segment no catalog commit references aside in <c>segments/orphaned/</c>.</summary>
     public const string RecoverySetAside = "recovery.set-aside";
 
+    /// <summary>A remote worker's claim is committed in PostgreSQL; it has not read or encoded the pages (docs/work-queue.md, "Faults").</summary>
+    public const string WorkerClaimAfter = "worker.claim.after";
+
+    /// <summary>The coordinator committed handed-back vector sets to the catalog; their jobs are not yet deleted from PostgreSQL.</summary>
+    public const string QueueCommitAfter = "queue.commit.after";
+
+    /// <summary>The work queue's points: not rows of the fault matrix (they need PostgreSQL); the work-queue tests reach them.</summary>
+    public static IReadOnlyList<string> WorkQueue { get; } = [WorkerClaimAfter, QueueCommitAfter];
+
     /// <summary>Every point, in the order of the write path.</summary>
     public static IReadOnlyList<string> All { get; } =
     [

@@ -18,6 +18,7 @@ namespace IndexKeeper.Service.Daemon;
 /// allows one batch at a time, applies declared drift (migration queue, switch-over), checks canaries inside
 /// windows, compacts and samples figures. Between units of work it looks at the stop
 /// request; the unit in flight gets the rest of the grace period (and is abandoned, uncommitted, after it).
+/// With a work queue (Queue:Connection) the embedding itself is done by workers (<see cref="RemoteEmbedding"/>).
 /// On the way out it seals the open segments.
 /// </summary>
 /// <remarks>REQUIRES: the index lock is held for the worker's whole life; nothing else writes the index.</remarks>
@@ -35,7 +36,8 @@ internal sealed class IndexWorker(
     IEmbedGate gate,
     IHostApplicationLifetime lifetime,
     IHostLifetime hostLifetime,
-    ILogger<IndexWorker> log) : BackgroundService
+    ILogger<IndexWorker> log,
+    RemoteEmbedding? remote = null) : BackgroundService
 {
     private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(options.Detect.FullWalkMinutes);
     private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(options.Daemon.SampleSeconds);
@@ -184,7 +186,8 @@ internal sealed class IndexWorker(
 
                 if (!stopping.IsCancellationRequested)
                 {
-                    busy |= EmbedOneBatch();
+                    // With a work queue the workers encode and this loop commits what they hand back.
+                    busy |= remote is null ? EmbedOneBatch() : remote.Turn(EmbedOneBatch);
                 }
 
                 if (!busy && !stopping.IsCancellationRequested)

@@ -163,6 +163,14 @@ internal sealed class JobTable(NpgsqlDataSource database)
         command.ExecuteNonQuery();
     }
 
+    /// <summary>Makes the claims <paramref name="worker"/> still holds claimable at once (a worker that stops); returns how many.</summary>
+    public int Release(string worker)
+    {
+        using var command = database.CreateCommand($"UPDATE {Jobs} SET state = {(int)JobState.Waiting}, worker = NULL, lease_until = NULL WHERE worker = @worker AND state = {(int)JobState.Claimed}");
+        command.Parameters.AddWithValue("worker", worker);
+        return command.ExecuteNonQuery();
+    }
+
     /// <summary>Hands back a vector set; false when the job is no longer this worker's (its lease expired and another took it).</summary>
     public bool Finish(string worker, PageJob job, string resultEncoderId, byte[] result)
     {
