@@ -171,6 +171,4 @@ internal sealed class RemoteEmbedding(
                 options.WhenUnreachable == "local" ? "embedding here meanwhile" : "embedding waits (Queue:WhenUnreachable = wait)");
         }
     }
-
-
 }

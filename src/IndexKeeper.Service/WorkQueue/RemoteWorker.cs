@@ -57,7 +57,8 @@ public sealed class RemoteWorker : IDisposable
     public string EncoderId => encoder.Identity.Id;
 
     /// <summary>Works until <paramref name="stopping"/>; a setting PostgreSQL refuses (login, newer schema) throws <see cref="ConfigurationException"/> before any job is claimed.</summary>
-    public void Run(CancellationToken stopping)
+    /// <param name="untilIdle">Return at the first claim that finds no job (a drain, or a test).</param>
+    public void Run(bool untilIdle, CancellationToken stopping)
     {
         QueueDatabase.Check(database);
         log.LogInformation("Worker {Worker} takes jobs of encoder {Encoder} ({Name}).", figures.Worker, encoder.Identity.Id[..12], encoder.Identity.Name);
@@ -72,6 +73,11 @@ public sealed class RemoteWorker : IDisposable
                 backoff = TimeSpan.Zero;
                 if (!worked)
                 {
+                    if (untilIdle)
+                    {
+                        break;
+                    }
+
                     stopping.WaitHandle.WaitOne(idle);
                 }
             }

@@ -6,7 +6,8 @@ namespace IndexKeeper.Service.WorkQueue;
 /// <summary>Hosts <see cref="RemoteWorker"/> for <c>indexkeeper worker</c>: one log line per event on stderr (as <c>run</c> writes them), exit 0 after a stop request.</summary>
 public static class WorkerHost
 {
-    public static int Run(IndexKeeperOptions options, CancellationToken stopping)
+    /// <param name="untilIdle">Return at the first claim that finds no job.</param>
+    public static int Run(IndexKeeperOptions options, bool untilIdle, CancellationToken stopping)
     {
         ArgumentNullException.ThrowIfNull(options);
         using var logging = LoggerFactory.Create(b => b
@@ -19,7 +20,7 @@ public static class WorkerHost
             })
             .AddConsole(o => o.LogToStandardErrorThreshold = LogLevel.Trace));
         using var worker = new RemoteWorker(options, logging.CreateLogger("IndexKeeper.Worker"));
-        worker.Run(stopping);
+        worker.Run(untilIdle, stopping);
         return 0;
     }
 }
