@@ -75,7 +75,16 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
 
         var compaction = Compaction(compact.Jobs());
         var now = TimeZoneInfo.ConvertTime(request.Now, zone);
-        var forecast = secondsPerPage is { } spp
+        // With a work queue the pages are encoded by the live workers of this encoder, side by side: their rates add up.
+        var workers = (request.Workers ?? []).Where(w => w.Live && w.EncoderId == identity.Id && w.PagesPerSecond > 0).ToList();
+        double? workersRate = workers.Count > 0 ? workers.Sum(w => w.PagesPerSecond) : null;
+        if (workersRate is { } rate)
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{workers.Count} live worker(s) of the active encoder embed {rate:0.00} pages/s together; the finish time counts them."));
+        }
+
+        var simulated = workersRate is { } combined ? 1 / combined : secondsPerPage;
+        var forecast = simulated is { } spp
             ? WorkSimulator.Simulate(new EncoderGate(calendar, settings.BudgetPagesPerHour), now, work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
             : null;
         if (forecast is { AllDone: null })
@@ -119,6 +128,8 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             RootsMissing = summary.RootsMissing,
             ThroughputSource = source,
             EncoderSecondsPerPage = secondsPerPage,
+            LiveWorkers = workers.Count,
+            WorkersPagesPerSecond = workersRate,
             VectorsPerPage = vectorsPerPage,
             EstimatedEncoderSeconds = forecast?.EncoderSeconds,
             BytesDelta = bytesDelta,

@@ -74,8 +74,10 @@ internal sealed class RemoteEmbedding(
         }
         catch (Exception ex) when (ex is NpgsqlException or SocketException or TimeoutException or ConfigurationException)
         {
+            // The local batch first: by the time health names the fault, what this turn did is committed.
+            var busy = Meanwhile(embedLocally);
             Unreachable(ex, now);
-            return Meanwhile(embedLocally);
+            return busy;
         }
     }
 

@@ -65,6 +65,12 @@ public sealed class PlanReport
 
     public double? EncoderSecondsPerPage { get; init; }
 
+    /// <summary>Live workers of the active encoder (heartbeats) whose measured rate sets the finish time; 0 without a work queue.</summary>
+    public int LiveWorkers { get; init; }
+
+    /// <summary>Their pages per second together (each worker's pages over its encoder seconds); null without live workers.</summary>
+    public double? WorkersPagesPerSecond { get; init; }
+
     public double? VectorsPerPage { get; init; }
 
     public double? EstimatedEncoderSeconds { get; init; }

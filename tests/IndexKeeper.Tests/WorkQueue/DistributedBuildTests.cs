@@ -24,6 +24,18 @@ public sealed class DistributedBuildTests(PostgresServer server)
         using (var stranger = new RunningWorker(store.Temp.Path, store.WorkerArgs("stranger", "--Encoder:Dimensions=256")))
         {
             QueueStore.WaitUntilComplete(daemon);
+
+            // Status and metrics show the workers, the stranger with its own encoder id.
+            daemon.WaitUntil("the workers are in the status", () => daemon.GetJson("/api/status").TryGetProperty("workQueue", out var q)
+                && q.GetProperty("workers").GetArrayLength() == 3 && q.GetProperty("committed").GetInt64() == QueueStore.Pages);
+            var queue = daemon.GetJson("/api/status").GetProperty("workQueue");
+            var encoders = queue.GetProperty("workers").EnumerateArray().ToDictionary(w => w.GetProperty("worker").GetString()!, w => w.GetProperty("encoderId").GetString());
+            Assert.Equal(encoders["one"], encoders["two"]);
+            Assert.NotEqual(encoders["one"], encoders["stranger"]);
+            Assert.Equal(0, queue.GetProperty("rejected").GetInt64());
+            var metrics = daemon.GetText("/metrics");
+            Assert.Contains("indexkeeper_work_queue_workers", metrics, StringComparison.Ordinal);
+            Assert.Contains("worker=\"stranger\"", metrics, StringComparison.Ordinal);
             Assert.Equal(0, one.Terminate());
             Assert.Equal(0, two.Terminate());
             Assert.Equal(0, stranger.Terminate());
@@ -79,6 +91,33 @@ public sealed class DistributedBuildTests(PostgresServer server)
         var encoded = store.Scalar($"SELECT sum(pages_done) FROM {Workers}");
         Assert.InRange(encoded, QueueStore.Pages, QueueStore.Pages + 8);
         Assert.Equal(0, store.Scalar($"SELECT count(*) FROM {Jobs}"));
+    }
+
+    [Fact]
+    public void Unreachable_database_degrades_health_and_the_coordinator_embeds_locally()
+    {
+        using var store = new QueueStore(server);
+
+        // A loopback port nothing listens on: PostgreSQL out of reach, which is no reason not to start.
+        var port = PostgresServer.FreePort();
+        using var daemon = RunningDaemon.Start(store.Temp.Path, ["--root", "docs", "--Daemon:SampleSeconds=1", $"--Queue:Connection=Host=127.0.0.1;Port={port};Username=nobody;Database=none", "--Queue:ReconnectMaxSeconds=2"]);
+        QueueStore.WaitUntilComplete(daemon);
+        daemon.WaitUntil("health names the work queue", () => daemon.Health().Contains("work-queue-unreachable", StringComparison.Ordinal));
+        using var health = System.Text.Json.JsonDocument.Parse(daemon.Health());
+        Assert.Equal("degraded", health.RootElement.GetProperty("status").GetString());
+        Assert.Equal(0, daemon.Terminate(TimeSpan.FromSeconds(60)));
+        store.AssertSameAsReference();
+    }
+
+    [Fact]
+    public void Unreachable_database_with_wait_embeds_nothing()
+    {
+        using var store = new QueueStore(server);
+        var port = PostgresServer.FreePort();
+        using var daemon = RunningDaemon.Start(store.Temp.Path, ["--root", "docs", "--Daemon:SampleSeconds=1", $"--Queue:Connection=Host=127.0.0.1;Port={port};Username=nobody;Database=none", "--Queue:WhenUnreachable=wait"]);
+        daemon.WaitUntil("the pages are queued and health names the work queue", () =>
+            daemon.GetJson("/api/status").GetProperty("queued").GetInt64() == QueueStore.Pages && daemon.Health().Contains("work-queue-unreachable", StringComparison.Ordinal));
+        Assert.Equal(0, daemon.GetJson("/api/status").GetProperty("liveVectorSets").GetInt64());
     }
 
     private static Dictionary<string, string> Fault(string point) => new() { ["IK_FAULT_INJECTION"] = point + ":exit" };

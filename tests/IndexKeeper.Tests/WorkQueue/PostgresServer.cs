@@ -105,7 +105,8 @@ public sealed class PostgresServer : IDisposable
         return bin ?? throw new InvalidOperationException("PostgreSQL's initdb was not found under /usr/lib/postgresql/*/bin; run ./install (it installs Debian's postgresql package).");
     }
 
-    private static int FreePort()
+    /// <summary>A loopback TCP port free at this moment.</summary>
+    public static int FreePort()
     {
         using var listener = new TcpListener(IPAddress.Loopback, 0);
         listener.Start();
