@@ -7,11 +7,14 @@ namespace IndexKeeper.Service.WorkQueue;
 /// <summary>
 /// A worker's read of a claimed job: the file under this machine's path for the root, its hash equal to
 /// the job's, the page at the job's number with the job's page key. Anything else fails the job back; a
-/// stale page is never encoded.
+/// stale page is never encoded. The file is hashed for every job; the last document read is kept for the next.
 /// </summary>
 /// <param name="rootPaths">This worker's path for each root name (the share may be mounted elsewhere here).</param>
 internal sealed class JobPageReader(IReadOnlyDictionary<string, string> rootPaths, IFileHasher hasher, IDocumentReader reader, ReadLimits limits)
 {
+    // The last document read: jobs come claimed in document order, so a manual's pages cost one read, not one each.
+    private (string Path, string FileHash, DocumentContent Content)? last;
+
     /// <summary>The page to encode, or why the job goes back.</summary>
     public (PageToEncode? Page, JobFailure Failure, string Reason) Read(PageJob job, CancellationToken cancellationToken)
     {
@@ -34,13 +37,23 @@ internal sealed class JobPageReader(IReadOnlyDictionary<string, string> rootPath
         }
 
         DocumentContent content;
-        try
+        if (last is { } cached && cached.Path == path && cached.FileHash == job.FileHash)
         {
-            content = reader.Read(path, limits, cancellationToken);
+            // The same bytes as the previous job's (the hash was just checked): its pages are read already.
+            content = cached.Content;
         }
-        catch (DocumentReadException ex)
+        else
         {
-            return (null, JobFailure.Failed, $"{job.RootName}/{job.RelativePath}: {ex.Message}");
+            try
+            {
+                content = reader.Read(path, limits, cancellationToken);
+            }
+            catch (DocumentReadException ex)
+            {
+                return (null, JobFailure.Failed, $"{job.RootName}/{job.RelativePath}: {ex.Message}");
+            }
+
+            last = (path, job.FileHash, content);
         }
 
         var page = content.Pages.FirstOrDefault(p => p.Number == job.PageNumber);

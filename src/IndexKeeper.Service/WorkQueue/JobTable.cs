@@ -124,7 +124,8 @@ internal sealed class JobTable(NpgsqlDataSource database)
     /// <summary>
     /// Claims up to <paramref name="count"/> jobs of <paramref name="encoderId"/> for <paramref name="worker"/>:
     /// waiting ones, or claimed ones whose lease has expired, highest priority first. Rows another claim holds
-    /// are skipped, not waited for.
+    /// are skipped, not waited for. Within one publication, pages of one document come together, so a worker
+    /// reads the document once for them (<see cref="JobPageReader"/>).
     /// </summary>
     public IReadOnlyList<ClaimedJob> Claim(string worker, string encoderId, int count, TimeSpan lease)
     {
@@ -133,7 +134,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
                 SELECT page_key, encoder_id, state AS old_state FROM {Jobs}
                 WHERE encoder_id = @encoder
                   AND (state = {(int)JobState.Waiting} OR (state = {(int)JobState.Claimed} AND lease_until < now()))
-                ORDER BY priority, published_at
+                ORDER BY priority, published_at, root_name, relative_path, page_number
                 LIMIT @count
                 FOR UPDATE SKIP LOCKED)
             UPDATE {Jobs} j SET state = {(int)JobState.Claimed}, worker = @worker, lease_until = now() + @lease, claims = j.claims + 1
