@@ -70,8 +70,12 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
             }
         }
 
-        index.Store.AppendAndCommit(encoder, commit);
-        FaultInjection.Reach(FaultPoints.QueueCommitAfter);
+        if (commit.Count > 0)
+        {
+            index.Store.AppendAndCommit(encoder, commit);
+            FaultInjection.Reach(FaultPoints.QueueCommitAfter);
+        }
+
         outcome.Committed = commit.Count;
         outcome.Vectors = commit.Sum(c => (long)c.Vectors.Count);
         return outcome;

@@ -131,7 +131,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             LiveWorkers = workers.Count,
             WorkersPagesPerSecond = workersRate,
             VectorsPerPage = vectorsPerPage,
-            EstimatedEncoderSeconds = forecast?.EncoderSeconds,
+            EstimatedEncoderSeconds = workersRate is null ? forecast?.EncoderSeconds : work.Total * secondsPerPage,
             BytesDelta = bytesDelta,
             CompactionDue = compaction.Jobs > 0,
             Compaction = compaction,

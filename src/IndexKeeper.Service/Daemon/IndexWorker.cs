@@ -187,7 +187,7 @@ internal sealed class IndexWorker(
                 if (!stopping.IsCancellationRequested)
                 {
                     // With a work queue the workers encode and this loop commits what they hand back.
-                    busy |= remote is null ? EmbedOneBatch() : remote.Turn(EmbedOneBatch);
+                    busy |= remote is null ? EmbedOneBatch() : RemoteTurn(remote);
                 }
 
                 if (!busy && !stopping.IsCancellationRequested)
@@ -216,6 +216,12 @@ internal sealed class IndexWorker(
                     KeepServingViewWarm(clock.GetUtcNow());
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
+                    if (remote is { Outstanding: true })
+                    {
+                        // Workers hand results back without waking the loop: look again soon.
+                        wait = TimeSpan.FromSeconds(Math.Min(1, wait.TotalSeconds));
+                    }
+
                     if (nextSettle is { } settle)
                     {
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
@@ -440,6 +446,18 @@ internal sealed class IndexWorker(
         }
 
         return embedded > 0 || summary.PagesFailed > 0;
+    }
+
+    /// <summary>One turn over the work queue; as after a local batch, declared drift is reconciled once the migration queue is empty.</summary>
+    private bool RemoteTurn(RemoteEmbedding queue)
+    {
+        var busy = queue.Turn(EmbedOneBatch);
+        if (busy && migrating && index.Catalog.Queue.Depths()[QueuePriority.Migration] == 0)
+        {
+            ReconcileDrift();
+        }
+
+        return busy;
     }
 
     private void ForgetRoot(string root)

@@ -39,6 +39,9 @@ internal sealed class RemoteEmbedding(
     private long committed;
     private long rejected;
 
+    /// <summary>True while jobs this coordinator published are not yet committed (and PostgreSQL answers).</summary>
+    public bool Outstanding => fault is null && published is { Count: > 0 };
+
     /// <summary>One turn; <paramref name="embedLocally"/> runs while PostgreSQL is out of reach and the setting says local. True when work was done.</summary>
     public bool Turn(Func<bool> embedLocally)
     {
@@ -53,6 +56,9 @@ internal sealed class RemoteEmbedding(
             if (published is null)
             {
                 QueueSchema.Ensure(database);
+
+                // Jobs of an encoder this index no longer embeds with would wait forever for a worker of their own.
+                jobs.WithdrawOthers(index.Encoder.Identity.Id);
                 published = jobs.Outstanding(index.Encoder.Identity.Id);
             }
 

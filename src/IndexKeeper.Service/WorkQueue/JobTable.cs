@@ -64,6 +64,14 @@ internal sealed class JobTable(NpgsqlDataSource database)
         return Keys(command);
     }
 
+    /// <summary>Takes back the unclaimed jobs of every encoder but <paramref name="activeEncoderId"/> (published before an encoder change); returns how many.</summary>
+    public int WithdrawOthers(string activeEncoderId)
+    {
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id <> @encoder AND state = {(int)JobState.Waiting}");
+        command.Parameters.AddWithValue("encoder", activeEncoderId);
+        return command.ExecuteNonQuery();
+    }
+
     /// <summary>Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first.</summary>
     public IReadOnlyList<FinishedJob> Finished(int limit)
     {

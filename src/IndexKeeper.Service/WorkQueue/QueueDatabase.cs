@@ -68,7 +68,8 @@ internal static class QueueDatabase
     {
         PostgresException postgres => !IsSettingProblem(postgres) && (postgres.SqlState.StartsWith("08", StringComparison.Ordinal) || postgres.SqlState.StartsWith("57P", StringComparison.Ordinal)),
         NpgsqlException => true,
-        SocketException or TimeoutException or IOException => true,
+        // Npgsql wraps its own I/O failures in NpgsqlException; a bare IOException is a file's, not the database's.
+        SocketException or TimeoutException => true,
         _ => false,
     };
 

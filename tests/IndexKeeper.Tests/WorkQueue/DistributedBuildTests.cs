@@ -36,6 +36,11 @@ public sealed class DistributedBuildTests(PostgresServer server)
             var metrics = daemon.GetText("/metrics");
             Assert.Contains("indexkeeper_work_queue_workers", metrics, StringComparison.Ordinal);
             Assert.Contains("worker=\"stranger\"", metrics, StringComparison.Ordinal);
+
+            // The plan counts the live workers of the active encoder only, at their measured rates.
+            var plan = daemon.GetJson("/api/plan");
+            Assert.Equal(2, plan.GetProperty("liveWorkers").GetInt32());
+            Assert.True(plan.GetProperty("workersPagesPerSecond").GetDouble() > 0);
             Assert.Equal(0, one.Terminate());
             Assert.Equal(0, two.Terminate());
             Assert.Equal(0, stranger.Terminate());
