@@ -1,7 +1,6 @@
 using System.Diagnostics;
 using System.Globalization;
 using System.Text.Json;
-using IndexKeeper.Demo;
 using IndexKeeper.Tests.WorkQueue;
 
 namespace IndexKeeper.Benchmarks;
@@ -21,7 +20,7 @@ public sealed class WorkQueueBenchmark : IBenchmark
     {
         ArgumentNullException.ThrowIfNull(context);
         var work = context.WorkDirectory;
-        var roots = context.Quick ? SmokeStore(Path.Combine(work, "store")) : DemoRoots(context, Path.Combine(work, "store"));
+        var roots = context.Quick ? EmbedBenchmark.SmokeStore(Path.Combine(work, "store")) : EmbedBenchmark.DemoRoots(context, Path.Combine(work, "store"));
         string[] encoder = context.Quick ? ["--Encoder:Name=hashed-terms"] : ["--Encoder:Name=minilm", "--Encoder:IntraOpThreads=1"];
         var rootArgs = roots.SelectMany(r => new[] { "--root", r.Path }).ToArray();
         context.Note($"encoder: {string.Join(' ', encoder)}");
@@ -181,24 +180,5 @@ public sealed class WorkQueueBenchmark : IBenchmark
         }
 
         return to;
-    }
-
-    private static List<DemoRoot> DemoRoots(BenchmarkContext context, string directory)
-    {
-        var info = DemoStore.Generate(directory);
-        context.Note($"demo store: {info.DocumentCount} documents, {info.PageCount} pages in {info.Roots.Count} roots");
-        return [.. info.Roots];
-    }
-
-    private static List<DemoRoot> SmokeStore(string directory)
-    {
-        var root = Path.Combine(directory, "reports");
-        Directory.CreateDirectory(root);
-        for (var d = 0; d < 8; d++)
-        {
-            File.WriteAllBytes(Path.Combine(root, $"report-{d}.pdf"), GeneratedReport.Build(d, new int[3], wordsPerPage: 200));
-        }
-
-        return [new DemoRoot("reports", root)];
     }
 }

@@ -26,8 +26,8 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
         var outcome = new CommitOutcome();
         foreach (var job in finished)
         {
-            var page = catalog.Pages.Find(job.Job.PageKey);
-            var needs = page is { References: > 0 } && catalog.VectorSets.Find(encoder.Id, job.Job.PageKey) is not { Live: true };
+            // The reference count alone: reading a page record with its words costs milliseconds (docs/benchmarks.md, embed).
+            var needs = catalog.Pages.ReferencesOf(job.Job.PageKey) > 0 && catalog.VectorSets.Find(encoder.Id, job.Job.PageKey) is not { Live: true };
             VectorSet? vectors = null;
             if (job.State == JobState.Done && job.Result is { } bytes)
             {
@@ -83,12 +83,13 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
 
     private void Failed(FinishedJob job, string reason, DateTime nowUtc, CommitOutcome outcome)
     {
-        if (index.Catalog.Pages.Find(job.Job.PageKey) is null)
+        var attempts = index.Catalog.Queue.RecordFailure(job.Job.PageKey, a => retry.NextTry(a, nowUtc), reason, nowUtc);
+        if (attempts == 0)
         {
+            // No longer queued (the page left the index meanwhile): nothing to count.
             return;
         }
 
-        var attempts = index.Catalog.Queue.RecordFailure(job.Job.PageKey, a => retry.NextTry(a, nowUtc), reason, nowUtc);
         outcome.Failed++;
         outcome.Problems.Add($"page {job.Job.PageKey[..12]} ({job.Job.RootName}/{job.Job.RelativePath}) failed on worker {job.Worker} (attempt {attempts}): {reason}");
     }

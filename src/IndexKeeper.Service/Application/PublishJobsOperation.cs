@@ -44,14 +44,15 @@ internal sealed class PublishJobsOperation(OpenIndex index)
                 continue;
             }
 
-            var page = catalog.Pages.Find(entry.Id);
-            if (page is null || page.References <= 0 || catalog.VectorSets.Find(encoderId, entry.Id) is { Live: true })
+            // The page record without its words: a worker reads the page itself.
+            var page = catalog.Pages.SourceOf(entry.Id);
+            if (page is not { References: > 0 } source || catalog.VectorSets.Find(encoderId, entry.Id) is { Live: true })
             {
                 satisfied.Add(entry.Id);
                 continue;
             }
 
-            if (Where(catalog, page) is { } at)
+            if (Where(catalog, entry.Id, source.Root, source.Path, source.Page) is { } at)
             {
                 batch.Add(new PageJob(entry.Id, encoderId, at.Root, at.Path, at.Page, at.FileHash, (int)entry.Priority));
             }
@@ -68,17 +69,17 @@ internal sealed class PublishJobsOperation(OpenIndex index)
     }
 
     /// <summary>A live document holding the page and its position: the page record's own location first, else any holder.</summary>
-    private static (string Root, string Path, int Page, string FileHash)? Where(IndexCatalog catalog, PageRecord page)
+    private static (string Root, string Path, int Page, string FileHash)? Where(IndexCatalog catalog, string pageKey, string root, string path, int number)
     {
-        if (catalog.Documents.Find(page.SourceRoot, page.SourcePath) is { State: DocumentState.Live } seen
-            && page.SourcePage >= 1 && page.SourcePage <= seen.PageKeys.Count && seen.PageKeys[page.SourcePage - 1] == page.Id)
+        if (catalog.Documents.Find(root, path) is { State: DocumentState.Live } seen
+            && number >= 1 && number <= seen.PageKeys.Count && seen.PageKeys[number - 1] == pageKey)
         {
-            return (seen.Root, seen.Path, page.SourcePage, seen.FileHash);
+            return (seen.Root, seen.Path, number, seen.FileHash);
         }
 
-        foreach (var holder in catalog.Documents.Holding(page.Id).Where(d => d.State == DocumentState.Live))
+        foreach (var holder in catalog.Documents.Holding(pageKey).Where(d => d.State == DocumentState.Live))
         {
-            return (holder.Root, holder.Path, holder.PageKeys.IndexOf(page.Id) + 1, holder.FileHash);
+            return (holder.Root, holder.Path, holder.PageKeys.IndexOf(pageKey) + 1, holder.FileHash);
         }
 
         return null;

@@ -141,7 +141,13 @@ internal sealed class RemoteEmbedding(
             return false;
         }
 
+        // Published in runs of at least a quarter of PublishAhead: each run reads the published entries again to skip them.
         var room = (int)Math.Min(options.PublishAhead - published!.Count, allowance.MaxPages);
+        if (room < Math.Max(1, options.PublishAhead / 4) && room < allowance.MaxPages)
+        {
+            return false;
+        }
+
         var count = publish.Run(jobs, published, room, allowed, now.UtcDateTime);
         if (count > 0)
         {

@@ -125,5 +125,27 @@ public sealed class DistributedBuildTests(PostgresServer server)
         Assert.Equal(0, daemon.GetJson("/api/status").GetProperty("liveVectorSets").GetInt64());
     }
 
+    [Fact]
+    public void Coordinator_reconnects_after_PostgreSQL_went_away_and_came_back()
+    {
+        // A server of this test's own: the shared one stays up for the others.
+        using var own = new PostgresServer();
+        using var store = new QueueStore(own);
+        using var daemon = RunningDaemon.Start(store.Temp.Path, [.. store.CoordinatorArgs, "--Queue:WhenUnreachable=wait", "--Queue:ReconnectMaxSeconds=1"]);
+        daemon.WaitUntil("jobs are published", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == QueueStore.Pages);
+
+        own.Stop();
+        daemon.WaitUntil("health names the work queue", () => daemon.Health().Contains("work-queue-unreachable", StringComparison.Ordinal));
+        Assert.Equal(0, daemon.GetJson("/api/status").GetProperty("liveVectorSets").GetInt64());
+
+        own.Start();
+        using var worker = new RunningWorker(store.Temp.Path, store.WorkerArgs("after"));
+        QueueStore.WaitUntilComplete(daemon);
+        daemon.WaitUntil("health no longer names the work queue", () => !daemon.Health().Contains("work-queue-unreachable", StringComparison.Ordinal));
+        worker.Terminate();
+        Assert.Equal(0, daemon.Terminate(TimeSpan.FromSeconds(60)));
+        store.AssertSameAsReference();
+    }
+
     private static Dictionary<string, string> Fault(string point) => new() { ["IK_FAULT_INJECTION"] = point + ":exit" };
 }

@@ -38,12 +38,8 @@ public sealed class PostgresServer : IDisposable
         }
 
         Port = FreePort();
-        var data = Path.Combine(folder, "data");
-        Run(Path.Combine(bin, "initdb"), ["-D", data, "-U", User, "--pwfile", passwordFile, "--auth-local=trust", "--auth-host=scram-sha-256", "-E", "UTF8", "--no-sync", "--no-instructions"]);
-        Run(Path.Combine(bin, "pg_ctl"), [
-            "-D", data, "-l", Path.Combine(folder, "server.log"), "-w", "-t", "60",
-            "-o", $"-p {Port} -k {folder} -c listen_addresses=127.0.0.1 -c fsync=off -c max_connections=100",
-            "start"]);
+        Run(Path.Combine(bin, "initdb"), ["-D", Path.Combine(folder, "data"), "-U", User, "--pwfile", passwordFile, "--auth-local=trust", "--auth-host=scram-sha-256", "-E", "UTF8", "--no-sync", "--no-instructions"]);
+        Start();
     }
 
     public int Port { get; }
@@ -79,11 +75,21 @@ public sealed class PostgresServer : IDisposable
         return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
     }
 
+    /// <summary>Starts the server (again) on its port; returns once it accepts connections.</summary>
+    public void Start() =>
+        Run(Path.Combine(bin, "pg_ctl"), [
+            "-D", Path.Combine(folder, "data"), "-l", Path.Combine(folder, "server.log"), "-w", "-t", "60",
+            "-o", $"-p {Port} -k {folder} -c listen_addresses=127.0.0.1 -c fsync=off -c max_connections=100",
+            "start"]);
+
+    /// <summary>Stops the server at once, as a crash or a network cut looks to its clients.</summary>
+    public void Stop() => Run(Path.Combine(bin, "pg_ctl"), ["-D", Path.Combine(folder, "data"), "-m", "immediate", "-w", "stop"]);
+
     public void Dispose()
     {
         try
         {
-            Run(Path.Combine(bin, "pg_ctl"), ["-D", Path.Combine(folder, "data"), "-m", "immediate", "-w", "stop"]);
+            Stop();
         }
         finally
         {
