@@ -73,7 +73,8 @@ public sealed class EmbedBenchmark : IBenchmark
         context.Report("store append + commit, cpu", appendCpu, "s");
     }
 
-    private static List<DemoRoot> DemoRoots(BenchmarkContext context, string directory)
+    /// <summary>The demo store (40 documents, 413 pages), generated into <paramref name="directory"/>; its roots.</summary>
+    internal static List<DemoRoot> DemoRoots(BenchmarkContext context, string directory)
     {
         DemoStoreInfo info = null!;
         var (generated, _) = Measure.Once(() => info = DemoStore.Generate(directory));
@@ -82,7 +83,7 @@ public sealed class EmbedBenchmark : IBenchmark
     }
 
     /// <summary>The smoke run's store: the demo store takes longer to generate than the whole smoke run may, so a few generated reports stand in.</summary>
-    private static List<DemoRoot> SmokeStore(string directory)
+    internal static List<DemoRoot> SmokeStore(string directory)
     {
         var root = Path.Combine(directory, "reports");
         Directory.CreateDirectory(root);

@@ -51,6 +51,11 @@ internal sealed class PlanCommand() : CommandBase(
         o.WriteLine(r.EncoderSecondsPerPage is { } spp
             ? string.Create(C, $"Encoder        {spp:0.0000} s/page ({r.ThroughputSource}), {r.EstimatedEncoderSeconds:0.0} s in all")
             : "Encoder        throughput unknown (no history; try --calibrate)");
+        if (r.WorkersPagesPerSecond is { } together)
+        {
+            o.WriteLine(string.Create(C, $"Workers        {r.LiveWorkers} live of the active encoder, {together:0.00} pages/s together (the finish time counts them)"));
+        }
+
         o.WriteLine(r.BytesDelta is { } bytes
             ? string.Create(C, $"Storage        +{bytes / 1048576.0:0.00} MiB ({r.VectorsPerPage:0.0} vectors/page)")
             : "Storage        unknown (no vectors per page measured yet)");

@@ -52,6 +52,17 @@ internal sealed class StatusCommand() : CommandBase(
         }
         o.WriteLine(string.Create(c, $"  on disk      {report.BytesOnDisk / 1024.0 / 1024.0:0.0} MiB"));
         o.WriteLine(string.Create(c, $"  last scan    {(report.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", c) : "never")}"));
+        if (report.WorkQueue is { } queue)
+        {
+            o.WriteLine(queue.Fault is { } fault
+                ? $"  work queue   PostgreSQL does not answer since {queue.FaultSinceUtc:yyyy-MM-dd HH:mm:ss'Z'}: {fault}"
+                : string.Create(c, $"  work queue   {queue.Waiting} waiting, {queue.Claimed} claimed ({queue.Expired} lease(s) expired), {queue.Finished} handed back; {queue.Committed} committed, {queue.Rejected} rejected since start"));
+            foreach (var worker in queue.Workers)
+            {
+                o.WriteLine(string.Create(c, $"  worker       {worker.Worker} on {worker.Host}: {(worker.Live ? "live" : "silent")}, {worker.EncoderName} ({worker.EncoderId[..Math.Min(12, worker.EncoderId.Length)]}…), {worker.PagesDone} pages at {worker.PagesPerSecond:0.00}/s, {worker.PagesFailed} failed, {worker.LeasesTakenOver} lease(s) taken over"));
+            }
+        }
+
         if (report.Quarantine.Count > 0)
         {
             o.WriteLine("Quarantine (retried when the file changes):");

@@ -21,6 +21,15 @@ public sealed class PageTable
     public IEnumerable<string> UnreferencedKeys() =>
         pages.Query().Where(p => p.References <= 0).Select(p => p.Id).ToEnumerable();
 
+    /// <summary>A page's reference count and where it was seen (root, path, 1-based page), read without deserialising its words; null when it has no record.</summary>
+    internal (int References, string Root, string Path, int Page)? SourceOf(string pageKey)
+    {
+        var found = pages.Query().Where(p => p.Id == pageKey)
+            .Select(BsonExpression.Create("{ r: $.References, root: $.SourceRoot, path: $.SourcePath, page: $.SourcePage }"))
+            .ToEnumerable().FirstOrDefault();
+        return found is null ? null : (found["r"].AsInt32, found["root"].AsString, found["path"].AsString, found["page"].AsInt32);
+    }
+
     /// <summary>A page's reference count (0 when it has no record), read without deserialising its words.</summary>
     internal int ReferencesOf(string pageKey) =>
         pages.Query().Where(p => p.Id == pageKey).Select(p => p.References).ToEnumerable().FirstOrDefault();

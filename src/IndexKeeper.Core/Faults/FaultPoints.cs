@@ -80,6 +80,12 @@ internal static class FaultPoints
     /// </summary>
     public const string CatalogCreateRename = "catalog.create.rename";
 
+    /// <summary>A remote worker's claim is committed in PostgreSQL; it has not read or encoded the pages (docs/work-queue.md, "Faults").</summary>
+    public const string WorkerClaimAfter = "worker.claim.after";
+
+    /// <summary>The coordinator committed handed-back vector sets to the catalog; their jobs are not yet deleted from PostgreSQL.</summary>
+    public const string QueueCommitAfter = "queue.commit.after";
+
     /// <summary>Every point, in the order of the write path.</summary>
     public static IReadOnlyList<string> All { get; } =
     [
@@ -89,6 +95,9 @@ internal static class FaultPoints
         CompactionDeleteBefore, CompactionDeleteAfter, WordsAppendBeforeFsync, WordsAppendAfterFsync, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
     ];
 
-    /// <summary>Points with tests of their own instead of rows of the matrix (each says which).</summary>
-    public static IReadOnlyList<string> OutsideMatrix { get; } = [CatalogCreateRename];
+    /// <summary>
+    /// Points with tests of their own instead of rows of the matrix (each says which): the work queue's need
+    /// PostgreSQL, and the work-queue tests reach them.
+    /// </summary>
+    public static IReadOnlyList<string> OutsideMatrix { get; } = [CatalogCreateRename, WorkerClaimAfter, QueueCommitAfter];
 }

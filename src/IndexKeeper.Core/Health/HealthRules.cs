@@ -26,6 +26,11 @@ public static class HealthRules
             reasons.Add(new("work-loop-retrying", HealthStatus.Degraded, $"the loop that scans and embeds hit a fault and tries again after a back-off: {fault}"));
         }
 
+        if (snapshot.WorkQueueFault is { } queueFault)
+        {
+            reasons.Add(new("work-queue-unreachable", HealthStatus.Degraded, $"the work queue's PostgreSQL does not answer ({queueFault}); workers get no jobs, the coordinator reconnects with backoff"));
+        }
+
         if (snapshot.SearchFailureAge is { } failedAgo && failedAgo < limits.SearchFailureWindow)
         {
             var reason = snapshot.SearchFailure ?? "no reason given";

@@ -13,6 +13,7 @@ namespace IndexKeeper.Core.Health;
 /// <param name="SearchFailureAge">Time since the last search that failed; null when none failed.</param>
 /// <param name="SearchFailure">Why the last failed search failed.</param>
 /// <param name="Damage">Missing segment files, unreadable vector sets and pages without vectors, in words; null when none.</param>
+/// <param name="WorkQueueFault">Why the work queue's PostgreSQL does not answer; null when it does or none is configured.</param>
 /// <param name="SearchSucceededSince">True when a search succeeded after the last one that failed.</param>
 public sealed record HealthSnapshot(
     bool WorkLoopRunning,
@@ -32,4 +33,5 @@ public sealed record HealthSnapshot(
     TimeSpan? SearchFailureAge = null,
     string? SearchFailure = null,
     bool SearchSucceededSince = false,
-    string? Damage = null);
+    string? Damage = null,
+    string? WorkQueueFault = null);

@@ -75,7 +75,18 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
 
         var compaction = Compaction(compact.Jobs());
         var now = TimeZoneInfo.ConvertTime(request.Now, zone);
-        var forecast = secondsPerPage is { } spp
+        // With a work queue the pages are encoded by the live workers of this encoder, side by side: their rates
+        // add up. A live worker that has not encoded a page yet is counted at the mean rate of those that have.
+        var workers = (request.Workers ?? []).Where(w => w.Live && w.EncoderId == identity.Id).ToList();
+        var measured = workers.Where(w => w.PagesPerSecond > 0).ToList();
+        double? workersRate = measured.Count > 0 ? measured.Average(w => w.PagesPerSecond) * workers.Count : null;
+        if (workersRate is { } rate)
+        {
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{workers.Count} live worker(s) of the active encoder embed {rate:0.00} pages/s together ({measured.Count} measured); the finish time counts them."));
+        }
+
+        var simulated = workersRate is { } combined ? 1 / combined : secondsPerPage;
+        var forecast = simulated is { } spp
             ? WorkSimulator.Simulate(new EncoderGate(calendar, settings.BudgetPagesPerHour), now.AddSeconds(summary.ReadSeconds), work, spp, request.BudgetSpent, WorkSimulator.DefaultHorizon)
             : null;
         if (forecast is { AllDone: null })
@@ -122,8 +133,10 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             ReadSeconds = summary.ReadSeconds,
             ThroughputSource = source,
             EncoderSecondsPerPage = secondsPerPage,
+            LiveWorkers = workers.Count,
+            WorkersPagesPerSecond = workersRate,
             VectorsPerPage = vectorsPerPage,
-            EstimatedEncoderSeconds = forecast?.EncoderSeconds,
+            EstimatedEncoderSeconds = workersRate is null ? forecast?.EncoderSeconds : work.Total * secondsPerPage,
             BytesDelta = bytesDelta,
             CompactionDue = compaction.Jobs > 0,
             Compaction = compaction,

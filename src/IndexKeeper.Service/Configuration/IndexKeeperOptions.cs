@@ -29,4 +29,7 @@ public sealed class IndexKeeperOptions
     public ScheduleOptions Schedule { get; set; } = new();
 
     public DriftOptions Drift { get; set; } = new();
+
+    /// <summary>The shared work queue for embedding on other machines; unset, one process does everything.</summary>
+    public QueueOptions Queue { get; set; } = new();
 }

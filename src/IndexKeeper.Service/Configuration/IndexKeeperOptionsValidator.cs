@@ -108,6 +108,7 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Detect:NetworkPollMinutes", options.Detect.NetworkPollMinutes, 0.05, 7 * 24 * 60);
         Range(errors, "Detect:RootGoneGraceHours", options.Detect.RootGoneGraceHours, 0, 24 * 365);
         DaemonOptionsRules.Check(errors, options.Daemon);
+        QueueOptionsRules.Check(errors, options.Queue);
         Range(errors, "Query:MaxCharacters", options.Query.MaxCharacters, 1, 100_000);
         Range(errors, "Query:MaxTerms", options.Query.MaxTerms, 1, 1024);
         Range(errors, "Query:MaxResults", options.Query.MaxResults, 1, 10_000);
@@ -160,7 +161,7 @@ public static partial class IndexKeeperOptionsValidator
         }
     }
 
-    private static void Range(List<string> errors, string name, double value, double min, double max)
+    internal static void Range(List<string> errors, string name, double value, double min, double max)
     {
         if (double.IsNaN(value) || value < min || value > max)
         {

@@ -79,7 +79,12 @@ internal static class DaemonApi
             return Results.Json(report, ApiJson.Options, statusCode: report.Status == HealthStatus.Unhealthy ? 503 : 200);
         });
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
-        app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
+        app.MapGet("/api/status", () =>
+        {
+            var report = status.Read();
+            report.WorkQueue = state.WorkQueue;
+            return Results.Json(report, ApiJson.Options);
+        });
         app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
             SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken));
@@ -87,7 +92,8 @@ internal static class DaemonApi
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
             var wantCalibration = calibrate is "1" or "true";
-            var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
+            var workers = state.WorkQueue?.Workers;
+            var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration) { Workers = workers }, CancellationToken.None)).ConfigureAwait(false);
             return Results.Json(report, ApiJson.Options);
         });
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
@@ -120,6 +126,7 @@ internal static class DaemonApi
                 return new QuarantinedPage(q.Id, page?.SourceRoot ?? string.Empty, page?.SourcePath ?? string.Empty, page?.SourcePage ?? 0, q.Attempts, q.LastError ?? string.Empty, q.QuarantinedUtc ?? q.EnqueuedUtc);
             }).ToList(),
             Samples = state.Samples.Snapshot(),
+            WorkQueue = state.WorkQueue,
         };
     }
 }

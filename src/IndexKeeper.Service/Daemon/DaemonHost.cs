@@ -4,6 +4,8 @@ using IndexKeeper.Core.Telemetry;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Service.Application;
+using IndexKeeper.Service.WorkQueue;
+using Npgsql;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
@@ -35,13 +37,16 @@ public static class DaemonHost
         ArgumentNullException.ThrowIfNull(options);
         ListenAddress.TryParse(options.Daemon.Listen, out var listen);
         var token = BearerTokens.Resolve(options.Daemon);
+
+        // A queue setting PostgreSQL refuses (login, a newer schema) stops the start before the index is touched.
+        using var queue = WorkQueueAtStart(options.Queue);
         using var index = OpenIndex.Open(IndexSettings.From(options), DaemonClient.LockPurpose);
         var settings = index.Settings;
 
         // Built and repaired before any thread can race for them.
         _ = index.Store;
         _ = index.Encoder;
-        var app = Build(options, settings, index, listen!, token);
+        var app = Build(options, settings, index, listen!, token, queue);
         var state = app.Services.GetRequiredService<DaemonState>();
         var worker = app.Services.GetRequiredService<IndexWorker>();
         var lifetime = app.Services.GetRequiredService<IHostApplicationLifetime>();
@@ -79,7 +84,36 @@ public static class DaemonHost
         return state.HasWorkLoopFailed ? 1 : 0;
     }
 
-    private static WebApplication Build(IndexKeeperOptions options, IndexSettings settings, OpenIndex index, ListenAddress listen, string? token)
+    /// <summary>
+    /// The work queue's database, checked: null without Queue:Connection. Out of reach now is no reason to stop
+    /// (the loop reconnects and says so in health); a refused login or a newer schema is (exit 2).
+    /// </summary>
+    private static NpgsqlDataSource? WorkQueueAtStart(QueueOptions queue)
+    {
+        if (string.IsNullOrWhiteSpace(queue.Connection))
+        {
+            return null;
+        }
+
+        var database = QueueDatabase.Create(queue, "indexkeeper-coordinator");
+        try
+        {
+            QueueDatabase.Check(database);
+        }
+        catch (Exception ex) when (QueueDatabase.IsUnreachable(ex))
+        {
+            // RemoteEmbedding's first turn finds it out of reach again and reports it.
+        }
+        catch
+        {
+            database.Dispose();
+            throw;
+        }
+
+        return database;
+    }
+
+    private static WebApplication Build(IndexKeeperOptions options, IndexSettings settings, OpenIndex index, ListenAddress listen, string? token, NpgsqlDataSource? queue)
     {
         var daemon = options.Daemon;
         var builder = WebApplication.CreateSlimBuilder(new WebApplicationOptions { ContentRootPath = AppContext.BaseDirectory, Args = [] });
@@ -165,6 +199,21 @@ public static class DaemonHost
             sp.GetRequiredService<DaemonState>(),
             sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.Watch")));
         builder.Services.AddSingleton<DaemonMetrics>();
+        if (queue is not null)
+        {
+            builder.Services.AddSingleton<PublishJobsOperation>();
+            builder.Services.AddSingleton<CommitResultsOperation>();
+            builder.Services.AddSingleton(sp => new RemoteEmbedding(
+                options.Queue,
+                queue,
+                sp.GetRequiredService<PublishJobsOperation>(),
+                sp.GetRequiredService<CommitResultsOperation>(),
+                index,
+                sp.GetRequiredService<IEmbedGate>(),
+                sp.GetRequiredService<DaemonState>(),
+                sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.WorkQueue")));
+        }
+
         builder.Services.AddSingleton<IndexWorker>();
         builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
 

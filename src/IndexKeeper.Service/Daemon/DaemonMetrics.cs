@@ -73,6 +73,24 @@ internal sealed class DaemonMetrics : IDisposable
             ? new[] { new Measurement<double>(c.MeanCosine, Tag("statistic", "mean")), new Measurement<double>(c.MinimumCosine, Tag("statistic", "minimum")) }
             : [], "1", "Cosine of re-embedded canary vectors against the stored ones at the last check (1: no drift).");
         meter.CreateObservableGauge("indexkeeper.window.open", () => state.Allowance.WindowOpen ? 1 : 0, "1", "1 while a work window is open, 0 outside windows (the budget applies).");
+        meter.CreateObservableGauge("indexkeeper.work_queue.reachable", () => state.WorkQueue is { } q ? new[] { new Measurement<int>(q.Fault is null ? 1 : 0) } : [], "1", "1 while the work queue's PostgreSQL answers, 0 while it does not (only with Queue:Connection).");
+        meter.CreateObservableGauge("indexkeeper.work_queue.jobs", () => state.WorkQueue is { Fault: null } q
+            ? new[]
+            {
+                new Measurement<long>(q.Waiting, Tag("state", "waiting")),
+                new Measurement<long>(q.Claimed, Tag("state", "claimed")),
+                new Measurement<long>(q.Finished, Tag("state", "finished")),
+                new Measurement<long>(q.Expired, Tag("state", "lease_expired")),
+            }
+            : [], "{job}", "Jobs in the work queue by state; lease_expired: claimed by a worker that went silent, claimable again.");
+        meter.CreateObservableCounter("indexkeeper.work_queue.results", () => state.WorkQueue is { } q
+            ? new[] { new Measurement<long>(q.Committed, Tag("outcome", "committed")), new Measurement<long>(q.Rejected, Tag("outcome", "rejected")) }
+            : [], "{result}", "Vector sets handed back by workers since start: committed, or rejected (another encoder id, bad bytes).");
+        meter.CreateObservableGauge("indexkeeper.work_queue.workers", () => state.WorkQueue is { } q ? new[] { new Measurement<int>(q.LiveWorkers) } : [], "{worker}", "Workers with a recent heartbeat.");
+        meter.CreateObservableGauge("indexkeeper.work_queue.worker.rate", () => (state.WorkQueue?.Workers ?? []).Where(w => w.Live)
+            .Select(w => new Measurement<double>(w.PagesPerSecond, Tag("worker", w.Worker), Tag("encoder", w.EncoderName), Tag("encoder_id", w.EncoderId[..Math.Min(12, w.EncoderId.Length)]))), "{page}/s", "Each live worker's pages per second of encoder time.");
+        meter.CreateObservableGauge("indexkeeper.work_queue.worker.leases_taken_over", () => (state.WorkQueue?.Workers ?? []).Where(w => w.Live)
+            .Select(w => new Measurement<long>(w.LeasesTakenOver, Tag("worker", w.Worker))), "{lease}", "Jobs each live worker took over after another's lease expired.");
         meter.CreateObservableGauge("indexkeeper.roots.missing", () => state.Roots.Count(r => r.MissingSinceUtc is not null), "{root}", "Roots that are gone (documents kept for their grace time).");
     }
 

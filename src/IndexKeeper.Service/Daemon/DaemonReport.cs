@@ -37,4 +37,7 @@ public sealed class DaemonReport
     public IReadOnlyList<QuarantinedPage> QuarantinedPages { get; init; } = [];
 
     public IReadOnlyList<Sample> Samples { get; init; } = [];
+
+    /// <summary>The work queue and its workers (docs/work-queue.md); null without Queue:Connection.</summary>
+    public WorkQueue.WorkQueueFigures? WorkQueue { get; init; }
 }

@@ -3,6 +3,7 @@ using System.Threading.Channels;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Service.WorkQueue;
 
 namespace IndexKeeper.Service.Daemon;
 
@@ -24,6 +25,8 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private volatile CanaryFigures? canaries;
     private volatile string? workLoopFault;
+    private volatile WorkQueueFigures? workQueue;
+    private long pagesEmbeddedRemotely;
     private readonly Lock searchOutcomes = new();
     private DateTimeOffset? lastSearchFailure;
     private string? lastSearchFailureReason;
@@ -56,6 +59,18 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     }
 
     public long WatcherOverflows => Interlocked.Read(ref watcherOverflows);
+
+    /// <summary>The work queue as the coordinator last saw it; null without Queue:Connection.</summary>
+    public WorkQueueFigures? WorkQueue
+    {
+        get => workQueue;
+        set => workQueue = value;
+    }
+
+    /// <summary>Pages committed from workers' vector sets (also counted in <see cref="PagesEmbedded"/>).</summary>
+    public long PagesEmbeddedRemotely => Interlocked.Read(ref pagesEmbeddedRemotely);
+
+    public void CountRemote(long pages) => Interlocked.Add(ref pagesEmbeddedRemotely, pages);
 
     public long PagesEmbedded => Interlocked.Read(ref pagesEmbedded);
 
@@ -215,6 +230,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
             now - searchFailed,
             searchFailure,
             succeededSince,
-            DamageText(latest.Damage));
+            DamageText(latest.Damage),
+            workQueue?.Fault);
     }
 }

@@ -18,6 +18,7 @@ namespace IndexKeeper.Service.Daemon;
 /// allows one batch at a time, applies declared drift (migration queue, switch-over), checks canaries inside
 /// windows, compacts and samples figures. Between units of work it looks at the stop
 /// request; the unit in flight gets the rest of the grace period (and is abandoned, uncommitted, after it).
+/// With a work queue (Queue:Connection) the embedding itself is done by workers (<see cref="RemoteEmbedding"/>).
 /// On the way out it seals the open segments.
 /// </summary>
 /// <remarks>REQUIRES: the index lock is held for the worker's whole life; nothing else writes the index.</remarks>
@@ -35,7 +36,8 @@ internal sealed class IndexWorker(
     IEmbedGate gate,
     IHostApplicationLifetime lifetime,
     IHostLifetime hostLifetime,
-    ILogger<IndexWorker> log) : BackgroundService
+    ILogger<IndexWorker> log,
+    RemoteEmbedding? remote = null) : BackgroundService
 {
     private readonly TimeSpan fullWalkInterval = TimeSpan.FromMinutes(options.Detect.FullWalkMinutes);
     private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(options.Daemon.SampleSeconds);
@@ -184,7 +186,8 @@ internal sealed class IndexWorker(
 
                 if (!stopping.IsCancellationRequested)
                 {
-                    busy |= EmbedOneBatch();
+                    // With a work queue the workers encode and this loop commits what they hand back.
+                    busy |= remote is null ? EmbedOneBatch() : RemoteTurn(remote);
                 }
 
                 if (!busy && !stopping.IsCancellationRequested)
@@ -213,6 +216,12 @@ internal sealed class IndexWorker(
                     KeepServingViewWarm(clock.GetUtcNow());
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
+                    if (remote is { Outstanding: true })
+                    {
+                        // Workers hand results back without waking the loop: look again soon.
+                        wait = TimeSpan.FromSeconds(Math.Min(1, wait.TotalSeconds));
+                    }
+
                     if (nextSettle is { } settle)
                     {
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
@@ -437,6 +446,18 @@ internal sealed class IndexWorker(
         }
 
         return embedded > 0 || summary.PagesFailed > 0;
+    }
+
+    /// <summary>One turn over the work queue; as after a local batch, declared drift is reconciled once the migration queue is empty.</summary>
+    private bool RemoteTurn(RemoteEmbedding queue)
+    {
+        var busy = queue.Turn(EmbedOneBatch);
+        if (busy && migrating && index.Catalog.Queue.Depths()[QueuePriority.Migration] == 0)
+        {
+            ReconcileDrift();
+        }
+
+        return busy;
     }
 
     private void ForgetRoot(string root)

@@ -67,4 +67,7 @@ public sealed class StatusReport
 
     /// <summary>What the roots hold by type: indexed, quarantined, skipped by pattern, unsupported.</summary>
     public FileTally Files { get; init; } = new();
+
+    /// <summary>The work queue and its workers, as the daemon last saw them (docs/work-queue.md); null without Queue:Connection or without the daemon.</summary>
+    public WorkQueue.WorkQueueFigures? WorkQueue { get; set; }
 }

@@ -76,6 +76,15 @@ public sealed class PlanReport
 
     public double? EncoderSecondsPerPage { get; init; }
 
+    /// <summary>Live workers of the active encoder (heartbeats); 0 without a work queue.</summary>
+    public int LiveWorkers { get; init; }
+
+    /// <summary>
+    /// Their pages per second together: each worker's pages over its encoder seconds, a worker without a page
+    /// yet at the mean of the others; null while no live worker has a measured rate.
+    /// </summary>
+    public double? WorkersPagesPerSecond { get; init; }
+
     public double? VectorsPerPage { get; init; }
 
     public double? EstimatedEncoderSeconds { get; init; }

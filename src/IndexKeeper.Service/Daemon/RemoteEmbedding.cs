@@ -1,0 +1,188 @@
+using System.Net.Sockets;
+using IndexKeeper.Core.Queue;
+using IndexKeeper.Service.Application;
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.WorkQueue;
+using Microsoft.Extensions.Logging;
+using Npgsql;
+
+namespace IndexKeeper.Service.Daemon;
+
+/// <summary>
+/// The coordinator's side of the work queue, one turn of the work loop at a time: commit what workers handed
+/// back (<see cref="CommitResultsOperation"/>), take back unclaimed jobs the gate no longer allows, and publish
+/// what the gate allows now (<see cref="PublishJobsOperation"/>). PostgreSQL out of reach: the turn embeds
+/// locally (Queue:WhenUnreachable = local) or does nothing (wait), health says why, and the next attempt
+/// comes after a doubling backoff. Only the work loop's thread calls <see cref="Turn"/>.
+/// </summary>
+/// <remarks>REQUIRES: called on the one writer's thread.</remarks>
+internal sealed class RemoteEmbedding(
+    QueueOptions options,
+    NpgsqlDataSource database,
+    PublishJobsOperation publish,
+    CommitResultsOperation commit,
+    OpenIndex index,
+    IEmbedGate gate,
+    DaemonState state,
+    ILogger log)
+{
+    private readonly JobTable jobs = new(database);
+    private readonly WorkerTable workers = new(database);
+    private readonly TimeSpan figuresInterval = TimeSpan.FromSeconds(Math.Min(5, options.HeartbeatSeconds));
+    private HashSet<string>? published;
+    private string? fault;
+    private DateTime? faultSince;
+    private TimeSpan backoff;
+    private DateTimeOffset nextAttempt = DateTimeOffset.MinValue;
+    private DateTimeOffset nextFigures = DateTimeOffset.MinValue;
+    private int? lastBound;
+    private long committed;
+    private long rejected;
+
+    /// <summary>True while jobs this coordinator published are not yet committed (and PostgreSQL answers).</summary>
+    public bool Outstanding => fault is null && published is { Count: > 0 };
+
+    /// <summary>One turn; <paramref name="embedLocally"/> runs while PostgreSQL is out of reach and the setting says local. True when work was done.</summary>
+    public bool Turn(Func<bool> embedLocally)
+    {
+        var now = state.Clock.GetUtcNow();
+        if (fault is not null && now < nextAttempt)
+        {
+            return Meanwhile(embedLocally);
+        }
+
+        try
+        {
+            if (published is null)
+            {
+                QueueSchema.Ensure(database);
+
+                // Jobs of an encoder this index no longer embeds with would wait forever for a worker of their own.
+                jobs.WithdrawOthers(index.Encoder.Identity.Id);
+                published = jobs.Outstanding(index.Encoder.Identity.Id);
+            }
+
+            var busy = Collect(now);
+            busy |= Publish(now);
+            if (fault is not null)
+            {
+                log.LogInformation("PostgreSQL answers again; the work queue is back in use.");
+                (fault, faultSince, backoff) = (null, null, TimeSpan.Zero);
+            }
+
+            if (now >= nextFigures)
+            {
+                Figures();
+                nextFigures = now + figuresInterval;
+            }
+
+            return busy;
+        }
+        catch (Exception ex) when (ex is NpgsqlException or SocketException or TimeoutException or ConfigurationException)
+        {
+            // The local batch first: by the time health names the fault, what this turn did is committed.
+            var busy = Meanwhile(embedLocally);
+            Unreachable(ex, now);
+            return busy;
+        }
+    }
+
+    /// <summary>Handed-back jobs committed and deleted; true when there were any.</summary>
+    private bool Collect(DateTimeOffset now)
+    {
+        var finished = jobs.Finished(Math.Max(1, index.Settings.EmbedBatchSize * 4));
+        if (finished.Count == 0)
+        {
+            return false;
+        }
+
+        var outcome = commit.Run(finished, now.UtcDateTime);
+        jobs.Delete(finished.Select(f => f.Job).ToList());
+        foreach (var job in finished)
+        {
+            published!.Remove(job.Job.PageKey);
+        }
+
+        foreach (var problem in outcome.Problems)
+        {
+            log.LogWarning("Work queue: {Problem}", problem);
+        }
+
+        committed += outcome.Committed;
+        rejected += outcome.Rejected;
+        if (outcome.Committed > 0)
+        {
+            state.CountEmbedded(outcome.Committed);
+            state.CountRemote(outcome.Committed);
+        }
+
+        return true;
+    }
+
+    /// <summary>Takes back what the gate no longer allows and publishes what it allows now, up to Queue:PublishAhead outstanding.</summary>
+    private bool Publish(DateTimeOffset now)
+    {
+        var allowance = gate.Allowance(now, index.Catalog.Queue.Due(now.UtcDateTime));
+        state.Allowance = allowance;
+        var lowest = allowance.MaxPages > 0 ? allowance.LowestPriority : (QueuePriority?)null;
+        var bound = lowest is { } l ? (int)l : -1;
+        if (lastBound is null || bound < lastBound)
+        {
+            // A window closed or the budget ran out: unclaimed bulk jobs come back; claimed ones finish.
+            foreach (var key in jobs.Withdraw(index.Encoder.Identity.Id, bound))
+            {
+                published!.Remove(key);
+            }
+        }
+
+        lastBound = bound;
+        if (lowest is not { } allowed)
+        {
+            return false;
+        }
+
+        // Published in runs of at least a quarter of PublishAhead: each run reads the published entries again to skip them.
+        var room = (int)Math.Min(options.PublishAhead - published!.Count, allowance.MaxPages);
+        if (room < Math.Max(1, options.PublishAhead / 4) && room < allowance.MaxPages)
+        {
+            return false;
+        }
+
+        var count = publish.Run(jobs, published, room, allowed, now.UtcDateTime);
+        if (count > 0)
+        {
+            gate.Spent(now, count);
+            log.LogDebug("Published {Jobs} job(s).", count);
+        }
+
+        return count > 0;
+    }
+
+    private void Figures()
+    {
+        var (waiting, claimed, finished, expired) = jobs.Counts();
+        state.WorkQueue = new WorkQueueFigures(null, null, waiting, claimed, finished, expired, committed, rejected, workers.All());
+    }
+
+    private bool Meanwhile(Func<bool> embedLocally) => options.WhenUnreachable == "local" && embedLocally();
+
+    private void Unreachable(Exception ex, DateTimeOffset now)
+    {
+        var first = fault is null;
+        fault = ex.Message;
+        faultSince ??= now.UtcDateTime;
+        published = null;
+        lastBound = null;
+        backoff = Reconnect.Next(backoff, TimeSpan.FromSeconds(options.ReconnectMaxSeconds));
+        nextAttempt = now + backoff;
+        var last = state.WorkQueue;
+        state.WorkQueue = new WorkQueueFigures(fault, faultSince, 0, 0, 0, 0, committed, rejected, last?.Workers ?? []);
+        if (first)
+        {
+            log.LogWarning(
+                "PostgreSQL is out of reach ({Message}); {Meanwhile}; trying again with backoff.",
+                ex.Message,
+                options.WhenUnreachable == "local" ? "embedding here meanwhile" : "embedding waits (Queue:WhenUnreachable = wait)");
+        }
+    }
+}

@@ -1,0 +1,231 @@
+using Npgsql;
+using NpgsqlTypes;
+
+namespace IndexKeeper.Service.WorkQueue;
+
+/// <summary>
+/// The statements on <c>jobs</c> (docs/work-queue.md): the coordinator publishes, withdraws, reads finished
+/// jobs and deletes them once committed; a worker claims with <c>FOR UPDATE SKIP LOCKED</c> under a lease,
+/// renews its leases and hands back. A worker's hand-back only lands while the job is still its own, so a
+/// job taken over after a lease expired has one result.
+/// </summary>
+internal sealed class JobTable(NpgsqlDataSource database)
+{
+    private const string Jobs = QueueSchema.Name + ".jobs";
+
+    /// <summary>Publishes jobs not already there (a page key under an encoder is one job); returns how many were new.</summary>
+    public int Publish(IReadOnlyList<PageJob> jobs)
+    {
+        ArgumentNullException.ThrowIfNull(jobs);
+        if (jobs.Count == 0)
+        {
+            return 0;
+        }
+
+        using var command = database.CreateCommand($"""
+            INSERT INTO {Jobs} (page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority)
+            SELECT * FROM unnest(@keys, @encoders, @roots, @paths, @pages, @hashes, @priorities)
+            ON CONFLICT (page_key, encoder_id) DO NOTHING
+            """);
+        command.Parameters.AddWithValue("keys", jobs.Select(j => j.PageKey).ToArray());
+        command.Parameters.AddWithValue("encoders", jobs.Select(j => j.EncoderId).ToArray());
+        command.Parameters.AddWithValue("roots", jobs.Select(j => j.RootName).ToArray());
+        command.Parameters.AddWithValue("paths", jobs.Select(j => j.RelativePath).ToArray());
+        command.Parameters.AddWithValue("pages", jobs.Select(j => j.PageNumber).ToArray());
+        command.Parameters.AddWithValue("hashes", jobs.Select(j => j.FileHash).ToArray());
+        command.Parameters.AddWithValue("priorities", NpgsqlDbType.Array | NpgsqlDbType.Smallint, jobs.Select(j => (short)j.Priority).ToArray());
+        return command.ExecuteNonQuery();
+    }
+
+    /// <summary>Page keys with a job under <paramref name="encoderId"/>, whatever its state (what the coordinator need not publish again).</summary>
+    public HashSet<string> Outstanding(string encoderId)
+    {
+        using var command = database.CreateCommand($"SELECT page_key FROM {Jobs} WHERE encoder_id = @encoder");
+        command.Parameters.AddWithValue("encoder", encoderId);
+        var keys = new HashSet<string>(StringComparer.Ordinal);
+        using var reader = command.ExecuteReader();
+        while (reader.Read())
+        {
+            keys.Add(reader.GetString(0));
+        }
+
+        return keys;
+    }
+
+    /// <summary>
+    /// Takes back the unclaimed jobs the gate no longer allows (priority numbers above <paramref name="lowestAllowed"/>;
+    /// -1 takes back all): a window's end stops bulk work on every machine. Returns their page keys.
+    /// </summary>
+    public IReadOnlyList<string> Withdraw(string encoderId, int lowestAllowed)
+    {
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id = @encoder AND state = {(int)JobState.Waiting} AND priority > @lowest RETURNING page_key");
+        command.Parameters.AddWithValue("encoder", encoderId);
+        command.Parameters.AddWithValue("lowest", lowestAllowed);
+        return Keys(command);
+    }
+
+    /// <summary>Takes back the unclaimed jobs of every encoder but <paramref name="activeEncoderId"/> (published before an encoder change); returns how many.</summary>
+    public int WithdrawOthers(string activeEncoderId)
+    {
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id <> @encoder AND state = {(int)JobState.Waiting}");
+        command.Parameters.AddWithValue("encoder", activeEncoderId);
+        return command.ExecuteNonQuery();
+    }
+
+    /// <summary>Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first.</summary>
+    public IReadOnlyList<FinishedJob> Finished(int limit)
+    {
+        using var command = database.CreateCommand($"""
+            SELECT page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority,
+                   state, worker, result_encoder_id, result, failure_kind, failure
+            FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})
+            ORDER BY finished_at LIMIT @limit
+            """);
+        command.Parameters.AddWithValue("limit", limit);
+        var finished = new List<FinishedJob>();
+        using var reader = command.ExecuteReader();
+        while (reader.Read())
+        {
+            finished.Add(new FinishedJob(
+                ReadJob(reader),
+                (JobState)reader.GetInt16(7),
+                reader.IsDBNull(8) ? null : reader.GetString(8),
+                reader.IsDBNull(9) ? null : reader.GetString(9),
+                reader.IsDBNull(10) ? null : reader.GetFieldValue<byte[]>(10),
+                reader.IsDBNull(11) ? null : (JobFailure)reader.GetInt16(11),
+                reader.IsDBNull(12) ? null : reader.GetString(12)));
+        }
+
+        return finished;
+    }
+
+    /// <summary>Deletes jobs the coordinator has dealt with (committed, or decided on): the table does not grow.</summary>
+    public void Delete(IReadOnlyList<PageJob> jobs)
+    {
+        ArgumentNullException.ThrowIfNull(jobs);
+        if (jobs.Count == 0)
+        {
+            return;
+        }
+
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} j USING unnest(@keys, @encoders) AS d(page_key, encoder_id) WHERE j.page_key = d.page_key AND j.encoder_id = d.encoder_id");
+        command.Parameters.AddWithValue("keys", jobs.Select(j => j.PageKey).ToArray());
+        command.Parameters.AddWithValue("encoders", jobs.Select(j => j.EncoderId).ToArray());
+        command.ExecuteNonQuery();
+    }
+
+    /// <summary>Jobs by state, and how many claimed ones have an expired lease (claimable again).</summary>
+    public (long Waiting, long Claimed, long Finished, long Expired) Counts()
+    {
+        using var command = database.CreateCommand($"""
+            SELECT count(*) FILTER (WHERE state = {(int)JobState.Waiting}),
+                   count(*) FILTER (WHERE state = {(int)JobState.Claimed}),
+                   count(*) FILTER (WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})),
+                   count(*) FILTER (WHERE state = {(int)JobState.Claimed} AND lease_until < now())
+            FROM {Jobs}
+            """);
+        using var reader = command.ExecuteReader();
+        reader.Read();
+        return (reader.GetInt64(0), reader.GetInt64(1), reader.GetInt64(2), reader.GetInt64(3));
+    }
+
+    /// <summary>
+    /// Claims up to <paramref name="count"/> jobs of <paramref name="encoderId"/> for <paramref name="worker"/>:
+    /// waiting ones, or claimed ones whose lease has expired, highest priority first. Rows another claim holds
+    /// are skipped, not waited for. Within one publication, pages of one document come together, so a worker
+    /// reads the document once for them (<see cref="JobPageReader"/>).
+    /// </summary>
+    public IReadOnlyList<ClaimedJob> Claim(string worker, string encoderId, int count, TimeSpan lease)
+    {
+        using var command = database.CreateCommand($"""
+            WITH picked AS (
+                SELECT page_key, encoder_id, state AS old_state FROM {Jobs}
+                WHERE encoder_id = @encoder
+                  AND (state = {(int)JobState.Waiting} OR (state = {(int)JobState.Claimed} AND lease_until < now()))
+                ORDER BY priority, published_at, root_name, relative_path, page_number
+                LIMIT @count
+                FOR UPDATE SKIP LOCKED)
+            UPDATE {Jobs} j SET state = {(int)JobState.Claimed}, worker = @worker, lease_until = now() + @lease, claims = j.claims + 1
+            FROM picked p WHERE j.page_key = p.page_key AND j.encoder_id = p.encoder_id
+            RETURNING j.page_key, j.encoder_id, j.root_name, j.relative_path, j.page_number, j.file_hash, j.priority, p.old_state
+            """);
+        command.Parameters.AddWithValue("encoder", encoderId);
+        command.Parameters.AddWithValue("count", count);
+        command.Parameters.AddWithValue("worker", worker);
+        command.Parameters.AddWithValue("lease", lease);
+        var claimed = new List<ClaimedJob>();
+        using var reader = command.ExecuteReader();
+        while (reader.Read())
+        {
+            claimed.Add(new ClaimedJob(ReadJob(reader), reader.GetInt16(7) == (short)JobState.Claimed));
+        }
+
+        return claimed;
+    }
+
+    /// <summary>Extends the leases <paramref name="worker"/> holds (with its heartbeat).</summary>
+    public void Renew(string worker, TimeSpan lease)
+    {
+        using var command = database.CreateCommand($"UPDATE {Jobs} SET lease_until = now() + @lease WHERE worker = @worker AND state = {(int)JobState.Claimed}");
+        command.Parameters.AddWithValue("worker", worker);
+        command.Parameters.AddWithValue("lease", lease);
+        command.ExecuteNonQuery();
+    }
+
+    /// <summary>Makes the claims <paramref name="worker"/> still holds claimable at once (a worker that stops); returns how many.</summary>
+    public int Release(string worker)
+    {
+        using var command = database.CreateCommand($"UPDATE {Jobs} SET state = {(int)JobState.Waiting}, worker = NULL, lease_until = NULL WHERE worker = @worker AND state = {(int)JobState.Claimed}");
+        command.Parameters.AddWithValue("worker", worker);
+        return command.ExecuteNonQuery();
+    }
+
+    /// <summary>Hands back a vector set; false when the job is no longer this worker's (its lease expired and another took it).</summary>
+    public bool Finish(string worker, PageJob job, string resultEncoderId, byte[] result)
+    {
+        ArgumentNullException.ThrowIfNull(job);
+        using var command = database.CreateCommand($"""
+            UPDATE {Jobs} SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result = @result, finished_at = now(), lease_until = NULL
+            WHERE page_key = @key AND encoder_id = @encoder AND worker = @worker AND state = {(int)JobState.Claimed}
+            """);
+        command.Parameters.AddWithValue("result_encoder", resultEncoderId);
+        command.Parameters.AddWithValue("result", result);
+        return Mine(command, worker, job);
+    }
+
+    /// <summary>Gives a job back without vectors; false when it is no longer this worker's.</summary>
+    public bool Fail(string worker, PageJob job, JobFailure failure, string reason)
+    {
+        ArgumentNullException.ThrowIfNull(job);
+        using var command = database.CreateCommand($"""
+            UPDATE {Jobs} SET state = {(int)JobState.Failed}, failure_kind = @kind, failure = @reason, finished_at = now(), lease_until = NULL
+            WHERE page_key = @key AND encoder_id = @encoder AND worker = @worker AND state = {(int)JobState.Claimed}
+            """);
+        command.Parameters.AddWithValue("kind", (short)failure);
+        command.Parameters.AddWithValue("reason", reason);
+        return Mine(command, worker, job);
+    }
+
+    private static bool Mine(NpgsqlCommand command, string worker, PageJob job)
+    {
+        command.Parameters.AddWithValue("key", job.PageKey);
+        command.Parameters.AddWithValue("encoder", job.EncoderId);
+        command.Parameters.AddWithValue("worker", worker);
+        return command.ExecuteNonQuery() == 1;
+    }
+
+    private static PageJob ReadJob(NpgsqlDataReader reader) => new(
+        reader.GetString(0), reader.GetString(1), reader.GetString(2), reader.GetString(3), reader.GetInt32(4), reader.GetString(5), reader.GetInt16(6));
+
+    private static List<string> Keys(NpgsqlCommand command)
+    {
+        var keys = new List<string>();
+        using var reader = command.ExecuteReader();
+        while (reader.Read())
+        {
+            keys.Add(reader.GetString(0));
+        }
+
+        return keys;
+    }
+}

@@ -1,0 +1,184 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.Text.Json;
+using IndexKeeper.Tests.WorkQueue;
+
+namespace IndexKeeper.Benchmarks;
+
+/// <summary>
+/// Embedding through the work queue (docs/work-queue.md) on this machine: the same queued pages embedded by
+/// one local <c>sync</c>, then by a coordinator (<c>run</c>) with 1 and with 2 <c>worker</c> processes
+/// (intra-op threads 1 each) over a throwaway PostgreSQL; pages per second, the coordinator's CPU per page,
+/// PostgreSQL transactions per page, and a projection for N machines. Every run starts from the same
+/// scanned index (pages queued, reading done), so the figures are the embedding alone.
+/// </summary>
+public sealed class WorkQueueBenchmark : IBenchmark
+{
+    public string Name => "workqueue";
+
+    public void Run(BenchmarkContext context)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        var work = context.WorkDirectory;
+        var roots = context.Quick ? EmbedBenchmark.SmokeStore(Path.Combine(work, "store")) : EmbedBenchmark.DemoRoots(context, Path.Combine(work, "store"));
+        string[] encoder = context.Quick ? ["--Encoder:Name=hashed-terms"] : ["--Encoder:Name=minilm", "--Encoder:IntraOpThreads=1"];
+        var rootArgs = roots.SelectMany(r => new[] { "--root", r.Path }).ToArray();
+        context.Note($"encoder: {string.Join(' ', encoder)}");
+
+        // The scanned index every run starts from: pages read and queued, nothing embedded.
+        var scanned = Path.Combine(work, "scanned");
+        var scan = Cli(work, ["scan", "--index", scanned, .. rootArgs, .. encoder, "--json"]);
+        var pages = scan.GetProperty("pagesNew").GetInt64();
+        context.Report("pages queued (distinct page keys)", pages, "pages");
+
+        var local = Copy(scanned, Path.Combine(work, "local"));
+        var clock = Stopwatch.StartNew();
+        var sync = Cli(work, ["sync", "--index", local, .. rootArgs, .. encoder, "--json"]);
+        var localSeconds = clock.Elapsed.TotalSeconds;
+        var localRate = sync.GetProperty("pagesEmbedded").GetInt64() / localSeconds;
+        context.Report("local sync: pages embedded per second", localRate, "pages/s");
+        context.Report("local sync: wall time per page", localSeconds / pages * 1000, "ms");
+
+        using var server = new PostgresServer();
+        var rates = new Dictionary<int, double>();
+        foreach (var workers in new[] { 1, 2 })
+        {
+            var (rate, coordinatorMsPerPage, transactionsPerPage, encoderRate) = Distributed(context, server, scanned, work, rootArgs, encoder, workers, pages);
+            rates[workers] = rate;
+            context.Report($"{workers} worker(s): pages embedded per second", rate, "pages/s");
+            context.Report($"{workers} worker(s): coordinator CPU per page beyond its idle cost", coordinatorMsPerPage, "ms");
+            context.Report($"{workers} worker(s): PostgreSQL transactions per page (coordinator and workers)", transactionsPerPage, "tx");
+            context.Report($"{workers} worker(s): each worker's pages per encoder-second (mean)", encoderRate, "pages/s");
+            if (workers == 2)
+            {
+                // Ten machines like this one, two workers each: the coordinator's share of one core.
+                context.Report("projection: coordinator busy share with 10 such machines", 10 * rate * coordinatorMsPerPage / 1000, "share");
+            }
+        }
+
+        context.Report("2 workers against 1", rates[2] / rates[1], "x");
+        context.Report("1 worker against local sync", rates[1] / localRate, "x");
+    }
+
+    private static (double Rate, double CoordinatorMsPerPage, double TransactionsPerPage, double EncoderRate) Distributed(
+        BenchmarkContext context, PostgresServer server, string scanned, string work, string[] rootArgs, string[] encoder, int workers, long pages)
+    {
+        var database = server.CreateDatabase();
+        string[] queue = [$"--Queue:Connection={server.Connection(database)}", $"--Queue:PasswordFile={server.PasswordFile}", "--Queue:HeartbeatSeconds=0.5", "--Queue:LeaseSeconds=60"];
+        var folder = Path.Combine(work, $"workers-{workers}");
+        Directory.CreateDirectory(folder);
+        Copy(scanned, Path.Combine(folder, "index"));
+        using var daemon = DaemonProcess.Start(folder, [.. rootArgs, .. encoder, .. queue, "--Daemon:SampleSeconds=10"]);
+
+        var transactionsBefore = server.Scalar(database, "SELECT xact_commit FROM pg_stat_database WHERE datname = current_database()");
+        var processes = Enumerable.Range(0, workers).Select(i => StartWorker(folder, [.. rootArgs, .. encoder, .. queue, $"--Queue:WorkerName=w{i}"])).ToList();
+        try
+        {
+            // Done when the workers' heartbeats count every page and no job is left: committed and deleted. Looked
+            // at once a second; the look's own two transactions a time are taken off the count below.
+            var looks = 0;
+            var lastLook = Stopwatch.StartNew();
+            var usage = daemon.Sample(
+                () =>
+                {
+                    if (lastLook.Elapsed < TimeSpan.FromSeconds(1))
+                    {
+                        return false;
+                    }
+
+                    lastLook.Restart();
+                    looks++;
+                    return server.Scalar(database, "SELECT coalesce(sum(pages_done), 0) FROM indexkeeper_queue.workers") >= pages
+                        && server.Scalar(database, "SELECT count(*) FROM indexkeeper_queue.jobs") == 0;
+                },
+                TimeSpan.FromHours(1));
+            var transactions = server.Scalar(database, "SELECT xact_commit FROM pg_stat_database WHERE datname = current_database()") - transactionsBefore - (2 * looks);
+            using var connection = server.Admin(database);
+            using var command = connection.CreateCommand();
+            command.CommandText = "SELECT avg(pages_done / nullif(encoder_seconds, 0)) FROM indexkeeper_queue.workers";
+            var encoderRate = Convert.ToDouble(command.ExecuteScalar(), CultureInfo.InvariantCulture);
+            var live = daemon.Get("/api/status").GetProperty("liveVectorSets").GetInt64();
+            if (live != pages)
+            {
+                throw new InvalidOperationException($"{live} live vector sets for {pages} pages");
+            }
+
+            // The coordinator's own idle cost afterwards (loop tick, samples, a look at the queue), the workers stopped, to subtract.
+            StopAll(processes);
+            var idle = daemon.Sample(() => false, TimeSpan.FromSeconds(context.Quick ? 5 : 20));
+            context.Note(FormattableString.Invariant($"{workers} worker(s): {usage.Seconds:0.0} s, coordinator {usage.CpuShare:P1} of a core (idle after: {idle.CpuShare:P1}), peak {usage.PeakRssMegabytes:0} MB"));
+            context.Report($"{workers} worker(s): coordinator CPU per page, idle cost included", usage.CpuShare * usage.Seconds / pages * 1000, "ms");
+            var net = Math.Max(0, usage.CpuShare - idle.CpuShare) * usage.Seconds / pages * 1000;
+            return (pages / usage.Seconds, net, (double)transactions / pages, encoderRate);
+        }
+        finally
+        {
+            StopAll(processes);
+            processes.ForEach(p => p.Dispose());
+            daemon.Stop();
+        }
+    }
+
+    private static void StopAll(List<Process> processes)
+    {
+        foreach (var process in processes)
+        {
+            if (!process.HasExited)
+            {
+                process.Kill(entireProcessTree: true);
+            }
+
+            process.WaitForExit();
+        }
+    }
+
+    private static Process StartWorker(string folder, string[] args)
+    {
+        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = folder, RedirectStandardError = true, RedirectStandardOutput = true };
+        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"), "worker" }.Concat(args))
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        var process = Process.Start(start)!;
+        process.ErrorDataReceived += (_, _) => { };
+        process.OutputDataReceived += (_, _) => { };
+        process.BeginErrorReadLine();
+        process.BeginOutputReadLine();
+        return process;
+    }
+
+    private static JsonElement Cli(string folder, string[] args)
+    {
+        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = folder, RedirectStandardError = true, RedirectStandardOutput = true };
+        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll") }.Concat(args))
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        using var process = Process.Start(start)!;
+        var stderr = process.StandardError.ReadToEndAsync();
+        var stdout = process.StandardOutput.ReadToEnd();
+        process.WaitForExit();
+        if (process.ExitCode != 0)
+        {
+            throw new InvalidOperationException($"indexkeeper {args[0]} exited {process.ExitCode}: {stderr.Result}");
+        }
+
+        using var json = JsonDocument.Parse(stdout);
+        return json.RootElement.Clone();
+    }
+
+    /// <summary>A copy of an index folder (closed): every run starts from the same queue.</summary>
+    private static string Copy(string from, string to)
+    {
+        foreach (var file in Directory.EnumerateFiles(from, "*", SearchOption.AllDirectories))
+        {
+            var target = Path.Combine(to, Path.GetRelativePath(from, file));
+            Directory.CreateDirectory(Path.GetDirectoryName(target)!);
+            File.Copy(file, target);
+        }
+
+        return to;
+    }
+}

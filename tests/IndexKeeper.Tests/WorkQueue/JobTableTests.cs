@@ -1,0 +1,124 @@
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.WorkQueue;
+using Npgsql;
+
+namespace IndexKeeper.Tests.WorkQueue;
+
+/// <summary>
+/// The job statements on a real PostgreSQL: a job is claimed by one worker at a time, only by a worker of its
+/// encoder id; an expired lease lets another take it over, and the first holder's late hand-back is refused.
+/// Leases are made expired by claiming with a lease already over, never by waiting.
+/// </summary>
+[Collection(PostgresCollection.Name)]
+public sealed class JobTableTests(PostgresServer server) : IDisposable
+{
+    private const string Encoder = "1111111111111111111111111111111111111111111111111111111111111111";
+    private const string OtherEncoder = "2222222222222222222222222222222222222222222222222222222222222222";
+
+    private readonly NpgsqlDataSource database = Open(server);
+
+    private JobTable Jobs => new(database);
+
+    private static NpgsqlDataSource Open(PostgresServer server)
+    {
+        var source = QueueDatabase.Create(new QueueOptions { Connection = server.Connection(server.CreateDatabase()), PasswordFile = server.PasswordFile }, "indexkeeper-test");
+        QueueSchema.Ensure(source);
+        return source;
+    }
+
+    private static PageJob Job(int i, string encoder = Encoder, int priority = 0) =>
+        new(i.ToString("x64", System.Globalization.CultureInfo.InvariantCulture), encoder, "docs", $"f{i}.pdf", 1, new string('e', 64), priority);
+
+    [Fact]
+    public void Publishing_twice_makes_one_job()
+    {
+        Assert.Equal(3, Jobs.Publish([Job(1), Job(2), Job(3)]));
+        Assert.Equal(1, Jobs.Publish([Job(3), Job(4)]));
+        Assert.Equal(4, Jobs.Outstanding(Encoder).Count);
+    }
+
+    [Fact]
+    public void Concurrent_claims_never_share_a_job()
+    {
+        Jobs.Publish(Enumerable.Range(1, 200).Select(i => Job(i)).ToList());
+        var claimed = new System.Collections.Concurrent.ConcurrentBag<string>();
+        Parallel.For(0, 4, w =>
+        {
+            var table = new JobTable(database);
+            while (table.Claim("w" + w, Encoder, 3, TimeSpan.FromMinutes(5)) is { Count: > 0 } got)
+            {
+                foreach (var job in got)
+                {
+                    claimed.Add(job.Job.PageKey);
+                }
+            }
+        });
+        Assert.Equal(200, claimed.Count);
+        Assert.Equal(200, claimed.Distinct().Count());
+    }
+
+    [Fact]
+    public void A_worker_of_another_encoder_claims_nothing()
+    {
+        Jobs.Publish([Job(1), Job(2)]);
+        Assert.Empty(Jobs.Claim("other", OtherEncoder, 10, TimeSpan.FromMinutes(5)));
+        Assert.Equal(2, Jobs.Claim("same", Encoder, 10, TimeSpan.FromMinutes(5)).Count);
+    }
+
+    [Fact]
+    public void Higher_priority_is_claimed_first()
+    {
+        Jobs.Publish([Job(1, priority: 1), Job(2, priority: 0)]);
+        Assert.Equal(Job(2).PageKey, Assert.Single(Jobs.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5))).Job.PageKey);
+    }
+
+    [Fact]
+    public void Expired_lease_is_taken_over_and_the_first_holder_cannot_hand_back()
+    {
+        Jobs.Publish([Job(1)]);
+        var first = Assert.Single(Jobs.Claim("first", Encoder, 1, TimeSpan.FromSeconds(-1)));
+        Assert.False(first.TakenOver);
+
+        var second = Assert.Single(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.True(second.TakenOver);
+        Assert.False(Jobs.Finish("first", first.Job, Encoder, [1, 2, 3]));
+        Assert.True(Jobs.Finish("second", second.Job, Encoder, [4, 5, 6]));
+
+        var finished = Assert.Single(Jobs.Finished(10));
+        Assert.Equal("second", finished.Worker);
+        Assert.Equal(new byte[] { 4, 5, 6 }, finished.Result);
+    }
+
+    [Fact]
+    public void A_live_lease_is_not_taken_over()
+    {
+        Jobs.Publish([Job(1)]);
+        Assert.Single(Jobs.Claim("first", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.Empty(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
+    }
+
+    [Fact]
+    public void Withdraw_takes_back_only_unclaimed_jobs_the_gate_no_longer_allows()
+    {
+        Jobs.Publish([Job(1, priority: 0), Job(2, priority: 1), Job(3, priority: 1)]);
+        var claimed = Assert.Single(Jobs.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.Equal(Job(1).PageKey, claimed.Job.PageKey);
+        Assert.Equal(2, Jobs.Withdraw(Encoder, 0).Count);
+        Assert.Empty(Jobs.Withdraw(Encoder, -1));
+        Assert.Single(Jobs.Outstanding(Encoder));
+    }
+
+    [Fact]
+    public void Released_claims_are_claimable_at_once_and_deleted_jobs_are_gone()
+    {
+        Jobs.Publish([Job(1), Job(2)]);
+        Jobs.Claim("w", Encoder, 2, TimeSpan.FromMinutes(5));
+        Assert.Equal(2, Jobs.Release("w"));
+        var again = Jobs.Claim("v", Encoder, 2, TimeSpan.FromMinutes(5));
+        Assert.Equal(2, again.Count);
+        Jobs.Delete(again.Select(c => c.Job).ToList());
+        Assert.Empty(Jobs.Outstanding(Encoder));
+    }
+
+    public void Dispose() => database.Dispose();
+}
