@@ -81,8 +81,9 @@ internal static class DaemonApi
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
         app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
         app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
+        var metrics = services.GetRequiredService<DaemonMetrics>();
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken));
+            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken)));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.

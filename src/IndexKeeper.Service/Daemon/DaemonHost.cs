@@ -164,6 +164,8 @@ public static class DaemonHost
             TimeSpan.FromHours(options.Detect.RootGoneGraceHours),
             sp.GetRequiredService<DaemonState>(),
             sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.Watch")));
+        builder.Services.AddSingleton(new HealthLimits(
+            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes)));
         builder.Services.AddSingleton<DaemonMetrics>();
         builder.Services.AddSingleton<IndexWorker>();
         builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
@@ -172,9 +174,7 @@ public static class DaemonHost
 
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
-        var limits = new HealthLimits(
-            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes));
-        DaemonApi.Map(app, options, limits, listen, token);
+        DaemonApi.Map(app, options, app.Services.GetRequiredService<HealthLimits>(), listen, token);
         return app;
     }
 }
