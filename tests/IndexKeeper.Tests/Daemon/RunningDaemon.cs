@@ -49,12 +49,20 @@ internal sealed class RunningDaemon : IDisposable
         return tokenFile;
     }
 
-    /// <summary>Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c> and the given arguments, and waits for its API.</summary>
-    public static RunningDaemon Start(string workingDirectory, IReadOnlyList<string> args, string? token = null)
+    /// <summary>
+    /// Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c>, the given arguments and
+    /// environment variables, and waits for its API.
+    /// </summary>
+    public static RunningDaemon Start(string workingDirectory, IReadOnlyList<string> args, string? token = null, IReadOnlyDictionary<string, string>? environment = null)
     {
         var indexDirectory = Path.Combine(workingDirectory, "index");
         DaemonEndpoint.Remove(indexDirectory);
         var start = CliRunner.StartInfo(workingDirectory, ["run", "--index", "index", "--listen", "127.0.0.1:0", .. args]);
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[name] = value;
+        }
+
         var process = new Process { StartInfo = start };
         var errors = new ConcurrentQueue<string>();
         process.ErrorDataReceived += (_, e) =>
