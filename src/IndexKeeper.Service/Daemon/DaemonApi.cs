@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Health;
+using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Planning;
@@ -80,7 +81,8 @@ internal static class DaemonApi
         });
         app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
         app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
-        app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
+        var calendar = ScheduleSetup.Calendar(options.Schedule);
+        app.MapGet("/api/daemon", () => Results.Json(Report(options, calendar, index, state, limits), ApiJson.Options));
         var metrics = services.GetRequiredService<DaemonMetrics>();
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
             metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken)));
@@ -95,21 +97,25 @@ internal static class DaemonApi
             Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
     }
 
-    private static DaemonReport Report(IndexKeeperOptions options, OpenIndex index, DaemonState state, HealthLimits limits)
+    private static DaemonReport Report(IndexKeeperOptions options, WindowCalendar calendar, OpenIndex index, DaemonState state, HealthLimits limits)
     {
         var figures = state.Figures;
         var allowance = state.Allowance;
+        var zone = calendar.Zone;
+        DateTimeOffset? InZone(DateTimeOffset? at) => at is { } t ? TimeZoneInfo.ConvertTime(t, zone) : null;
         return new DaemonReport
         {
-            Started = state.Started,
-            LastFullWalk = state.LastFullWalk,
+            Started = TimeZoneInfo.ConvertTime(state.Started, zone),
+            LastFullWalk = InZone(state.LastFullWalk),
             PagesPerSecond = Math.Round(state.PagesPerSecond, 3),
             PagesEmbedded = state.PagesEmbedded,
             WatcherOverflows = state.WatcherOverflows,
             WindowOpen = allowance.WindowOpen,
-            WindowEnd = allowance.WindowEnd,
+            WindowEnd = InZone(allowance.WindowEnd),
+            NextWindowOpens = InZone(NextOpening(calendar, state.Clock.GetUtcNow())),
             Windows = options.Schedule.EffectiveWindows,
-            TimeZone = ScheduleSetup.Zone(options.Schedule).Id,
+            TimeZone = zone.HasIanaId || !TimeZoneInfo.TryConvertWindowsIdToIanaId(zone.Id, out var iana) ? zone.Id : iana,
+            Migration = figures.Migration with { ExpectedFinish = InZone(figures.Migration.ExpectedFinish) },
             QueuedFresh = figures.QueuedFresh,
             QueuedMigration = figures.QueuedMigration,
             QueuedCanary = figures.QueuedCanary,
@@ -122,5 +128,17 @@ internal static class DaemonApi
             }).ToList(),
             Samples = state.Samples.Snapshot(),
         };
+    }
+
+    /// <summary>The next instant a window opens: the next change when closed, the change after the current window's end when open.</summary>
+    private static DateTimeOffset? NextOpening(WindowCalendar calendar, DateTimeOffset now)
+    {
+        var change = calendar.NextChange(now);
+        if (change != DateTimeOffset.MaxValue && calendar.IsOpen(now))
+        {
+            change = calendar.NextChange(change);
+        }
+
+        return change == DateTimeOffset.MaxValue ? null : change;
     }
 }

@@ -8,7 +8,7 @@ namespace IndexKeeper.Service.Daemon;
 /// <param name="Pages">Pages (distinct page keys) the documents show.</param>
 /// <param name="ExpectedFinish">When the last migration page is expected to be embedded, through the windows and budget at the measured rate; null when there is no estimate (see <paramref name="NotInSight"/>).</param>
 /// <param name="NotInSight">True when the work does not finish within the forecast's horizon (e.g. no window at all); false when only the rate is unknown.</param>
-internal sealed record MigrationFigures(
+public sealed record MigrationFigures(
     string ServingEncoder,
     string ServingEncoderId,
     string ActiveEncoder,
