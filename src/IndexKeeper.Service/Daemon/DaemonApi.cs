@@ -2,7 +2,10 @@ using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Planning;
+using IndexKeeper.Service.Querying;
+using Microsoft.OpenApi;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Http;
 using Microsoft.Extensions.DependencyInjection;
@@ -70,32 +73,40 @@ internal static class DaemonApi
                 // A failed question is the caller's answer, with its reason; the daemon goes on.
                 app.Logger.LogError(ex, "{Path} failed: {Message}", context.Request.Path, ex.Message);
                 context.Response.StatusCode = StatusCodes.Status500InternalServerError;
-                await context.Response.WriteAsJsonAsync(new { error = ex.Message }, ApiJson.Options).ConfigureAwait(false);
+                await context.Response.WriteAsJsonAsync(new ApiError(ex.Message), ApiJson.Options).ConfigureAwait(false);
             }
         });
         app.MapPrometheusScrapingEndpoint("/metrics");
+        ApiContract.Map(app);
         app.MapGet("/health", () =>
         {
             var report = HealthRules.Evaluate(state.HealthSnapshot(), limits);
             return Results.Json(report, ApiJson.Options, statusCode: report.Status == HealthStatus.Unhealthy ? 503 : 200);
-        });
-        app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
-        app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options));
+        }).Produces<HealthReport>().Produces<HealthReport>(StatusCodes.Status503ServiceUnavailable);
+        app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8")).ExcludeFromDescription();
+        app.MapGet("/api/status", () => Results.Json(status.Read(), ApiJson.Options)).Produces<StatusReport>().Errors();
         var calendar = ScheduleSetup.Calendar(options.Schedule);
-        app.MapGet("/api/daemon", () => Results.Json(Report(options, calendar, index, state, limits), ApiJson.Options));
+        app.MapGet("/api/daemon", () => Results.Json(Report(options, calendar, index, state, limits), ApiJson.Options)).Produces<DaemonReport>().Errors();
         var metrics = services.GetRequiredService<DaemonMetrics>();
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken)));
+            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.Search, state, cancellationToken)))
+            .Produces<SearchReport>().Produces<ApiError>(StatusCodes.Status400BadRequest).Errors()
+            .QueryParameters(
+                ("q", JsonSchemaType.String, true, "The query text, once (Query:MaxCharacters, Query:MaxTerms)."),
+                ("k", JsonSchemaType.Integer, false, "Pages in the answer, 10 by default (Query:MaxResults)."));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
             var wantCalibration = calibrate is "1" or "true";
             var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration), CancellationToken.None)).ConfigureAwait(false);
             return Results.Json(report, ApiJson.Options);
-        });
+        }).Produces<PlanReport>().Errors();
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
-            Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
+            Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options)).Produces<DocumentListReport>().Errors();
     }
+
+    /// <summary>A question that fails is answered 500 with its reason.</summary>
+    private static RouteHandlerBuilder Errors(this RouteHandlerBuilder endpoint) => endpoint.Produces<ApiError>(StatusCodes.Status500InternalServerError);
 
     private static DaemonReport Report(IndexKeeperOptions options, WindowCalendar calendar, OpenIndex index, DaemonState state, HealthLimits limits)
     {

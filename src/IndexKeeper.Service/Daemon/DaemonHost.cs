@@ -153,6 +153,7 @@ public static class DaemonHost
         builder.Services.AddSingleton(new HealthLimits(
             TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes)));
         builder.Services.AddSingleton<DaemonMetrics>();
+        ApiContract.AddTo(builder.Services);
         builder.Services.AddSingleton<IndexWorker>();
         builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
 
