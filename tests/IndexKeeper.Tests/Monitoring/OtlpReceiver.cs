@@ -1,6 +1,6 @@
 using System.Collections.Concurrent;
 using System.Net;
-using System.Net.Sockets;
+using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Monitoring;
 
@@ -15,12 +15,7 @@ internal sealed class OtlpReceiver : IDisposable
 
     public OtlpReceiver()
     {
-        using (var probe = new TcpListener(IPAddress.Loopback, 0))
-        {
-            probe.Start();
-            Port = ((IPEndPoint)probe.LocalEndpoint).Port;
-        }
-
+        Port = LoopbackPort.Free();
         listener.Prefixes.Add($"http://127.0.0.1:{Port}/");
         listener.Start();
         loop = Task.Run(Serve);

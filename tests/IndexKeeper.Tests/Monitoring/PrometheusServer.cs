@@ -1,6 +1,5 @@
 using System.Diagnostics;
 using System.Net;
-using System.Net.Sockets;
 using System.Text.Json;
 using IndexKeeper.Tests.Support;
 
@@ -18,7 +17,7 @@ internal sealed class PrometheusServer : IDisposable
 
     public PrometheusServer(Uri target, string ruleFile)
     {
-        var port = FreePort();
+        var port = LoopbackPort.Free();
         var config = home.Write("prometheus.yml", $$"""
             global:
               scrape_interval: 1s
@@ -99,13 +98,5 @@ internal sealed class PrometheusServer : IDisposable
 
         process.Dispose();
         home.Dispose();
-    }
-
-    /// <summary>A loopback port free a moment ago (the OS picks it); Prometheus takes it right after.</summary>
-    private static int FreePort()
-    {
-        using var listener = new TcpListener(IPAddress.Loopback, 0);
-        listener.Start();
-        return ((IPEndPoint)listener.LocalEndpoint).Port;
     }
 }
