@@ -26,6 +26,19 @@ public sealed class DocumentTable
     public IReadOnlyDictionary<DocumentKind, long> LiveByKind() =>
         documents.Find(d => d.State == DocumentState.Live).GroupBy(d => d.Kind).ToDictionary(g => g.Key, g => g.LongCount());
 
+    /// <summary>Per-root totals for the daemon's figures; reads only the fields it counts.</summary>
+    public IReadOnlyList<RootTotals> TotalsByRoot() =>
+        documents.Query().Select(d => new { d.Root, d.State, d.Size, Pages = d.PageKeys.Count }).ToEnumerable()
+            .GroupBy(d => d.Root, StringComparer.Ordinal)
+            .Select(g => new RootTotals(
+                g.Key,
+                g.LongCount(d => d.State == DocumentState.Live),
+                g.LongCount(d => d.State == DocumentState.Quarantined),
+                g.Where(d => d.State == DocumentState.Live).Sum(d => (long)d.Pages),
+                g.Where(d => d.State == DocumentState.Live).Sum(d => d.Size)))
+            .OrderBy(t => t.Root, StringComparer.Ordinal)
+            .ToList();
+
     public IEnumerable<string> RootNames() => documents.Query().Select(d => d.Root).ToEnumerable().Distinct(StringComparer.Ordinal);
 
     /// <summary>Live documents holding a page key: where a search hit is shown.</summary>

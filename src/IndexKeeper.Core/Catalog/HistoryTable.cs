@@ -30,6 +30,17 @@ public sealed class HistoryTable
     public IReadOnlyList<ScanRecord> Embeds(string encoderId, int count) =>
         scans.Query().Where(s => s.Command == EmbedCommand && s.EncoderId == encoderId).OrderByDescending(s => s.Id).Limit(count).ToList();
 
+    /// <summary>
+    /// Encoder seconds and vectors per page measured over the latest <paramref name="runs"/> embed records of one
+    /// encoder (the plan's and the daemon's forecasts); null before the encoder embedded any page.
+    /// </summary>
+    public (double SecondsPerPage, double VectorsPerPage)? MeasuredThroughput(string encoderId, int runs)
+    {
+        var history = Embeds(encoderId, runs);
+        var pages = history.Sum(h => h.Counts.GetValueOrDefault("pagesEmbedded"));
+        return pages > 0 ? (history.Sum(h => h.EncoderSeconds) / pages, (double)history.Sum(h => h.Counts.GetValueOrDefault("vectorsWritten")) / pages) : null;
+    }
+
     /// <summary>When the last scan pass (not an embed record) started.</summary>
     public DateTime? LastScanUtc() => LastScan()?.StartedUtc.ToUniversalTime();
 

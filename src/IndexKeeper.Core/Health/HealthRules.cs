@@ -10,6 +10,16 @@ namespace IndexKeeper.Core.Health;
 /// </summary>
 public static class HealthRules
 {
+    /// <summary>
+    /// Every code a rule can give. Metrics expose one series per code (0 while the reason is absent), so an
+    /// alert or a dashboard sees each code before it first occurs; a test keeps this list and the rules in step.
+    /// </summary>
+    public static IReadOnlyList<string> Codes { get; } =
+    [
+        "work-loop-stopped", "work-loop-retrying", "search-failing", "index-damaged", "disk-critical", "disk-low", "root-missing",
+        "watcher-lost", "full-walk-overdue", "backlog-past-window", "migration-running", "canary-drift", "dead-ratio-high", "quarantine-growing",
+    ];
+
     public static HealthReport Evaluate(HealthSnapshot snapshot, HealthLimits limits)
     {
         ArgumentNullException.ThrowIfNull(snapshot);

@@ -19,8 +19,8 @@ namespace IndexKeeper.Service.Application;
 /// </summary>
 public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanOperation scan, DriftOperation drift, CompactOperation compact)
 {
-    /// <summary>Embed runs the throughput is averaged over (newest first).</summary>
-    private const int HistoryRuns = 20;
+    /// <summary>Embed runs of the active encoder whose measured throughput the plan uses (the daemon's forecast too).</summary>
+    internal const int HistoryRuns = 20;
 
     /// <summary>Queued and drifted pages attributed to folders one lookup each; past this they are counted unattributed.</summary>
     private const int AttributionLimit = 20_000;
@@ -164,12 +164,9 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             notes.Add("Nothing to calibrate on: neither the index nor the pending changes hold a page.");
         }
 
-        var history = index.Catalog.History.Embeds(index.Encoder.Identity.Id, HistoryRuns);
-        var pages = history.Sum(h => h.Counts.GetValueOrDefault("pagesEmbedded"));
-        if (pages > 0)
+        if (index.Catalog.History.MeasuredThroughput(index.Encoder.Identity.Id, HistoryRuns) is { } recent)
         {
-            var vectors = history.Sum(h => h.Counts.GetValueOrDefault("vectorsWritten"));
-            return ("history", history.Sum(h => h.EncoderSeconds) / pages, (double)vectors / pages);
+            return ("history", recent.SecondsPerPage, recent.VectorsPerPage);
         }
 
         if (!calibrate)

@@ -24,11 +24,21 @@ public sealed class DaemonOptions
     /// <summary>Time a stop request (SIGTERM, service stop, Ctrl+C) has to finish the batch in flight and seal.</summary>
     public double ShutdownGraceSeconds { get; set; } = 30;
 
-    /// <summary><c>text</c> or <c>json</c> (one JSON object per line on stderr).</summary>
-    public string LogFormat { get; set; } = "text";
+    /// <summary>
+    /// <c>auto</c> (systemd's format when stderr goes to the journal, else text), <c>text</c>, <c>json</c> (one JSON
+    /// object per line) or <c>systemd</c> (a syslog priority prefix per line, which journald reads as the level). All on stderr.
+    /// </summary>
+    public string LogFormat { get; set; } = "auto";
 
-    /// <summary>OTLP endpoint (e.g. http://127.0.0.1:4317) for metrics and traces; empty: no export.</summary>
+    /// <summary>
+    /// OTLP endpoint for metrics and traces: the collector's base URL (e.g. http://127.0.0.1:4317 for gRPC,
+    /// http://127.0.0.1:4318 for http/protobuf, which gets /v1/metrics and /v1/traces appended). Empty: the standard
+    /// OTEL_EXPORTER_OTLP_* variables decide, and without them nothing is exported.
+    /// </summary>
     public string? OtlpEndpoint { get; set; }
+
+    /// <summary>OTLP transport for <see cref="OtlpEndpoint"/>: <c>grpc</c> or <c>http/protobuf</c> (the OTLP specification's names).</summary>
+    public string OtlpProtocol { get; set; } = "grpc";
 
     /// <summary>Seconds between samples of the figures (metrics, status page chart, health).</summary>
     public double SampleSeconds { get; set; } = 10;

@@ -30,9 +30,14 @@ internal static class DaemonOptionsRules
             errors.Add("Daemon:Token: use at least 16 characters.");
         }
 
-        if (daemon.LogFormat is not ("text" or "json"))
+        if (daemon.LogFormat is not ("auto" or "text" or "json" or "systemd"))
         {
-            errors.Add($"Daemon:LogFormat: '{daemon.LogFormat}' is not allowed; use text or json.");
+            errors.Add($"Daemon:LogFormat: '{daemon.LogFormat}' is not allowed; use auto, text, json or systemd.");
+        }
+
+        if (daemon.OtlpProtocol is not ("grpc" or "http/protobuf"))
+        {
+            errors.Add($"Daemon:OtlpProtocol: '{daemon.OtlpProtocol}' is not allowed; use grpc or http/protobuf.");
         }
 
         if (!string.IsNullOrWhiteSpace(daemon.OtlpEndpoint) && !Uri.TryCreate(daemon.OtlpEndpoint, UriKind.Absolute, out _))

@@ -1,7 +1,11 @@
 using IndexKeeper.Core.Health;
+using IndexKeeper.Core.Scheduling;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.Hosting;
 using IndexKeeper.Service.Planning;
+using IndexKeeper.Service.Querying;
+using Microsoft.OpenApi;
 using Microsoft.AspNetCore.Builder;
 using Microsoft.AspNetCore.Http;
 using Microsoft.Extensions.DependencyInjection;
@@ -69,25 +73,38 @@ internal static class DaemonApi
                 // A failed question is the caller's answer, with its reason; the daemon goes on.
                 app.Logger.LogError(ex, "{Path} failed: {Message}", context.Request.Path, ex.Message);
                 context.Response.StatusCode = StatusCodes.Status500InternalServerError;
-                await context.Response.WriteAsJsonAsync(new { error = ex.Message }, ApiJson.Options).ConfigureAwait(false);
+                await context.Response.WriteAsJsonAsync(new ApiError(ex.Message), ApiJson.Options).ConfigureAwait(false);
             }
         });
         app.MapPrometheusScrapingEndpoint("/metrics");
+        ApiContract.Map(app);
         app.MapGet("/health", () =>
         {
             var report = HealthRules.Evaluate(state.HealthSnapshot(), limits);
             return Results.Json(report, ApiJson.Options, statusCode: report.Status == HealthStatus.Unhealthy ? 503 : 200);
-        });
-        app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8"));
+        }).Produces<HealthReport>().Produces<HealthReport>(StatusCodes.Status503ServiceUnavailable);
+        app.MapGet("/", () => Results.Text(StatusPageResource.Html, "text/html; charset=utf-8")).ExcludeFromDescription();
         app.MapGet("/api/status", () =>
         {
             var report = status.Read();
             report.WorkQueue = state.WorkQueue;
             return Results.Json(report, ApiJson.Options);
-        });
-        app.MapGet("/api/daemon", () => Results.Json(Report(options, index, state, limits), ApiJson.Options));
+        }).Produces<StatusReport>().Errors();
+        var calendar = ScheduleSetup.Calendar(options.Schedule);
+        app.MapGet("/api/daemon", () => Results.Json(Report(options, calendar, index, state, limits), ApiJson.Options)).Produces<DaemonReport>().Errors();
+        var metrics = services.GetRequiredService<DaemonMetrics>();
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken));
+            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken)))
+            .Produces<SearchReport>().Produces<ApiError>(StatusCodes.Status400BadRequest).Errors()
+            .QueryParameters(
+                ("q", JsonSchemaType.String, true, "The query text, once (Query:MaxCharacters, Query:MaxTerms)."),
+                ("k", JsonSchemaType.Integer, false, "Pages in the answer, 10 by default (Query:MaxResults)."),
+                ("root", JsonSchemaType.String, false, "Only pages of this root; may repeat (docs/search.md, filters)."),
+                ("folder", JsonSchemaType.String, false, "Only pages of documents whose path matches this glob; may repeat."),
+                ("type", JsonSchemaType.String, false, "Only pages of documents of this type; may repeat."),
+                ("modified-since", JsonSchemaType.String, false, "Only documents modified at or after this ISO 8601 time."),
+                ("min-score", JsonSchemaType.Number, false, "Only hits scoring at least this."),
+                ("offset", JsonSchemaType.Integer, false, "Hits to skip, for paging; the answer's nextOffset gives the next page."));
         app.MapGet("/api/plan", async (string? calibrate) =>
         {
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
@@ -95,26 +112,33 @@ internal static class DaemonApi
             var workers = state.WorkQueue?.Workers;
             var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration) { Workers = workers }, CancellationToken.None)).ConfigureAwait(false);
             return Results.Json(report, ApiJson.Options);
-        });
+        }).Produces<PlanReport>().Errors();
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>
-            Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options));
+            Results.Json(documents.List(root, Math.Max(0, skip ?? 0), Math.Clamp(take ?? 100, 1, 10_000)), ApiJson.Options)).Produces<DocumentListReport>().Errors();
     }
 
-    private static DaemonReport Report(IndexKeeperOptions options, OpenIndex index, DaemonState state, HealthLimits limits)
+    /// <summary>A question that fails is answered 500 with its reason.</summary>
+    private static RouteHandlerBuilder Errors(this RouteHandlerBuilder endpoint) => endpoint.Produces<ApiError>(StatusCodes.Status500InternalServerError);
+
+    private static DaemonReport Report(IndexKeeperOptions options, WindowCalendar calendar, OpenIndex index, DaemonState state, HealthLimits limits)
     {
         var figures = state.Figures;
         var allowance = state.Allowance;
+        var zone = calendar.Zone;
+        DateTimeOffset? InZone(DateTimeOffset? at) => at is { } t ? TimeZoneInfo.ConvertTime(t, zone) : null;
         return new DaemonReport
         {
-            Started = state.Started,
-            LastFullWalk = state.LastFullWalk,
+            Started = TimeZoneInfo.ConvertTime(state.Started, zone),
+            LastFullWalk = InZone(state.LastFullWalk),
             PagesPerSecond = Math.Round(state.PagesPerSecond, 3),
             PagesEmbedded = state.PagesEmbedded,
             WatcherOverflows = state.WatcherOverflows,
             WindowOpen = allowance.WindowOpen,
-            WindowEnd = allowance.WindowEnd,
+            WindowEnd = InZone(allowance.WindowEnd),
+            NextWindowOpens = InZone(NextOpening(calendar, state.Clock.GetUtcNow())),
             Windows = options.Schedule.EffectiveWindows,
-            TimeZone = ScheduleSetup.Zone(options.Schedule).Id,
+            TimeZone = zone.HasIanaId || !TimeZoneInfo.TryConvertWindowsIdToIanaId(zone.Id, out var iana) ? zone.Id : iana,
+            Migration = figures.Migration with { ExpectedFinish = InZone(figures.Migration.ExpectedFinish) },
             QueuedFresh = figures.QueuedFresh,
             QueuedMigration = figures.QueuedMigration,
             QueuedCanary = figures.QueuedCanary,
@@ -128,5 +152,17 @@ internal static class DaemonApi
             Samples = state.Samples.Snapshot(),
             WorkQueue = state.WorkQueue,
         };
+    }
+
+    /// <summary>The next instant a window opens: the next change when closed, the change after the current window's end when open.</summary>
+    private static DateTimeOffset? NextOpening(WindowCalendar calendar, DateTimeOffset now)
+    {
+        var change = calendar.NextChange(now);
+        if (change != DateTimeOffset.MaxValue && calendar.IsOpen(now))
+        {
+            change = calendar.NextChange(change);
+        }
+
+        return change == DateTimeOffset.MaxValue ? null : change;
     }
 }

@@ -11,14 +11,11 @@ using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
 using Microsoft.AspNetCore.Hosting.Server.Features;
 using Microsoft.AspNetCore.Server.Kestrel.Core;
+using Microsoft.Extensions.Configuration;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
 using Microsoft.Extensions.Logging.Console;
-using OpenTelemetry.Exporter;
-using OpenTelemetry.Metrics;
-using OpenTelemetry.Resources;
-using OpenTelemetry.Trace;
 
 namespace IndexKeeper.Service.Daemon;
 
@@ -146,43 +143,32 @@ public static class DaemonHost
         // work loop logs its own faults.
         builder.Logging.AddFilter("Microsoft.Extensions.Hosting.Internal.Host", LogLevel.Critical);
         builder.Logging.AddConsole(o => o.LogToStandardErrorThreshold = LogLevel.Trace);
-        if (daemon.LogFormat == "json")
+        switch (LogFormats.Resolve(daemon.LogFormat, Environment.GetEnvironmentVariable("JOURNAL_STREAM")))
         {
-            builder.Logging.AddJsonConsole(o =>
-            {
-                o.UseUtcTimestamp = true;
-                o.TimestampFormat = "yyyy-MM-ddTHH:mm:ss.fffZ";
-            });
-            builder.Services.Configure<ConsoleLoggerOptions>(o => o.FormatterName = ConsoleFormatterNames.Json);
-        }
-        else
-        {
-            builder.Logging.AddSimpleConsole(o =>
-            {
-                o.SingleLine = true;
-                o.UseUtcTimestamp = true;
-                o.TimestampFormat = "yyyy-MM-ddTHH:mm:ssZ ";
-            });
+            case "json":
+                builder.Logging.AddJsonConsole(o =>
+                {
+                    o.UseUtcTimestamp = true;
+                    o.TimestampFormat = "yyyy-MM-ddTHH:mm:ss.fffZ";
+                });
+                builder.Services.Configure<ConsoleLoggerOptions>(o => o.FormatterName = ConsoleFormatterNames.Json);
+                break;
+            case "systemd":
+                // journald stamps each line and takes the level from the "<N>" prefix (sd-daemon(3)).
+                builder.Logging.AddSystemdConsole();
+                break;
+            default:
+                builder.Logging.AddSimpleConsole(o =>
+                {
+                    o.SingleLine = true;
+                    o.UseUtcTimestamp = true;
+                    o.TimestampFormat = "yyyy-MM-ddTHH:mm:ssZ ";
+                });
+                break;
         }
 
-        var otlp = string.IsNullOrWhiteSpace(daemon.OtlpEndpoint) ? null : new Uri(daemon.OtlpEndpoint);
-        var telemetry = builder.Services.AddOpenTelemetry().ConfigureResource(r => r.AddService("indexkeeper"));
-        telemetry.WithMetrics(m =>
-        {
-            m.AddMeter(CoreTelemetry.Name).AddPrometheusExporter();
-            if (otlp is not null)
-            {
-                m.AddOtlpExporter(o => o.Endpoint = otlp);
-            }
-        });
-        if (otlp is not null)
-        {
-            telemetry.WithTracing(t => t.AddSource(CoreTelemetry.Name).AddOtlpExporter(o =>
-            {
-                o.Endpoint = otlp;
-                o.Protocol = OtlpExportProtocol.Grpc;
-            }));
-        }
+        builder.Configuration.AddInMemoryCollection(OtlpExport.StandardVariables(Environment.GetEnvironmentVariables()));
+        OtlpExport.Configure(builder.Services.AddOpenTelemetry(), daemon, builder.Configuration);
 
         var ringCapacity = (int)Math.Clamp(TimeSpan.FromDays(1) / TimeSpan.FromSeconds(daemon.SampleSeconds), 16, 86_400);
         builder.Services.AddSingleton(options);
@@ -198,6 +184,8 @@ public static class DaemonHost
             TimeSpan.FromHours(options.Detect.RootGoneGraceHours),
             sp.GetRequiredService<DaemonState>(),
             sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.Watch")));
+        builder.Services.AddSingleton(new HealthLimits(
+            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes)));
         builder.Services.AddSingleton<DaemonMetrics>();
         if (queue is not null)
         {
@@ -214,6 +202,7 @@ public static class DaemonHost
                 sp.GetRequiredService<ILoggerFactory>().CreateLogger("IndexKeeper.WorkQueue")));
         }
 
+        ApiContract.AddTo(builder.Services);
         builder.Services.AddSingleton<IndexWorker>();
         builder.Services.AddHostedService(sp => sp.GetRequiredService<IndexWorker>());
 
@@ -221,9 +210,7 @@ public static class DaemonHost
 
         // Instruments exist before the first scrape.
         _ = app.Services.GetRequiredService<DaemonMetrics>();
-        var limits = new HealthLimits(
-            TimeSpan.FromMinutes(options.Detect.FullWalkMinutes), daemon.HealthDeadRatio, daemon.HealthMinFreeShare, TimeSpan.FromMinutes(daemon.HealthSearchFailureMinutes));
-        DaemonApi.Map(app, options, limits, listen, token);
+        DaemonApi.Map(app, options, app.Services.GetRequiredService<HealthLimits>(), listen, token);
         return app;
     }
 }

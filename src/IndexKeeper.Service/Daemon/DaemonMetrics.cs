@@ -1,5 +1,8 @@
+using System.Diagnostics;
 using System.Diagnostics.Metrics;
+using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Telemetry;
+using Microsoft.AspNetCore.Http;
 
 namespace IndexKeeper.Service.Daemon;
 
@@ -11,11 +14,57 @@ namespace IndexKeeper.Service.Daemon;
 /// </summary>
 internal sealed class DaemonMetrics : IDisposable
 {
-    private readonly Meter meter = new(CoreTelemetry.Name);
+    /// <summary>Outcomes of <c>/api/search</c> (label <c>outcome</c>, in this order): answered, refused with a 4xx (bad parameters or past a cap), failed.</summary>
+    private static readonly string[] SearchOutcomes = ["answered", "refused", "failed"];
+    private const int Answered = 0, Refused = 1, Failed = 2;
 
-    public DaemonMetrics(DaemonState state)
+    private readonly Meter meter = new(CoreTelemetry.Name);
+    private readonly long[] searchRequests = new long[SearchOutcomes.Length];
+    private readonly Histogram<double> searchDuration;
+
+    public DaemonMetrics(DaemonState state, HealthLimits limits)
     {
         static KeyValuePair<string, object?> Tag(string key, string value) => new(key, value);
+
+        // Observed from our own tallies so every outcome is a series from the start: a failure share can be computed
+        // (and alerted on) before the first failure.
+        meter.CreateObservableCounter("indexkeeper.search.requests", () =>
+            SearchOutcomes.Select((outcome, i) => new Measurement<long>(Interlocked.Read(ref searchRequests[i]), Tag("outcome", outcome))).ToArray(),
+            "{request}", "Requests to /api/search by outcome.");
+        searchDuration = meter.CreateHistogram(
+            "indexkeeper.search.duration", "s", "Time to answer /api/search, refused requests included.", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = CoreTelemetry.SecondsBuckets });
+
+        meter.CreateObservableGauge("indexkeeper.health", () => (int)HealthRules.Evaluate(state.HealthSnapshot(), limits).Status, "1", "The daemon's health as /health judges it: 0 healthy, 1 degraded, 2 unhealthy.");
+        meter.CreateObservableGauge("indexkeeper.health.reason", () =>
+        {
+            var found = HealthRules.Evaluate(state.HealthSnapshot(), limits).Reasons.ToDictionary(r => r.Code, r => (int)r.Severity, StringComparer.Ordinal);
+            return HealthRules.Codes.Select(code => new Measurement<int>(found.GetValueOrDefault(code), Tag("code", code))).ToArray();
+        }, "1", "Each health reason's severity now: 0 absent, 1 degraded, 2 unhealthy (codes: docs/daemon.md, Health).");
+        meter.CreateObservableGauge("indexkeeper.migration.progress", () => state.Figures.Migration.Progress, "1", "Share of pages that have vectors of the active encoder while a migration runs; 1 when none runs.");
+        meter.CreateObservableGauge<double>("indexkeeper.migration.time_left", () =>
+        {
+            var migration = state.Figures.Migration;
+            Measurement<double>[] value = !migration.Running ? [new(0)]
+                : migration.NotInSight ? [new(double.PositiveInfinity)]
+                : migration.ExpectedFinish is { } finish ? [new(Math.Max(0, (finish - state.Clock.GetUtcNow()).TotalSeconds))]
+                : [];
+            return value;
+        }, "s", "Time until the migration's last page is expected to be embedded, through windows and budget at the measured rate: 0 when none runs, +Inf when it does not finish within a year, absent before a rate is measured.");
+        meter.CreateObservableGauge("indexkeeper.pages.without_vectors", () => state.Figures.PagesWithoutVectors, "{page}", "Pages no live vector set of the serving encoder covers: searches cannot find them yet.");
+        meter.CreateObservableGauge("indexkeeper.files.unsupported", () =>
+            state.Figures.UnsupportedTypes.Select(t => new Measurement<long>(t.Files, Tag("type", t.Type))).ToArray(),
+            "{file}", "Files of a type no reader takes that the last full walk passed over, by type (lower-case extension; the rarest summed as other).");
+        meter.CreateObservableGauge("indexkeeper.root.documents", () => state.Figures.RootTotals.SelectMany(r => new[]
+        {
+            new Measurement<long>(r.LiveDocuments, Tag("root", r.Root), Tag("state", "live")),
+            new Measurement<long>(r.QuarantinedDocuments, Tag("root", r.Root), Tag("state", "quarantined")),
+        }).ToArray(), "{document}", "Documents of each root by state (quarantined includes files of a type no reader takes).");
+        meter.CreateObservableGauge("indexkeeper.root.pages", () => state.Figures.RootTotals.Select(r => new Measurement<long>(r.PageLocations, Tag("root", r.Root))).ToArray(),
+            "{page}", "Pages of each root's live documents, a page counted wherever it appears.");
+        meter.CreateObservableGauge("indexkeeper.root.size", () => state.Figures.RootTotals.Select(r => new Measurement<long>(r.Bytes, Tag("root", r.Root))).ToArray(),
+            "By", "File bytes of each root's live documents.");
+        meter.CreateObservableGauge("indexkeeper.root.present", () => state.Roots.Select(r => new Measurement<int>(r.MissingSinceUtc is null ? 1 : 0, Tag("root", r.Name))).ToArray(),
+            "1", "1 while a configured root is there, 0 while it is gone (documents kept for their grace time).");
 
         meter.CreateObservableGauge("indexkeeper.documents", () =>
         {
@@ -92,6 +141,24 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.work_queue.worker.leases_taken_over", () => (state.WorkQueue?.Workers ?? []).Where(w => w.Live)
             .Select(w => new Measurement<long>(w.LeasesTakenOver, Tag("worker", w.Worker))), "{lease}", "Jobs each live worker took over after another's lease expired.");
         meter.CreateObservableGauge("indexkeeper.roots.missing", () => state.Roots.Count(r => r.MissingSinceUtc is not null), "{root}", "Roots that are gone (documents kept for their grace time).");
+    }
+
+    /// <summary>Answers a search request through <paramref name="answer"/>, counting its outcome and its time.</summary>
+    public IResult TimeSearch(Func<IResult> answer)
+    {
+        var started = Stopwatch.GetTimestamp();
+        var outcome = Failed;
+        try
+        {
+            var result = answer();
+            outcome = result is IStatusCodeHttpResult { StatusCode: >= 400 and < 500 } ? Refused : Answered;
+            return result;
+        }
+        finally
+        {
+            Interlocked.Increment(ref searchRequests[outcome]);
+            searchDuration.Record(Stopwatch.GetElapsedTime(started).TotalSeconds);
+        }
     }
 
     public void Dispose() => meter.Dispose();

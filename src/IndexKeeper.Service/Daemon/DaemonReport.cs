@@ -19,10 +19,20 @@ public sealed class DaemonReport
 
     public DateTimeOffset? WindowEnd { get; init; }
 
+    /// <summary>When the next window opens (after the current one, if one is open); null when none opens within the calendar's horizon.</summary>
+    public DateTimeOffset? NextWindowOpens { get; init; }
+
     /// <summary>The windows in force, as configured (docs/scheduling.md), and the zone they are read in.</summary>
     public IReadOnlyList<string> Windows { get; init; } = [];
 
+    /// <summary>
+    /// The zone windows are read in, as an IANA id where the system knows one (what browsers format times in);
+    /// every time of this report carries that zone's offset.
+    /// </summary>
     public string TimeZone { get; init; } = string.Empty;
+
+    /// <summary>Serving and active encoder, and while a migration runs its progress and expected finish.</summary>
+    public required MigrationFigures Migration { get; init; }
 
     public long QueuedFresh { get; init; }
 

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 
@@ -10,6 +11,9 @@ internal interface IEmbedGate
 
     /// <summary>Tells the gate how many pages were just embedded under its last allowance (the budget spends them).</summary>
     void Spent(DateTimeOffset now, long pages);
+
+    /// <summary>When <paramref name="work"/> would be done through this gate from <paramref name="now"/> at a constant cost per page.</summary>
+    WorkForecast Forecast(DateTimeOffset now, QueuedPages work, double encoderSecondsPerPage);
 
     /// <summary>Budget grants still counting (for the plan's simulation).</summary>
     IReadOnlyList<BudgetSpend> Spends { get; }

@@ -556,6 +556,7 @@ internal sealed class IndexWorker(
             DirectorySize.Of(index.Directory),
             free,
             DamageSurvey.Run(catalog, index.Store.Directory, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
+        latest = FigureSurvey.Complete(latest, index, gate);
         lastSample = latest;
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }

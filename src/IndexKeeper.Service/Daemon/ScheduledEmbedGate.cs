@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Scheduling;
 
@@ -28,6 +29,9 @@ internal sealed class ScheduledEmbedGate(EncoderGate gate) : IEmbedGate
         var lowest = decision.Priorities.Count == 0 ? QueuePriority.Fresh : decision.Priorities.Max();
         return new EmbedAllowance(decision.Priorities.Count == 0 ? 0 : decision.PagesAllowed, lowest, open, windowEnd);
     }
+
+    public WorkForecast Forecast(DateTimeOffset now, QueuedPages work, double encoderSecondsPerPage) =>
+        WorkSimulator.Simulate(gate, now, work, encoderSecondsPerPage, spends, WorkSimulator.DefaultHorizon);
 
     public IReadOnlyList<BudgetSpend> Spends => spends.ToList();
 

@@ -56,6 +56,7 @@ public sealed class DaemonSettingsTests
         var errors = IndexKeeperOptionsValidator.Validate(Valid(o =>
         {
             o.Daemon.LogFormat = "xml";
+            o.Daemon.OtlpProtocol = "http/json";
             o.Daemon.ShutdownGraceSeconds = 0;
             o.Daemon.MaxAttempts = 0;
             o.Daemon.MaxConnections = 0;
@@ -63,7 +64,7 @@ public sealed class DaemonSettingsTests
             o.Detect.FullWalkMinutes = 0;
             o.Detect.WatcherBufferKilobytes = 1;
         }));
-        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Daemon:MaxConnections", "Daemon:IdleTimeoutSeconds", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
+        foreach (var name in new[] { "Daemon:LogFormat", "Daemon:OtlpProtocol", "Daemon:ShutdownGraceSeconds", "Daemon:MaxAttempts", "Daemon:MaxConnections", "Daemon:IdleTimeoutSeconds", "Detect:FullWalkMinutes", "Detect:WatcherBufferKilobytes" })
         {
             Assert.Contains(errors, e => e.StartsWith(name + ":", StringComparison.Ordinal));
         }

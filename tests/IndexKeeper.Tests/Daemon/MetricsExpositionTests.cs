@@ -1,5 +1,6 @@
 using System.Diagnostics;
 using IndexKeeper.Tests.EndToEnd;
+using IndexKeeper.Tests.Monitoring;
 using IndexKeeper.Tests.Support;
 
 namespace IndexKeeper.Tests.Daemon;
@@ -10,8 +11,6 @@ namespace IndexKeeper.Tests.Daemon;
 /// </summary>
 public sealed class MetricsExpositionTests
 {
-    private const string Promtool = "/usr/bin/promtool";
-
     [PromtoolFact]
     public void ScrapeOutputPassesPromtoolAndCarriesTheInstruments()
     {
@@ -27,7 +26,7 @@ public sealed class MetricsExpositionTests
             return metrics.Contains("indexkeeper_documents{otel_scope_name=\"IndexKeeper\",state=\"live\"} 1", StringComparison.Ordinal);
         });
 
-        var start = new ProcessStartInfo(Promtool, ["check", "metrics"]) { RedirectStandardInput = true, RedirectStandardOutput = true, RedirectStandardError = true };
+        var start = new ProcessStartInfo(Promtool.Path, ["check", "metrics"]) { RedirectStandardInput = true, RedirectStandardOutput = true, RedirectStandardError = true };
         using var promtool = Process.Start(start)!;
         promtool.StandardInput.Write(metrics);
         promtool.StandardInput.Close();
@@ -42,6 +41,9 @@ public sealed class MetricsExpositionTests
             "indexkeeper_encoder_duration_seconds_bucket", "indexkeeper_embed_rate_per_second", "indexkeeper_scan_duration_seconds_bucket",
             "indexkeeper_full_walk_age_seconds", "indexkeeper_watcher_overflows_total", "indexkeeper_quarantine", "indexkeeper_segments",
             "indexkeeper_dead_ratio", "indexkeeper_disk_usage_bytes", "indexkeeper_pages_drifted", "indexkeeper_window_open", "indexkeeper_files_passed_over",
+            "indexkeeper_health", "indexkeeper_health_reason", "indexkeeper_migration_progress", "indexkeeper_migration_time_left_seconds",
+            "indexkeeper_pages_without_vectors", "indexkeeper_search_requests_total", "indexkeeper_root_documents", "indexkeeper_root_pages",
+            "indexkeeper_root_size_bytes", "indexkeeper_root_present",
         })
         {
             Assert.Contains("\n" + name + "{", "\n" + metrics, StringComparison.Ordinal);
@@ -49,18 +51,12 @@ public sealed class MetricsExpositionTests
 
         Assert.Contains("indexkeeper_encoder_duration_seconds_bucket{otel_scope_name=\"IndexKeeper\",le=\"0.005\"}", metrics, StringComparison.Ordinal);
         Assert.Contains("indexkeeper_pages_embedded_total{otel_scope_name=\"IndexKeeper\"} 3", metrics, StringComparison.Ordinal);
-        Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
-    }
 
-    /// <summary>Skipped, saying so, only where promtool is not installed; CI installs it (the install script's package list).</summary>
-    private sealed class PromtoolFactAttribute : FactAttribute
-    {
-        public PromtoolFactAttribute()
-        {
-            if (!File.Exists(Promtool))
-            {
-                Skip = "promtool is not installed (Debian package prometheus; ./install adds it)";
-            }
-        }
+        // One series per health code whether or not it holds, and per root; every page has vectors.
+        Assert.Contains("indexkeeper_health_reason{otel_scope_name=\"IndexKeeper\",code=\"root-missing\"} 0", metrics, StringComparison.Ordinal);
+        Assert.Contains("indexkeeper_root_pages{otel_scope_name=\"IndexKeeper\",root=\"store\"} 3", metrics, StringComparison.Ordinal);
+        Assert.Contains("indexkeeper_pages_without_vectors{otel_scope_name=\"IndexKeeper\"} 0", metrics, StringComparison.Ordinal);
+        Assert.Contains("indexkeeper_search_requests_total{otel_scope_name=\"IndexKeeper\",outcome=\"failed\"} 0", metrics, StringComparison.Ordinal);
+        Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 }

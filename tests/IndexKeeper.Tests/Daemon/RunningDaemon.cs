@@ -49,8 +49,10 @@ internal sealed class RunningDaemon : IDisposable
         return tokenFile;
     }
 
-    /// <summary>Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c> and the given arguments, and waits for its API.</summary>
-    /// <param name="environment">Extra environment variables (a fault armed for a crash test).</param>
+    /// <summary>
+    /// Starts <c>run</c> in <paramref name="workingDirectory"/> with <c>--index index</c>, the given arguments and
+    /// environment variables, and waits for its API.
+    /// </summary>
     public static RunningDaemon Start(string workingDirectory, IReadOnlyList<string> args, string? token = null, IReadOnlyDictionary<string, string>? environment = null)
     {
         var indexDirectory = Path.Combine(workingDirectory, "index");

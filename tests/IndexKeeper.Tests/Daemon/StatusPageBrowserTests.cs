@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using System.Globalization;
 using IndexKeeper.Tests.EndToEnd;
 using IndexKeeper.Tests.Support;
 
@@ -43,6 +44,54 @@ public sealed class StatusPageBrowserTests
         File.Delete(screenshot);
         RunChromium(temp, ["--screenshot=" + screenshot, "--window-size=1280,1100", url], out _);
         Assert.True(File.Exists(screenshot) && new FileInfo(screenshot).Length > 10_000, "the screenshot should be written: " + screenshot);
+        Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
+    }
+
+    /// <summary>
+    /// A migration waiting for its window, shown with the serving and the active encoder, and every time in the
+    /// configured zone: Pacific/Chatham (IANA time zone database; an offset of 45 minutes past the hour, so no
+    /// zone a machine happens to be in shows the same clock).
+    /// </summary>
+    [ChromiumFact]
+    public void TheEncodersTheMigrationAndTheNextWindowShowInTheConfiguredZone()
+    {
+        using var temp = new TempDirectory();
+        Directory.CreateDirectory(temp.Combine("store"));
+        for (var i = 0; i < 3; i++)
+        {
+            File.WriteAllBytes(temp.Combine("store", $"hydrant-{i}.pdf"), StorePdfs.Document($"Oxbridge{i}", 2));
+        }
+
+        string[] common = ["--root", "store", "--encoder", "hashed-terms", "--Daemon:SampleSeconds=0.2"];
+        using (var first = RunningDaemon.Start(temp.Path, [.. common, "--Schedule:Windows:0=Mon-Sun 00:00-24:00"]))
+        {
+            first.WaitUntil("the pages are embedded", () => first.GetJson("/api/status").GetProperty("liveVectorSets").GetInt64() == 6);
+            Assert.Equal(0, first.Terminate(RunningDaemon.Patience));
+        }
+
+        // A one-hour window three hours from now in that zone: closed now, so the migration waits for it.
+        var zone = TimeZoneInfo.FindSystemTimeZoneById("Pacific/Chatham");
+        var now = TimeZoneInfo.ConvertTime(DateTimeOffset.UtcNow, zone);
+        var startHour = (now.Hour + 3) % 24;
+        var opens = new DateTimeOffset(now.Date.AddDays(startHour > now.Hour ? 0 : 1).AddHours(startHour), zone.GetUtcOffset(now.Date.AddHours(startHour)));
+        var window = string.Create(CultureInfo.InvariantCulture, $"Mon-Sun {startHour:00}:00-{startHour + 1:00}:00");
+
+        // A new d is a new encoder id: every page migrates, inside windows only.
+        using var daemon = RunningDaemon.Start(temp.Path, [.. common, "--Encoder:Dimensions=64", "--Schedule:TimeZone=Pacific/Chatham", "--Schedule:Windows:0=" + window]);
+        daemon.WaitUntil("the migration waits with every page", () => daemon.GetJson("/api/daemon").GetProperty("migration") is var m
+            && m.GetProperty("running").GetBoolean() && m.GetProperty("pagesWaiting").GetInt64() == 6);
+        var report = daemon.GetJson("/api/daemon");
+        Assert.Equal("Pacific/Chatham", report.GetProperty("timeZone").GetString());
+        Assert.Equal(opens, report.GetProperty("nextWindowOpens").GetDateTimeOffset());
+        Assert.EndsWith(opens.ToString("zzz", CultureInfo.InvariantCulture), report.GetProperty("nextWindowOpens").GetString(), StringComparison.Ordinal);
+
+        var dom = RunChromium(temp, ["--dump-dom", daemon.Client.BaseAddress!.ToString()], out _);
+        Assert.Contains("data-rendered=\"1\"", dom, StringComparison.Ordinal);
+        Assert.DoesNotContain("data-errors", dom, StringComparison.Ordinal);
+        Assert.Contains("Serving encoder (searches rank with it): hashed-terms", dom, StringComparison.Ordinal);
+        Assert.Contains("Migration: 0 of 6 pages have vectors of the active encoder (0.0 %); 6 wait.", dom, StringComparison.Ordinal);
+        Assert.Contains("No finish estimate yet: the active encoder has no measured rate.", dom, StringComparison.Ordinal);
+        Assert.Contains(string.Create(CultureInfo.InvariantCulture, $"The next window opens {opens:yyyy-MM-dd HH:mm:ss} Pacific/Chatham."), dom, StringComparison.Ordinal);
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 

@@ -43,6 +43,17 @@ public sealed class HealthRulesTests
         ("search-failing", HealthStatus.Unhealthy, s => s with { SearchFailureAge = TimeSpan.FromMinutes(1), SearchFailure = "a segment record failed its checksum" }),
     ];
 
+    /// <summary>Metrics publish one series per listed code: a rule whose code is missing there would never reach an alert.</summary>
+    [Fact]
+    public void TheListOfCodesHoldsExactlyTheCodesTheRulesGive()
+    {
+        // disk-low and index-damaged are tripped by the theories below (disk thresholds, damage text).
+        var given = Rules.Select(r => r.Code).Append("disk-low").Append("index-damaged").Distinct().Order(StringComparer.Ordinal);
+        Assert.Equal(given, HealthRules.Codes.Order(StringComparer.Ordinal));
+        Assert.Equal("disk-low", Assert.Single(HealthRules.Evaluate(Calm with { FreeShare = 0.09 }, Limits).Reasons).Code);
+        Assert.Equal("index-damaged", Assert.Single(HealthRules.Evaluate(Calm with { Damage = "1 segment file(s) missing" }, Limits).Reasons).Code);
+    }
+
     [Fact]
     public void ACalmSnapshotIsHealthyWithoutReasons()
     {
