@@ -1,4 +1,3 @@
-using System.Diagnostics;
 using System.Globalization;
 using System.Text.Json;
 using IndexKeeper.Tests.Readers;
@@ -120,23 +119,6 @@ public sealed class MixedDriveBenchmark : IBenchmark
     }
 
     /// <summary>One <c>sync --json</c> of the drive by the built executable; its summary.</summary>
-    private static JsonElement Sync(string directory)
-    {
-        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = directory, RedirectStandardOutput = true, RedirectStandardError = true };
-        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"), "sync", "--index", "index", "--root", "drive", "--encoder", "hashed-terms", "--json", "--Detect:SettleSeconds=0" })
-        {
-            start.ArgumentList.Add(arg);
-        }
-
-        using var process = Process.Start(start)!;
-        var stderr = process.StandardError.ReadToEndAsync();
-        var stdout = process.StandardOutput.ReadToEnd();
-        process.WaitForExit();
-        if (process.ExitCode != 0)
-        {
-            throw new InvalidOperationException($"sync exited {process.ExitCode}: {stdout}\n{stderr.Result}");
-        }
-
-        return JsonDocument.Parse(stdout).RootElement.Clone();
-    }
+    private static JsonElement Sync(string directory) =>
+        CliJson.Run(directory, "sync", "--index", "index", "--root", "drive", "--encoder", "hashed-terms", "--json", "--Detect:SettleSeconds=0");
 }

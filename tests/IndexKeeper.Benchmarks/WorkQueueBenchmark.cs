@@ -27,13 +27,13 @@ public sealed class WorkQueueBenchmark : IBenchmark
 
         // The scanned index every run starts from: pages read and queued, nothing embedded.
         var scanned = Path.Combine(work, "scanned");
-        var scan = Cli(work, ["scan", "--index", scanned, .. rootArgs, .. encoder, "--json"]);
+        var scan = CliJson.Run(work, ["scan", "--index", scanned, .. rootArgs, .. encoder, "--json"]);
         var pages = scan.GetProperty("pagesNew").GetInt64();
         context.Report("pages queued (distinct page keys)", pages, "pages");
 
         var local = Copy(scanned, Path.Combine(work, "local"));
         var clock = Stopwatch.StartNew();
-        var sync = Cli(work, ["sync", "--index", local, .. rootArgs, .. encoder, "--json"]);
+        var sync = CliJson.Run(work, ["sync", "--index", local, .. rootArgs, .. encoder, "--json"]);
         var localSeconds = clock.Elapsed.TotalSeconds;
         var localRate = sync.GetProperty("pagesEmbedded").GetInt64() / localSeconds;
         context.Report("local sync: pages embedded per second", localRate, "pages/s");
@@ -146,27 +146,6 @@ public sealed class WorkQueueBenchmark : IBenchmark
         process.BeginErrorReadLine();
         process.BeginOutputReadLine();
         return process;
-    }
-
-    private static JsonElement Cli(string folder, string[] args)
-    {
-        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = folder, RedirectStandardError = true, RedirectStandardOutput = true };
-        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll") }.Concat(args))
-        {
-            start.ArgumentList.Add(arg);
-        }
-
-        using var process = Process.Start(start)!;
-        var stderr = process.StandardError.ReadToEndAsync();
-        var stdout = process.StandardOutput.ReadToEnd();
-        process.WaitForExit();
-        if (process.ExitCode != 0)
-        {
-            throw new InvalidOperationException($"indexkeeper {args[0]} exited {process.ExitCode}: {stderr.Result}");
-        }
-
-        using var json = JsonDocument.Parse(stdout);
-        return json.RootElement.Clone();
     }
 
     /// <summary>A copy of an index folder (closed): every run starts from the same queue.</summary>

@@ -53,6 +53,7 @@ public static class SegmentResealer
     {
         long length;
         int records;
+        uint checksum;
         using (var reader = SegmentReader.Open(path))
         {
             var scan = reader.Scan();
@@ -63,29 +64,19 @@ public static class SegmentResealer
 
             length = reader.Length;
             records = scan.Records.Count + scan.RecordsAfterDamage.Count;
+            checksum = reader.ChecksumOfPrefix(length);
         }
 
-        var padding = (int)(SegmentFormat.AlignUp((int)(length % SegmentFormat.Alignment)) - (length % SegmentFormat.Alignment));
+        // Zero padding to the 8-byte boundary a record (here the seal) starts on, then the seal over both.
+        var tail = new byte[((SegmentFormat.Alignment - (int)(length % SegmentFormat.Alignment)) % SegmentFormat.Alignment) + SegmentFormat.SealRecordLength];
+        var sealOffset = length + tail.Length - SegmentFormat.SealRecordLength;
+        checksum = Crc32C.Append(checksum, tail.AsSpan(0, (int)(sealOffset - length)));
+        RecordCodec.EncodeSeal(tail.AsSpan((int)(sealOffset - length)), records, sealOffset, checksum);
         MakeWritable(path);
-        using (var stream = new FileStream(path, FileMode.Open, FileAccess.ReadWrite, FileShare.Read))
-        {
-            stream.Position = length;
-            stream.Write(new byte[padding]);
-            stream.Flush(flushToDisk: true);
-        }
-
-        uint checksum;
-        using (var reader = SegmentReader.Open(path))
-        {
-            checksum = reader.ChecksumOfPrefix(length + padding);
-        }
-
-        Span<byte> seal = stackalloc byte[SegmentFormat.SealRecordLength];
-        RecordCodec.EncodeSeal(seal, records, length + padding, checksum);
         using (var stream = new FileStream(path, FileMode.Open, FileAccess.Write, FileShare.Read))
         {
-            stream.Position = length + padding;
-            stream.Write(seal);
+            stream.Position = length;
+            stream.Write(tail);
             stream.Flush(flushToDisk: true);
         }
 
