@@ -532,7 +532,9 @@ public sealed class ScanPass
         }
 
         var kind = result.Item1 is { } read ? ReadKindName(read.Kind) : UnreadableKind;
-        state.Summary.ReadSecondsByKind[kind] = state.Summary.ReadSecondsByKind.GetValueOrDefault(kind) + Stopwatch.GetElapsedTime(started).TotalSeconds;
+        var seconds = Stopwatch.GetElapsedTime(started).TotalSeconds;
+        state.Summary.ReadSecondsByKind[kind] = state.Summary.ReadSecondsByKind.GetValueOrDefault(kind) + seconds;
+        CoreTelemetry.DocumentReadDuration.Record(seconds, new KeyValuePair<string, object?>("kind", kind));
 
         if (probe.Stat(file.FullPath) != hashedStat)
         {

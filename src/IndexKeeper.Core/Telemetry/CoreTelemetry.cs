@@ -29,5 +29,9 @@ public static class CoreTelemetry
     public static Histogram<double> ScanDuration { get; } = Meter.CreateHistogram(
         "indexkeeper.scan.duration", "s", "Duration of scan passes (targeted and full walks).", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = SecondsBuckets });
 
+    /// <summary>Reading one document into pages, per kind (pdf, officeopenxml, …, unreadable): conversion and OCR included, so a drive's reading cost shows beside its encoder cost.</summary>
+    public static Histogram<double> DocumentReadDuration { get; } = Meter.CreateHistogram(
+        "indexkeeper.document.read.duration", "s", "Time to read one document into pages (conversion and OCR included), by kind.", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = SecondsBuckets });
+
     public static Counter<long> CompactionBytes { get; } = Meter.CreateCounter<long>("indexkeeper.compaction.bytes", "By", "Segment bytes read, written and reclaimed by compaction.");
 }

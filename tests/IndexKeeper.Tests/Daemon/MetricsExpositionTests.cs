@@ -39,6 +39,7 @@ public sealed class MetricsExpositionTests
         {
             "indexkeeper_documents", "indexkeeper_pages", "indexkeeper_queue_depth", "indexkeeper_pages_embedded_total",
             "indexkeeper_encoder_duration_seconds_bucket", "indexkeeper_embed_rate_per_second", "indexkeeper_scan_duration_seconds_bucket",
+            "indexkeeper_document_read_duration_seconds_bucket",
             "indexkeeper_full_walk_age_seconds", "indexkeeper_watcher_overflows_total", "indexkeeper_quarantine", "indexkeeper_segments",
             "indexkeeper_dead_ratio", "indexkeeper_disk_usage_bytes", "indexkeeper_pages_drifted", "indexkeeper_window_open", "indexkeeper_files_passed_over",
             "indexkeeper_health", "indexkeeper_health_reason", "indexkeeper_migration_progress", "indexkeeper_migration_time_left_seconds",
@@ -51,6 +52,8 @@ public sealed class MetricsExpositionTests
 
         Assert.Contains("indexkeeper_encoder_duration_seconds_bucket{otel_scope_name=\"IndexKeeper\",le=\"0.005\"}", metrics, StringComparison.Ordinal);
         Assert.Contains("indexkeeper_pages_embedded_total{otel_scope_name=\"IndexKeeper\"} 3", metrics, StringComparison.Ordinal);
+        // One PDF read once: its reading time is counted under its kind.
+        Assert.Contains("indexkeeper_document_read_duration_seconds_count{otel_scope_name=\"IndexKeeper\",kind=\"pdf\"} 1", metrics, StringComparison.Ordinal);
 
         // One series per health code whether or not it holds, and per root; every page has vectors.
         Assert.Contains("indexkeeper_health_reason{otel_scope_name=\"IndexKeeper\",code=\"root-missing\"} 0", metrics, StringComparison.Ordinal);
