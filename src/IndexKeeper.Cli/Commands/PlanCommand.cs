@@ -37,7 +37,7 @@ internal sealed class PlanCommand() : CommandBase(
     {
         o.WriteLine($"Plan for {r.IndexDirectory}, encoder {r.ActiveEncoder} ({r.ActiveEncoderId[..16]}…), from {Time(r.GeneratedAt)} ({r.TimeZone})");
         o.WriteLine($"Changes since the last scan ({(r.LastScanUtc is { } t ? t.ToString("yyyy-MM-dd HH:mm:ss'Z'", C) : "never")}):");
-        o.WriteLine(string.Create(C, $"  documents    {r.DocumentsNew} new, {r.DocumentsChanged} changed, {r.DocumentsCopied} copied or moved (free), {r.DocumentsDeleted} deleted, {r.DocumentsQuarantined} to quarantine, {r.DocumentsReread} to read again for this build's readers"));
+        o.WriteLine(string.Create(C, $"  documents    {r.DocumentsNew} new, {r.DocumentsChanged} changed, {r.DocumentsCopied} copied or moved (free), {r.DocumentsDeleted} deleted, {r.DocumentsQuarantined} to quarantine, {r.DocumentsReread} to read again (newer readers or another LibreOffice)"));
         o.WriteLine(string.Create(C, $"  pages        {r.PagesNew} new, {r.PagesFree} free (keys already held), {r.PagesToRemove} to remove"));
         o.WriteLine(string.Create(C, $"Queued         {r.Queued.Fresh} fresh, {r.Queued.Migration} migration, {r.Queued.Canary} canary"));
         o.WriteLine(string.Create(C, $"Drift          {r.DriftedPages} page(s) only under another encoder ({r.DriftedNotQueued} not yet queued)"));

@@ -40,6 +40,12 @@ public sealed class DocumentRecord
     /// <summary>The <see cref="Documents.ReaderVersion"/> the document was read under; 0 when recorded before the number existed.</summary>
     public int ReaderVersion { get; set; }
 
+    /// <summary>
+    /// For a document the office converter drew: its version line then (<see cref="Documents.Office.OfficeConverterIdentity"/>);
+    /// null for other kinds and for documents recorded before it was kept.
+    /// </summary>
+    public string? Converter { get; set; }
+
     public DateTime FirstSeenUtc { get; set; }
 
     public DateTime LastChangedUtc { get; set; }

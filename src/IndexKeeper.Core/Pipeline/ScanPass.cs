@@ -3,6 +3,7 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Diff;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Documents.Office;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Core.Telemetry;
@@ -312,11 +313,13 @@ public sealed class ScanPass
         var toolRetry = existing is { State: DocumentState.Quarantined, QuarantineReason: QuarantineReason.ToolMissing }
             && !state.ToolsStillMissing.Contains(existing.QuarantineMessage ?? string.Empty);
         var readsDifferently = existing is not null && existing.ReaderVersion < ReaderVersion.Current && ReadsDifferently(existing);
-        var reread = readsDifferently && !state.RereadsHeld;
+        var redraw = existing is not null && DrawnByAnotherConverter(state, existing);
+        var reread = (readsDifferently || redraw) && !state.RereadsHeld;
         if (toolRetry || reread)
         {
-            // Read again although unchanged: the missing program may have been installed since, or this
-            // build's readers give what an older one could not (words by OCR, a format it did not read).
+            // Read again although unchanged: the missing program may have been installed since, this
+            // build's readers give what an older one could not (words by OCR, a format it did not read),
+            // or another LibreOffice draws the document now (its pages' keys name the converter).
             stored = null;
         }
 
@@ -329,6 +332,7 @@ public sealed class ScanPass
                 StampReaderVersion(state, existing);
             }
 
+            StampConverter(state, existing);
             return;
         }
 
@@ -357,6 +361,7 @@ public sealed class ScanPass
                 }
 
                 StoredState.Stamp(existing!, hashed);
+                StampConverter(state, existing!);
                 state.Edit.PutDocuments.Add(existing!);
                 summary.DocumentsUnchanged++;
                 summary.PagesSeen += existing!.PageKeys.Count;
@@ -384,6 +389,7 @@ public sealed class ScanPass
             summary.DocumentsCopied++;
             record.Kind = source.Kind;
             record.ReaderVersion = source.ReaderVersion;
+            record.Converter = source.Converter;
             newKeys = source.PageKeys.Select(PageKey.Parse).ToList();
             state.Note(file, existing is null ? ChangeKind.Copied : ChangeKind.Changed, newKeys.Count, state.Ledger.Replace(oldKeys, newKeys).Count);
         }
@@ -412,7 +418,13 @@ public sealed class ScanPass
                     existing.LastChangedUtc = changedBefore;
                     if (failure.Reason != QuarantineReason.ToolMissing)
                     {
+                        // Final for this build and this converter: not tried again on every pass.
                         StampReaderVersion(state, existing);
+                        if (redraw)
+                        {
+                            existing.Converter = InstalledConverter(state);
+                            state.Edit.PutDocuments.Add(existing);
+                        }
                     }
 
                     summary.DocumentsUnchanged++;
@@ -429,6 +441,7 @@ public sealed class ScanPass
 
                 record.State = DocumentState.Quarantined;
                 record.ReaderVersion = ReaderVersion.Current;
+                record.Converter = null;
                 record.Kind = DocumentKind.Unknown;
                 record.PageKeys = [];
                 record.QuarantineReason = failure.Reason;
@@ -454,6 +467,7 @@ public sealed class ScanPass
             var document = content.Value.Content!;
             record.Kind = document.Kind;
             record.ReaderVersion = ReaderVersion.Current;
+            record.Converter = OfficeConverterIdentity.Draws(document.Kind) ? InstalledConverter(state) : null;
             newKeys = document.Pages.Select(p => p.Key).ToList();
             var fresh = state.Ledger.Replace(oldKeys, newKeys).ToHashSet();
             state.Note(file, existing is null ? ChangeKind.New : ChangeKind.Changed, newKeys.Count, fresh.Count);
@@ -486,6 +500,36 @@ public sealed class ScanPass
     private bool ReadsDifferently(DocumentRecord document) =>
         document is { State: DocumentState.Quarantined, QuarantineReason: not QuarantineReason.ToolMissing }
         || (document.State == DocumentState.Live && document.PageKeys.Any(k => catalog.Pages.Find(k) is { Words.Count: 0, WordsAt: null }));
+
+    /// <summary>
+    /// Whether a live document was drawn by another version of the office converter than the one installed:
+    /// its pages' keys name that version (docs/page-keys.md), so it is read again and its pages re-keyed.
+    /// </summary>
+    private bool DrawnByAnotherConverter(ScanPassState state, DocumentRecord document) =>
+        document is { State: DocumentState.Live, Converter: { } drawnBy }
+        && OfficeConverterIdentity.Draws(document.Kind)
+        && InstalledConverter(state) is { } installed
+        && !string.Equals(installed, drawnBy, StringComparison.Ordinal);
+
+    /// <summary>The installed converter's version line, asked once per pass; null when missing or not tracked.</summary>
+    private string? InstalledConverter(ScanPassState state)
+    {
+        state.InstalledConverter ??= settings.OfficeConverter is { } program ? OfficeConverterIdentity.Installed(program) ?? string.Empty : string.Empty;
+        return state.InstalledConverter.Length == 0 ? null : state.InstalledConverter;
+    }
+
+    /// <summary>
+    /// A drawn document recorded before converters were kept is taken as drawn by the installed one (its keys
+    /// cannot tell), once; from then on an upgrade reads it again.
+    /// </summary>
+    private void StampConverter(ScanPassState state, DocumentRecord document)
+    {
+        if (document is { State: DocumentState.Live, Converter: null } && OfficeConverterIdentity.Draws(document.Kind) && InstalledConverter(state) is { } installed)
+        {
+            document.Converter = installed;
+            state.Edit.PutDocuments.Add(document);
+        }
+    }
 
     /// <summary>Records an unchanged document that needs no new read as read under this build's readers, once.</summary>
     private static void StampReaderVersion(ScanPassState state, DocumentRecord document)

@@ -110,6 +110,9 @@ internal sealed class ScanPassState(IndexCatalog catalog, bool dryRun, DateTime 
     /// <summary>Messages of <c>ToolMissing</c> quarantines read again this pass and failing the same way: the rest waiting on them are not read again.</summary>
     public HashSet<string> ToolsStillMissing { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>The installed office converter's version line, asked once per pass when a drawn document needs it ("" when missing or untracked).</summary>
+    public string? InstalledConverter { get; set; }
+
     public bool IsKnownPage(PageKey key) => NewPages.ContainsKey(key) || catalog.Pages.Find(key.Hex) is not null;
 
     public DocumentRecord? FindCopySource(string hash)

@@ -74,7 +74,7 @@ public sealed class ScanSummary
     /// <summary>Documents parsed by the reader.</summary>
     public long DocumentsRead { get; set; }
 
-    /// <summary>Unchanged documents read again because this build's readers give more than the one that read them (<see cref="Documents.ReaderVersion"/>).</summary>
+    /// <summary>Unchanged documents read again: this build's readers give more than the one that read them (<see cref="Documents.ReaderVersion"/>), or another LibreOffice draws them now.</summary>
     public long DocumentsReread { get; set; }
 
     /// <summary>Wall time inside the reader (parsing, conversion by LibreOffice, OCR), by the kind read; failed reads under "unreadable".</summary>

@@ -20,6 +20,7 @@ public sealed class IndexSettings
     private IndexSettings(IndexKeeperOptions options)
     {
         Directory = options.IndexDirectory;
+        var readers = ReaderSetup.Settings(options.Readers, options.IndexDirectory);
         Scan = new ScanSettings(
             options.Roots.Select(r => new RootSpec(r.Name, Path.GetFullPath(r.Path), r.Include, r.Exclude)).ToList(),
             new(
@@ -27,13 +28,14 @@ public sealed class IndexSettings
                 options.Limits.MaxPages,
                 options.Limits.MaxDecodedStreamMegabytes * 1024 * 1024,
                 TimeSpan.FromSeconds(options.Limits.ReadTimeoutSeconds)),
-            TimeSpan.FromSeconds(options.Detect.SettleSeconds));
+            TimeSpan.FromSeconds(options.Detect.SettleSeconds),
+            OfficeConverter: readers.OfficeConverter);
         RootPaths = Scan.Roots.ToDictionary(r => r.Name, r => r.Path, StringComparer.Ordinal);
         RootNames = options.Roots.Select(r => r.Name).ToList();
         Reader = new IsolatedReaderOptions
         {
             WorkerMemoryLimitBytes = options.Limits.WorkerMemoryMegabytes * 1024 * 1024,
-            ReaderSettings = ReaderSetup.Settings(options.Readers, options.IndexDirectory),
+            ReaderSettings = readers,
         };
         Segments = new SegmentWriterOptions
         {

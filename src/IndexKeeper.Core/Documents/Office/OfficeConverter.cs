@@ -57,8 +57,11 @@ internal sealed class OfficeConverter(ReaderSettings settings)
         return File.ReadAllBytes(pdf);
     }
 
+    /// <summary>How the converter's version line starts.</summary>
+    internal const string VersionPrefix = "LibreOffice";
+
     private (string Path, string Version) Tool() =>
-        ToolVersion.Require(settings.OfficeConverter, "LibreOffice", Package, "Reading office and OpenDocument files");
+        ToolVersion.Require(settings.OfficeConverter, VersionPrefix, Package, "Reading office and OpenDocument files");
 
     private static TimeSpan Shorter(TimeSpan a, TimeSpan b) => b > TimeSpan.Zero && b < a ? b : a;
 }
