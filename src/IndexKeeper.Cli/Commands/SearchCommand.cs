@@ -145,6 +145,11 @@ internal sealed class SearchCommand() : CommandBase(
         {
             var words = string.Join(", ", hit.Matches.Where(m => m.Word is not null && m.Similarity > 0.5).Select(m => m.Word).Distinct().Take(6));
             o.WriteLine(string.Create(c, $"{++rank,3}. {hit.Score,8:0.000}  {hit.Root}/{hit.Path}  page {hit.Page}{(hit.AlsoAt.Count > 0 ? $"  (+{hit.AlsoAt.Count} copies)" : string.Empty)}"));
+            if (hit.DocumentTitle is { } title)
+            {
+                o.WriteLine("               title: " + title);
+            }
+
             if (words.Length > 0)
             {
                 o.WriteLine("               matched: " + words);

@@ -46,6 +46,9 @@ public sealed class DocumentRecord
     /// </summary>
     public string? Converter { get; set; }
 
+    /// <summary>The title the document gives itself (<see cref="DocumentContent.Title"/>), as of its last read; null when none.</summary>
+    public string? Title { get; set; }
+
     public DateTime FirstSeenUtc { get; set; }
 
     public DateTime LastChangedUtc { get; set; }

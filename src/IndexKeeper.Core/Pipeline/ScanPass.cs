@@ -390,6 +390,7 @@ public sealed class ScanPass
             record.Kind = source.Kind;
             record.ReaderVersion = source.ReaderVersion;
             record.Converter = source.Converter;
+            record.Title = source.Title;
             newKeys = source.PageKeys.Select(PageKey.Parse).ToList();
             state.Note(file, existing is null ? ChangeKind.Copied : ChangeKind.Changed, newKeys.Count, state.Ledger.Replace(oldKeys, newKeys).Count);
         }
@@ -442,6 +443,7 @@ public sealed class ScanPass
                 record.State = DocumentState.Quarantined;
                 record.ReaderVersion = ReaderVersion.Current;
                 record.Converter = null;
+                record.Title = null;
                 record.Kind = DocumentKind.Unknown;
                 record.PageKeys = [];
                 record.QuarantineReason = failure.Reason;
@@ -468,6 +470,7 @@ public sealed class ScanPass
             record.Kind = document.Kind;
             record.ReaderVersion = ReaderVersion.Current;
             record.Converter = OfficeConverterIdentity.Draws(document.Kind) ? InstalledConverter(state) : null;
+            record.Title = document.Title;
             newKeys = document.Pages.Select(p => p.Key).ToList();
             var fresh = state.Ledger.Replace(oldKeys, newKeys).ToHashSet();
             state.Note(file, existing is null ? ChangeKind.New : ChangeKind.Changed, newKeys.Count, fresh.Count);

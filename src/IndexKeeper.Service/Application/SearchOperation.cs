@@ -59,6 +59,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
                 DocumentSize = document!.Size,
                 DocumentModifiedUtc = new DateTime(document.ModifiedTicksUtc, DateTimeKind.Utc),
                 DocumentKind = document.Kind.ToString(),
+                DocumentTitle = document.Title,
             });
         }
 

@@ -32,4 +32,7 @@ public sealed class SearchReportHit
     public DateTime DocumentModifiedUtc { get; init; }
 
     public string DocumentKind { get; init; } = string.Empty;
+
+    /// <summary>The title the document gives itself (PDF document information, HTML title, e-mail subject); null when none.</summary>
+    public string? DocumentTitle { get; init; }
 }

@@ -41,4 +41,20 @@ public sealed class SearchHitsTests : IDisposable
         // Reads never write: the view the sync wrote is mapped as it is.
         Assert.Equal(written, File.ReadAllBytes(view));
     }
+
+    [Fact]
+    public void A_hit_carries_the_title_its_document_gives_itself()
+    {
+        index.Put("store/logs/rota.html", System.Text.Encoding.UTF8.GetBytes(
+            "<!doctype html><html><head><title>Spillway gate rota</title></head><body><p>Pilot rota for the spillway gate crews</p></body></html>"));
+        index.Put("store/logs/spillway.pdf", StorePdfs.Document("spillway", 2, 1, Line));
+        index.Json("sync");
+
+        var titled = index.Json("search", "pilot rota crews", "-k", "1").GetProperty("hits").EnumerateArray().Single();
+        var untitled = index.Json("search", "reservoir inspected northern", "-k", "1").GetProperty("hits").EnumerateArray().Single();
+
+        Assert.Equal(("logs/rota.html", "Spillway gate rota"), (titled.GetProperty("path").GetString(), titled.GetProperty("documentTitle").GetString()));
+        Assert.Equal("logs/spillway.pdf", untitled.GetProperty("path").GetString());
+        Assert.True(!untitled.TryGetProperty("documentTitle", out var none) || none.ValueKind == System.Text.Json.JsonValueKind.Null);
+    }
 }

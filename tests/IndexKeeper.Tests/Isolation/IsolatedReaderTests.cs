@@ -242,7 +242,7 @@ public sealed class IsolatedReaderTests : IDisposable
     {
         using var exits = Create(new ReaderWorkerCommand("/bin/sh", ["-c", "echo 'no runtime here' >&2; exit 3"]));
         using var missing = Create(new ReaderWorkerCommand(scratch.File("no-such-worker"), []));
-        using var wrongVersion = Create(new ReaderWorkerCommand("/bin/sh", ["-c", StandInWorker.PrintBytes(Convert.FromHexString("494B52570102000000" + "0200")) + "; exec sleep 600"]));
+        using var wrongVersion = Create(new ReaderWorkerCommand("/bin/sh", ["-c", StandInWorker.PrintBytes(Convert.FromHexString("494B52570102000000" + "0300")) + "; exec sleep 600"]));
 
         var exitError = NoHang.Throws<InvalidOperationException>(() => exits.Read(goodPdf, OneSecond, CancellationToken.None));
         var missingError = NoHang.Throws<InvalidOperationException>(() => missing.Read(goodPdf, OneSecond, CancellationToken.None));
@@ -251,7 +251,7 @@ public sealed class IsolatedReaderTests : IDisposable
         Assert.Contains("exit code 3", exitError.Message, StringComparison.Ordinal);
         Assert.Contains("no runtime here", exitError.Message, StringComparison.Ordinal);
         Assert.Contains("no-such-worker", missingError.Message, StringComparison.Ordinal);
-        Assert.Contains("protocol version 2", versionError.Message, StringComparison.Ordinal);
+        Assert.Contains("protocol version 3", versionError.Message, StringComparison.Ordinal);
         Assert.Equal(0, exits.WorkerStarts);
     }
 

@@ -15,7 +15,7 @@ public sealed class MessageCodecTests
         var limits = new ReadLimits(512L * 1024 * 1024, 5000, 256L * 1024 * 1024, TimeSpan.FromSeconds(60));
 
         Assert.Equal(expected, FrameStream.Encode(MessageCodec.Request("/srv/a.pdf", limits)));
-        Assert.Equal(Convert.FromHexString("494B52570102000000" + "0100"), StandInWorker.Hello());
+        Assert.Equal(Convert.FromHexString("494B52570102000000" + "0200"), StandInWorker.Hello());
     }
 
     [Fact]
@@ -116,5 +116,8 @@ public sealed class MessageCodecTests
         [
             new PageContent(1, PageKey.Of("page one"u8), 595.28f, 841.89f, 90, [new PageWord("Harrowmere", new PageBox(60, 760, 150.5f, 774)), new PageWord("", new PageBox(-1, -2, 3, 4))]),
             new PageContent(2, PageKey.Of("page two"u8), 612, 792, 0, []),
-        ]);
+        ])
+    {
+        Title = "Harrowmere dredging plan, Häfen edition",
+    };
 }

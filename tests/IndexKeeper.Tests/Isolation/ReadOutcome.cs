@@ -24,7 +24,7 @@ internal static class ReadOutcome
 
     public static string Describe(DocumentContent content)
     {
-        var text = new StringBuilder().Append(content.Kind).Append(" pages=").Append(content.Pages.Count).AppendLine();
+        var text = new StringBuilder().Append(content.Kind).Append(" pages=").Append(content.Pages.Count).Append(" title=").Append(content.Title ?? "(none)").AppendLine();
         foreach (var page in content.Pages)
         {
             text.Append(CultureInfo.InvariantCulture, $"{page.Number} {page.Key} {page.Width:R}x{page.Height:R} r{page.Rotation}:");

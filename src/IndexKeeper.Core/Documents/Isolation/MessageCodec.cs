@@ -73,6 +73,7 @@ internal static class MessageCodec
             }
         }
 
+        body.WriteString(content.Title ?? string.Empty);
         return new Frame(FrameType.Content, body.ToArray());
     }
 
@@ -103,8 +104,9 @@ internal static class MessageCodec
             pages[i] = new PageContent(number, key, width, height, rotation, words);
         }
 
+        var title = body.ReadString();
         body.EnsureEnd();
-        return new DocumentContent(kind, pages);
+        return new DocumentContent(kind, pages) { Title = DocumentTitle.Clean(title) };
     }
 
     public static Frame Refusal(QuarantineReason reason, string message)

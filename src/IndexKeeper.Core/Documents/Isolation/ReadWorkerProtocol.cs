@@ -7,7 +7,7 @@ namespace IndexKeeper.Core.Documents.Isolation;
 internal static class ReadWorkerProtocol
 {
     /// <summary>Protocol version the worker announces in its hello frame. Raise it on any change of layout.</summary>
-    public const ushort Version = 1;
+    public const ushort Version = 2;
 
     /// <summary>"IKRW" in ASCII: the first four bytes of every frame. Never change within a version.</summary>
     public static ReadOnlySpan<byte> Magic => "IKRW"u8;

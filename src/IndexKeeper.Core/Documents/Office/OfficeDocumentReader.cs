@@ -25,6 +25,6 @@ internal sealed class OfficeDocumentReader(OfficeConverter converter, PdfDocumen
         }
 
         var pages = content.Pages.Select(p => p with { Key = ConvertedPageKey.Of(version, p.Key) }).ToList();
-        return (new DocumentContent(kind, pages), drawn);
+        return (new DocumentContent(kind, pages) { Title = content.Title }, drawn);
     }
 }

@@ -70,6 +70,6 @@ internal sealed class PdfDocumentReader
                 PdfWordExtractor.Extract(page, visible)));
         }
 
-        return new DocumentContent(DocumentKind.Pdf, pages);
+        return new DocumentContent(DocumentKind.Pdf, pages) { Title = DocumentTitle.Clean(document.Information.Title) };
     }
 }

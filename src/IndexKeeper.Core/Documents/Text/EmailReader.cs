@@ -13,11 +13,11 @@ internal sealed class EmailReader(ReaderSettings settings, Func<byte[], string, 
     public DocumentContent Read(byte[] file, int depth, ReadLimits limits, CancellationToken cancellationToken)
     {
         var parts = 0;
-        var pages = ReadMessage(file, depth, ref parts, limits, cancellationToken);
-        return new DocumentContent(DocumentKind.Email, pages);
+        var pages = ReadMessage(file, depth, ref parts, limits, cancellationToken, out var subject);
+        return new DocumentContent(DocumentKind.Email, pages) { Title = DocumentTitle.Clean(subject) };
     }
 
-    private List<PageContent> ReadMessage(byte[] file, int depth, ref int parts, ReadLimits limits, CancellationToken cancellationToken)
+    private List<PageContent> ReadMessage(byte[] file, int depth, ref int parts, ReadLimits limits, CancellationToken cancellationToken, out string? subject)
     {
         if (depth > settings.MaxNestingDepth)
         {
@@ -33,6 +33,8 @@ internal sealed class EmailReader(ReaderSettings settings, Func<byte[], string, 
         {
             throw new DocumentReadException(QuarantineReason.Corrupt, $"the e-mail cannot be parsed: {e.Message}", e);
         }
+
+        subject = message.Subject;
 
         var attachments = message.Attachments.ToList();
         var lines = new List<string>
@@ -68,7 +70,7 @@ internal sealed class EmailReader(ReaderSettings settings, Func<byte[], string, 
 
             var bytes = Content(attachment, limits);
             var attached = attachment is MessagePart
-                ? ReadMessage(bytes, depth + 1, ref parts, limits, cancellationToken)
+                ? ReadMessage(bytes, depth + 1, ref parts, limits, cancellationToken, out _)
                 : readAttachment(bytes, Name(attachment), depth + 1, limits, cancellationToken)?.Pages.ToList() ?? [];
             pages.AddRange(attached);
             if (pages.Count > limits.MaxPages)

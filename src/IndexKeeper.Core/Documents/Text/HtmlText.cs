@@ -30,7 +30,10 @@ internal static class HtmlText
         "p", "h1", "h2", "h3", "h4", "h5", "h6", "pre", "blockquote", "table", "ul", "ol", "dl", "hr",
     };
 
-    public static List<string> Lines(string html)
+    public static List<string> Lines(string html) => Read(html).Lines;
+
+    /// <summary>The lines the page shows and its <c>title</c> element (not shown on the page; null when absent).</summary>
+    public static (List<string> Lines, string? Title) Read(string html)
     {
         var document = new HtmlParser().ParseDocument(html);
         var writer = new LineWriter();
@@ -39,7 +42,7 @@ internal static class HtmlText
             Walk(body, writer, preformatted: false);
         }
 
-        return writer.Finish();
+        return (writer.Finish(), document.Title);
     }
 
     private static void Walk(INode node, LineWriter writer, bool preformatted)

@@ -19,6 +19,12 @@ internal sealed class TextDocumentReader
         }
 
         var text = TextDecoding.Decode(file);
+        if (kind == DocumentKind.Html)
+        {
+            var (lines, title) = HtmlText.Read(text);
+            return new DocumentContent(kind, TextPageLayout.Paginate(lines, limits.MaxPages, cancellationToken)) { Title = DocumentTitle.Clean(title) };
+        }
+
         return new DocumentContent(kind, TextPageLayout.Paginate(Lines(text, kind), limits.MaxPages, cancellationToken));
     }
 
