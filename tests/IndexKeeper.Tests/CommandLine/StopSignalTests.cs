@@ -40,7 +40,7 @@ public sealed class StopSignalTests
         string[] common = ["--index", temp.Combine("index"), "--root", store];
 
         // Batches of two pages; the pause holds the second batch's append, after the first batch's commit.
-        var start = CliRunner.StartInfo(temp.Path, ["sync", .. common, "--Encoder:BatchSize=2", "--Detect:SettleSeconds=0", "--json"]);
+        var start = WithDefaultSigInt(CliRunner.StartInfo(temp.Path, ["sync", .. common, "--Encoder:BatchSize=2", "--Detect:SettleSeconds=0", "--json"]));
         start.Environment["IK_FAULT_INJECTION"] = $"{FaultPoints.SegmentAppendBeforeFsync}:pause:2";
         using var process = Process.Start(start)!;
         var stdout = process.StandardOutput.ReadToEndAsync();
@@ -73,6 +73,27 @@ public sealed class StopSignalTests
         var next = CliRunner.Run(temp.Path, ["sync", .. common, "--Detect:SettleSeconds=0", "--json"]);
         Assert.Equal(0, next.ExitCode);
         Assert.Equal(12 - live, JsonDocument.Parse(next.Stdout).RootElement.GetProperty("pagesEmbedded").GetInt32());
+    }
+
+    /// <summary>
+    /// Starts the command through coreutils' <c>env --default-signal=INT</c>. A test host started in the
+    /// background by a non-interactive shell inherits SIGINT ignored (POSIX, Shell Command Language §2.11, from memory:
+    /// asynchronous lists ignore SIGINT), the command would inherit that too, and an ignored SIGINT is not
+    /// what an operator's Ctrl+C meets.
+    /// </summary>
+    private static ProcessStartInfo WithDefaultSigInt(ProcessStartInfo start)
+    {
+        var arguments = start.ArgumentList.ToList();
+        start.ArgumentList.Clear();
+        start.ArgumentList.Add("--default-signal=INT");
+        start.ArgumentList.Add(start.FileName);
+        foreach (var argument in arguments)
+        {
+            start.ArgumentList.Add(argument);
+        }
+
+        start.FileName = "env";
+        return start;
     }
 
     [DllImport("libc", EntryPoint = "kill")]
