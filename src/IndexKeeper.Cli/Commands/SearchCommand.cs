@@ -106,7 +106,11 @@ internal sealed class SearchCommand() : CommandBase(
             var found = search.Search(text, k, filter!, cancellationToken);
             if (context.Value(maps) is { } mapsDirectory)
             {
-                MatchMaps.Write(composed.Index.Catalog, composed.Index.Words, found, mapsDirectory);
+                var rootPaths = options.Roots.ToDictionary(r => r.Name, r => r.Path, StringComparer.Ordinal);
+                foreach (var note in MatchMaps.Write(composed.Index.Catalog, composed.Index.Words, found, mapsDirectory, rootPaths))
+                {
+                    Console.Error.WriteLine("note: " + note);
+                }
             }
 
             return found;

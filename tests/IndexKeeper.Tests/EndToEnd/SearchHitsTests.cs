@@ -43,6 +43,28 @@ public sealed class SearchHitsTests : IDisposable
     }
 
     [Fact]
+    public void Maps_of_an_earlier_search_are_replaced_and_nothing_else_in_the_folder_is_touched()
+    {
+        index.Put("store/logs/spillway.pdf", StorePdfs.Document("spillway", 4, 3, Line));
+        index.Json("sync");
+        var maps = index.PathOf("maps");
+        Directory.CreateDirectory(maps);
+        File.WriteAllText(Path.Combine(maps, "01-keep-p1.png"), "the operator's own file");
+
+        index.Json("search", "spillway storm", "-k", "3", "--maps", maps);
+        var first = Directory.GetFiles(maps, "*.png").Select(Path.GetFileName).ToHashSet();
+        index.Json("search", "spillway storm", "-k", "1", "--maps", maps);
+        var second = Directory.GetFiles(maps, "*.png").Select(Path.GetFileName).ToHashSet();
+
+        // Three maps, then one: the two the second search did not write are gone, the operator's file stays.
+        Assert.Equal(4, first.Count);
+        Assert.Equal(2, second.Count);
+        Assert.Contains("01-keep-p1.png", second);
+        Assert.Equal("the operator's own file", File.ReadAllText(Path.Combine(maps, "01-keep-p1.png")));
+        Assert.Equal(second.Where(n => n != "01-keep-p1.png"), File.ReadAllLines(Path.Combine(maps, ".indexkeeper-maps")));
+    }
+
+    [Fact]
     public void A_hit_carries_the_title_its_document_gives_itself()
     {
         index.Put("store/logs/rota.html", System.Text.Encoding.UTF8.GetBytes(
