@@ -26,6 +26,7 @@ public sealed class ServingViews : IDisposable
     private readonly Func<VectorStore> store;
     private readonly string directory;
     private readonly bool readOnly;
+    private readonly CandidateSource source;
     private readonly object gate = new();
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
@@ -35,7 +36,8 @@ public sealed class ServingViews : IDisposable
 
     /// <param name="store">The segment store, asked for only when vector sets are read (opened on first use).</param>
     /// <param name="readOnly">True for a read-only open: the views are never written to disk and no commit is heard.</param>
-    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly)
+    /// <param name="source">Where searches take candidates from (<c>Query:Candidates</c>); the views hold its structure.</param>
+    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly, CandidateSource source)
     {
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(store);
@@ -44,6 +46,7 @@ public sealed class ServingViews : IDisposable
         this.store = store;
         this.directory = directory;
         this.readOnly = readOnly;
+        this.source = source;
         openedAt = catalog.VectorSetGeneration;
         writtenAt = long.MinValue;
         if (!readOnly)
@@ -83,13 +86,13 @@ public sealed class ServingViews : IDisposable
     /// <summary>
     /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
     /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
-    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives, each count growing
-    /// with the index (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
+    /// serving view, or over the candidates its graph or centroid lists give, each count growing with the index
+    /// (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
-    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the graph would
-    /// give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
-    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
+    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the structure
+    /// would give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
     {
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
@@ -100,9 +103,9 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var fromGraphCount = CandidateCounts.FromGraph(k, view.Count);
-            IEnumerable<ServingEntry> candidates = fromGraph && (allowed is null || allowed.Count > fromGraphCount)
-                ? view.Candidates(query, fromGraphCount)
+            var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k, view.Count);
+            IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
+                ? view.Candidates(query, structureCount)
                 : view.Entries();
             if (allowed is not null)
             {
@@ -161,7 +164,7 @@ public sealed class ServingViews : IDisposable
 
             foreach (var encoderId in encoders)
             {
-                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: true, out _) is { } fresh)
+                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, source, mapOnly: true, out _) is { } fresh)
                 {
                     // Already on disk as it is now (an earlier process wrote it): nothing to do.
                     fresh.Dispose();
@@ -197,14 +200,14 @@ public sealed class ServingViews : IDisposable
     private ServingView Load(string encoderId, long generation, CancellationToken cancellationToken)
     {
         var stamp = catalog.CreatedTicks;
-        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: readOnly, out _) is { } current)
+        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, source, mapOnly: readOnly, out _) is { } current)
         {
             return current;
         }
 
         // A writer that heard every commit since it opened can start from the file as it was then.
         if (!readOnly && openedAt != generation
-            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, mapOnly: false, out _) is { } older)
+            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, source, mapOnly: false, out _) is { } older)
         {
             if (CatchUp(older, generation, cancellationToken))
             {
@@ -254,13 +257,18 @@ public sealed class ServingViews : IDisposable
         // Stamped with the generation read before the list: commits that land while it is read (the daemon's
         // writer does not wait for searches) are applied again by the next catch-up, and each change states a
         // final state, so one already in the list changes nothing.
-        var view = new ServingView(encoderId, generation);
+        var live = catalog.VectorSets.Live(encoderId);
+        var view = new ServingView(encoderId, generation, source, live.Sum(r => (long)r.VectorCount));
         try
         {
-            var live = catalog.VectorSets.Live(encoderId);
-            for (var at = 0; at < live.Count; at += BuildChunk)
+            // The first chunk is spread evenly over the live list, so centroids trained on it sample the whole
+            // index rather than its oldest pages; the rest follow in the catalog's order.
+            var step = Math.Max(1, live.Count / BuildChunk);
+            var first = Enumerable.Range(0, live.Count).Where(i => i % step == 0).Take(BuildChunk).ToHashSet();
+            var ordered = first.Order().Select(i => live[i]).Concat(live.Where((_, i) => !first.Contains(i))).ToList();
+            for (var at = 0; at < ordered.Count; at += BuildChunk)
             {
-                var chunk = live.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
+                var chunk = ordered.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
                 view.Apply(generation, chunk, locations => Open(encoderId, locations), cancellationToken);
             }
 
