@@ -58,6 +58,7 @@ public sealed class ServingBenchmark : IBenchmark
         {
             var (copy, _) = Measure.Once(() => CopyFolder(cache!, directory));
             context.Note($"{name}: index copied from the cache {cache} in {copy:0.0} s (written by an earlier run of the same generator)");
+            corpus.Replay(pages);
         }
 
         Directory.CreateDirectory(directory);
@@ -185,9 +186,9 @@ public sealed class ServingBenchmark : IBenchmark
         {
             using var other = centroidCount == product.CentroidCount ? null : Built(catalog, store, encoderId, centroidCount, context, name);
             var view = other ?? product;
-            foreach (var probes in new[] { 1, 2, 4 })
+            foreach (var probes in new[] { 1, 2 })
             {
-                foreach (var handed in new[] { pages / 10, pages / 4 })
+                foreach (var handed in new[] { 1000, 3000 })
                 {
                     foreach (var rerank in new[] { 100, 1000 })
                     {

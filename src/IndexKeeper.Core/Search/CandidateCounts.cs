@@ -11,10 +11,10 @@ public static class CandidateCounts
     public static int FromGraph(int k, int pages) => Math.Max(Math.Max(200 * k, 2000), pages / 20);
 
     /// <summary>
-    /// Most pages the centroid lists hand on to the sign-code stage: max(100·k, 1,000, one in 4 pages). Their
-    /// lists usually hold fewer; more are cut by centroid interaction (docs/benchmarks.md, <c>serving</c>).
+    /// Pages the centroid lists hand on to the sign-code stage: max(100·k, 1,000), best by approximate MaxSim
+    /// (docs/benchmarks.md, <c>serving</c>).
     /// </summary>
-    public static int FromCentroids(int k, int pages) => Math.Max(Math.Max(100 * k, 1000), pages / 4);
+    public static int FromCentroids(int k, int pages) => Math.Max(100 * k, 1000);
 
     /// <summary>Centroids each query token probes in the centroid lists (measured, docs/benchmarks.md, <c>serving</c>).</summary>
     public const int Probes = 2;

@@ -1,58 +1,63 @@
+using System.Numerics;
 using System.Numerics.Tensors;
 
 namespace IndexKeeper.Core.Search;
 
 /// <summary>
-/// Candidate pages from centroid inverted lists, after Santhanam, Khattab, Potts and Zaharia, "PLAID: An
-/// Efficient Engine for Late Interaction Retrieval" (CIKM 2022, arXiv:2205.09707): k-means centroids trained on a
-/// sample of the index's vectors; each page keeps the distinct centroid ids of its vectors (its codes) and sits
-/// in the inverted list of each; a query token probes its nearest centroids and the pages of those lists are the
-/// candidates. Only when they are more than asked for are they cut by PLAID's centroid interaction (per query
-/// token the best centroid score among the page's codes, summed). PLAID's residuals are not kept: the serving
-/// view's sign-code stage ranks the candidates and its float16 re-rank reads the stored vectors
-/// (docs/search.md, "Candidates"; measured in docs/benchmarks.md, <c>serving</c>).
+/// Candidate pages from centroid inverted lists of vectors, after Santhanam, Khattab, Potts and Zaharia, "PLAID:
+/// An Efficient Engine for Late Interaction Retrieval" (CIKM 2022, arXiv:2205.09707) and Scheerer et al., "WARP:
+/// An Efficient Engine for Multi-Vector Retrieval" (SIGIR 2025, arXiv:2501.17788): k-means centroids trained on a
+/// sample of the index's vectors; every stored vector is an entry (page, sign code) in the list of its centroid.
+/// A query token probes a few centroids and scores the entries of their lists by the sign codes' dot product
+/// (the stand-in for PLAID's residuals); per page and token the best entry counts, and a token that found nothing
+/// on a page is imputed the lowest score it saw (WARP's imputation of missing similarities). The pages with the
+/// best sums are the candidates of the exact stages (docs/search.md, "Candidates"; docs/benchmarks.md, <c>serving</c>).
 /// </summary>
 /// <remarks>
 /// Adds are assigned to the trained centroids and appended; removes leave a tombstone until a quarter of the
-/// slots are dead, then the lists are rebuilt from the codes. The centroids do not follow the content: their
-/// quality under churn is measured by the recall figure, and retraining is a new build. Not safe for a write
+/// slots are dead, then the lists are compacted. The centroids do not follow the content: their quality under
+/// churn is the recall figure (docs/search.md, "Recall"), and retraining is a new build. Not safe for a write
 /// beside any other call: the serving view's lock orders them.
 /// </remarks>
 internal sealed class CentroidLists
 {
     /// <summary>Centroid ids are written as 16-bit numbers (docs/serving-view.md).</summary>
-    public const int MaximumCentroids = 4096;
+    public const int MaximumCentroids = 16384;
 
     public const int MinimumCentroids = 64;
 
-    /// <summary>Sample vectors per centroid for k-means and Lloyd iterations: enough for stable centroids at a build's cost (common practice).</summary>
+    /// <summary>Sample vectors per centroid for k-means: enough for stable centroids at a build's cost (common practice).</summary>
     public const int SamplePerCentroid = 16;
 
     public const int Iterations = 8;
 
     /// <summary>
     /// A vector goes to the best of this many centroids by sign-code Hamming distance (the angle estimate of
-    /// Charikar, STOC 2002), chosen by exact dot product: 16 popcounts stand in for most of the float dot
-    /// products of a build. Queries use the same rule, so a query token meets the list of an equal page vector.
+    /// Charikar, STOC 2002), chosen by exact dot product: popcounts stand in for most of the float dot products
+    /// of a build. Queries use the same rule, so a query token meets the list of an equal page vector.
     /// </summary>
     public const int Shortlist = 16;
 
     private readonly int dimensions;
+    private readonly int words;
     private readonly float[] centroids;
     private readonly ulong[] centroidCodes;
     private readonly Dictionary<ulong, int> slotOf = [];
-    private readonly List<ulong> idOf = [];
-    private readonly List<ushort[]?> codesOf = [];
-    private List<int>[] postings;
+    private List<ulong> idOf = [];
+    private List<bool> alive = [];
+    private List<int>[] slots;
+    private List<ulong>[] codes;
     private int dead;
 
     private CentroidLists(int dimensions, float[] centroids)
     {
         this.dimensions = dimensions;
         this.centroids = centroids;
-        centroidCodes = new ulong[CentroidCount * SignCodes.WordsPerCode(dimensions)];
+        words = SignCodes.WordsPerCode(dimensions);
+        centroidCodes = new ulong[CentroidCount * words];
         SignCodes.Compute(centroids, dimensions, centroidCodes);
-        postings = NewPostings(CentroidCount);
+        slots = [.. Enumerable.Range(0, CentroidCount).Select(_ => new List<int>())];
+        codes = [.. Enumerable.Range(0, CentroidCount).Select(_ => new List<ulong>())];
     }
 
     public int CentroidCount => centroids.Length / dimensions;
@@ -62,8 +67,8 @@ internal sealed class CentroidLists
     /// <summary>Centroids, row-major, <c>CentroidCount × dimensions</c>.</summary>
     public ReadOnlySpan<float> Centroids => centroids;
 
-    /// <summary>Bytes held: centroids, codes (2 B each), list entries (4 B each) and per-page overhead.</summary>
-    public long BytesEstimate => (centroids.Length * 4L) + codesOf.Sum(c => c is null ? 8L : 40L + (c.Length * 6L)) + (slotOf.Count * 24L);
+    /// <summary>Bytes held: centroids, list entries (a 4-byte slot and the sign code each) and per-page slots.</summary>
+    public long BytesEstimate => (centroids.Length * 4L) + slots.Sum(l => (long)l.Capacity * 4) + codes.Sum(l => (long)l.Capacity * 8) + (idOf.Capacity * 9L) + (slotOf.Count * 24L);
 
     /// <summary>
     /// Centroids for an index of <paramref name="vectors"/> vectors: a power of two near 2·√vectors, within
@@ -121,55 +126,96 @@ internal sealed class CentroidLists
         return lists;
     }
 
-    /// <summary>Lists over stored centroids and page codes, as the serving view file keeps them.</summary>
-    public static CentroidLists Restore(int dimensions, float[] centroids, IEnumerable<(ulong Id, ushort[] Codes)> pages)
+    /// <summary>Lists over stored centroids and list entries (page id and sign code), as the serving view file keeps them.</summary>
+    public static CentroidLists Restore(int dimensions, float[] centroids, IReadOnlyList<(ulong[] Ids, ulong[] Codes)> lists)
     {
-        ArgumentNullException.ThrowIfNull(pages);
-        var lists = new CentroidLists(dimensions, centroids);
-        foreach (var (id, codes) in pages)
+        ArgumentNullException.ThrowIfNull(lists);
+        var restored = new CentroidLists(dimensions, centroids);
+        if (lists.Count != restored.CentroidCount)
         {
-            if (codes.Any(c => c >= lists.CentroidCount))
-            {
-                throw new FormatException($"A page's centroid id is outside the {lists.CentroidCount} centroids.");
-            }
-
-            lists.Add(id, codes);
+            throw new FormatException($"{lists.Count} centroid lists for {restored.CentroidCount} centroids.");
         }
 
-        return lists;
+        for (var c = 0; c < lists.Count; c++)
+        {
+            var (ids, entryCodes) = lists[c];
+            if (entryCodes.Length != ids.Length * restored.words)
+            {
+                throw new FormatException($"Centroid list {c} has {ids.Length} entries and {entryCodes.Length} code words.");
+            }
+
+            foreach (var id in ids)
+            {
+                if (!restored.slotOf.TryGetValue(id, out var slot))
+                {
+                    slot = restored.idOf.Count;
+                    restored.slotOf[id] = slot;
+                    restored.idOf.Add(id);
+                    restored.alive.Add(true);
+                }
+
+                restored.slots[c].Add(slot);
+            }
+
+            restored.codes[c].AddRange(entryCodes);
+        }
+
+        return restored;
     }
 
-    /// <summary>The distinct centroid ids of a page's vectors (given with their sign codes), ascending.</summary>
+    /// <summary>The live entries of list <paramref name="centroid"/>: page ids and their sign codes (words per code each).</summary>
+    public (ulong[] Ids, ulong[] Codes) List(int centroid)
+    {
+        var ids = new List<ulong>();
+        var entryCodes = new List<ulong>();
+        for (var e = 0; e < slots[centroid].Count; e++)
+        {
+            var slot = slots[centroid][e];
+            if (alive[slot])
+            {
+                ids.Add(idOf[slot]);
+                entryCodes.AddRange(codes[centroid].GetRange(e * words, words));
+            }
+        }
+
+        return ([.. ids], [.. entryCodes]);
+    }
+
+    /// <summary>True when the page is in the lists.</summary>
+    public bool Contains(ulong id) => slotOf.ContainsKey(id);
+
+    /// <summary>The centroid of each of a page's vectors (given with their sign codes).</summary>
     public ushort[] Assign(ReadOnlySpan<Half> vectors, ReadOnlySpan<ulong> signCodes)
     {
-        var words = SignCodes.WordsPerCode(dimensions);
         var rows = vectors.Length / dimensions;
         var row = new float[dimensions];
         var shortlist = new Shortlisted(Shortlist);
-        var codes = new SortedSet<ushort>();
+        var assigned = new ushort[rows];
         for (var r = 0; r < rows; r++)
         {
             TensorPrimitives.ConvertToSingle(vectors.Slice(r * dimensions, dimensions), row);
-            codes.Add((ushort)Assigned(row, signCodes.Slice(r * words, words), shortlist));
+            assigned[r] = (ushort)Assigned(row, signCodes.Slice(r * words, words), shortlist);
         }
 
-        return [.. codes];
+        return assigned;
     }
 
-    /// <summary>The codes of a page in the lists; null when it is not there.</summary>
-    public ushort[]? CodesOf(ulong id) => slotOf.TryGetValue(id, out var slot) ? codesOf[slot] : null;
-
-    public void Add(ulong id, ushort[] codes)
+    /// <summary>Puts each vector of a page (its centroid from <see cref="Assign"/> and its sign code) in its list.</summary>
+    public void Add(ulong id, ushort[] assigned, ReadOnlySpan<ulong> signCodes)
     {
-        ArgumentNullException.ThrowIfNull(codes);
+        ArgumentNullException.ThrowIfNull(assigned);
         Remove(id);
         var slot = idOf.Count;
         idOf.Add(id);
-        codesOf.Add(codes);
+        alive.Add(true);
         slotOf[id] = slot;
-        foreach (var code in codes)
+        for (var r = 0; r < assigned.Length; r++)
         {
-            postings[code].Add(slot);
+            slots[assigned[r]].Add(slot);
+            foreach (var word in signCodes.Slice(r * words, words))
+            {
+                codes[assigned[r]].Add(word);
+            }
         }
     }
 
@@ -180,119 +226,106 @@ internal sealed class CentroidLists
             return;
         }
 
-        codesOf[slot] = null;
+        alive[slot] = false;
         if (++dead > Math.Max(1024, idOf.Count / 4))
         {
-            Rebuild();
+            Compact();
         }
     }
 
     /// <summary>
-    /// Ids of the pages listed under the centroids each query token (rows of <paramref name="query"/>) probes: the
-    /// one its vector would be assigned to and the nearest others by dot product, <paramref name="probes"/> in
-    /// all. When they are more than <paramref name="count"/>, the <paramref name="count"/> with the highest
-    /// centroid interaction, best first (ties to the earlier slot); else all of them in slot order.
+    /// Ids of the <paramref name="count"/> pages with the best approximate MaxSim from the lists each query token
+    /// (rows of <paramref name="query"/>) probes: the centroid its vector would be assigned to and the nearest
+    /// others by dot product, <paramref name="probes"/> in all. Best first, ties to the earlier slot.
     /// </summary>
     public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int count, CancellationToken cancellationToken)
     {
         var tokens = query.Length / dimensions;
         var centroidCount = CentroidCount;
         probes = Math.Clamp(probes, 1, centroidCount);
-        var table = new float[tokens * centroidCount];
-        var probed = new bool[centroidCount];
-        var order = new int[centroidCount];
-        var words = SignCodes.WordsPerCode(dimensions);
         var queryCodes = new ulong[tokens * words];
         SignCodes.Compute(query, dimensions, queryCodes);
         var shortlist = new Shortlisted(Shortlist);
+        var scores = new float[centroidCount];
+        var order = new int[centroidCount];
+        var rowOf = new Dictionary<int, int>();
+        var best = new List<int>();
+        var imputed = new int[tokens];
         for (var q = 0; q < tokens; q++)
         {
-            probed[Assigned(query.Slice(q * dimensions, dimensions), queryCodes.AsSpan(q * words, words), shortlist)] = true;
-            var scores = table.AsSpan(q * centroidCount, centroidCount);
-            for (var c = 0; c < centroidCount; c++)
+            cancellationToken.ThrowIfCancellationRequested();
+            var token = query.Slice(q * dimensions, dimensions);
+            var tokenCode = queryCodes.AsSpan(q * words, words);
+            var probed = new HashSet<int> { Assigned(token, tokenCode, shortlist) };
+            if (probes > 1)
             {
-                scores[c] = TensorPrimitives.Dot(query.Slice(q * dimensions, dimensions), centroids.AsSpan(c * dimensions, dimensions));
-                order[c] = c;
+                for (var c = 0; c < centroidCount; c++)
+                {
+                    scores[c] = -TensorPrimitives.Dot(token, centroids.AsSpan(c * dimensions, dimensions));
+                    order[c] = c;
+                }
+
+                Array.Sort(scores, order);
+                for (var i = 0; probed.Count < probes; i++)
+                {
+                    probed.Add(order[i]);
+                }
             }
 
-            var keys = scores.ToArray();
-            Array.Sort(keys, order);
-            for (var i = 1; i < probes; i++)
+            var lowest = int.MaxValue;
+            foreach (var c in probed)
             {
-                probed[order[^i]] = true;
+                var listSlots = slots[c];
+                var listCodes = codes[c];
+                for (var e = 0; e < listSlots.Count; e++)
+                {
+                    var slot = listSlots[e];
+                    if (!alive[slot])
+                    {
+                        continue;
+                    }
+
+                    var distance = 0;
+                    for (var w = 0; w < words; w++)
+                    {
+                        distance += BitOperations.PopCount(tokenCode[w] ^ listCodes[(e * words) + w]);
+                    }
+
+                    var similarity = dimensions - (2 * distance);
+                    lowest = Math.Min(lowest, similarity);
+                    if (!rowOf.TryGetValue(slot, out var row))
+                    {
+                        row = rowOf.Count;
+                        rowOf[slot] = row;
+                        for (var t = 0; t < tokens; t++)
+                        {
+                            best.Add(int.MinValue);
+                        }
+                    }
+
+                    var at = (row * tokens) + q;
+                    best[at] = Math.Max(best[at], similarity);
+                }
             }
+
+            imputed[q] = lowest == int.MaxValue ? 0 : lowest;
         }
 
-        var seen = new bool[idOf.Count];
-        var candidates = new List<int>();
-        for (var c = 0; c < centroidCount; c++)
+        var top = new TopScores(count);
+        foreach (var (slot, row) in rowOf)
         {
-            if (!probed[c])
+            var total = 0;
+            for (var q = 0; q < tokens; q++)
             {
-                continue;
+                var found = best[(row * tokens) + q];
+                total += found == int.MinValue ? imputed[q] : found;
             }
 
-            foreach (var slot in postings[c])
-            {
-                if (!seen[slot] && codesOf[slot] is not null)
-                {
-                    seen[slot] = true;
-                    candidates.Add(slot);
-                }
-            }
+            top.Offer(total, slot);
         }
 
-        if (candidates.Count <= count)
-        {
-            return [.. candidates.Order().Select(slot => idOf[slot])];
-        }
-
-        var merged = new TopScores(count);
-        Parallel.For(
-            0,
-            (candidates.Count + 255) / 256,
-            new ParallelOptions { CancellationToken = cancellationToken },
-            () => new TopScores(count),
-            (chunk, _, local) =>
-            {
-                var end = Math.Min(candidates.Count, (chunk + 1) * 256);
-                for (var i = chunk * 256; i < end; i++)
-                {
-                    local.Offer(Interaction(table, tokens, codesOf[candidates[i]]!), candidates[i]);
-                }
-
-                return local;
-            },
-            local =>
-            {
-                lock (merged)
-                {
-                    local.AddTo(merged);
-                }
-            });
-        return [.. merged.ToSorted().Select(s => idOf[s.Ordinal])];
+        return [.. top.ToSorted().Select(s => idOf[s.Ordinal])];
     }
-
-    private static float Interaction(float[] table, int tokens, ushort[] codes)
-    {
-        var centroidCount = table.Length / tokens;
-        var total = 0f;
-        for (var q = 0; q < tokens; q++)
-        {
-            var best = float.NegativeInfinity;
-            var offset = q * centroidCount;
-            foreach (var code in codes)
-            {
-                best = Math.Max(best, table[offset + code]);
-            }
-
-            total += best;
-        }
-
-        return total;
-    }
-
-    private static List<int>[] NewPostings(int count) => [.. Enumerable.Range(0, count).Select(_ => new List<int>())];
 
     /// <summary>The centroid of <see cref="Shortlist"/> by fewest differing sign bits (ties: lower id) with the largest dot product.</summary>
     private int Assigned(ReadOnlySpan<float> row, ReadOnlySpan<ulong> code, Shortlisted shortlist)
@@ -304,7 +337,7 @@ internal sealed class CentroidLists
             var distance = 0;
             for (var w = 0; w < words; w++)
             {
-                distance += System.Numerics.BitOperations.PopCount(code[w] ^ centroidCodes[(c * words) + w]);
+                distance += BitOperations.PopCount(code[w] ^ centroidCodes[(c * words) + w]);
             }
 
             shortlist.Offer(distance, c);
@@ -376,18 +409,40 @@ internal sealed class CentroidLists
         }
     }
 
-    /// <summary>Drops the tombstones: slots renumbered in their order, lists made again from the codes.</summary>
-    private void Rebuild()
+    /// <summary>Drops the tombstones: live slots renumbered in their order, each list filtered.</summary>
+    private void Compact()
     {
-        var live = idOf.Select((id, slot) => (Id: id, Codes: codesOf[slot])).Where(p => p.Codes is not null).ToList();
-        idOf.Clear();
-        codesOf.Clear();
-        slotOf.Clear();
-        postings = NewPostings(CentroidCount);
-        dead = 0;
-        foreach (var (id, codes) in live)
+        var renumbered = new int[idOf.Count];
+        var ids = new List<ulong>(slotOf.Count);
+        for (var slot = 0; slot < idOf.Count; slot++)
         {
-            Add(id, codes!);
+            renumbered[slot] = alive[slot] ? ids.Count : -1;
+            if (alive[slot])
+            {
+                slotOf[idOf[slot]] = ids.Count;
+                ids.Add(idOf[slot]);
+            }
         }
+
+        for (var c = 0; c < CentroidCount; c++)
+        {
+            var keptSlots = new List<int>();
+            var keptCodes = new List<ulong>();
+            for (var e = 0; e < slots[c].Count; e++)
+            {
+                if (renumbered[slots[c][e]] is var slot and >= 0)
+                {
+                    keptSlots.Add(slot);
+                    keptCodes.AddRange(codes[c].GetRange(e * words, words));
+                }
+            }
+
+            slots[c] = keptSlots;
+            codes[c] = keptCodes;
+        }
+
+        idOf = ids;
+        alive = [.. ids.Select(_ => true)];
+        dead = 0;
     }
 }

@@ -128,7 +128,7 @@ public sealed class ServingView : IDisposable
         }
 
         var encodings = new Dictionary<PageKey, float[]>();
-        var codes = new Dictionary<PageKey, ushort[]>();
+        var codes = new Dictionary<PageKey, (ushort[] Assigned, ulong[] SignCodes)>();
         var readable = new HashSet<PageKey>();
         var dimensions = Dimensions;
         var trained = centroids;
@@ -172,11 +172,11 @@ public sealed class ServingView : IDisposable
                     // The first pages train the centroids (a build hands a sample spread over the index first);
                     // later ones are assigned to them. Assignment is the cost of a build: both cores share it.
                     trained ??= Train(source, dimensions, cancellationToken);
-                    var assigned = new ushort[source.Count][];
+                    var assigned = new (ushort[], ulong[])[source.Count];
                     Parallel.For(0, source.Count, new ParallelOptions { CancellationToken = cancellationToken }, i =>
                     {
                         var page = source.Get(i);
-                        assigned[i] = trained.Assign(page.Vectors, page.SignCodes);
+                        assigned[i] = (trained.Assign(page.Vectors, page.SignCodes), page.SignCodes.ToArray());
                     });
                     for (var i = 0; i < assigned.Length; i++)
                     {
@@ -230,7 +230,7 @@ public sealed class ServingView : IDisposable
                 if (codes.TryGetValue(change.Key, out var pageCodes))
                 {
                     centroids = trained;
-                    centroids!.Add(id, pageCodes);
+                    centroids!.Add(id, pageCodes.Assigned, pageCodes.SignCodes);
                 }
 
                 byKey[change.Key] = new Slot(id, new ServingEntry(change.Key, location, change.VectorCount));

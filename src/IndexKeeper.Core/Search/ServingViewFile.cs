@@ -108,7 +108,7 @@ internal static class ServingViewFile
                     writer.Write(entry.VectorCount);
                 }
 
-                // The centroid lists: the centroids, then each directory entry's codes in directory order.
+                // The centroid lists: the centroids, then per centroid its entries (page id, sign code).
                 writer.Write(centroids?.CentroidCount ?? 0);
                 if (centroids is not null && entries.Count > 0)
                 {
@@ -117,13 +117,18 @@ internal static class ServingViewFile
                         writer.Write(value);
                     }
 
-                    foreach (var (id, _) in entries)
+                    for (var c = 0; c < centroids.CentroidCount; c++)
                     {
-                        var codes = centroids.CodesOf(id) ?? throw new InvalidOperationException($"Page {id} of the serving view has no centroid codes.");
-                        writer.Write(checked((ushort)codes.Length));
-                        foreach (var code in codes)
+                        var (ids, codes) = centroids.List(c);
+                        writer.Write(ids.Length);
+                        foreach (var id in ids)
                         {
-                            writer.Write(code);
+                            writer.Write(id);
+                        }
+
+                        foreach (var word in codes)
+                        {
+                            writer.Write(word);
                         }
                     }
                 }
@@ -247,19 +252,39 @@ internal static class ServingViewFile
                 values[i] = reader.ReadSingle();
             }
 
-            var pages = new List<(ulong Id, ushort[] Codes)>(count);
-            foreach (var (id, _) in entries)
+            var known = entries.Select(e => e.Id).ToHashSet();
+            var words = dimensions / 64;
+            var lists = new List<(ulong[] Ids, ulong[] Codes)>(centroidCount);
+            for (var c = 0; c < centroidCount; c++)
             {
-                var codes = new ushort[reader.ReadUInt16()];
-                for (var i = 0; i < codes.Length; i++)
+                var length = reader.ReadInt32();
+                if (length < 0 || (long)length * 8 * (1 + words) > reader.BaseStream.Length - reader.BaseStream.Position)
                 {
-                    codes[i] = reader.ReadUInt16();
+                    reason = $"the serving view file's centroid list {c} has the wrong length";
+                    return null;
                 }
 
-                pages.Add((id, codes));
+                var ids = new ulong[length];
+                for (var i = 0; i < length; i++)
+                {
+                    ids[i] = reader.ReadUInt64();
+                    if (!known.Contains(ids[i]))
+                    {
+                        reason = $"the serving view file's centroid list {c} names page {ids[i]}, which its directory lacks";
+                        return null;
+                    }
+                }
+
+                var codes = new ulong[length * words];
+                for (var i = 0; i < codes.Length; i++)
+                {
+                    codes[i] = reader.ReadUInt64();
+                }
+
+                lists.Add((ids, codes));
             }
 
-            centroids = CentroidLists.Restore(dimensions, values, pages);
+            centroids = CentroidLists.Restore(dimensions, values, lists);
         }
 
         if (reader.BaseStream.Position != reader.BaseStream.Length)

@@ -31,12 +31,12 @@ public sealed class CentroidListsTests
     }
 
     [Fact]
-    public void A_page_keeps_the_distinct_assigned_centroids_of_its_vectors()
+    public void Each_vector_goes_to_the_nearest_of_the_centroids_closest_by_sign_code()
     {
         // The rule: of the 16 centroids whose sign codes differ in the fewest bits (ties to the lower id), the one
-        // with the largest dot product. With the shortlist as long as the centroids it is the nearest centroid.
+        // with the largest dot product.
         var lists = CentroidLists.Train(Normalised(TestVectors.Set(8, 400, Dimensions).Vectors), Dimensions, 32, CancellationToken.None);
-        var page = Normalised(TestVectors.Set(9, 50, Dimensions).Vectors);
+        var page = Rounded(Normalised(TestVectors.Set(9, 50, Dimensions).Vectors));
         var centroids = lists.Centroids.ToArray();
         var expected = Enumerable.Range(0, 50).Select(r =>
         {
@@ -46,37 +46,50 @@ public sealed class CentroidListsTests
                 .ThenBy(c => c)
                 .Take(CentroidLists.Shortlist)
                 .MaxBy(c => Dot(row, centroids.AsSpan(c * Dimensions, Dimensions)));
-        }).Distinct().Order();
-        var halves = page.Select(v => (Half)v).ToArray();
-        var codes = new ulong[50 * Dimensions / 64];
-        SignCodes.Compute([.. halves.Select(h => (float)h)], Dimensions, codes);
-        Assert.Equal(expected, lists.Assign(halves, codes));
+        });
+        Assert.Equal(expected, lists.Assign([.. page.Select(v => (Half)v)], Codes(page)));
     }
 
     [Fact]
-    public void Candidates_are_the_pages_of_the_probed_lists_ranked_by_centroid_interaction()
+    public void Candidates_rank_the_probed_entries_by_approximate_maxsim_with_missing_tokens_imputed()
     {
+        // The definition written out: per query token the entries of its assigned centroid's list, scored by the
+        // sign codes' dot product (d − 2·Hamming); per page the best entry of each token, or for a token with no
+        // entry on the page the lowest score the token saw; summed.
         var lists = CentroidLists.Train(Normalised(TestVectors.Set(10, 800, Dimensions).Vectors), Dimensions, 24, CancellationToken.None);
-        var pages = Enumerable.Range(0, 120).Select(p => (Id: (ulong)(p + 1), Codes: Assign(lists, Normalised(TestVectors.Set(100 + p, 8, Dimensions).Vectors)))).ToList();
-        foreach (var (id, codes) in pages)
+        var pages = Enumerable.Range(0, 120).Select(p => (Id: (ulong)(p + 1), Rows: Rounded(Normalised(TestVectors.Set(100 + p, 8, Dimensions).Vectors)))).ToList();
+        var entries = new List<(int Centroid, ulong Id, int Row, float[] Vector)>();
+        foreach (var (id, rows) in pages)
         {
-            lists.Add(id, codes);
+            var assigned = lists.Assign([.. rows.Select(v => (Half)v)], Codes(rows));
+            lists.Add(id, assigned, Codes(rows));
+            entries.AddRange(assigned.Select((c, r) => ((int)c, id, r, rows.AsSpan(r * Dimensions, Dimensions).ToArray())));
         }
 
-        var query = Normalised(TestVectors.Set(11, 3, Dimensions).Vectors).Select(v => (float)(Half)v).ToArray();
-        var centroids = lists.Centroids.ToArray();
-        var table = Enumerable.Range(0, 3).Select(q => Enumerable.Range(0, 24).Select(c => Dot(query.AsSpan(q * Dimensions, Dimensions), centroids.AsSpan(c * Dimensions, Dimensions))).ToArray()).ToArray();
-        // Each token probes the centroid it would be assigned to and the best other by dot product (2 probes).
-        var assigned = Assign(lists, query);
-        var probed = table.SelectMany(row => row.Select((score, c) => (score, c)).OrderByDescending(x => x.score).Take(1).Select(x => x.c)).Concat(assigned.Select(c => (int)c)).ToHashSet();
-        var expected = pages
-            .Where(p => p.Codes.Any(c => probed.Contains(c)))
-            .Select(p => (p.Id, Score: table.Sum(row => p.Codes.Max(c => row[c]))))
-            .OrderByDescending(p => p.Score)
-            .Take(15)
-            .Select(p => p.Id);
+        var query = Rounded(Normalised(TestVectors.Set(11, 3, Dimensions).Vectors));
+        var tokenCentroids = lists.Assign([.. query.Select(v => (Half)v)], Codes(query));
+        var scores = new Dictionary<ulong, int[]>();
+        var lowest = new int[3];
+        for (var q = 0; q < 3; q++)
+        {
+            var token = query.AsSpan(q * Dimensions, Dimensions).ToArray();
+            var probed = entries.Where(e => e.Centroid == tokenCentroids[q]).Select(e => (e.Id, Score: Dimensions - (2 * Enumerable.Range(0, Dimensions).Count(i => (token[i] >= 0) != (e.Vector[i] >= 0))))).ToList();
+            lowest[q] = probed.Count == 0 ? 0 : probed.Min(p => p.Score);
+            foreach (var (id, score) in probed)
+            {
+                var row = scores.TryGetValue(id, out var found) ? found : scores[id] = [int.MinValue, int.MinValue, int.MinValue];
+                row[q] = Math.Max(row[q], score);
+            }
+        }
 
-        Assert.Equal(expected, lists.Nearest(query, probes: 2, count: 15, CancellationToken.None));
+        var expected = scores
+            .Select(p => (p.Key, Total: Enumerable.Range(0, 3).Sum(q => p.Value[q] == int.MinValue ? lowest[q] : p.Value[q])))
+            .OrderByDescending(p => p.Total)
+            .ThenBy(p => p.Key)
+            .Take(10)
+            .Select(p => p.Key);
+
+        Assert.Equal(expected, lists.Nearest(query, probes: 1, count: 10, CancellationToken.None));
     }
 
     [Fact]
@@ -85,10 +98,10 @@ public sealed class CentroidListsTests
         var lists = CentroidLists.Train(Normalised(TestVectors.Set(12, 300, Dimensions).Vectors), Dimensions, 8, CancellationToken.None);
         for (var p = 0; p < 1500; p++)
         {
-            lists.Add((ulong)p, [(ushort)(p % 8)]);
+            lists.Add((ulong)p, [(ushort)(p % 8)], [(ulong)p]);
         }
 
-        // 1,100 removals pass the tombstone limit (more than 1,024 dead), so the lists are rebuilt on the way.
+        // 1,100 removals pass the tombstone limit (more than 1,024 dead), so the lists are compacted on the way.
         for (var p = 0; p < 1100; p++)
         {
             lists.Remove((ulong)p);
@@ -97,23 +110,27 @@ public sealed class CentroidListsTests
         Assert.Equal(400, lists.Count);
         var everything = lists.Nearest(Normalised(TestVectors.Set(13, 2, Dimensions).Vectors), probes: 8, count: 2000, CancellationToken.None);
         Assert.Equal(Enumerable.Range(1100, 400).Select(p => (ulong)p).Order(), everything.Order());
-        Assert.Null(lists.CodesOf(5));
-        Assert.Equal([(ushort)(1200 % 8)], lists.CodesOf(1200)!);
+        Assert.False(lists.Contains(5));
+        var (ids, codes) = lists.List(1200 % 8);
+        Assert.Equal(Enumerable.Range(1100, 400).Where(p => p % 8 == 1200 % 8).Select(p => (ulong)p), ids);
+        Assert.Equal(ids, codes);
     }
 
     [Theory]
     [InlineData(1_000L, 64)]
     [InlineData(1_300_000L, 2048)]
-    [InlineData(13_000_000L, 4096)]
+    [InlineData(13_000_000L, 8192)]
     public void The_centroid_count_is_a_power_of_two_near_twice_the_root_of_the_vectors(long vectors, int expected) =>
         Assert.Equal(expected, CentroidLists.CentroidsFor(vectors));
 
-    private static ushort[] Assign(CentroidLists lists, float[] rows)
+    /// <summary>Rows as float16 stores them, so page and query sides see the same values.</summary>
+    private static float[] Rounded(float[] rows) => [.. rows.Select(v => (float)(Half)v)];
+
+    private static ulong[] Codes(float[] rows)
     {
-        var halves = rows.Select(v => (Half)v).ToArray();
         var codes = new ulong[rows.Length / 64];
-        SignCodes.Compute([.. halves.Select(h => (float)h)], Dimensions, codes);
-        return lists.Assign(halves, codes);
+        SignCodes.Compute(rows, Dimensions, codes);
+        return codes;
     }
 
     private static float[] Normalised(float[] rows)
