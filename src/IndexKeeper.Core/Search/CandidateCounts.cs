@@ -11,13 +11,14 @@ public static class CandidateCounts
     public static int FromGraph(int k, int pages) => Math.Max(Math.Max(200 * k, 2000), pages / 20);
 
     /// <summary>
-    /// Pages the centroid lists hand on to the sign-code stage: max(100·k, 1,000), best by approximate MaxSim
-    /// (docs/benchmarks.md, <c>serving</c>).
+    /// Pages the centroid lists hand on to the sign-code stage, best by approximate MaxSim: max(300·k, 3,000), a
+    /// count that does not grow with the index (at 10,000 pages 3,000 kept 0.97–0.99 of the exhaustive top-10,
+    /// 1,000 only 0.90–0.94: docs/benchmarks.md, <c>serving</c>).
     /// </summary>
-    public static int FromCentroids(int k, int pages) => Math.Max(100 * k, 1000);
+    public static int FromCentroids(int k) => Math.Max(300 * k, 3000);
 
-    /// <summary>Centroids each query token probes in the centroid lists (measured, docs/benchmarks.md, <c>serving</c>).</summary>
-    public const int Probes = 2;
+    /// <summary>Centroids each query token probes: the one its vector is assigned to (a second added nothing, measured).</summary>
+    public const int Probes = 1;
 
     /// <summary>
     /// Pages the sign-code stage hands to the exact float re-rank: max(10·k, 100, one in 100 pages). The same

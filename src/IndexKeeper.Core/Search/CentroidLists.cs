@@ -71,13 +71,14 @@ internal sealed class CentroidLists
     public long BytesEstimate => (centroids.Length * 4L) + slots.Sum(l => (long)l.Capacity * 4) + codes.Sum(l => (long)l.Capacity * 8) + (idOf.Capacity * 9L) + (slotOf.Count * 24L);
 
     /// <summary>
-    /// Centroids for an index of <paramref name="vectors"/> vectors: a power of two near 2·√vectors, within
-    /// [<see cref="MinimumCentroids"/>, <see cref="MaximumCentroids"/>]. PLAID takes 16·√vectors; fewer here keep
-    /// a build's assignment affordable on two cores (chosen by measurement, docs/benchmarks.md, <c>serving</c>).
+    /// Centroids for an index of <paramref name="vectors"/> vectors: a power of two near √vectors, within
+    /// [<see cref="MinimumCentroids"/>, <see cref="MaximumCentroids"/>]. PLAID takes 16·√vectors; here the lists
+    /// are scanned by sign codes, so longer lists cost little, and 1,024 kept as much of the top-10 as 4,096 at
+    /// 10,000 pages for a fifth of the build (docs/benchmarks.md, <c>serving</c>).
     /// </summary>
     public static int CentroidsFor(long vectors)
     {
-        var wanted = 2 * Math.Sqrt(Math.Max(1, vectors));
+        var wanted = Math.Sqrt(Math.Max(1, vectors));
         var power = 1 << (int)Math.Round(Math.Log2(wanted));
         return Math.Clamp(power, MinimumCentroids, MaximumCentroids);
     }
@@ -99,9 +100,23 @@ internal sealed class CentroidLists
 
         var lists = new CentroidLists(dimensions, centroids);
         var assigned = new int[rows];
+        var sampleCodes = new ulong[rows * lists.words];
+        SignCodes.Compute(sample, dimensions, sampleCodes);
         for (var iteration = 0; iteration < Iterations; iteration++)
         {
-            Parallel.For(0, rows, new ParallelOptions { CancellationToken = cancellationToken }, r => assigned[r] = lists.Nearest(sample.AsSpan(r * dimensions, dimensions)));
+            // Each iteration assigns by the rule of the lists (sign-code shortlist, then dot product).
+            SignCodes.Compute(centroids, dimensions, lists.centroidCodes);
+            Parallel.For(
+                0,
+                rows,
+                new ParallelOptions { CancellationToken = cancellationToken },
+                () => new Shortlisted(Shortlist),
+                (r, _, shortlist) =>
+                {
+                    assigned[r] = lists.Assigned(sample.AsSpan(r * dimensions, dimensions), sampleCodes.AsSpan(r * lists.words, lists.words), shortlist);
+                    return shortlist;
+                },
+                _ => { });
             var sums = new float[centroids.Length];
             var members = new int[centroidCount];
             for (var r = 0; r < rows; r++)
@@ -136,6 +151,14 @@ internal sealed class CentroidLists
             throw new FormatException($"{lists.Count} centroid lists for {restored.CentroidCount} centroids.");
         }
 
+        // Slots in ascending id order, as adds made them (the view never reuses an id), so ties break as before.
+        foreach (var id in lists.SelectMany(l => l.Ids).Distinct().Order())
+        {
+            restored.slotOf[id] = restored.idOf.Count;
+            restored.idOf.Add(id);
+            restored.alive.Add(true);
+        }
+
         for (var c = 0; c < lists.Count; c++)
         {
             var (ids, entryCodes) = lists[c];
@@ -144,19 +167,7 @@ internal sealed class CentroidLists
                 throw new FormatException($"Centroid list {c} has {ids.Length} entries and {entryCodes.Length} code words.");
             }
 
-            foreach (var id in ids)
-            {
-                if (!restored.slotOf.TryGetValue(id, out var slot))
-                {
-                    slot = restored.idOf.Count;
-                    restored.slotOf[id] = slot;
-                    restored.idOf.Add(id);
-                    restored.alive.Add(true);
-                }
-
-                restored.slots[c].Add(slot);
-            }
-
+            restored.slots[c].AddRange(ids.Select(id => restored.slotOf[id]));
             restored.codes[c].AddRange(entryCodes);
         }
 
@@ -332,15 +343,27 @@ internal sealed class CentroidLists
     {
         var words = code.Length;
         shortlist.Clear();
-        for (var c = 0; c < CentroidCount; c++)
+        if (words == 2)
         {
-            var distance = 0;
-            for (var w = 0; w < words; w++)
+            // The default d = 128: both words in registers.
+            var (low, high) = (code[0], code[1]);
+            for (var c = 0; c < CentroidCount; c++)
             {
-                distance += BitOperations.PopCount(code[w] ^ centroidCodes[(c * words) + w]);
+                shortlist.Offer(BitOperations.PopCount(low ^ centroidCodes[2 * c]) + BitOperations.PopCount(high ^ centroidCodes[(2 * c) + 1]), c);
             }
+        }
+        else
+        {
+            for (var c = 0; c < CentroidCount; c++)
+            {
+                var distance = 0;
+                for (var w = 0; w < words; w++)
+                {
+                    distance += BitOperations.PopCount(code[w] ^ centroidCodes[(c * words) + w]);
+                }
 
-            shortlist.Offer(distance, c);
+                shortlist.Offer(distance, c);
+            }
         }
 
         var best = -1;
@@ -350,23 +373,6 @@ internal sealed class CentroidLists
             var c = shortlist[i];
             var score = TensorPrimitives.Dot(row, centroids.AsSpan(c * dimensions, dimensions));
             if (best < 0 || score > bestScore)
-            {
-                bestScore = score;
-                best = c;
-            }
-        }
-
-        return best;
-    }
-
-    private int Nearest(ReadOnlySpan<float> row)
-    {
-        var best = 0;
-        var bestScore = float.NegativeInfinity;
-        for (var c = 0; c < CentroidCount; c++)
-        {
-            var score = TensorPrimitives.Dot(row, centroids.AsSpan(c * dimensions, dimensions));
-            if (score > bestScore)
             {
                 bestScore = score;
                 best = c;

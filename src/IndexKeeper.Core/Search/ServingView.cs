@@ -96,6 +96,23 @@ public sealed class ServingView : IDisposable
         }
     }
 
+    /// <summary>The last recall figure of this view's candidates (docs/search.md, "Recall"); null when never measured.</summary>
+    public CandidateRecall? Recall { get; private set; }
+
+    /// <summary>Pages added, moved or removed since <see cref="Recall"/> was measured (or since the view was built).</summary>
+    public long ChangedSinceRecall { get; private set; }
+
+    /// <summary>Records a recall figure measured on this view; the change count starts again.</summary>
+    public void Measured(CandidateRecall recall)
+    {
+        ArgumentNullException.ThrowIfNull(recall);
+        lock (gate)
+        {
+            Recall = recall;
+            ChangedSinceRecall = 0;
+        }
+    }
+
     /// <summary>Live pages left out because their vector set could not be read when they were added.</summary>
     public int Unreadable { get; private set; }
 
@@ -238,6 +255,7 @@ public sealed class ServingView : IDisposable
             }
 
             Generation = generation;
+            ChangedSinceRecall += changes.Count;
             sorted = null;
         }
     }
@@ -317,9 +335,12 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>A view as <see cref="ServingViewFile"/> read it back.</summary>
-    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids)
+    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall)
     {
-        var view = new ServingView(encoderId, generation, source) { Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId };
+        var view = new ServingView(encoderId, generation, source)
+        {
+            Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
+        };
         foreach (var (id, entry) in entries)
         {
             view.byKey[entry.Key] = new Slot(id, entry);

@@ -93,6 +93,11 @@ internal static class ServingViewFile
                 writer.Write(FixedDimensionalEncoding.BucketBits);
                 writer.Write(FixedDimensionalEncoding.ProjectionDimensions);
                 writer.Write(nextId);
+                writer.Write(view.Recall?.Recall ?? double.NaN);
+                writer.Write(view.Recall?.Queries ?? 0);
+                writer.Write(view.Recall?.Generation ?? 0);
+                writer.Write(view.Recall?.MeasuredAt.UtcTicks ?? 0);
+                writer.Write(view.ChangedSinceRecall);
                 writer.Write(entries.Count);
                 WriteString(writer, graphName);
                 writer.Write(graphLength);
@@ -156,6 +161,39 @@ internal static class ServingViewFile
         });
     }
 
+    /// <summary>
+    /// The recall figure of the view file of <paramref name="encoderId"/> whatever catalog state it shows; null when
+    /// there is no readable file (version and checksum checked) or no figure in it. Nothing is written.
+    /// </summary>
+    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId)
+    {
+        try
+        {
+            var bytes = File.ReadAllBytes(PathOf(indexDirectory, encoderId));
+            if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic)
+                || BinaryPrimitives.ReadInt32LittleEndian(bytes.AsSpan(Magic.Length)) != Version
+                || Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)) != BinaryPrimitives.ReadUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4)))
+            {
+                return null;
+            }
+
+            using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
+            reader.ReadInt64();
+            reader.ReadInt64();
+            if (ReadString(reader) != encoderId)
+            {
+                return null;
+            }
+
+            reader.ReadBytes(4 + 4 + 8 + 4 + 4 + 4 + 8);
+            return ReadRecall(reader);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException)
+        {
+            return null;
+        }
+    }
+
     private static ServingView? Parse(byte[] bytes, string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
     {
         if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic))
@@ -186,6 +224,8 @@ internal static class ServingViewFile
         var dimensions = reader.ReadInt32();
         var parameters = (reader.ReadUInt64(), reader.ReadInt32(), reader.ReadInt32(), reader.ReadInt32());
         var nextId = reader.ReadUInt64();
+        var recall = ReadRecall(reader);
+        var changedSinceRecall = reader.ReadInt64();
         var count = reader.ReadInt32();
         var graphName = ReadString(reader);
         var graphLength = reader.ReadInt64();
@@ -331,7 +371,19 @@ internal static class ServingViewFile
         }
 
         reason = string.Empty;
-        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids);
+        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall);
+    }
+
+    /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>
+    private static CandidateRecall? ReadRecall(BinaryReader reader)
+    {
+        var share = reader.ReadDouble();
+        var queries = reader.ReadInt32();
+        var generation = reader.ReadInt64();
+        var ticks = reader.ReadInt64();
+        return double.IsNaN(share) || ticks < DateTimeOffset.MinValue.UtcTicks || ticks > DateTimeOffset.MaxValue.UtcTicks
+            ? null
+            : new CandidateRecall(share, queries, generation, new DateTimeOffset(ticks, TimeSpan.Zero));
     }
 
     private static string Stem(string encoderId) => encoderId.Length > 16 ? encoderId[..16] : encoderId;

@@ -19,6 +19,9 @@ namespace IndexKeeper.Service.Application;
 /// </remarks>
 public sealed class ServingViews : IDisposable
 {
+    /// <summary>Page changes after which a structure's recall figure is measured again, at the least.</summary>
+    public const int RecallEveryChanges = 100;
+
     // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
     private const int BuildChunk = 1024;
 
@@ -103,7 +106,7 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k, view.Count);
+            var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k);
             IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
                 ? view.Candidates(query, structureCount)
                 : view.Entries();
@@ -114,17 +117,7 @@ public sealed class ServingViews : IDisposable
 
             try
             {
-                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
-                {
-                    EncoderId = encoderId,
-                    PageKey = c.Key.Hex,
-                    SegmentId = c.Location.SegmentId,
-                    Offset = c.Location.Offset,
-                    Length = c.Location.Length,
-                    Checksum = c.Location.Checksum,
-                    VectorCount = c.VectorCount,
-                    Live = true,
-                })]);
+                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
                 var options = new SearchOptions { Top = k, Candidates = CandidateCounts.Reranked(k, view.Count) };
                 var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
                 return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
@@ -137,8 +130,67 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
+    /// Measures the recall figure of the view of <paramref name="encoderId"/> (docs/search.md, "Recall"): for each
+    /// sample query (<see cref="RecallSample"/>) the share of the exhaustive float16 MaxSim top-10 that this
+    /// search returns (a hit whose exact score reaches the 10th exhaustive score counts too: ties are equally
+    /// right). Records it on the view (written with it by <see cref="Persist"/>) and returns it. Reads only.
+    /// </summary>
+    public CandidateRecall MeasureRecall(string encoderId, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        var view = For(encoderId, cancellationToken);
+        var entries = view.Entries();
+        var positions = RecallSample.Positions(entries.Count, RecallSample.Queries, view.Generation);
+        var queries = new List<VectorSet>();
+        using (var drawn = store().OpenSelected(encoderId, [.. positions.Select(p => Record(encoderId, entries[p]))]))
+        {
+            for (var i = 0; i < drawn.Source.Count; i++)
+            {
+                if (drawn.Source.Get(i).Count > 0)
+                {
+                    queries.Add(RecallSample.Query(drawn.Source.Get(i)));
+                }
+            }
+        }
+
+        double kept = 0;
+        foreach (var query in queries)
+        {
+            SearchResult exhaustive;
+            using (var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]))
+            {
+                exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
+            }
+
+            var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
+            var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
+            var served = Search(encoderId, query, 10, cancellationToken).Result.Hits;
+            kept += truth.Count == 0 ? 1 : (double)served.Count(h => truth.Contains(h.Key) || h.Score >= tenth) / truth.Count;
+        }
+
+        var recall = new CandidateRecall(queries.Count == 0 ? 1 : kept / queries.Count, queries.Count, view.Generation, now);
+        view.Measured(recall);
+        return recall;
+    }
+
+    /// <summary>The last recall figure of the view of <paramref name="encoderId"/> held or on disk; null when none was measured.</summary>
+    public CandidateRecall? LastRecall(string encoderId)
+    {
+        lock (gate)
+        {
+            if (views.TryGetValue(encoderId, out var held))
+            {
+                return held.Recall;
+            }
+        }
+
+        return ServingViewFile.ReadRecall(directory, encoderId);
+    }
+
+    /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
-    /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale.
+    /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale. A view
+    /// whose candidates come from a structure first gets a new recall figure when it has none or when more than
+    /// one page in 100 (at least <see cref="RecallEveryChanges"/>) changed since the last.
     /// </summary>
     public void Persist(CancellationToken cancellationToken)
     {
@@ -171,7 +223,14 @@ public sealed class ServingViews : IDisposable
                     continue;
                 }
 
-                ServingViewFile.Write(directory, For(encoderId, cancellationToken), stamp);
+                var view = For(encoderId, cancellationToken);
+                if (source != CandidateSource.All && view.Count > 0
+                    && (view.Recall is null || view.ChangedSinceRecall >= Math.Max(RecallEveryChanges, view.Count / 100)))
+                {
+                    MeasureRecall(encoderId, DateTimeOffset.UtcNow, cancellationToken);
+                }
+
+                ServingViewFile.Write(directory, view, stamp);
             }
 
             writtenAt = generation;
@@ -315,6 +374,18 @@ public sealed class ServingViews : IDisposable
             pending.RemoveAll(p => p.Generation <= floor);
         }
     }
+
+    private static VectorSetRecord Record(string encoderId, ServingEntry entry) => new()
+    {
+        EncoderId = encoderId,
+        PageKey = entry.Key.Hex,
+        SegmentId = entry.Location.SegmentId,
+        Offset = entry.Location.Offset,
+        Length = entry.Location.Length,
+        Checksum = entry.Location.Checksum,
+        VectorCount = entry.VectorCount,
+        Live = true,
+    };
 
     private static ServingChange ToChange(VectorSetRecord record) =>
         new(PageKey.Parse(record.PageKey), record.Live ? new RecordLocation(record.SegmentId, record.Offset, record.Length, unchecked((uint)record.Checksum)) : null, record.VectorCount);
