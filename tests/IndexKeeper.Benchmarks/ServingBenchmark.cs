@@ -164,7 +164,7 @@ public sealed class ServingBenchmark : IBenchmark
 
         Latency(context, $"{name}: exhaustive float16 MaxSim", exhaustive);
         Latency(context, $"{name}: serving view, candidates all (sign codes of every page, re-rank of {CandidateCounts.Reranked(10, pages)})", all);
-        Latency(context, $"{name}: serving view, candidates centroids ({CandidateCounts.FromCentroids(10)} of {CandidateCounts.Probes} probes a token, sign codes, re-rank of {CandidateCounts.Reranked(10, pages)})", centroids);
+        Latency(context, $"{name}: serving view, candidates centroids ({CandidateCounts.FromCentroids(10)} of {CandidateCounts.Probes} probes a token, sign codes, re-rank of {CandidateCounts.RerankedAfterCentroids(10, pages)})", centroids);
         context.Report($"{name}: speedup over exhaustive, p50, candidates centroids / all", Median(exhaustive) / Median(centroids), $"{Median(exhaustive) / Median(all):0.00}");
         context.Report($"{name}: top-10 agreement with exhaustive, candidates all", agreeAll / queries.Length, "share");
         context.Report($"{name}: top-10 agreement with exhaustive, candidates centroids", agreeCentroids / queries.Length, "share");

@@ -163,9 +163,10 @@ internal static class ServingViewFile
 
     /// <summary>
     /// The recall figure of the view file of <paramref name="encoderId"/> whatever catalog state it shows; null when
-    /// there is no readable file (version and checksum checked) or no figure in it. Nothing is written.
+    /// there is no readable file (version and checksum checked), its candidates are not of <paramref name="source"/>
+    /// or it holds no figure. Nothing is written.
     /// </summary>
-    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId)
+    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId, CandidateSource source)
     {
         try
         {
@@ -180,12 +181,12 @@ internal static class ServingViewFile
             using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
             reader.ReadInt64();
             reader.ReadInt64();
-            if (ReadString(reader) != encoderId)
+            if (ReadString(reader) != encoderId || (CandidateSource)reader.ReadInt32() != source)
             {
                 return null;
             }
 
-            reader.ReadBytes(4 + 4 + 8 + 4 + 4 + 4 + 8);
+            reader.ReadBytes(4 + 8 + 4 + 4 + 4 + 8);
             return ReadRecall(reader);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException)
@@ -342,6 +343,13 @@ internal static class ServingViewFile
         if (source != CandidateSource.Centroids)
         {
             centroids = null;
+        }
+
+        if (fileSource != source)
+        {
+            // The figure measured the file's own candidates, not these.
+            recall = null;
+            changedSinceRecall = 0;
         }
 
         CandidateGraph? graph = null;

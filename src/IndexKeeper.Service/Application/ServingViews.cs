@@ -118,7 +118,8 @@ public sealed class ServingViews : IDisposable
             try
             {
                 using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
-                var options = new SearchOptions { Top = k, Candidates = CandidateCounts.Reranked(k, view.Count) };
+                var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
+                var options = new SearchOptions { Top = k, Candidates = reranked };
                 var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
                 return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
             }
@@ -183,7 +184,7 @@ public sealed class ServingViews : IDisposable
             }
         }
 
-        return ServingViewFile.ReadRecall(directory, encoderId);
+        return ServingViewFile.ReadRecall(directory, encoderId, source);
     }
 
     /// <summary>

@@ -508,6 +508,7 @@ internal sealed class IndexWorker(
         try
         {
             index.Serving.Persist(CancellationToken.None);
+            state.CandidateRecall = index.Serving.LastRecall(index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
         {

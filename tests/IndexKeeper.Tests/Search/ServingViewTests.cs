@@ -197,6 +197,54 @@ public sealed class ServingViewTests : IDisposable
     }
 
     [Fact]
+    public void A_writer_measures_the_recall_figure_before_it_writes_the_view_and_readers_see_it_without_writing()
+    {
+        // Fewer pages than the lists hand on, so the served search ranks every page and keeps the whole top-10.
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 50)]);
+        index.Embed([.. Enumerable.Range(0, 50)]);
+        using (var writer = index.Views(readOnly: false))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            Assert.Null(writer.LastRecall(Encoder.Id));
+            writer.Persist(CancellationToken.None);
+            var measured = writer.LastRecall(Encoder.Id);
+            Assert.NotNull(measured);
+            Assert.Equal(1.0, measured.Recall);
+            Assert.Equal(RecallSample.Queries, measured.Queries);
+            Assert.Equal(index.Catalog.VectorSetGeneration, measured.Generation);
+        }
+
+        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
+        var written = File.GetLastWriteTimeUtc(file);
+        using (var reader = index.Views(readOnly: true))
+        {
+            Assert.Equal(1.0, reader.LastRecall(Encoder.Id)?.Recall);
+            reader.Persist(CancellationToken.None);
+        }
+
+        Assert.Equal(written, File.GetLastWriteTimeUtc(file));
+
+        // A view of every page measures nothing: its candidates need no training.
+        using var all = index.Views(readOnly: false, CandidateSource.All);
+        index.Unreference(3);
+        all.For(Encoder.Id, CancellationToken.None);
+        all.Persist(CancellationToken.None);
+        Assert.Null(all.LastRecall(Encoder.Id));
+    }
+
+    [Fact]
+    public void Sample_positions_are_distinct_within_the_directory_and_fixed_by_the_seed()
+    {
+        var positions = RecallSample.Positions(1000, 16, seed: 7);
+        Assert.Equal(16, positions.Distinct().Count());
+        Assert.All(positions, p => Assert.InRange(p, 0, 999));
+        Assert.Equal(positions, RecallSample.Positions(1000, 16, seed: 7));
+        Assert.NotEqual(positions, RecallSample.Positions(1000, 16, seed: 8));
+        Assert.Equal([0, 1, 2], RecallSample.Positions(3, 16, seed: 7));
+    }
+
+    [Fact]
     public void Fixed_dimensional_encodings_follow_the_definition_for_one_vector()
     {
         // Dhulipala et al., "MUVERA" (NeurIPS 2024), §2: a query sums its vectors per bucket, a page averages
