@@ -222,12 +222,9 @@ public sealed class ServingBenchmark : IBenchmark
     {
         var live = catalog.VectorSets.Live(encoderId);
         var view = new ServingView(encoderId, catalog.VectorSetGeneration, CandidateSource.Centroids) { CentroidsWanted = centroidCount };
-        var step = Math.Max(1, live.Count / 1024);
-        var first = Enumerable.Range(0, live.Count).Where(i => i % step == 0).Take(1024).ToHashSet();
-        var ordered = first.Order().Select(i => live[i]).Concat(live.Where((_, i) => !first.Contains(i))).ToList();
         var (wall, cpu) = Measure.Once(() =>
         {
-            foreach (var chunk in ordered.Chunk(1024))
+            foreach (var chunk in ServingViews.BuildChunks(live))
             {
                 view.Apply(view.Generation, [.. chunk.Select(r => new ServingChange(PageKey.Parse(r.PageKey), new RecordLocation(r.SegmentId, r.Offset, r.Length, unchecked((uint)r.Checksum)), r.VectorCount))], locations =>
                 {

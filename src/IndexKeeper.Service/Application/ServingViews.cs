@@ -321,15 +321,9 @@ public sealed class ServingViews : IDisposable
         var view = new ServingView(encoderId, generation, source, live.Sum(r => (long)r.VectorCount));
         try
         {
-            // The first chunk is spread evenly over the live list, so centroids trained on it sample the whole
-            // index rather than its oldest pages; the rest follow in the catalog's order.
-            var step = Math.Max(1, live.Count / BuildChunk);
-            var first = Enumerable.Range(0, live.Count).Where(i => i % step == 0).Take(BuildChunk).ToHashSet();
-            var ordered = first.Order().Select(i => live[i]).Concat(live.Where((_, i) => !first.Contains(i))).ToList();
-            for (var at = 0; at < ordered.Count; at += BuildChunk)
+            foreach (var chunk in BuildChunks(live))
             {
-                var chunk = ordered.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
-                view.Apply(generation, chunk, locations => Open(encoderId, locations), cancellationToken);
+                view.Apply(generation, [.. chunk.Select(ToChange)], locations => Open(encoderId, locations), cancellationToken);
             }
 
             Builds++;
@@ -340,6 +334,18 @@ public sealed class ServingViews : IDisposable
             view.Dispose();
             throw;
         }
+    }
+
+    /// <summary>
+    /// The live list in the chunks a build applies: the first spread evenly over the list, so centroids trained
+    /// on it sample the whole index rather than its oldest pages; the rest follow in the catalog's order.
+    /// </summary>
+    public static IEnumerable<VectorSetRecord[]> BuildChunks(IReadOnlyList<VectorSetRecord> live)
+    {
+        ArgumentNullException.ThrowIfNull(live);
+        var step = Math.Max(1, live.Count / BuildChunk);
+        var first = Enumerable.Range(0, live.Count).Where(i => i % step == 0).Take(BuildChunk).ToHashSet();
+        return first.Order().Select(i => live[i]).Concat(live.Where((_, i) => !first.Contains(i))).Chunk(BuildChunk);
     }
 
     private (IVectorSetSource Source, IReadOnlyList<int> Given) Open(string encoderId, IReadOnlyList<RecordLocation> locations)
