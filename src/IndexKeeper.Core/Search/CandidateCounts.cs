@@ -12,8 +12,8 @@ public static class CandidateCounts
 
     /// <summary>
     /// Pages the centroid lists hand on to the sign-code stage, best by approximate MaxSim: max(300·k, 3,000), a
-    /// count that does not grow with the index (at 10,000 pages 3,000 kept 0.97–0.99 of the exhaustive top-10,
-    /// 1,000 only 0.90–0.94: docs/benchmarks.md, <c>serving</c>).
+    /// count that does not grow with the index (with a re-rank of 1,000, 3,000 kept 0.977–0.993 of the exhaustive
+    /// top-10 at 10,000 pages but 0.85 at 100,000, where 10,000 kept 0.92: docs/benchmarks.md, <c>serving</c>).
     /// </summary>
     public static int FromCentroids(int k) => Math.Max(300 * k, 3000);
 
