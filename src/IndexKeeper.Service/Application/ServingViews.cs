@@ -173,9 +173,18 @@ public sealed class ServingViews : IDisposable
         return recall;
     }
 
-    /// <summary>The last recall figure of the view of <paramref name="encoderId"/> held or on disk; null when none was measured.</summary>
-    public CandidateRecall? LastRecall(string encoderId)
+    /// <summary>
+    /// The last recall figure of the view of <paramref name="encoderId"/> held in memory or, with
+    /// <paramref name="readFile"/>, on disk (the whole file is read to check it); null when none was measured or
+    /// the candidates come from every page.
+    /// </summary>
+    public CandidateRecall? LastRecall(string encoderId, bool readFile = true)
     {
+        if (source == CandidateSource.All)
+        {
+            return null;
+        }
+
         lock (gate)
         {
             if (views.TryGetValue(encoderId, out var held))
@@ -184,7 +193,7 @@ public sealed class ServingViews : IDisposable
             }
         }
 
-        return ServingViewFile.ReadRecall(directory, encoderId, source);
+        return readFile ? ServingViewFile.ReadRecall(directory, encoderId, source) : null;
     }
 
     /// <summary>
