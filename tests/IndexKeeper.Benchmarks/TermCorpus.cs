@@ -41,8 +41,27 @@ internal sealed class TermCorpus
     /// <summary>The vectors of page <paramref name="index"/> (pages are made once each, in any order).</summary>
     public VectorSet Page(int index) => PageAndWords(index).Vectors;
 
+    /// <summary>
+    /// Draws pages 0 to <paramref name="pages"/> − 1 as <see cref="PageAndWords"/> would, without encoding them:
+    /// for an index written by an earlier run, so that queries and later pages come out the same.
+    /// </summary>
+    public void Replay(int pages)
+    {
+        for (var index = 0; index < pages; index++)
+        {
+            Words(index);
+        }
+    }
+
     /// <summary>The vectors of page <paramref name="index"/> and the placed words they were made from.</summary>
     public (VectorSet Vectors, PageWord[] Words) PageAndWords(int index)
+    {
+        var placed = Words(index);
+        var page = new PageToEncode(PageKey.Of(BitConverter.GetBytes(index)), "generated", 1, 612, 792, placed);
+        return (encoder.EncodePages([page], CancellationToken.None)[0], placed);
+    }
+
+    private PageWord[] Words(int index)
     {
         var count = random.Next(minWords, maxWords + 1);
         var text = new string[count];
@@ -59,8 +78,7 @@ internal sealed class TermCorpus
             pageWords[index] = text;
         }
 
-        var page = new PageToEncode(PageKey.Of(BitConverter.GetBytes(index)), "generated", 1, 612, 792, placed);
-        return (encoder.EncodePages([page], CancellationToken.None)[0], placed);
+        return placed;
     }
 
     /// <summary>A query of the page's rarer words; the page's index must be a multiple of 97.</summary>

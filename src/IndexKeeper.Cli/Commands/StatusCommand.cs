@@ -44,6 +44,11 @@ internal sealed class StatusCommand() : CommandBase(
             o.WriteLine(string.Create(c, $"  canaries     {(canary.Drifted ? "DRIFTED" : "ok")}: {canary.Pages} page(s), mean cosine {canary.MeanCosine:0.000000}, minimum {canary.MinimumCosine:0.000000}, {canary.CheckedUtc:yyyy-MM-dd HH:mm:ss'Z'}"));
         }
 
+        if (report.CandidateRecall is { } recall)
+        {
+            o.WriteLine(string.Create(c, $"  recall       {recall.Recall:0.000} of the exhaustive top-10 on {recall.Queries} sample queries, {recall.MeasuredAt:yyyy-MM-dd HH:mm:ss'Z'}"));
+        }
+
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
         o.WriteLine(string.Create(c, $"  no vectors   {report.PagesWithoutVectors} page(s) without readable vectors (queued ones included)"));
         if (report.SegmentsMissing > 0 || report.VectorSetsUnreadable > 0)

@@ -18,6 +18,7 @@ public static class HealthRules
     [
         "work-loop-stopped", "work-loop-retrying", "search-failing", "index-damaged", "disk-critical", "disk-low", "root-missing",
         "watcher-lost", "full-walk-overdue", "backlog-past-window", "migration-running", "canary-drift", "dead-ratio-high", "quarantine-growing",
+        "candidate-recall-low",
     ];
 
     public static HealthReport Evaluate(HealthSnapshot snapshot, HealthLimits limits)
@@ -107,6 +108,11 @@ public static class HealthRules
         if (snapshot.QuarantinedEarlier is { } earlier && snapshot.Quarantined > earlier)
         {
             reasons.Add(new("quarantine-growing", HealthStatus.Degraded, string.Create(c, $"quarantine grew from {earlier} to {snapshot.Quarantined} in the last hour")));
+        }
+
+        if (snapshot.CandidateRecall is { } recall && recall < limits.MinimumCandidateRecall)
+        {
+            reasons.Add(new("candidate-recall-low", HealthStatus.Degraded, string.Create(c, $"searches find {recall:0.000} of the exhaustive top-10 on sample queries (limit {limits.MinimumCandidateRecall:0.00}); rebuild the serving view to retrain its centroids (docs/search.md, \"Recall\")")));
         }
 
         var status = reasons.Count == 0 ? HealthStatus.Healthy : reasons.Max(r => r.Severity);

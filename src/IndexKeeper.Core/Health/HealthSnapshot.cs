@@ -15,6 +15,7 @@ namespace IndexKeeper.Core.Health;
 /// <param name="Damage">Missing segment files, unreadable vector sets and pages without vectors, in words; null when none.</param>
 /// <param name="WorkQueueFault">Why the work queue's PostgreSQL does not answer; null when it does or none is configured.</param>
 /// <param name="SearchSucceededSince">True when a search succeeded after the last one that failed.</param>
+/// <param name="CandidateRecall">The last recall figure of the serving view's candidates (share of the exhaustive top-10); null when none.</param>
 public sealed record HealthSnapshot(
     bool WorkLoopRunning,
     TimeSpan Uptime,
@@ -34,4 +35,5 @@ public sealed record HealthSnapshot(
     string? SearchFailure = null,
     bool SearchSucceededSince = false,
     string? Damage = null,
-    string? WorkQueueFault = null);
+    string? WorkQueueFault = null,
+    double? CandidateRecall = null);

@@ -11,6 +11,22 @@ public static class CandidateCounts
     public static int FromGraph(int k, int pages) => Math.Max(Math.Max(200 * k, 2000), pages / 20);
 
     /// <summary>
+    /// Pages the centroid lists hand on to the sign-code stage, best by approximate MaxSim: max(300·k, 3,000), a
+    /// count that does not grow with the index (with a re-rank of 1,000, 3,000 kept 0.977–0.993 of the exhaustive
+    /// top-10 at 10,000 pages but 0.85 at 100,000, where 10,000 kept 0.92: docs/benchmarks.md, <c>serving</c>).
+    /// </summary>
+    public static int FromCentroids(int k) => Math.Max(300 * k, 3000);
+
+    /// <summary>
+    /// Pages the sign-code stage hands to the float re-rank after the centroid lists: at least 100·k, since at
+    /// 10,000 pages re-ranking 1,000 of the 3,000 kept 0.977–0.993 of the exhaustive top-10 and 100 only 0.963–0.973.
+    /// </summary>
+    public static int RerankedAfterCentroids(int k, int pages) => Math.Max(Reranked(k, pages), 100 * k);
+
+    /// <summary>Centroids each query token probes: the one its vector is assigned to (a second added nothing, measured).</summary>
+    public const int Probes = 1;
+
+    /// <summary>
     /// Pages the sign-code stage hands to the exact float re-rank: max(10·k, 100, one in 100 pages). The same
     /// for both candidate sources, so a graph that gives every page ranks exactly as <c>all</c>.
     /// </summary>

@@ -6,13 +6,14 @@ namespace IndexKeeper.Core.Search;
 
 /// <summary>
 /// What search needs of one encoder's live pages, kept between queries (docs/search.md, "Serving view"): the
-/// page directory (page key → record location) and the candidate graph of the pages' fixed dimensional
-/// encodings. It reflects one catalog vector-set generation and moves forward by <see cref="Apply"/>, one
+/// page directory (page key → record location) and the structure of its <see cref="Source"/>: nothing for
+/// <c>All</c>, the candidate graph of the pages' fixed dimensional encodings, or the centroid lists. It
+/// reflects one catalog vector-set generation and moves forward by <see cref="Apply"/>, one
 /// commit's changes at a time; <see cref="ServingViewFile"/> keeps it on disk for the next process.
 /// </summary>
 /// <remarks>
-/// Locking: <c>gate</c> guards the directory and the graph; searches hold it only to find candidates.
-/// <see cref="Apply"/> encodes pages outside it and holds it only to insert. REQUIRES: one caller of
+/// Locking: <c>gate</c> guards the directory, the graph and the centroid lists; searches hold it only to find
+/// candidates. <see cref="Apply"/> encodes pages (and trains centroids) outside it and holds it only to insert. REQUIRES: one caller of
 /// <see cref="Apply"/> at a time (the writer).
 /// </remarks>
 public sealed class ServingView : IDisposable
@@ -22,19 +23,34 @@ public sealed class ServingView : IDisposable
     private readonly Dictionary<ulong, PageKey> byId = [];
     private FixedDimensionalEncoding? encoding;
     private CandidateGraph? graph;
+    private CentroidLists? centroids;
     private ulong nextId = 1;
 
     // Every live page in page-key order, made on first use after a change: a search over all pages asks per query.
     private ServingEntry[]? sorted;
 
-    public ServingView(string encoderId, long generation)
+    /// <param name="expectedVectors">Vectors of the pages the first <see cref="Apply"/> will be followed by (a build
+    /// knows them): the centroid count is chosen for them (<see cref="CentroidLists.CentroidsFor"/>); 0 for the
+    /// first batch's own count.</param>
+    public ServingView(string encoderId, long generation, CandidateSource source, long expectedVectors = 0)
     {
         ArgumentException.ThrowIfNullOrEmpty(encoderId);
+        ArgumentOutOfRangeException.ThrowIfNegative(expectedVectors);
         EncoderId = encoderId;
         Generation = generation;
+        Source = source;
+        ExpectedVectors = expectedVectors;
     }
 
     public string EncoderId { get; }
+
+    /// <summary>Where searches of this view take candidates from; the view holds that source's structure only.</summary>
+    public CandidateSource Source { get; }
+
+    /// <summary>Centroids to train instead of the count chosen for the vectors (measurement only; 0: chosen).</summary>
+    internal int CentroidsWanted { get; init; }
+
+    private long ExpectedVectors { get; }
 
     /// <summary>The catalog vector-set generation this view shows.</summary>
     public long Generation { get; private set; }
@@ -54,7 +70,48 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>Bytes of the candidate graph in memory, estimated as the package lays it out (encoding + links).</summary>
-    public long GraphBytesEstimate => Count * ((FixedDimensionalEncoding.Length * 2L) + (2 * 16 * 4) + 16);
+    public long GraphBytesEstimate => graph is null ? 0 : Count * ((FixedDimensionalEncoding.Length * 2L) + (2 * 16 * 4) + 16);
+
+    /// <summary>Bytes of the centroid lists in memory (centroids, codes, list entries).</summary>
+    public long CentroidBytesEstimate
+    {
+        get
+        {
+            lock (gate)
+            {
+                return centroids?.BytesEstimate ?? 0;
+            }
+        }
+    }
+
+    /// <summary>Centroids of the lists (0 when the view has none).</summary>
+    public int CentroidCount
+    {
+        get
+        {
+            lock (gate)
+            {
+                return centroids?.CentroidCount ?? 0;
+            }
+        }
+    }
+
+    /// <summary>The last recall figure of this view's candidates (docs/search.md, "Recall"); null when never measured.</summary>
+    public CandidateRecall? Recall { get; private set; }
+
+    /// <summary>Pages added, moved or removed since <see cref="Recall"/> was measured (or since the view was built).</summary>
+    public long ChangedSinceRecall { get; private set; }
+
+    /// <summary>Records a recall figure measured on this view; the change count starts again.</summary>
+    public void Measured(CandidateRecall recall)
+    {
+        ArgumentNullException.ThrowIfNull(recall);
+        lock (gate)
+        {
+            Recall = recall;
+            ChangedSinceRecall = 0;
+        }
+    }
 
     /// <summary>Live pages left out because their vector set could not be read when they were added.</summary>
     public int Unreadable { get; private set; }
@@ -88,7 +145,10 @@ public sealed class ServingView : IDisposable
         }
 
         var encodings = new Dictionary<PageKey, float[]>();
+        var codes = new Dictionary<PageKey, (ushort[] Assigned, ulong[] SignCodes)>();
+        var readable = new HashSet<PageKey>();
         var dimensions = Dimensions;
+        var trained = centroids;
         if (added.Count > 0)
         {
             var (source, given) = open([.. added.Select(a => a.Location!.Value)]);
@@ -105,23 +165,40 @@ public sealed class ServingView : IDisposable
                     {
                         throw new InvalidOperationException($"Vector set {source.Get(i).Key} has {pageDimensions} dimensions, the view {dimensions}: they come from different encoders.");
                     }
+
+                    readable.Add(added[given[i]].Key);
                 }
 
-                // Encoding is the cost of a build (every vector times 200 dot products): both cores share it.
-                var encoded = new float[source.Count][];
-                if (source.Count > 0)
+                if (Source == CandidateSource.Graph && source.Count > 0)
                 {
+                    // Encoding is the cost of a build (every vector times 200 dot products): both cores share it.
+                    var encoded = new float[source.Count][];
                     var encoder = encoding ??= new FixedDimensionalEncoding(dimensions);
                     Parallel.For(0, source.Count, new ParallelOptions { CancellationToken = cancellationToken }, i =>
                     {
                         encoded[i] = new float[FixedDimensionalEncoding.Length];
                         encoder.EncodePage(source.Get(i).Vectors, encoded[i]);
                     });
+                    for (var i = 0; i < encoded.Length; i++)
+                    {
+                        encodings[added[given[i]].Key] = encoded[i];
+                    }
                 }
-
-                for (var i = 0; i < encoded.Length; i++)
+                else if (Source == CandidateSource.Centroids && source.Count > 0)
                 {
-                    encodings[added[given[i]].Key] = encoded[i];
+                    // The first pages train the centroids (a build hands a sample spread over the index first);
+                    // later ones are assigned to them. Assignment is the cost of a build: both cores share it.
+                    trained ??= Train(source, dimensions, cancellationToken);
+                    var assigned = new (ushort[], ulong[])[source.Count];
+                    Parallel.For(0, source.Count, new ParallelOptions { CancellationToken = cancellationToken }, i =>
+                    {
+                        var page = source.Get(i);
+                        assigned[i] = (trained.Assign(page.Vectors, page.SignCodes), page.SignCodes.ToArray());
+                    });
+                    for (var i = 0; i < assigned.Length; i++)
+                    {
+                        codes[added[given[i]].Key] = assigned[i];
+                    }
                 }
             }
             finally
@@ -140,7 +217,8 @@ public sealed class ServingView : IDisposable
                     if (byKey.Remove(change.Key, out var gone))
                     {
                         byId.Remove(gone.Id);
-                        graph!.Remove(gone.Id);
+                        graph?.Remove(gone.Id);
+                        centroids?.Remove(gone.Id);
                     }
 
                     continue;
@@ -153,29 +231,45 @@ public sealed class ServingView : IDisposable
                     continue;
                 }
 
-                if (!encodings.TryGetValue(change.Key, out var encodedPage))
+                if (!readable.Contains(change.Key))
                 {
                     Unreadable++;
                     continue;
                 }
 
                 var id = nextId++;
-                graph ??= CandidateGraph.Create(FixedDimensionalEncoding.Length);
-                graph.Add(id, encodedPage);
+                if (encodings.TryGetValue(change.Key, out var encodedPage))
+                {
+                    graph ??= CandidateGraph.Create(FixedDimensionalEncoding.Length);
+                    graph.Add(id, encodedPage);
+                }
+
+                if (codes.TryGetValue(change.Key, out var pageCodes))
+                {
+                    centroids = trained;
+                    centroids!.Add(id, pageCodes.Assigned, pageCodes.SignCodes);
+                }
+
                 byKey[change.Key] = new Slot(id, new ServingEntry(change.Key, location, change.VectorCount));
                 byId[id] = change.Key;
             }
 
             Generation = generation;
+            ChangedSinceRecall += changes.Count;
             sorted = null;
         }
     }
 
     /// <summary>
-    /// The live pages whose encodings best match the query's, at most <paramref name="count"/>, in page-key
-    /// order (so ties of the exact re-rank break as in the exhaustive search).
+    /// The live pages the view's structure ranks best for the query (the graph: encodings; the centroid lists:
+    /// centroid interaction over the pages of <see cref="CandidateCounts.Probes"/> centroids a query token), at
+    /// most <paramref name="count"/>, in page-key order (so ties of the exact re-rank break as in the exhaustive
+    /// search). A view of <c>All</c> gives every page.
     /// </summary>
-    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count)
+    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count) => Candidates(query, count, CandidateCounts.Probes);
+
+    /// <summary>As <see cref="Candidates(VectorSet, int)"/> with the centroids probed per query token given (measurement).</summary>
+    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int probes)
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -192,9 +286,13 @@ public sealed class ServingView : IDisposable
             }
 
             List<ServingEntry> found;
-            if (count >= byKey.Count)
+            if (count >= byKey.Count || Source == CandidateSource.All)
             {
                 found = [.. byKey.Values.Select(s => s.Entry)];
+            }
+            else if (Source == CandidateSource.Centroids)
+            {
+                found = [.. centroids!.Nearest(query.Vectors, probes, count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
             }
             else
             {
@@ -228,18 +326,21 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>Writes the view (ServingViewFile) under the gate, so no change lands half-way.</summary>
-    internal void Write(Action<IReadOnlyList<(ulong Id, ServingEntry Entry)>, ulong, CandidateGraph?> write)
+    internal void Write(Action<IReadOnlyList<(ulong Id, ServingEntry Entry)>, ulong, CandidateGraph?, CentroidLists?> write)
     {
         lock (gate)
         {
-            write([.. byKey.Values.Select(s => (s.Id, s.Entry)).OrderBy(e => e.Entry.Key.Hex, StringComparer.Ordinal)], nextId, graph);
+            write([.. byKey.Values.Select(s => (s.Id, s.Entry)).OrderBy(e => e.Entry.Key.Hex, StringComparer.Ordinal)], nextId, graph, centroids);
         }
     }
 
     /// <summary>A view as <see cref="ServingViewFile"/> read it back.</summary>
-    internal static ServingView Restore(string encoderId, long generation, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph)
+    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall)
     {
-        var view = new ServingView(encoderId, generation) { Dimensions = dimensions, graph = graph, nextId = nextId };
+        var view = new ServingView(encoderId, generation, source)
+        {
+            Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
+        };
         foreach (var (id, entry) in entries)
         {
             view.byKey[entry.Key] = new Slot(id, entry);
@@ -247,6 +348,40 @@ public sealed class ServingView : IDisposable
         }
 
         return view;
+    }
+
+    /// <summary>
+    /// Centroids trained on rows of <paramref name="source"/> taken at an even stride: at most
+    /// <see cref="CentroidLists.SamplePerCentroid"/> per centroid.
+    /// </summary>
+    private CentroidLists Train(IVectorSetSource source, int dimensions, CancellationToken cancellationToken)
+    {
+        long rows = 0;
+        for (var i = 0; i < source.Count; i++)
+        {
+            rows += source.Get(i).Count;
+        }
+
+        var centroidCount = CentroidsWanted > 0 ? CentroidsWanted : CentroidLists.CentroidsFor(Math.Max(rows, ExpectedVectors));
+        var wanted = (long)centroidCount * CentroidLists.SamplePerCentroid;
+        var step = Math.Max(1, rows / Math.Max(1, wanted));
+        var sample = new List<float>();
+        var row = new float[dimensions];
+        long at = 0;
+        for (var i = 0; i < source.Count; i++)
+        {
+            var vectors = source.Get(i).Vectors;
+            for (var r = 0; r < vectors.Length / dimensions; r++, at++)
+            {
+                if (at % step == 0)
+                {
+                    System.Numerics.Tensors.TensorPrimitives.ConvertToSingle(vectors.Slice(r * dimensions, dimensions), row);
+                    sample.AddRange(row);
+                }
+            }
+        }
+
+        return CentroidLists.Train([.. sample], dimensions, centroidCount, cancellationToken);
     }
 
     private sealed class Slot(ulong id, ServingEntry entry)

@@ -6,15 +6,16 @@ namespace IndexKeeper.Core.Search;
 
 /// <summary>
 /// The serving view on disk (docs/serving-view.md, version <see cref="Version"/>): in the index's
-/// <c>serving/</c> folder, per encoder a view file (header, page directory, CRC-32C trailer) naming a graph
-/// file (the candidate graph as the USearch package saves it, its length and CRC-32C in the view file). A
-/// writer publishes a new graph file, then the view file by rename; a reader checks version, generation,
-/// encoding parameters and both checksums, and treats any mismatch as "stale", never as data.
+/// <c>serving/</c> folder, per encoder a view file (header, page directory, the centroid lists when the view has
+/// them, CRC-32C trailer) naming a graph file when it has a graph (the candidate graph as the USearch package
+/// saves it, its length and CRC-32C in the view file). A writer publishes a new graph file, then the view file
+/// by rename; a reader checks version, generation, candidate source, encoding parameters and both checksums,
+/// and treats any mismatch as "stale", never as data.
 /// </summary>
 internal static class ServingViewFile
 {
-    /// <summary>The format this build reads and writes. Never reuse a number.</summary>
-    public const int Version = 1;
+    /// <summary>The format this build reads and writes (2: candidate source and centroid lists). Never reuse a number.</summary>
+    public const int Version = 2;
 
     public const string Folder = "serving";
 
@@ -25,11 +26,11 @@ internal static class ServingViewFile
     public static string PathOf(string indexDirectory, string encoderId) => Path.Combine(indexDirectory, Folder, Stem(encoderId) + ".view");
 
     /// <summary>
-    /// Reads the view of <paramref name="encoderId"/> if it shows <paramref name="generation"/>; null with the
-    /// reason otherwise. <paramref name="mapOnly"/> maps the graph read-only (search), else loads it (to apply
+    /// Reads the view of <paramref name="encoderId"/> if it shows <paramref name="generation"/> and holds the
+    /// structure of <paramref name="source"/> (any file serves <c>All</c>); null with the reason otherwise. <paramref name="mapOnly"/> maps the graph read-only (search), else loads it (to apply
     /// changes). Nothing is written.
     /// </summary>
-    public static ServingView? TryRead(string indexDirectory, string encoderId, long catalogStamp, long generation, bool mapOnly, out string reason)
+    public static ServingView? TryRead(string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
     {
         var path = PathOf(indexDirectory, encoderId);
         byte[] bytes;
@@ -45,9 +46,9 @@ internal static class ServingViewFile
 
         try
         {
-            return Parse(bytes, indexDirectory, encoderId, catalogStamp, generation, mapOnly, out reason);
+            return Parse(bytes, indexDirectory, encoderId, catalogStamp, generation, source, mapOnly, out reason);
         }
-        catch (Exception ex) when (ex is ArgumentException or IndexOutOfRangeException or FormatException or IOException)
+        catch (Exception ex) when (ex is ArgumentException or IndexOutOfRangeException or FormatException or IOException or EndOfStreamException)
         {
             reason = $"serving view {path} cannot be read ({ex.Message})";
             return null;
@@ -64,7 +65,7 @@ internal static class ServingViewFile
         var folder = Path.Combine(indexDirectory, Folder);
         Directory.CreateDirectory(folder);
         var stem = Stem(view.EncoderId);
-        view.Write((entries, nextId, graph) =>
+        view.Write((entries, nextId, graph, centroids) =>
         {
             var graphName = string.Empty;
             long graphLength = 0;
@@ -85,12 +86,18 @@ internal static class ServingViewFile
                 writer.Write(catalogStamp);
                 writer.Write(view.Generation);
                 WriteString(writer, view.EncoderId);
+                writer.Write((int)view.Source);
                 writer.Write(view.Dimensions);
                 writer.Write(FixedDimensionalEncoding.Seed);
                 writer.Write(FixedDimensionalEncoding.Repetitions);
                 writer.Write(FixedDimensionalEncoding.BucketBits);
                 writer.Write(FixedDimensionalEncoding.ProjectionDimensions);
                 writer.Write(nextId);
+                writer.Write(view.Recall?.Recall ?? double.NaN);
+                writer.Write(view.Recall?.Queries ?? 0);
+                writer.Write(view.Recall?.Generation ?? 0);
+                writer.Write(view.Recall?.MeasuredAt.UtcTicks ?? 0);
+                writer.Write(view.ChangedSinceRecall);
                 writer.Write(entries.Count);
                 WriteString(writer, graphName);
                 writer.Write(graphLength);
@@ -104,6 +111,31 @@ internal static class ServingViewFile
                     writer.Write(entry.Location.Length);
                     writer.Write(entry.Location.Checksum);
                     writer.Write(entry.VectorCount);
+                }
+
+                // The centroid lists: the centroids, then per centroid its entries (page id, sign code).
+                writer.Write(centroids?.CentroidCount ?? 0);
+                if (centroids is not null && entries.Count > 0)
+                {
+                    foreach (var value in centroids.Centroids)
+                    {
+                        writer.Write(value);
+                    }
+
+                    for (var c = 0; c < centroids.CentroidCount; c++)
+                    {
+                        var (ids, codes) = centroids.List(c);
+                        writer.Write(ids.Length);
+                        foreach (var id in ids)
+                        {
+                            writer.Write(id);
+                        }
+
+                        foreach (var word in codes)
+                        {
+                            writer.Write(word);
+                        }
+                    }
                 }
             }
 
@@ -129,7 +161,41 @@ internal static class ServingViewFile
         });
     }
 
-    private static ServingView? Parse(byte[] bytes, string indexDirectory, string encoderId, long catalogStamp, long generation, bool mapOnly, out string reason)
+    /// <summary>
+    /// The recall figure of the view file of <paramref name="encoderId"/> whatever catalog state it shows; null when
+    /// there is no readable file (version and checksum checked), its candidates are not of <paramref name="source"/>
+    /// or it holds no figure. Nothing is written.
+    /// </summary>
+    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId, CandidateSource source)
+    {
+        try
+        {
+            var bytes = File.ReadAllBytes(PathOf(indexDirectory, encoderId));
+            if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic)
+                || BinaryPrimitives.ReadInt32LittleEndian(bytes.AsSpan(Magic.Length)) != Version
+                || Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)) != BinaryPrimitives.ReadUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4)))
+            {
+                return null;
+            }
+
+            using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
+            reader.ReadInt64();
+            reader.ReadInt64();
+            if (ReadString(reader) != encoderId || (CandidateSource)reader.ReadInt32() != source)
+            {
+                return null;
+            }
+
+            reader.ReadBytes(4 + 8 + 4 + 4 + 4 + 8);
+            return ReadRecall(reader);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException)
+        {
+            return null;
+        }
+    }
+
+    private static ServingView? Parse(byte[] bytes, string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
     {
         if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic))
         {
@@ -155,9 +221,12 @@ internal static class ServingViewFile
         var fileStamp = reader.ReadInt64();
         var fileGeneration = reader.ReadInt64();
         var fileEncoder = ReadString(reader);
+        var fileSource = (CandidateSource)reader.ReadInt32();
         var dimensions = reader.ReadInt32();
         var parameters = (reader.ReadUInt64(), reader.ReadInt32(), reader.ReadInt32(), reader.ReadInt32());
         var nextId = reader.ReadUInt64();
+        var recall = ReadRecall(reader);
+        var changedSinceRecall = reader.ReadInt64();
         var count = reader.ReadInt32();
         var graphName = ReadString(reader);
         var graphLength = reader.ReadInt64();
@@ -165,6 +234,13 @@ internal static class ServingViewFile
         if (fileEncoder != encoderId)
         {
             reason = $"the serving view file is of encoder {fileEncoder}";
+            return null;
+        }
+
+        // Every file holds the directory, which is all that candidates of every page need.
+        if (fileSource != source && source != CandidateSource.All)
+        {
+            reason = $"the serving view holds candidates of {fileSource}, the search asks for {source}";
             return null;
         }
 
@@ -186,7 +262,7 @@ internal static class ServingViewFile
             return null;
         }
 
-        if (count < 0 || (long)count * EntryLength != reader.BaseStream.Length - reader.BaseStream.Position)
+        if (count < 0 || (long)count * EntryLength > reader.BaseStream.Length - reader.BaseStream.Position)
         {
             reason = "the serving view file's directory has the wrong length";
             return null;
@@ -201,8 +277,83 @@ internal static class ServingViewFile
             entries.Add((id, new ServingEntry(key, location, reader.ReadInt32())));
         }
 
+        var centroidCount = reader.ReadInt32();
+        CentroidLists? centroids = null;
+        if (centroidCount > 0 && count > 0)
+        {
+            if (centroidCount > CentroidLists.MaximumCentroids || dimensions <= 0)
+            {
+                reason = $"the serving view file names {centroidCount} centroids of {dimensions} dimensions";
+                return null;
+            }
+
+            var values = new float[centroidCount * dimensions];
+            for (var i = 0; i < values.Length; i++)
+            {
+                values[i] = reader.ReadSingle();
+            }
+
+            var known = entries.Select(e => e.Id).ToHashSet();
+            var words = dimensions / 64;
+            var lists = new List<(ulong[] Ids, ulong[] Codes)>(centroidCount);
+            for (var c = 0; c < centroidCount; c++)
+            {
+                var length = reader.ReadInt32();
+                if (length < 0 || (long)length * 8 * (1 + words) > reader.BaseStream.Length - reader.BaseStream.Position)
+                {
+                    reason = $"the serving view file's centroid list {c} has the wrong length";
+                    return null;
+                }
+
+                var ids = new ulong[length];
+                for (var i = 0; i < length; i++)
+                {
+                    ids[i] = reader.ReadUInt64();
+                    if (!known.Contains(ids[i]))
+                    {
+                        reason = $"the serving view file's centroid list {c} names page {ids[i]}, which its directory lacks";
+                        return null;
+                    }
+                }
+
+                var codes = new ulong[length * words];
+                for (var i = 0; i < codes.Length; i++)
+                {
+                    codes[i] = reader.ReadUInt64();
+                }
+
+                lists.Add((ids, codes));
+            }
+
+            centroids = CentroidLists.Restore(dimensions, values, lists);
+        }
+
+        if (reader.BaseStream.Position != reader.BaseStream.Length)
+        {
+            reason = "the serving view file has bytes after its sections";
+            return null;
+        }
+
+        if (count > 0 && (fileSource == CandidateSource.Centroids) != (centroids is not null))
+        {
+            reason = "the serving view file's centroid lists do not match its candidate source";
+            return null;
+        }
+
+        if (source != CandidateSource.Centroids)
+        {
+            centroids = null;
+        }
+
+        if (fileSource != source)
+        {
+            // The figure measured the file's own candidates, not these.
+            recall = null;
+            changedSinceRecall = 0;
+        }
+
         CandidateGraph? graph = null;
-        if (count > 0)
+        if (count > 0 && source == CandidateSource.Graph)
         {
             var graphPath = Path.Combine(indexDirectory, Folder, graphName);
             if (graphName.Length == 0 || graphName.Contains(Path.DirectorySeparatorChar, StringComparison.Ordinal) || !File.Exists(graphPath))
@@ -228,7 +379,19 @@ internal static class ServingViewFile
         }
 
         reason = string.Empty;
-        return ServingView.Restore(encoderId, generation, dimensions, nextId, entries, graph);
+        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall);
+    }
+
+    /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>
+    private static CandidateRecall? ReadRecall(BinaryReader reader)
+    {
+        var share = reader.ReadDouble();
+        var queries = reader.ReadInt32();
+        var generation = reader.ReadInt64();
+        var ticks = reader.ReadInt64();
+        return double.IsNaN(share) || ticks < DateTimeOffset.MinValue.UtcTicks || ticks > DateTimeOffset.MaxValue.UtcTicks
+            ? null
+            : new CandidateRecall(share, queries, generation, new DateTimeOffset(ticks, TimeSpan.Zero));
     }
 
     private static string Stem(string encoderId) => encoderId.Length > 16 ? encoderId[..16] : encoderId;

@@ -5,6 +5,7 @@ using IndexKeeper.Core.Documents.Isolation;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Scheduling;
+using IndexKeeper.Core.Search;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -53,7 +54,12 @@ public sealed class IndexSettings
         CanaryInterval = TimeSpan.FromHours(options.Drift.CanaryIntervalHours);
         Encoder = options.Encoder;
         MinimumTokenSimilarity = options.Query.MinimumTokenSimilarity;
-        CandidatesFromGraph = options.Query.Candidates == "graph";
+        Candidates = options.Query.Candidates switch
+        {
+            "graph" => CandidateSource.Graph,
+            "centroids" => CandidateSource.Centroids,
+            _ => CandidateSource.All,
+        };
         EncoderRecord = EncoderSettings.Record(options.Encoder);
         EmbedBatchSize = options.Encoder.BatchSize;
         Calendar = ScheduleSetup.Calendar(options.Schedule);
@@ -78,14 +84,14 @@ public sealed class IndexSettings
         Calendar = other.Calendar;
         BudgetPagesPerHour = other.BudgetPagesPerHour;
         MinimumTokenSimilarity = other.MinimumTokenSimilarity;
-        CandidatesFromGraph = other.CandidatesFromGraph;
+        Candidates = other.Candidates;
     }
 
     /// <summary>The least best-match similarity one query vector must reach on a page for the page to be a hit.</summary>
     public double MinimumTokenSimilarity { get; }
 
-    /// <summary>True when search candidates come from the serving view's graph, false when every live page is one.</summary>
-    public bool CandidatesFromGraph { get; }
+    /// <summary>Where search candidates come from: every live page, the serving view's graph or its centroid lists.</summary>
+    public CandidateSource Candidates { get; }
 
     /// <summary>The index directory (catalog, segments, lock).</summary>
     public string Directory { get; }

@@ -32,7 +32,7 @@ public sealed class OpenIndex : IDisposable
         ReadOnly = readOnly;
 
         // A writer hears every commit from the open on, so its serving views move forward instead of being rebuilt.
-        serving = readOnly ? null : new ServingViews(catalog, () => Store, directory, readOnly: false);
+        serving = readOnly ? null : new ServingViews(catalog, () => Store, directory, readOnly: false, settings.Candidates);
     }
 
     /// <summary>
@@ -62,7 +62,7 @@ public sealed class OpenIndex : IDisposable
     public PageWordStore Words => words ??= ReadOnly ? PageWordStore.OpenForReading(Directory) : PageWordStore.OpenForWriting(Directory);
 
     /// <summary>The serving views (page directory and candidate graph per encoder) that search reads.</summary>
-    public ServingViews Serving => serving ??= new ServingViews(Catalog, () => Store, Directory, ReadOnly);
+    public ServingViews Serving => serving ??= new ServingViews(Catalog, () => Store, Directory, ReadOnly, Settings.Candidates);
 
     /// <summary>The active encoder, built on first use (a model load is not paid by commands that do not encode).</summary>
     public IPageEncoder Encoder => encoder ??= EncoderFactory.Create(Settings.Encoder);

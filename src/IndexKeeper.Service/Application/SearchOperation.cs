@@ -32,7 +32,7 @@ public sealed class SearchOperation(OpenIndex index, IndexSettings settings, Dri
         var query = encoder.EncodeQuery(text, cancellationToken);
         var allowed = filter.SelectsDocuments ? AdmittedPages(filter) : null;
         var top = filter.Offset + k;
-        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, top, settings.CandidatesFromGraph, cancellationToken, allowed);
+        var (result, unreadable) = index.Serving.Search(encoder.Identity.Id, query, top, cancellationToken, allowed);
         var hits = new List<SearchReportHit>(result.Hits.Count);
         foreach (var hit in result.Hits.Where(h => h.Matches.Any(m => m.Similarity >= settings.MinimumTokenSimilarity) && !(h.Score < filter.MinimumScore)))
         {

@@ -19,6 +19,9 @@ namespace IndexKeeper.Service.Application;
 /// </remarks>
 public sealed class ServingViews : IDisposable
 {
+    /// <summary>Page changes after which a structure's recall figure is measured again, at the least.</summary>
+    public const int RecallEveryChanges = 100;
+
     // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
     private const int BuildChunk = 1024;
 
@@ -26,6 +29,7 @@ public sealed class ServingViews : IDisposable
     private readonly Func<VectorStore> store;
     private readonly string directory;
     private readonly bool readOnly;
+    private readonly CandidateSource source;
     private readonly object gate = new();
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
@@ -35,7 +39,8 @@ public sealed class ServingViews : IDisposable
 
     /// <param name="store">The segment store, asked for only when vector sets are read (opened on first use).</param>
     /// <param name="readOnly">True for a read-only open: the views are never written to disk and no commit is heard.</param>
-    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly)
+    /// <param name="source">Where searches take candidates from (<c>Query:Candidates</c>); the views hold its structure.</param>
+    public ServingViews(IndexCatalog catalog, Func<VectorStore> store, string directory, bool readOnly, CandidateSource source)
     {
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(store);
@@ -44,6 +49,7 @@ public sealed class ServingViews : IDisposable
         this.store = store;
         this.directory = directory;
         this.readOnly = readOnly;
+        this.source = source;
         openedAt = catalog.VectorSetGeneration;
         writtenAt = long.MinValue;
         if (!readOnly)
@@ -83,13 +89,13 @@ public sealed class ServingViews : IDisposable
     /// <summary>
     /// The best <paramref name="k"/> pages for <paramref name="query"/>: the two stages of
     /// <see cref="LateInteractionSearch"/> (sign codes, then exact MaxSim of the best) over every live page of the
-    /// serving view, or with <paramref name="fromGraph"/> over the candidates its graph gives, each count growing
-    /// with the index (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
+    /// serving view, or over the candidates its graph or centroid lists give, each count growing with the index
+    /// (<see cref="CandidateCounts"/>; docs/search.md, "Serving view"). Only the pages searched are opened (each record checked once per process). A compaction that retires a segment between the view and the open makes the
     /// open refuse; the view is then taken again. Also returns the live vector sets that could not be read.
     /// </summary>
-    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the graph would
-    /// give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
-    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, bool fromGraph, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
+    /// <param name="allowed">Page keys (hex) a hit may have; null for every page. When fewer than the structure
+    /// would give, they are the candidates themselves, so a narrow filter ranks exactly.</param>
+    public (SearchResult Result, int Unreadable) Search(string encoderId, VectorSet query, int k, CancellationToken cancellationToken, IReadOnlySet<string>? allowed = null)
     {
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
@@ -100,9 +106,9 @@ public sealed class ServingViews : IDisposable
                 return (new SearchResult([], view.Count, 0), view.Unreadable);
             }
 
-            var fromGraphCount = CandidateCounts.FromGraph(k, view.Count);
-            IEnumerable<ServingEntry> candidates = fromGraph && (allowed is null || allowed.Count > fromGraphCount)
-                ? view.Candidates(query, fromGraphCount)
+            var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k);
+            IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
+                ? view.Candidates(query, structureCount)
                 : view.Entries();
             if (allowed is not null)
             {
@@ -111,18 +117,9 @@ public sealed class ServingViews : IDisposable
 
             try
             {
-                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
-                {
-                    EncoderId = encoderId,
-                    PageKey = c.Key.Hex,
-                    SegmentId = c.Location.SegmentId,
-                    Offset = c.Location.Offset,
-                    Length = c.Location.Length,
-                    Checksum = c.Location.Checksum,
-                    VectorCount = c.VectorCount,
-                    Live = true,
-                })]);
-                var options = new SearchOptions { Top = k, Candidates = CandidateCounts.Reranked(k, view.Count) };
+                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
+                var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
+                var options = new SearchOptions { Top = k, Candidates = reranked };
                 var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
                 return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
             }
@@ -134,8 +131,76 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
+    /// Measures the recall figure of the view of <paramref name="encoderId"/> (docs/search.md, "Recall"): for each
+    /// sample query (<see cref="RecallSample"/>) the share of the exhaustive float16 MaxSim top-10 that this
+    /// search returns (a hit whose exact score reaches the 10th exhaustive score counts too: ties are equally
+    /// right). Records it on the view (written with it by <see cref="Persist"/>) and returns it. Reads only.
+    /// </summary>
+    public CandidateRecall MeasureRecall(string encoderId, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        var view = For(encoderId, cancellationToken);
+        var entries = view.Entries();
+        var positions = RecallSample.Positions(entries.Count, RecallSample.Queries, view.Generation);
+        var queries = new List<VectorSet>();
+        using (var drawn = store().OpenSelected(encoderId, [.. positions.Select(p => Record(encoderId, entries[p]))]))
+        {
+            for (var i = 0; i < drawn.Source.Count; i++)
+            {
+                if (drawn.Source.Get(i).Count > 0)
+                {
+                    queries.Add(RecallSample.Query(drawn.Source.Get(i)));
+                }
+            }
+        }
+
+        double kept = 0;
+        foreach (var query in queries)
+        {
+            SearchResult exhaustive;
+            using (var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]))
+            {
+                exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
+            }
+
+            var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
+            var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
+            var served = Search(encoderId, query, 10, cancellationToken).Result.Hits;
+            kept += truth.Count == 0 ? 1 : (double)served.Count(h => truth.Contains(h.Key) || h.Score >= tenth) / truth.Count;
+        }
+
+        var recall = new CandidateRecall(queries.Count == 0 ? 1 : kept / queries.Count, queries.Count, view.Generation, now);
+        view.Measured(recall);
+        return recall;
+    }
+
+    /// <summary>
+    /// The last recall figure of the view of <paramref name="encoderId"/> held in memory or, with
+    /// <paramref name="readFile"/>, on disk (the whole file is read to check it); null when none was measured or
+    /// the candidates come from every page.
+    /// </summary>
+    public CandidateRecall? LastRecall(string encoderId, bool readFile = true)
+    {
+        if (source == CandidateSource.All)
+        {
+            return null;
+        }
+
+        lock (gate)
+        {
+            if (views.TryGetValue(encoderId, out var held))
+            {
+                return held.Recall;
+            }
+        }
+
+        return readFile ? ServingViewFile.ReadRecall(directory, encoderId, source) : null;
+    }
+
+    /// <summary>
     /// Writes the views of the searched encoders to <c>serving/</c> when the catalog moved since they were last
-    /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale.
+    /// written. Only a writing open does this; a failure leaves the old file, which then reads as stale. A view
+    /// whose candidates come from a structure first gets a new recall figure when it has none or when more than
+    /// one page in 100 (at least <see cref="RecallEveryChanges"/>) changed since the last.
     /// </summary>
     public void Persist(CancellationToken cancellationToken)
     {
@@ -161,14 +226,21 @@ public sealed class ServingViews : IDisposable
 
             foreach (var encoderId in encoders)
             {
-                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: true, out _) is { } fresh)
+                if (!views.ContainsKey(encoderId) && ServingViewFile.TryRead(directory, encoderId, stamp, generation, source, mapOnly: true, out _) is { } fresh)
                 {
                     // Already on disk as it is now (an earlier process wrote it): nothing to do.
                     fresh.Dispose();
                     continue;
                 }
 
-                ServingViewFile.Write(directory, For(encoderId, cancellationToken), stamp);
+                var view = For(encoderId, cancellationToken);
+                if (source != CandidateSource.All && view.Count > 0
+                    && (view.Recall is null || view.ChangedSinceRecall >= Math.Max(RecallEveryChanges, view.Count / 100)))
+                {
+                    MeasureRecall(encoderId, DateTimeOffset.UtcNow, cancellationToken);
+                }
+
+                ServingViewFile.Write(directory, view, stamp);
             }
 
             writtenAt = generation;
@@ -197,14 +269,14 @@ public sealed class ServingViews : IDisposable
     private ServingView Load(string encoderId, long generation, CancellationToken cancellationToken)
     {
         var stamp = catalog.CreatedTicks;
-        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, mapOnly: readOnly, out _) is { } current)
+        if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, source, mapOnly: readOnly, out _) is { } current)
         {
             return current;
         }
 
         // A writer that heard every commit since it opened can start from the file as it was then.
         if (!readOnly && openedAt != generation
-            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, mapOnly: false, out _) is { } older)
+            && ServingViewFile.TryRead(directory, encoderId, stamp, openedAt, source, mapOnly: false, out _) is { } older)
         {
             if (CatchUp(older, generation, cancellationToken))
             {
@@ -254,14 +326,13 @@ public sealed class ServingViews : IDisposable
         // Stamped with the generation read before the list: commits that land while it is read (the daemon's
         // writer does not wait for searches) are applied again by the next catch-up, and each change states a
         // final state, so one already in the list changes nothing.
-        var view = new ServingView(encoderId, generation);
+        var live = catalog.VectorSets.Live(encoderId);
+        var view = new ServingView(encoderId, generation, source, live.Sum(r => (long)r.VectorCount));
         try
         {
-            var live = catalog.VectorSets.Live(encoderId);
-            for (var at = 0; at < live.Count; at += BuildChunk)
+            foreach (var chunk in BuildChunks(live))
             {
-                var chunk = live.Skip(at).Take(BuildChunk).Select(ToChange).ToList();
-                view.Apply(generation, chunk, locations => Open(encoderId, locations), cancellationToken);
+                view.Apply(generation, [.. chunk.Select(ToChange)], locations => Open(encoderId, locations), cancellationToken);
             }
 
             Builds++;
@@ -272,6 +343,18 @@ public sealed class ServingViews : IDisposable
             view.Dispose();
             throw;
         }
+    }
+
+    /// <summary>
+    /// The live list in the chunks a build applies: the first spread evenly over the list, so centroids trained
+    /// on it sample the whole index rather than its oldest pages; the rest follow in the catalog's order.
+    /// </summary>
+    public static IEnumerable<VectorSetRecord[]> BuildChunks(IReadOnlyList<VectorSetRecord> live)
+    {
+        ArgumentNullException.ThrowIfNull(live);
+        var step = Math.Max(1, live.Count / BuildChunk);
+        var first = Enumerable.Range(0, live.Count).Where(i => i % step == 0).Take(BuildChunk).ToHashSet();
+        return first.Order().Select(i => live[i]).Concat(live.Where((_, i) => !first.Contains(i))).Chunk(BuildChunk);
     }
 
     private (IVectorSetSource Source, IReadOnlyList<int> Given) Open(string encoderId, IReadOnlyList<RecordLocation> locations)
@@ -307,6 +390,18 @@ public sealed class ServingViews : IDisposable
             pending.RemoveAll(p => p.Generation <= floor);
         }
     }
+
+    private static VectorSetRecord Record(string encoderId, ServingEntry entry) => new()
+    {
+        EncoderId = encoderId,
+        PageKey = entry.Key.Hex,
+        SegmentId = entry.Location.SegmentId,
+        Offset = entry.Location.Offset,
+        Length = entry.Location.Length,
+        Checksum = entry.Location.Checksum,
+        VectorCount = entry.VectorCount,
+        Live = true,
+    };
 
     private static ServingChange ToChange(VectorSetRecord record) =>
         new(PageKey.Parse(record.PageKey), record.Live ? new RecordLocation(record.SegmentId, record.Offset, record.Length, unchecked((uint)record.Checksum)) : null, record.VectorCount);

@@ -32,6 +32,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             PagesMigrated = decision.MigratedPages,
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
+            CandidateRecall = index.Serving.LastRecall(decision.ServingEncoderId),
             SegmentsMissing = damage.SegmentsMissing,
             VectorSetsUnreadable = damage.VectorSetsUnreadable,
             PagesWithoutVectors = damage.PagesWithoutVectors,

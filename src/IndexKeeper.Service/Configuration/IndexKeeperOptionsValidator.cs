@@ -113,10 +113,11 @@ public static partial class IndexKeeperOptionsValidator
         Range(errors, "Query:MaxTerms", options.Query.MaxTerms, 1, 1024);
         Range(errors, "Query:MaxResults", options.Query.MaxResults, 1, 10_000);
         Range(errors, "Query:MinimumTokenSimilarity", options.Query.MinimumTokenSimilarity, 0, 1);
-        if (options.Query.Candidates is not ("all" or "graph"))
+        if (options.Query.Candidates is not ("all" or "graph" or "centroids"))
         {
-            errors.Add($"Query:Candidates: '{options.Query.Candidates}' is not a candidate source; use all or graph.");
+            errors.Add($"Query:Candidates: '{options.Query.Candidates}' is not a candidate source; use all, graph or centroids.");
         }
+
         CheckSchedule(errors, options.Schedule);
         var drift = options.Drift;
         Range(errors, "Drift:CanaryPages", drift.CanaryPages, 0, 10_000);

@@ -121,6 +121,9 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.canary.cosine", () => state.Canaries is { } c
             ? new[] { new Measurement<double>(c.MeanCosine, Tag("statistic", "mean")), new Measurement<double>(c.MinimumCosine, Tag("statistic", "minimum")) }
             : [], "1", "Cosine of re-embedded canary vectors against the stored ones at the last check (1: no drift).");
+        meter.CreateObservableGauge("indexkeeper.search.candidate_recall", () => state.CandidateRecall is { } r
+            ? new[] { new Measurement<double>(r.Recall) }
+            : [], "1", "Share of the exhaustive top-10 the served search returned on the last sample queries (docs/search.md, \"Recall\").");
         meter.CreateObservableGauge("indexkeeper.window.open", () => state.Allowance.WindowOpen ? 1 : 0, "1", "1 while a work window is open, 0 outside windows (the budget applies).");
         meter.CreateObservableGauge("indexkeeper.work_queue.reachable", () => state.WorkQueue is { } q ? new[] { new Measurement<int>(q.Fault is null ? 1 : 0) } : [], "1", "1 while the work queue's PostgreSQL answers, 0 while it does not (only with Queue:Connection).");
         meter.CreateObservableGauge("indexkeeper.work_queue.jobs", () => state.WorkQueue is { Fault: null } q

@@ -3,6 +3,7 @@ using System.Threading.Channels;
 using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Search;
 using IndexKeeper.Service.WorkQueue;
 
 namespace IndexKeeper.Service.Daemon;
@@ -24,6 +25,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile DaemonFigures figures = DaemonFigures.Empty;
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private volatile CanaryFigures? canaries;
+    private volatile CandidateRecall? candidateRecall;
     private volatile string? workLoopFault;
     private volatile WorkQueueFigures? workQueue;
     private long pagesEmbeddedRemotely;
@@ -50,6 +52,13 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     }
 
     public double PagesPerSecond => Volatile.Read(ref pagesPerSecond);
+
+    /// <summary>The last recall figure of the serving view's candidates (null when none was measured).</summary>
+    public CandidateRecall? CandidateRecall
+    {
+        get => candidateRecall;
+        set => candidateRecall = value;
+    }
 
     /// <summary>The last canary check of this daemon's life (null before the first).</summary>
     public CanaryFigures? Canaries
@@ -231,6 +240,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
             searchFailure,
             succeededSince,
             DamageText(latest.Damage),
-            workQueue?.Fault);
+            workQueue?.Fault,
+            candidateRecall?.Recall);
     }
 }

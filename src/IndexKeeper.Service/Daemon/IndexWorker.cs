@@ -508,6 +508,8 @@ internal sealed class IndexWorker(
         try
         {
             index.Serving.Persist(CancellationToken.None);
+            // Only the view held in memory: reading the file here would cost the idle daemon a pass over it a minute.
+            state.CandidateRecall = index.Serving.LastRecall(index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readFile: false);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
         {

@@ -1,3 +1,4 @@
+using IndexKeeper.Core.Search;
 
 namespace IndexKeeper.Service.Hosting;
 
@@ -40,6 +41,12 @@ public sealed class StatusReport
 
     /// <summary>Silent drift: the last canary check of the active encoder found its vectors changed (see <see cref="Canary"/>).</summary>
     public bool CanaryDrifted { get; init; }
+
+    /// <summary>
+    /// The last recall figure of the serving view's candidates (share of the exhaustive top-10 on sample queries,
+    /// docs/search.md, "Recall"); null when never measured (candidates from every page are not measured).
+    /// </summary>
+    public CandidateRecall? CandidateRecall { get; init; }
 
     /// <summary>The last canary check of the active encoder; null when never checked.</summary>
     public CanaryReport? Canary { get; init; }

@@ -41,6 +41,7 @@ public sealed class HealthRulesTests
         ("canary-drift", HealthStatus.Degraded, s => s with { CanaryDrift = "mean cosine 0.912, minimum 0.4 over 16 pages" }),
         ("work-loop-retrying", HealthStatus.Degraded, s => s with { WorkLoopFault = "No space left on device (retry 2 of 20 at 12:00:04Z)" }),
         ("search-failing", HealthStatus.Unhealthy, s => s with { SearchFailureAge = TimeSpan.FromMinutes(1), SearchFailure = "a segment record failed its checksum" }),
+        ("candidate-recall-low", HealthStatus.Degraded, s => s with { CandidateRecall = 0.94 }),
     ];
 
     /// <summary>Metrics publish one series per listed code: a rule whose code is missing there would never reach an alert.</summary>
@@ -53,6 +54,13 @@ public sealed class HealthRulesTests
         Assert.Equal("disk-low", Assert.Single(HealthRules.Evaluate(Calm with { FreeShare = 0.09 }, Limits).Reasons).Code);
         Assert.Equal("index-damaged", Assert.Single(HealthRules.Evaluate(Calm with { Damage = "1 segment file(s) missing" }, Limits).Reasons).Code);
     }
+
+    [Theory]
+    [InlineData(0.95, false)]
+    [InlineData(1.0, false)]
+    [InlineData(0.9499, true)]
+    public void ARecallFigureBelowTheLimitIsReported(double recall, bool reported) =>
+        Assert.Equal(reported, HealthRules.Evaluate(Calm with { CandidateRecall = recall }, Limits).Reasons.Any(r => r.Code == "candidate-recall-low"));
 
     [Fact]
     public void ACalmSnapshotIsHealthyWithoutReasons()

@@ -41,13 +41,16 @@ public sealed class ServingViewTests : IDisposable
         Assert.False(gone.Live);
     }
 
-    [Fact]
-    public void A_writer_moves_its_view_forward_by_each_commit_and_matches_the_catalog()
+    [Theory]
+    [InlineData(CandidateSource.All)]
+    [InlineData(CandidateSource.Graph)]
+    [InlineData(CandidateSource.Centroids)]
+    public void A_writer_moves_its_view_forward_by_each_commit_and_matches_the_catalog(CandidateSource source)
     {
         using var index = Index.Open(directory.Path);
         index.AddPages([.. Enumerable.Range(0, 30)]);
         index.Embed([.. Enumerable.Range(0, 30)]);
-        using var views = index.Views(readOnly: false);
+        using var views = index.Views(readOnly: false, source);
         AssertMatchesCatalog(index, views.For(Encoder.Id, CancellationToken.None));
 
         index.AddPages(30, 31);
@@ -56,8 +59,14 @@ public sealed class ServingViewTests : IDisposable
         index.Store.SealAll();
         index.Store.Compact(new Core.Compaction.CompactionOptions { DeadShareThreshold = 0.01 }, CancellationToken.None);
 
-        AssertMatchesCatalog(index, views.For(Encoder.Id, CancellationToken.None));
+        var view = views.For(Encoder.Id, CancellationToken.None);
+        AssertMatchesCatalog(index, view);
         Assert.Equal(1, views.Builds);
+
+        // The structure hands on live pages only, as many as asked for when it can reach every page (all probed).
+        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, probes: 1000);
+        Assert.Equal(source == CandidateSource.All ? view.Count : view.Count - 1, fewer.Count);
+        Assert.Subset(view.Entries().Select(e => e.Key).ToHashSet(), fewer.Select(e => e.Key).ToHashSet());
     }
 
     [Fact]
@@ -107,12 +116,12 @@ public sealed class ServingViewTests : IDisposable
             writer.Persist(CancellationToken.None);
         }
 
-        // Offset 4 is the version, 12 the catalog stamp, −8 a byte of the last entry (a checksum mismatch).
+        // Offset 4 is the version, 12 the catalog stamp, −8 a byte near the end (a checksum mismatch).
         var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
         var bytes = File.ReadAllBytes(file);
         bytes[offset >= 0 ? offset : bytes.Length + offset] ^= 0x5A;
         File.WriteAllBytes(file, bytes);
-        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, mapOnly: true, out var reason));
+        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, CandidateSource.Centroids, mapOnly: true, out var reason));
         Assert.NotEmpty(reason);
 
         using var reader = index.Views(readOnly: true);
@@ -128,17 +137,111 @@ public sealed class ServingViewTests : IDisposable
         index.AddPages([.. Enumerable.Range(0, 60)]);
         index.Embed([.. Enumerable.Range(0, 60)]);
         index.Unreference(7, 8);
-        using var views = index.Views(readOnly: false);
-        foreach (var (seed, fromGraph) in new[] { (101, true), (102, true), (103, false), (104, false) })
+        foreach (var (seed, source) in new[] { (101, CandidateSource.Graph), (102, CandidateSource.Centroids), (103, CandidateSource.All) })
         {
+            using var views = index.Views(readOnly: false, source);
             var query = TestVectors.Set(seed, 4, Dimensions);
-            var (result, unreadable) = views.Search(Encoder.Id, query, 10, fromGraph, CancellationToken.None);
+            var (result, unreadable) = views.Search(Encoder.Id, query, 10, CancellationToken.None);
             using var live = index.Store.OpenLive(Encoder.Id);
             var expected = LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None);
             Assert.Equal(expected.Hits.Select(h => (h.Key, h.Score)), result.Hits.Select(h => (h.Key, h.Score)));
             Assert.Equal(58, result.PagesScanned);
             Assert.Equal(0, unreadable);
         }
+    }
+
+    [Fact]
+    public void Centroid_lists_read_back_from_the_file_give_the_candidates_they_gave_when_written()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 80)]);
+        index.Embed([.. Enumerable.Range(0, 80)]);
+        var query = TestVectors.Set(200, 3, Dimensions);
+        IReadOnlyList<Core.Search.ServingEntry> written;
+        using (var writer = index.Views(readOnly: false))
+        {
+            written = writer.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, probes: 3);
+            writer.Persist(CancellationToken.None);
+        }
+
+        Assert.Equal(20, written.Count);
+        using var reader = index.Views(readOnly: true);
+        var read = reader.For(Encoder.Id, CancellationToken.None);
+        Assert.Equal(0, reader.Builds);
+        Assert.Equal(written, read.Candidates(query, 20, probes: 3));
+    }
+
+    [Fact]
+    public void A_file_serves_every_page_whatever_its_structure_but_not_another_structure()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages(0, 1, 2, 3);
+        index.Embed(0, 1, 2, 3);
+        using (var writer = index.Views(readOnly: false, CandidateSource.Graph))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+        }
+
+        using (var all = index.Views(readOnly: true, CandidateSource.All))
+        {
+            AssertMatchesCatalog(index, all.For(Encoder.Id, CancellationToken.None));
+            Assert.Equal(0, all.Builds);
+        }
+
+        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, CandidateSource.Centroids, mapOnly: true, out var reason));
+        Assert.Contains("Graph", reason, StringComparison.Ordinal);
+        using var centroids = index.Views(readOnly: true, CandidateSource.Centroids);
+        AssertMatchesCatalog(index, centroids.For(Encoder.Id, CancellationToken.None));
+        Assert.Equal(1, centroids.Builds);
+    }
+
+    [Fact]
+    public void A_writer_measures_the_recall_figure_before_it_writes_the_view_and_readers_see_it_without_writing()
+    {
+        // Fewer pages than the lists hand on, so the served search ranks every page and keeps the whole top-10.
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 50)]);
+        index.Embed([.. Enumerable.Range(0, 50)]);
+        using (var writer = index.Views(readOnly: false))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            Assert.Null(writer.LastRecall(Encoder.Id));
+            writer.Persist(CancellationToken.None);
+            var measured = writer.LastRecall(Encoder.Id);
+            Assert.NotNull(measured);
+            Assert.Equal(1.0, measured.Recall);
+            Assert.Equal(RecallSample.Queries, measured.Queries);
+            Assert.Equal(index.Catalog.VectorSetGeneration, measured.Generation);
+        }
+
+        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
+        var written = File.GetLastWriteTimeUtc(file);
+        using (var reader = index.Views(readOnly: true))
+        {
+            Assert.Equal(1.0, reader.LastRecall(Encoder.Id)?.Recall);
+            reader.Persist(CancellationToken.None);
+        }
+
+        Assert.Equal(written, File.GetLastWriteTimeUtc(file));
+
+        // A view of every page measures nothing: its candidates need no training.
+        using var all = index.Views(readOnly: false, CandidateSource.All);
+        index.Unreference(3);
+        all.For(Encoder.Id, CancellationToken.None);
+        all.Persist(CancellationToken.None);
+        Assert.Null(all.LastRecall(Encoder.Id));
+    }
+
+    [Fact]
+    public void Sample_positions_are_distinct_within_the_directory_and_fixed_by_the_seed()
+    {
+        var positions = RecallSample.Positions(1000, 16, seed: 7);
+        Assert.Equal(16, positions.Distinct().Count());
+        Assert.All(positions, p => Assert.InRange(p, 0, 999));
+        Assert.Equal(positions, RecallSample.Positions(1000, 16, seed: 7));
+        Assert.NotEqual(positions, RecallSample.Positions(1000, 16, seed: 8));
+        Assert.Equal([0, 1, 2], RecallSample.Positions(3, 16, seed: 7));
     }
 
     [Fact]
@@ -204,7 +307,7 @@ public sealed class ServingViewTests : IDisposable
 
         public static Index Open(string path) => new(path);
 
-        public ServingViews Views(bool readOnly) => new(Catalog, () => Store, Path, readOnly);
+        public ServingViews Views(bool readOnly, CandidateSource source = CandidateSource.Centroids) => new(Catalog, () => Store, Path, readOnly, source);
 
         public void AddPages(params int[] pages)
         {
