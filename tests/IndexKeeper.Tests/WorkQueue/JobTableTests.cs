@@ -81,8 +81,8 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
 
         var second = Assert.Single(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.True(second.TakenOver);
-        Assert.False(Jobs.Finish("first", first.Job, Encoder, [1, 2, 3]));
-        Assert.True(Jobs.Finish("second", second.Job, Encoder, [4, 5, 6]));
+        Assert.Equal(0, Jobs.Finish("first", [(first.Job, new byte[] { 1, 2, 3 })], Encoder));
+        Assert.Equal(1, Jobs.Finish("second", [(second.Job, new byte[] { 4, 5, 6 })], Encoder));
 
         var finished = Assert.Single(Jobs.Finished(10));
         Assert.Equal("second", finished.Worker);
