@@ -58,7 +58,7 @@ internal static class CoordinatorProfile
             var now = DateTime.UtcNow;
             Time("queue due count (each turn)", () => index.Catalog.Queue.Due(now));
             var count = 0;
-            Time("publish", () => count = publish.Run(jobs, published, options.Queue.PublishAhead, QueuePriority.Canary, now));
+            Time("publish", () => count = publish.Run(jobs, published, options.Queue.PublishAhead, QueuePriority.Canary, now).Count);
             if (count == 0)
             {
                 break;

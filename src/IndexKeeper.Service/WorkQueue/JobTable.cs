@@ -53,14 +53,15 @@ internal sealed class JobTable(NpgsqlDataSource database)
     }
 
     /// <summary>
-    /// Takes back the unclaimed jobs the gate no longer allows (priority numbers above <paramref name="lowestAllowed"/>;
-    /// -1 takes back all): a window's end stops bulk work on every machine. Returns their page keys.
+    /// Takes back the unclaimed jobs of <paramref name="encoderId"/> but those in <paramref name="paidFor"/> (published
+    /// under the daytime budget): out of a window, bulk work stops on every machine. Returns their page keys.
     /// </summary>
-    public IReadOnlyList<string> Withdraw(string encoderId, int lowestAllowed)
+    public IReadOnlyList<string> WithdrawUnpaid(string encoderId, IReadOnlyCollection<string> paidFor)
     {
-        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id = @encoder AND state = {(int)JobState.Waiting} AND priority > @lowest RETURNING page_key");
+        ArgumentNullException.ThrowIfNull(paidFor);
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id = @encoder AND state = {(int)JobState.Waiting} AND NOT (page_key = ANY(@paid)) RETURNING page_key");
         command.Parameters.AddWithValue("encoder", encoderId);
-        command.Parameters.AddWithValue("lowest", lowestAllowed);
+        command.Parameters.AddWithValue("paid", paidFor.ToArray());
         return Keys(command);
     }
 

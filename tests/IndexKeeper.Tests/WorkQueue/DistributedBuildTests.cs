@@ -147,5 +147,29 @@ public sealed class DistributedBuildTests(PostgresServer server)
         store.AssertSameAsReference();
     }
 
+    [Fact]
+    public void Worker_waits_out_PostgreSQL_going_away_and_claims_again_after()
+    {
+        using var own = new PostgresServer();
+        using var store = new QueueStore(own);
+        using var daemon = RunningDaemon.Start(store.Temp.Path, [.. store.CoordinatorArgs, "--Queue:WhenUnreachable=wait", "--Queue:ReconnectMaxSeconds=1"]);
+        daemon.WaitUntil("jobs are published", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == QueueStore.Pages);
+        using var worker = new RunningWorker(store.Temp.Path, store.WorkerArgs("steadfast", "--Queue:ReconnectMaxSeconds=1"));
+        daemon.WaitUntil("the worker has connected", () => worker.Stderr.Contains("takes jobs", StringComparison.Ordinal));
+
+        // Wherever the worker is (claiming, reading, encoding, handing back), the database goes away under it.
+        own.Stop();
+        daemon.WaitUntil("the worker notices", () => worker.Stderr.Contains("PostgreSQL is out of reach", StringComparison.Ordinal));
+        own.Start();
+
+        // The same worker process, never restarted, finishes the store: nothing lost, nothing committed twice.
+        QueueStore.WaitUntilComplete(daemon);
+        Assert.Equal(QueueStore.Pages, daemon.GetJson("/api/status").GetProperty("vectorSets").GetInt64());
+        daemon.WaitUntil("finished jobs are deleted", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == 0);
+        worker.Terminate();
+        Assert.Equal(0, daemon.Terminate(TimeSpan.FromSeconds(60)));
+        store.AssertSameAsReference();
+    }
+
     private static Dictionary<string, string> Fault(string point) => new() { ["IK_FAULT_INJECTION"] = point + ":exit" };
 }
