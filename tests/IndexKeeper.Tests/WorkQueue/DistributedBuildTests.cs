@@ -163,7 +163,15 @@ public sealed class DistributedBuildTests(PostgresServer server)
         own.Start();
 
         // The same worker process, never restarted, finishes the store: nothing lost, nothing committed twice.
-        QueueStore.WaitUntilComplete(daemon);
+        try
+        {
+            QueueStore.WaitUntilComplete(daemon);
+        }
+        catch (Xunit.Sdk.XunitException ex)
+        {
+            throw new Xunit.Sdk.XunitException(ex.Message + "\nThe worker's log:\n" + worker.Stderr);
+        }
+
         Assert.Equal(QueueStore.Pages, daemon.GetJson("/api/status").GetProperty("vectorSets").GetInt64());
         daemon.WaitUntil("finished jobs are deleted", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == 0);
         worker.Terminate();
