@@ -169,7 +169,10 @@ public sealed class DistributedBuildTests(PostgresServer server)
         }
         catch (Xunit.Sdk.XunitException ex)
         {
-            throw new Xunit.Sdk.XunitException(ex.Message + "\nThe worker's log:\n" + worker.Stderr);
+            using var connection = own.Admin(store.Database);
+            using var command = connection.CreateCommand();
+            command.CommandText = $"SELECT string_agg(state || ':' || coalesce(worker, '-') || ':' || claims, ' ') FROM {Jobs}";
+            throw new Xunit.Sdk.XunitException(ex.Message + "\nJobs (state:worker:claims): " + command.ExecuteScalar() + "\nThe worker's log:\n" + worker.Stderr);
         }
 
         Assert.Equal(QueueStore.Pages, daemon.GetJson("/api/status").GetProperty("vectorSets").GetInt64());
