@@ -3,6 +3,7 @@ using System.Globalization;
 using IndexKeeper.Cli.Output;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Planning;
+using IndexKeeper.Service.WorkQueue;
 
 namespace IndexKeeper.Cli.Commands;
 
@@ -26,8 +27,16 @@ internal sealed class PlanCommand() : CommandBase(
         var calibrate = context.Value(this.calibrate);
         var report = ThroughDaemon.Ask(options, () =>
         {
+            // No daemon: the live workers and their rates come from the work queue itself (read-only).
+            var workers = PlanWorkers.Read(options.Queue, out var problem);
+            if (problem is not null)
+            {
+                Console.Error.WriteLine("warning: " + problem);
+            }
+
             using var composed = CommandContext.OpenForReading(options);
-            return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress), cancellationToken));
+            return TerminalProgress.Around(progress => composed.Get<PlanOperation>().Build(
+                new PlanRequest(DateTimeOffset.UtcNow, [], calibrate, progress) { Workers = workers }, cancellationToken));
         }, daemon => daemon.Get<PlanReport>("/api/plan" + (calibrate ? "?calibrate=true" : string.Empty)));
 
         return context.Print(report, Write);

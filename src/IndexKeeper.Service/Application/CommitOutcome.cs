@@ -17,4 +17,7 @@ internal sealed class CommitOutcome
     public int Rejected { get; set; }
 
     public List<string> Problems { get; } = [];
+
+    /// <summary>The page keys committed (the rest came back without vectors in the index).</summary>
+    public HashSet<string> CommittedPages { get; } = new(StringComparer.Ordinal);
 }

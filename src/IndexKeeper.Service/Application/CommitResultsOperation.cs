@@ -77,6 +77,7 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
         }
 
         outcome.Committed = commit.Count;
+        outcome.CommittedPages.UnionWith(commit.Select(c => c.Key.Hex));
         outcome.Vectors = commit.Sum(c => (long)c.Vectors.Count);
         return outcome;
     }

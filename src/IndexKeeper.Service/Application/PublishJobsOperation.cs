@@ -16,15 +16,15 @@ internal sealed class PublishJobsOperation(OpenIndex index)
 {
     /// <summary>
     /// Publishes at most <paramref name="maxJobs"/> jobs of priorities up to <paramref name="lowestPriority"/>
-    /// that <paramref name="published"/> does not hold yet, adding them to it; returns how many.
+    /// that <paramref name="published"/> does not hold yet, adding them to it; returns their page keys.
     /// </summary>
-    public int Run(JobTable jobs, HashSet<string> published, int maxJobs, QueuePriority lowestPriority, DateTime nowUtc)
+    public IReadOnlyList<string> Run(JobTable jobs, HashSet<string> published, int maxJobs, QueuePriority lowestPriority, DateTime nowUtc)
     {
         ArgumentNullException.ThrowIfNull(jobs);
         ArgumentNullException.ThrowIfNull(published);
         if (maxJobs <= 0)
         {
-            return 0;
+            return [];
         }
 
         var catalog = index.Catalog;
@@ -65,7 +65,7 @@ internal sealed class PublishJobsOperation(OpenIndex index)
             published.Add(job.PageKey);
         }
 
-        return batch.Count;
+        return batch.Select(j => j.PageKey).ToList();
     }
 
     /// <summary>A live document holding the page and its position: the page record's own location first, else any holder.</summary>

@@ -12,6 +12,9 @@ internal interface IEmbedGate
     /// <summary>Tells the gate how many pages were just embedded under its last allowance (the budget spends them).</summary>
     void Spent(DateTimeOffset now, long pages);
 
+    /// <summary>Gives back <paramref name="pages"/> of the budget grant made at <paramref name="grantedAt"/> (published, then back without vectors).</summary>
+    void Refund(DateTimeOffset grantedAt, long pages);
+
     /// <summary>When <paramref name="work"/> would be done through this gate from <paramref name="now"/> at a constant cost per page.</summary>
     WorkForecast Forecast(DateTimeOffset now, QueuedPages work, double encoderSecondsPerPage);
 

@@ -213,7 +213,12 @@ internal sealed class IndexWorker(
                 supervisor.Succeeded();
                 if (!busy)
                 {
-                    KeepServingViewWarm(clock.GetUtcNow());
+                    if (remote is not { Outstanding: true })
+                    {
+                        // As a local drain is never idle until the queue is empty: jobs out means the view is stale again within seconds.
+                        KeepServingViewWarm(clock.GetUtcNow());
+                    }
+
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
                     if (remote is { Outstanding: true })

@@ -1,5 +1,4 @@
 using System.Net.Sockets;
-using IndexKeeper.Core.Queue;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.WorkQueue;
@@ -35,7 +34,11 @@ internal sealed class RemoteEmbedding(
     private TimeSpan backoff;
     private DateTimeOffset nextAttempt = DateTimeOffset.MinValue;
     private DateTimeOffset nextFigures = DateTimeOffset.MinValue;
-    private int? lastBound;
+    private bool? lastOpen;
+
+    // Jobs published under the daytime budget and the instant of their grant: they stay out after a window
+    // closes, and one that comes back without vectors gives its page of budget back.
+    private readonly Dictionary<string, DateTimeOffset> paid = new(StringComparer.Ordinal);
     private long committed;
     private long rejected;
 
@@ -60,6 +63,7 @@ internal sealed class RemoteEmbedding(
                 // Jobs of an encoder this index no longer embeds with would wait forever for a worker of their own.
                 jobs.WithdrawOthers(index.Encoder.Identity.Id);
                 published = jobs.Outstanding(index.Encoder.Identity.Id);
+                paid.Keys.Where(k => !published.Contains(k)).ToList().ForEach(k => paid.Remove(k));
             }
 
             var busy = Collect(now);
@@ -98,9 +102,20 @@ internal sealed class RemoteEmbedding(
 
         var outcome = commit.Run(finished, now.UtcDateTime);
         jobs.Delete(finished.Select(f => f.Job).ToList());
+        var refunds = new Dictionary<DateTimeOffset, long>();
         foreach (var job in finished)
         {
-            published!.Remove(job.Job.PageKey);
+            var key = job.Job.PageKey;
+            published!.Remove(key);
+            if (paid.Remove(key, out var grantedAt) && !outcome.CommittedPages.Contains(key))
+            {
+                refunds[grantedAt] = refunds.GetValueOrDefault(grantedAt) + 1;
+            }
+        }
+
+        foreach (var (grantedAt, pages) in refunds)
+        {
+            gate.Refund(grantedAt, pages);
         }
 
         foreach (var problem in outcome.Problems)
@@ -122,21 +137,21 @@ internal sealed class RemoteEmbedding(
     /// <summary>Takes back what the gate no longer allows and publishes what it allows now, up to Queue:PublishAhead outstanding.</summary>
     private bool Publish(DateTimeOffset now)
     {
+        var encoderId = index.Encoder.Identity.Id;
         var allowance = gate.Allowance(now, index.Catalog.Queue.Due(now.UtcDateTime));
         state.Allowance = allowance;
-        var lowest = allowance.MaxPages > 0 ? allowance.LowestPriority : (QueuePriority?)null;
-        var bound = lowest is { } l ? (int)l : -1;
-        if (lastBound is null || bound < lastBound)
+        if (!allowance.WindowOpen && lastOpen != false)
         {
-            // A window closed or the budget ran out: unclaimed bulk jobs come back; claimed ones finish.
-            foreach (var key in jobs.Withdraw(index.Encoder.Identity.Id, bound))
+            // Out of a window (it closed, or this coordinator just connected): unclaimed jobs the budget did not
+            // pay for come back, so bulk work stops on every machine; claimed ones finish.
+            foreach (var key in jobs.WithdrawUnpaid(encoderId, paid.Keys))
             {
                 published!.Remove(key);
             }
         }
 
-        lastBound = bound;
-        if (lowest is not { } allowed)
+        lastOpen = allowance.WindowOpen;
+        if (allowance.MaxPages <= 0)
         {
             return false;
         }
@@ -148,14 +163,23 @@ internal sealed class RemoteEmbedding(
             return false;
         }
 
-        var count = publish.Run(jobs, published, room, allowed, now.UtcDateTime);
-        if (count > 0)
+        var keys = publish.Run(jobs, published, room, allowance.LowestPriority, now.UtcDateTime);
+        if (keys.Count == 0)
         {
-            gate.Spent(now, count);
-            log.LogDebug("Published {Jobs} job(s).", count);
+            return false;
         }
 
-        return count > 0;
+        gate.Spent(now, keys.Count);
+        if (!allowance.WindowOpen)
+        {
+            foreach (var key in keys)
+            {
+                paid[key] = now;
+            }
+        }
+
+        log.LogDebug("Published {Jobs} job(s).", keys.Count);
+        return true;
     }
 
     private void Figures()
@@ -172,7 +196,7 @@ internal sealed class RemoteEmbedding(
         fault = ex.Message;
         faultSince ??= now.UtcDateTime;
         published = null;
-        lastBound = null;
+        lastOpen = null;
         backoff = Reconnect.Next(backoff, TimeSpan.FromSeconds(options.ReconnectMaxSeconds));
         nextAttempt = now + backoff;
         var last = state.WorkQueue;

@@ -42,4 +42,24 @@ internal sealed class ScheduledEmbedGate(EncoderGate gate) : IEmbedGate
             spends.Add(new BudgetSpend(now, pages));
         }
     }
+
+    public void Refund(DateTimeOffset grantedAt, long pages)
+    {
+        var at = spends.FindIndex(s => s.At == grantedAt);
+        if (at < 0 || pages <= 0)
+        {
+            // The grant no longer counts (its period is over): nothing to give back.
+            return;
+        }
+
+        var left = spends[at].Pages - pages;
+        if (left > 0)
+        {
+            spends[at] = spends[at] with { Pages = left };
+        }
+        else
+        {
+            spends.RemoveAt(at);
+        }
+    }
 }

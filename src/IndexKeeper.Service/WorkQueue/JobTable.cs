@@ -53,14 +53,15 @@ internal sealed class JobTable(NpgsqlDataSource database)
     }
 
     /// <summary>
-    /// Takes back the unclaimed jobs the gate no longer allows (priority numbers above <paramref name="lowestAllowed"/>;
-    /// -1 takes back all): a window's end stops bulk work on every machine. Returns their page keys.
+    /// Takes back the unclaimed jobs of <paramref name="encoderId"/> but those in <paramref name="paidFor"/> (published
+    /// under the daytime budget): out of a window, bulk work stops on every machine. Returns their page keys.
     /// </summary>
-    public IReadOnlyList<string> Withdraw(string encoderId, int lowestAllowed)
+    public IReadOnlyList<string> WithdrawUnpaid(string encoderId, IReadOnlyCollection<string> paidFor)
     {
-        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id = @encoder AND state = {(int)JobState.Waiting} AND priority > @lowest RETURNING page_key");
+        ArgumentNullException.ThrowIfNull(paidFor);
+        using var command = database.CreateCommand($"DELETE FROM {Jobs} WHERE encoder_id = @encoder AND state = {(int)JobState.Waiting} AND NOT (page_key = ANY(@paid)) RETURNING page_key");
         command.Parameters.AddWithValue("encoder", encoderId);
-        command.Parameters.AddWithValue("lowest", lowestAllowed);
+        command.Parameters.AddWithValue("paid", paidFor.ToArray());
         return Keys(command);
     }
 
@@ -83,7 +84,10 @@ internal sealed class JobTable(NpgsqlDataSource database)
             """);
         command.Parameters.AddWithValue("limit", limit);
         var finished = new List<FinishedJob>();
-        using var reader = command.ExecuteReader();
+
+        // Sequential access: each result (hundreds of KB) is read from the socket straight into its array, not
+        // first buffered whole in the connection's row buffer and copied (Npgsql's documentation, "Reading large values").
+        using var reader = command.ExecuteReader(System.Data.CommandBehavior.SequentialAccess);
         while (reader.Read())
         {
             finished.Add(new FinishedJob(
@@ -180,17 +184,29 @@ internal sealed class JobTable(NpgsqlDataSource database)
         return command.ExecuteNonQuery();
     }
 
-    /// <summary>Hands back a vector set; false when the job is no longer this worker's (its lease expired and another took it).</summary>
-    public bool Finish(string worker, PageJob job, string resultEncoderId, byte[] result)
+    /// <summary>
+    /// Hands back the vector sets of one encoder batch in one statement; returns how many landed. A job that is
+    /// no longer this worker's (its lease expired and another took it) is left alone.
+    /// </summary>
+    public int Finish(string worker, IReadOnlyList<(PageJob Job, byte[] Result)> results, string resultEncoderId)
     {
-        ArgumentNullException.ThrowIfNull(job);
+        ArgumentNullException.ThrowIfNull(results);
+        if (results.Count == 0)
+        {
+            return 0;
+        }
+
         using var command = database.CreateCommand($"""
-            UPDATE {Jobs} SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result = @result, finished_at = now(), lease_until = NULL
-            WHERE page_key = @key AND encoder_id = @encoder AND worker = @worker AND state = {(int)JobState.Claimed}
+            UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result = r.result, finished_at = now(), lease_until = NULL
+            FROM unnest(@keys, @encoders, @results) AS r(page_key, encoder_id, result)
+            WHERE j.page_key = r.page_key AND j.encoder_id = r.encoder_id AND j.worker = @worker AND j.state = {(int)JobState.Claimed}
             """);
         command.Parameters.AddWithValue("result_encoder", resultEncoderId);
-        command.Parameters.AddWithValue("result", result);
-        return Mine(command, worker, job);
+        command.Parameters.AddWithValue("keys", results.Select(r => r.Job.PageKey).ToArray());
+        command.Parameters.AddWithValue("encoders", results.Select(r => r.Job.EncoderId).ToArray());
+        command.Parameters.AddWithValue("results", NpgsqlDbType.Array | NpgsqlDbType.Bytea, results.Select(r => r.Result).ToArray());
+        command.Parameters.AddWithValue("worker", worker);
+        return command.ExecuteNonQuery();
     }
 
     /// <summary>Gives a job back without vectors; false when it is no longer this worker's.</summary>

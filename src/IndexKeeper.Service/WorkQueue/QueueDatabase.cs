@@ -12,13 +12,18 @@ namespace IndexKeeper.Service.WorkQueue;
 internal static class QueueDatabase
 {
     /// <summary>A data source for <paramref name="queue"/>; REQUIRES: the settings were validated and Connection is set.</summary>
-    public static NpgsqlDataSource Create(QueueOptions queue, string applicationName)
+    /// <param name="readOnly">Every transaction read-only (PostgreSQL's <c>default_transaction_read_only</c>): for <c>plan</c>, which never writes.</param>
+    public static NpgsqlDataSource Create(QueueOptions queue, string applicationName, bool readOnly = false)
     {
         ArgumentNullException.ThrowIfNull(queue);
         var builder = new NpgsqlConnectionStringBuilder(queue.Connection)
         {
             ApplicationName = applicationName,
         };
+        if (readOnly)
+        {
+            builder.Options = ((builder.Options ?? string.Empty) + " -c default_transaction_read_only=on").Trim();
+        }
         if (builder.Timeout == new NpgsqlConnectionStringBuilder().Timeout)
         {
             // Out of reach is found out soon, so the coordinator can embed locally meanwhile.

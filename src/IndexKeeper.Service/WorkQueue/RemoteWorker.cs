@@ -145,7 +145,7 @@ public sealed class RemoteWorker : IDisposable
         {
             var vectors = encoder.EncodePages(batch.Select(b => b.Page).ToList(), stopping);
             var seconds = clock.Elapsed.TotalSeconds;
-            var done = batch.Select((b, i) => jobs.Finish(figures.Worker, b.Job, encoder.Identity.Id, VectorSetWire.Write(vectors[i]))).Count(mine => mine);
+            var done = jobs.Finish(figures.Worker, batch.Select((b, i) => (b.Job, VectorSetWire.Write(vectors[i]))).ToList(), encoder.Identity.Id);
             return (done, seconds, 0);
         }
         catch (Exception ex) when (ex is InvalidOperationException or ArgumentException or FormatException && batch.Count > 1)

@@ -80,21 +80,27 @@ internal static class VectorSetWire
             throw new FormatException($"vector set bytes of {body - HeaderBytes} for {count} rows of {dimensions}");
         }
 
-        var floats = MemoryMarshal.Cast<byte, float>(bytes[HeaderBytes..body]).ToArray();
+        // One copy of the rows, straight from the bytes where the machine is little-endian (as the format).
+        var values = count * dimensions;
+        var rows = BitConverter.IsLittleEndian ? MemoryMarshal.Cast<byte, float>(bytes[HeaderBytes..body])[..values].ToArray() : new float[values];
+        var at = HeaderBytes;
         if (!BitConverter.IsLittleEndian)
         {
-            for (var i = 0; i < floats.Length; i++)
+            for (var i = 0; i < values; i++, at += sizeof(float))
             {
-                floats[i] = BinaryPrimitives.ReadSingleLittleEndian(bytes[(HeaderBytes + (i * sizeof(float)))..]);
+                rows[i] = BinaryPrimitives.ReadSingleLittleEndian(bytes[at..]);
             }
         }
 
-        var rows = floats[..(count * dimensions)];
+        at = HeaderBytes + (values * sizeof(float));
         var regions = new PageBox[count];
-        for (var i = 0; i < count; i++)
+        for (var i = 0; i < count; i++, at += 4 * sizeof(float))
         {
-            var at = (count * dimensions) + (i * 4);
-            regions[i] = new PageBox(floats[at], floats[at + 1], floats[at + 2], floats[at + 3]);
+            regions[i] = new PageBox(
+                BinaryPrimitives.ReadSingleLittleEndian(bytes[at..]),
+                BinaryPrimitives.ReadSingleLittleEndian(bytes[(at + 4)..]),
+                BinaryPrimitives.ReadSingleLittleEndian(bytes[(at + 8)..]),
+                BinaryPrimitives.ReadSingleLittleEndian(bytes[(at + 12)..]));
         }
 
         return new VectorSet(dimensions, rows, regions);

@@ -95,7 +95,7 @@ public sealed class StatusPageBrowserTests
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 
-    private static string RunChromium(TempDirectory temp, IReadOnlyList<string> args, out string log)
+    internal static string RunChromium(TempDirectory temp, IReadOnlyList<string> args, out string log)
     {
         var profile = Directory.CreateDirectory(temp.Combine("chromium-profile-" + Guid.NewGuid().ToString("N")[..6])).FullName;
         var start = new ProcessStartInfo(Chromium)
@@ -132,7 +132,7 @@ public sealed class StatusPageBrowserTests
     }
 
     /// <summary>Skipped, saying so, only where chromium is not installed; CI installs it (the install script's package list).</summary>
-    private sealed class ChromiumFactAttribute : FactAttribute
+    internal sealed class ChromiumFactAttribute : FactAttribute
     {
         public ChromiumFactAttribute()
         {

@@ -147,5 +147,45 @@ public sealed class DistributedBuildTests(PostgresServer server)
         store.AssertSameAsReference();
     }
 
+    // Fails here (2 of 2 runs, load 20-40): after the restart the worker logs one "out of reach" and then
+    // nothing, and the coordinator, reconnected, never sees the pages done within the patience. Not yet
+    // explained (a worker stuck after the restart, or jobs in a state nobody claims); kept to be run while
+    // it is found, not counted as done.
+    [Fact(Skip = "open: the worker does not finish the store after PostgreSQL restarts (see the comment)")]
+    public void Worker_waits_out_PostgreSQL_going_away_and_claims_again_after()
+    {
+        using var own = new PostgresServer();
+        using var store = new QueueStore(own);
+        using var daemon = RunningDaemon.Start(store.Temp.Path, [.. store.CoordinatorArgs, "--Queue:WhenUnreachable=wait", "--Queue:ReconnectMaxSeconds=1"]);
+        daemon.WaitUntil("jobs are published", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == QueueStore.Pages);
+        using var worker = new RunningWorker(store.Temp.Path, store.WorkerArgs("steadfast", "--Queue:ReconnectMaxSeconds=1"));
+        daemon.WaitUntil("the worker has connected", () => worker.Stderr.Contains("takes jobs", StringComparison.Ordinal));
+
+        // Wherever the worker is (claiming, reading, encoding, handing back), the database goes away under it.
+        own.Stop();
+        daemon.WaitUntil("the worker notices", () => worker.Stderr.Contains("PostgreSQL is out of reach", StringComparison.Ordinal));
+        own.Start();
+
+        // The same worker process, never restarted, finishes the store: nothing lost, nothing committed twice.
+        try
+        {
+            QueueStore.WaitUntilComplete(daemon);
+        }
+        catch (Xunit.Sdk.XunitException ex)
+        {
+            Npgsql.NpgsqlConnection.ClearAllPools();
+            using var connection = own.Admin(store.Database);
+            using var command = connection.CreateCommand();
+            command.CommandText = $"SELECT string_agg(state || ':' || coalesce(worker, '-') || ':' || claims, ' ') FROM {Jobs}";
+            throw new Xunit.Sdk.XunitException(ex.Message + "\nJobs (state:worker:claims): " + command.ExecuteScalar() + "\nThe worker's log:\n" + worker.Stderr);
+        }
+
+        Assert.Equal(QueueStore.Pages, daemon.GetJson("/api/status").GetProperty("vectorSets").GetInt64());
+        daemon.WaitUntil("finished jobs are deleted", () => store.Scalar($"SELECT count(*) FROM {Jobs}") == 0);
+        worker.Terminate();
+        Assert.Equal(0, daemon.Terminate(TimeSpan.FromSeconds(60)));
+        store.AssertSameAsReference();
+    }
+
     private static Dictionary<string, string> Fault(string point) => new() { ["IK_FAULT_INJECTION"] = point + ":exit" };
 }

@@ -81,8 +81,8 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
 
         var second = Assert.Single(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.True(second.TakenOver);
-        Assert.False(Jobs.Finish("first", first.Job, Encoder, [1, 2, 3]));
-        Assert.True(Jobs.Finish("second", second.Job, Encoder, [4, 5, 6]));
+        Assert.Equal(0, Jobs.Finish("first", [(first.Job, new byte[] { 1, 2, 3 })], Encoder));
+        Assert.Equal(1, Jobs.Finish("second", [(second.Job, new byte[] { 4, 5, 6 })], Encoder));
 
         var finished = Assert.Single(Jobs.Finished(10));
         Assert.Equal("second", finished.Worker);
@@ -98,14 +98,26 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
     }
 
     [Fact]
-    public void Withdraw_takes_back_only_unclaimed_jobs_the_gate_no_longer_allows()
+    public void Withdraw_takes_back_only_unclaimed_jobs_the_budget_did_not_pay_for()
     {
-        Jobs.Publish([Job(1, priority: 0), Job(2, priority: 1), Job(3, priority: 1)]);
+        Jobs.Publish([Job(1, priority: 0), Job(2, priority: 1), Job(3, priority: 1), Job(4, priority: 0)]);
         var claimed = Assert.Single(Jobs.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.Equal(Job(1).PageKey, claimed.Job.PageKey);
-        Assert.Equal(2, Jobs.Withdraw(Encoder, 0).Count);
-        Assert.Empty(Jobs.Withdraw(Encoder, -1));
-        Assert.Single(Jobs.Outstanding(Encoder));
+        Assert.Equal([Job(2).PageKey, Job(3).PageKey], Jobs.WithdrawUnpaid(Encoder, [Job(4).PageKey]).Order(StringComparer.Ordinal));
+        Assert.Empty(Jobs.WithdrawUnpaid(Encoder, [Job(4).PageKey]));
+        Assert.Equal(2, Jobs.Outstanding(Encoder).Count);
+    }
+
+    [Fact]
+    public void A_batch_hand_back_lands_only_the_jobs_still_the_workers_own()
+    {
+        Jobs.Publish([Job(1), Job(2)]);
+        var first = Jobs.Claim("first", Encoder, 2, TimeSpan.FromSeconds(-1));
+        var taken = Assert.Single(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.Equal(1, Jobs.Finish("first", first.Select(c => (c.Job, new byte[] { 7 })).ToList(), Encoder));
+        var finished = Assert.Single(Jobs.Finished(10));
+        Assert.NotEqual(taken.Job.PageKey, finished.Job.PageKey);
+        Assert.Equal("first", finished.Worker);
     }
 
     [Fact]
