@@ -65,10 +65,20 @@ public sealed class RemoteWorker : IDisposable
         using var heartbeat = new Timer(_ => Beat(), null, TimeSpan.Zero, TimeSpan.FromSeconds(queue.HeartbeatSeconds));
         var backoff = TimeSpan.Zero;
         var idle = TimeSpan.FromSeconds(Math.Min(1, queue.HeartbeatSeconds));
+        var interrupted = false;
         while (!stopping.IsCancellationRequested)
         {
             try
             {
+                if (interrupted)
+                {
+                    // The turn PostgreSQL's loss broke left its claims behind, and the heartbeat would renew
+                    // their leases for ever: give them back before claiming again (no turn runs meanwhile).
+                    var released = jobs.Release(figures.Worker);
+                    interrupted = false;
+                    log.LogInformation("PostgreSQL is back; {Jobs} claim(s) of the interrupted turn given back.", released);
+                }
+
                 var worked = Turn(stopping);
                 backoff = TimeSpan.Zero;
                 if (!worked)
@@ -83,6 +93,7 @@ public sealed class RemoteWorker : IDisposable
             }
             catch (Exception ex) when (QueueDatabase.IsUnreachable(ex) && !stopping.IsCancellationRequested)
             {
+                interrupted = true;
                 backoff = Reconnect.Next(backoff, TimeSpan.FromSeconds(queue.ReconnectMaxSeconds));
                 log.LogWarning("PostgreSQL is out of reach ({Message}); trying again in {Seconds:0} s.", ex.Message, backoff.TotalSeconds);
                 stopping.WaitHandle.WaitOne(backoff);

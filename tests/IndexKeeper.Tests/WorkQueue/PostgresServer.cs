@@ -60,10 +60,13 @@ public sealed class PostgresServer : IDisposable
         return name;
     }
 
-    /// <summary>An open connection with the password, for a test's own look into a database.</summary>
+    /// <summary>
+    /// An open connection with the password, for a test's own look into a database. Not pooled: a pooled
+    /// connection would outlive a restart of the server and fail on its first use after it.
+    /// </summary>
     public NpgsqlConnection Admin(string database)
     {
-        var connection = new NpgsqlConnection(Connection(database) + ";Password=" + Password);
+        var connection = new NpgsqlConnection(Connection(database) + ";Password=" + Password + ";Pooling=false");
         connection.Open();
         return connection;
     }
