@@ -58,6 +58,7 @@ internal sealed class IndexWorker(
     // reading every document, page and vector-set record again (issue 13: idle CPU grew with the index).
     private DaemonFigures? lastSample;
     private long commitsAtSample = -1;
+    private long commitsAtWordCheck = -1;
     private bool workSinceSample = true;
     private DateTimeOffset servingWrittenAt = DateTimeOffset.MinValue;
     private DateTimeOffset sampledFullyAt = DateTimeOffset.MinValue;
@@ -474,14 +475,24 @@ internal sealed class IndexWorker(
 
     private void Compact()
     {
-        if (compaction.Jobs().Count == 0)
+        // The word files are weighed by a pass over every page record: only when a commit may have changed them.
+        var commits = index.Catalog.Commits;
+        var wordsMayBeDue = commits != commitsAtWordCheck;
+        commitsAtWordCheck = commits;
+        if (compaction.Jobs().Count == 0 && (!wordsMayBeDue || compaction.WordFiles().Count == 0))
         {
             return;
         }
 
         var report = compaction.Run(hardStop.Token);
+        commitsAtWordCheck = index.Catalog.Commits;
         log.LogInformation(
-            "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed.", report.Jobs, report.SegmentsRewritten, report.BytesReclaimed);
+            "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed; page words: {WordFiles} file(s) rewritten, {WordDeleted} deleted, {WordReclaimed} bytes reclaimed.",
+            report.Jobs, report.SegmentsRewritten, report.BytesReclaimed, report.Words.FilesRewritten, report.Words.FilesDeleted, report.Words.BytesReclaimed);
+        foreach (var damaged in report.Words.Damaged)
+        {
+            log.LogWarning("Compaction: {Damage}", damaged);
+        }
     }
 
     private void SealByAge()
