@@ -5,6 +5,7 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -62,6 +63,7 @@ internal sealed class IndexWorker(
     private bool workSinceSample = true;
     private DateTimeOffset servingWrittenAt = DateTimeOffset.MinValue;
     private DateTimeOffset sampledFullyAt = DateTimeOffset.MinValue;
+    private List<(long Id, long Length, long Written)> segmentFilesAtSample = [];
 
     /// <summary>Completes when the loop's thread has ended (or never started): only then may the index be closed.</summary>
     public Task Completion => completion.Task;
@@ -530,17 +532,32 @@ internal sealed class IndexWorker(
     private void Sample(DateTimeOffset now)
     {
         var catalog = index.Catalog;
-        // Damage can come from outside (a segment file removed by hand), so the whole survey runs every five minutes.
-        if (!workSinceSample && catalog.Commits == commitsAtSample && lastSample is not null && now - sampledFullyAt < TimeSpan.FromMinutes(5))
+        if (!workSinceSample && catalog.Commits == commitsAtSample && lastSample is not null)
         {
-            // Nothing was done and nothing committed since the last read: only the clock and the disk moved.
-            state.Publish(lastSample with { At = now, FreeShare = FreeShare() }, Interlocked.Exchange(ref embeddedSinceSample, 0));
-            return;
+            // Nothing was done and nothing committed since the last read. This process is the index's one
+            // writer, so the catalog's figures stand; only the clock, the disk and the segment files (removed or
+            // cut by hand) can move. The files are looked at every five minutes, by their catalog records and
+            // their sizes (per segment, not per page); only a difference pays for the full survey below.
+            if (now - sampledFullyAt < TimeSpan.FromMinutes(5))
+            {
+                state.Publish(lastSample with { At = now, FreeShare = FreeShare() }, Interlocked.Exchange(ref embeddedSinceSample, 0));
+                return;
+            }
+
+            var files = SegmentFiles();
+            if (files.SequenceEqual(segmentFilesAtSample))
+            {
+                sampledFullyAt = now;
+                lastSample = lastSample with { At = now, FreeShare = FreeShare(), BytesOnDisk = DirectorySize.Of(index.Directory) };
+                state.Publish(lastSample, Interlocked.Exchange(ref embeddedSinceSample, 0));
+                return;
+            }
         }
 
         workSinceSample = false;
         commitsAtSample = catalog.Commits;
         sampledFullyAt = now;
+        segmentFilesAtSample = SegmentFiles();
         var figures = catalog.Figures();
         var depths = catalog.Queue.Depths();
         var segments = catalog.Segments.All();
@@ -571,6 +588,14 @@ internal sealed class IndexWorker(
         lastSample = latest;
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }
+
+    /// <summary>Each segment the catalog names with its file's length (-1 when missing) and last write: what can change without a commit.</summary>
+    private List<(long Id, long Length, long Written)> SegmentFiles() =>
+        index.Catalog.Segments.All().Select(segment =>
+        {
+            var file = new FileInfo(SegmentFileNames.PathOf(index.Store.Directory, segment.Id));
+            return file.Exists ? (segment.Id, file.Length, file.LastWriteTimeUtc.Ticks) : (segment.Id, -1L, 0L);
+        }).ToList();
 
     private double? FreeShare()
     {
