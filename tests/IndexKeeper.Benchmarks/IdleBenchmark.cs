@@ -46,7 +46,8 @@ public sealed class IdleBenchmark : IBenchmark
         }
 
         Directory.CreateDirectory(incoming);
-        string[] args = ["--root", "incoming", "--encoder", "hashed-terms", "--Schedule:Windows:0=Mon-Sun 00:00-24:00", "--Detect:SettleSeconds=1"];
+        // No canaries: the generated pages have no document to read them again from.
+        string[] args = ["--root", "incoming", "--encoder", "hashed-terms", "--Schedule:Windows:0=Mon-Sun 00:00-24:00", "--Detect:SettleSeconds=1", "--Drift:CanaryPages=0"];
         using var daemon = DaemonProcess.Start(cache, args);
         daemon.WaitUntil(TimeSpan.FromMinutes(60), () =>
         {

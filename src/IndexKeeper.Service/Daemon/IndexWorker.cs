@@ -97,6 +97,7 @@ internal sealed class IndexWorker(
             return;
         }
 
+        _ = Task.Run(() => WarmServingView(stoppingToken), CancellationToken.None);
         await Task.Factory.StartNew(
             () =>
             {
@@ -526,6 +527,27 @@ internal sealed class IndexWorker(
         {
             // A cache of the catalog: searches build it in memory when the file is stale, so this is only logged.
             log.LogWarning("The serving view was not written: {Message}", ex.Message);
+        }
+    }
+
+    /// <summary>
+    /// Beside the loop, once at start: one search over every page of the serving view loads the view and checks
+    /// each record it names once (as a search does the first time in a process), so the first real search after a
+    /// start costs what a warm one does. Only reads; a failure is logged and left to the searches.
+    /// </summary>
+    private void WarmServingView(CancellationToken stopping)
+    {
+        try
+        {
+            var encoder = index.Encoder;
+            if ((index.Catalog.Encoders.ServingId() ?? encoder.Identity.Id) == encoder.Identity.Id)
+            {
+                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, fromGraph: false, stopping);
+            }
+        }
+        catch (Exception ex) when (ex is not OutOfMemoryException)
+        {
+            log.LogWarning("The serving view was not warmed at start: {Message}", ex.Message);
         }
     }
 
