@@ -81,6 +81,17 @@ internal sealed class DaemonProcess : IDisposable
         return json.RootElement.Clone();
     }
 
+    /// <summary>A GET whose status is the answer (a refused request is a figure, not an exception); the body is read and dropped.</summary>
+    public int StatusOf(string path)
+    {
+        using var response = client.GetAsync(path).GetAwaiter().GetResult();
+        response.Content.ReadAsByteArrayAsync().GetAwaiter().GetResult();
+        return (int)response.StatusCode;
+    }
+
+    /// <summary>CPU seconds (user + system) the process has used so far.</summary>
+    public double CpuSeconds => CpuTicks() / 100.0; // USER_HZ, from memory: 100 on Linux x86-64 and arm64.
+
     public void WaitUntil(TimeSpan limit, Func<bool> condition, int pollMilliseconds = 200)
     {
         var clock = Stopwatch.StartNew();

@@ -383,7 +383,7 @@ public sealed class ServingBenchmark : IBenchmark
     }
 
     /// <summary>New pages as a scan adds them: words to the page-word store first (durable), then the records naming them.</summary>
-    private static List<PageRecord> AddPages(IndexCatalog catalog, PageWordStore words, List<(PageKey Key, PageWord[] Words)> pages)
+    internal static List<PageRecord> AddPages(IndexCatalog catalog, PageWordStore words, List<(PageKey Key, PageWord[] Words)> pages)
     {
         var at = words.Append([.. pages.Select(p => (p.Key, (IReadOnlyList<PageWord>)p.Words))]);
         var records = pages.Select((p, i) => new PageRecord
@@ -397,7 +397,7 @@ public sealed class ServingBenchmark : IBenchmark
         return records;
     }
 
-    private static PageKey KeyOf(int i) => PageKey.Of(BitConverter.GetBytes(i));
+    internal static PageKey KeyOf(int i) => PageKey.Of(BitConverter.GetBytes(i));
 
     private static void Latency(BenchmarkContext context, string what, List<double> milliseconds)
     {

@@ -69,7 +69,7 @@ internal sealed class PlanCommand() : CommandBase(
             ? string.Create(C, $"Storage        +{bytes / 1048576.0:0.00} MiB ({r.VectorsPerPage:0.0} vectors/page)")
             : "Storage        unknown (no vectors per page measured yet)");
         o.WriteLine(r.CompactionDue
-            ? string.Create(C, $"Compaction     due: {r.Compaction.Jobs} job(s) over {r.Compaction.Segments} segment(s), {r.Compaction.BytesToRewrite / 1048576.0:0.00} MiB to rewrite, {r.Compaction.BytesToReclaim / 1048576.0:0.00} MiB to reclaim")
+            ? string.Create(C, $"Compaction     due: {r.Compaction.Jobs} job(s) over {r.Compaction.Segments} segment(s), {r.Compaction.BytesToRewrite / 1048576.0:0.00} MiB to rewrite, {r.Compaction.BytesToReclaim / 1048576.0:0.00} MiB to reclaim; {r.Compaction.WordFiles} page-word file(s), {r.Compaction.WordBytesToReclaim / 1048576.0:0.00} MiB to reclaim")
             : "Compaction     not due");
         var next = r.NextWindowChange is { } change ? $"{(r.WindowOpen ? "closes" : "opens")} {Time(change)}" : "never changes";
         o.WriteLine(string.Create(C, $"Window         {(r.WindowOpen ? "open" : "closed")} now, {next}; budget {r.BudgetPagesPerHour} fresh pages/hour outside windows"));

@@ -310,6 +310,29 @@ public sealed class IndexCatalog : IDisposable
     }
 
     /// <summary>
+    /// Points the words of the pages in <paramref name="moves"/> (page key → new location) at a rewritten
+    /// page-word file, in one transaction; refuses (nothing changes) when a page still names
+    /// <paramref name="oldFile"/> without a move. The old file may be deleted only after this commit.
+    /// </summary>
+    public void MovePageWords(long oldFile, IReadOnlyDictionary<string, WordsAtRecord> moves)
+    {
+        ArgumentNullException.ThrowIfNull(moves);
+        store.InTransaction(() =>
+        {
+            foreach (var (key, _) in Pages.WordLocations().Where(p => p.At.File == oldFile).ToList())
+            {
+                if (!moves.TryGetValue(key, out var to) || store.Pages.FindById(key) is not { } page)
+                {
+                    throw new InvalidOperationException($"word compaction lost the words of page {key}; nothing was moved.");
+                }
+
+                page.WordsAt = to;
+                store.Pages.Update(page);
+            }
+        });
+    }
+
+    /// <summary>
     /// Forgets vector sets whose bytes are lost or damaged, fixes the counts of their segments, and queues
     /// again every page a live document still holds; with <paramref name="dropSegments"/> the segments'
     /// records go too. Returns the number of pages queued again.

@@ -21,6 +21,13 @@ public sealed class PageTable
     public IEnumerable<string> UnreferencedKeys() =>
         pages.Query().Where(p => p.References <= 0).Select(p => p.Id).ToEnumerable();
 
+    /// <summary>Every page whose words are in the page-word store, with where they are; read without deserialising schema-1 words.</summary>
+    public IEnumerable<(string Key, WordsAtRecord At)> WordLocations() =>
+        pages.Query().Where("$.WordsAt != null")
+            .Select(BsonExpression.Create("{ k: $._id, f: $.WordsAt.File, o: $.WordsAt.Offset, l: $.WordsAt.Length, c: $.WordsAt.Checksum }"))
+            .ToEnumerable()
+            .Select(d => (d["k"].AsString, new WordsAtRecord { File = d["f"].AsInt64, Offset = d["o"].AsInt64, Length = d["l"].AsInt32, Checksum = d["c"].AsInt64 }));
+
     /// <summary>A page's reference count and where it was seen (root, path, 1-based page), read without deserialising its words; null when it has no record.</summary>
     internal (int References, string Root, string Path, int Page)? SourceOf(string pageKey)
     {

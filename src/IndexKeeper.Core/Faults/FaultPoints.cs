@@ -61,6 +61,18 @@ internal static class FaultPoints
     /// <summary>The page words are durable; the catalog commit that names them (the scan batch) has not run.</summary>
     public const string WordsAppendAfterFsync = "words.append.after-fsync";
 
+    /// <summary>A page-word file's live records are copied into a new file, not yet fsynced; nothing names the new file.</summary>
+    public const string WordsCompactionBeforeFsync = "words.compaction.before-fsync";
+
+    /// <summary>The new page-word file is durable with its directory entry; the catalog commit that moves the pages' words to it has not run.</summary>
+    public const string WordsCompactionBeforeCommit = "words.compaction.before-commit";
+
+    /// <summary>The pages' words are moved in the catalog; the old page-word file is not yet deleted.</summary>
+    public const string WordsCompactionAfterCommit = "words.compaction.after-commit";
+
+    /// <summary>A page-word file the catalog no longer names is about to be deleted.</summary>
+    public const string WordsCompactionDeleteBefore = "words.compaction.delete-before";
+
     /// <summary>Recovery (at open, or after a failed append) is about to cut an open segment to its committed length.</summary>
     public const string RecoveryCutBefore = "recovery.cut.before";
 
@@ -92,7 +104,8 @@ internal static class FaultPoints
         SegmentAppendBeforeFsync, SegmentAppendAfterFsync, SegmentSealBefore, SegmentSealAfterFsync, SegmentRenameBefore,
         SegmentRenameAfter, SegmentSealAfter, CompactionOutputWrite, DirectoryFsyncBefore, DirectoryFsyncAfter,
         CatalogCommitBefore, CatalogCommitAfter, CompactionSwapBeforeCommit, CompactionSwapAfterCommit,
-        CompactionDeleteBefore, CompactionDeleteAfter, WordsAppendBeforeFsync, WordsAppendAfterFsync, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
+        CompactionDeleteBefore, CompactionDeleteAfter, WordsAppendBeforeFsync, WordsAppendAfterFsync,
+        WordsCompactionBeforeFsync, WordsCompactionBeforeCommit, WordsCompactionAfterCommit, WordsCompactionDeleteBefore, RecoveryCutBefore, RecoveryCutAfter, RecoveryDeleteTemp, RecoverySetAside,
     ];
 
     /// <summary>

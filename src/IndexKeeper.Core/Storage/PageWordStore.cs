@@ -109,6 +109,108 @@ public sealed class PageWordStore : IDisposable
         return PageWordFormat.Decode(record.AsSpan(0, read), location, key, path);
     }
 
+    /// <summary>Every page-word file by id with its length on disk; what compaction weighs against the catalog's live bytes.</summary>
+    public IReadOnlyList<(long Id, long Bytes)> Files()
+    {
+        if (!Directory.Exists(folder))
+        {
+            return [];
+        }
+
+        return Directory.EnumerateFiles(folder)
+            .Select(f => (Path: f, Id: PageWordFormat.IdOf(Path.GetFileName(f))))
+            .Where(f => f.Id is not null)
+            .Select(f => (f.Id!.Value, new FileInfo(f.Path).Length))
+            .OrderBy(f => f.Item1)
+            .ToList();
+    }
+
+    /// <summary>The file this process appends to now, if any; compaction leaves it alone.</summary>
+    public long? OpenFileId
+    {
+        get
+        {
+            lock (gate)
+            {
+                return open is null ? null : openId;
+            }
+        }
+    }
+
+    /// <summary>
+    /// Copies the live records of a file into a new file (a fresh id), checking each as <see cref="Read"/> does,
+    /// and makes it durable with its directory entry. Nothing names the new file until the caller's catalog
+    /// commit; the old file is untouched. A record that fails its checks throws <see cref="InvalidDataException"/>
+    /// and the new file is removed, so a damaged file is reported and kept, never rewritten without its words.
+    /// </summary>
+    public PageWordsRewrite Rewrite(long fileId, IReadOnlyList<(PageKey Key, PageWordsLocation At)> live)
+    {
+        ArgumentNullException.ThrowIfNull(live);
+        if (!writable)
+        {
+            throw new InvalidOperationException("The page-word store was opened for reading.");
+        }
+
+        long newId;
+        lock (gate)
+        {
+            newId = nextId++;
+        }
+
+        var path = Path.Combine(folder, PageWordFormat.FileName(newId));
+        var moves = new Dictionary<PageKey, PageWordsLocation>(live.Count);
+        long read = 0;
+        try
+        {
+            using (var stream = new FileStream(path, FileMode.CreateNew, FileAccess.Write, FileShare.Read | FileShare.Delete))
+            {
+                stream.Write(PageWordFormat.Header(newId));
+                foreach (var (key, at) in live.OrderBy(l => l.At.Offset))
+                {
+                    if (at.File != fileId)
+                    {
+                        throw new ArgumentException($"The words of {key.Hex} are in file {at.File}, not {fileId}.", nameof(live));
+                    }
+
+                    // Decoded and encoded again rather than copied blind: the body is checked against both checksums on the way.
+                    var words = Read(key, at);
+                    var record = PageWordFormat.Encode(key, words, out var checksum);
+                    moves[key] = new PageWordsLocation(newId, stream.Position, record.Length, checksum);
+                    stream.Write(record);
+                    read += at.Length;
+                }
+
+                FaultInjection.Reach(FaultPoints.WordsCompactionBeforeFsync);
+                stream.Flush(flushToDisk: true);
+            }
+
+            DirectorySync.Flush(folder);
+            return new PageWordsRewrite(fileId, newId, moves, read, new FileInfo(path).Length);
+        }
+        catch
+        {
+            // Named by no catalog record: removing it loses nothing.
+            File.Delete(path);
+            throw;
+        }
+    }
+
+    /// <summary>
+    /// Deletes a file the catalog no longer names (after the commit that moved its live records away).
+    /// REQUIRES: the index lock is held and no process reads the store (the caller holds the reader gate exclusively).
+    /// </summary>
+    public void Delete(long fileId)
+    {
+        if (!writable)
+        {
+            throw new InvalidOperationException("The page-word store was opened for reading.");
+        }
+
+        FaultInjection.Reach(FaultPoints.WordsCompactionDeleteBefore);
+        File.Delete(Path.Combine(folder, PageWordFormat.FileName(fileId)));
+        DirectorySync.Flush(folder);
+    }
+
     public void Dispose()
     {
         lock (gate)

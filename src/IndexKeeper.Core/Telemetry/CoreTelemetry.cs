@@ -34,4 +34,6 @@ public static class CoreTelemetry
         "indexkeeper.document.read.duration", "s", "Time to read one document into pages (conversion and OCR included), by kind.", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = SecondsBuckets });
 
     public static Counter<long> CompactionBytes { get; } = Meter.CreateCounter<long>("indexkeeper.compaction.bytes", "By", "Segment bytes read, written and reclaimed by compaction.");
+
+    public static Counter<long> CompactionWordBytes { get; } = Meter.CreateCounter<long>("indexkeeper.compaction.word_bytes", "By", "Page-word file bytes read, written and reclaimed by compaction.");
 }

@@ -73,7 +73,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             ? (long)Math.Round(work.Total * (SegmentFormat.FrameLength + SegmentFormat.VectorSetBodyLength(dimensions, 0) + (perPage * SegmentFormat.BytesPerVector(dimensions))))
             : null;
 
-        var compaction = Compaction(compact.Jobs());
+        var compaction = Compaction(compact.Jobs(), compact.WordFiles());
         var now = TimeZoneInfo.ConvertTime(request.Now, zone);
         // With a work queue the pages are encoded by the live workers of this encoder, side by side: their rates
         // add up. A live worker that has not encoded a page yet is counted at the mean rate of those that have.
@@ -138,7 +138,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             VectorsPerPage = vectorsPerPage,
             EstimatedEncoderSeconds = workersRate is null ? forecast?.EncoderSeconds : work.Total * secondsPerPage,
             BytesDelta = bytesDelta,
-            CompactionDue = compaction.Jobs > 0,
+            CompactionDue = compaction.Jobs > 0 || compaction.WordFiles > 0,
             Compaction = compaction,
             WindowOpen = calendar.IsOpen(now),
             NextWindowChange = change == DateTimeOffset.MaxValue ? null : TimeZoneInfo.ConvertTime(change, zone),
@@ -177,13 +177,15 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
         return ("none", null, null);
     }
 
-    private static PlanCompaction Compaction(IReadOnlyList<CompactionJob> jobs) =>
+    private static PlanCompaction Compaction(IReadOnlyList<CompactionJob> jobs, IReadOnlyList<WordFileStats> wordFiles) =>
         new()
         {
             Jobs = jobs.Count,
             Segments = jobs.Sum(j => j.SegmentIds.Count),
             BytesToRewrite = jobs.Sum(j => j.LiveBytes),
             BytesToReclaim = jobs.Sum(j => j.ReclaimedBytes),
+            WordFiles = wordFiles.Count,
+            WordBytesToReclaim = wordFiles.Sum(f => f.DeadBytes),
         };
 
     /// <summary>Cost per root and top-level folder: the scan's changes, then queued and drifted pages by where they were seen.</summary>

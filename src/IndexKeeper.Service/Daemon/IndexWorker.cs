@@ -5,6 +5,7 @@ using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
@@ -58,9 +59,11 @@ internal sealed class IndexWorker(
     // reading every document, page and vector-set record again (issue 13: idle CPU grew with the index).
     private DaemonFigures? lastSample;
     private long commitsAtSample = -1;
+    private long commitsAtWordCheck = -1;
     private bool workSinceSample = true;
     private DateTimeOffset servingWrittenAt = DateTimeOffset.MinValue;
     private DateTimeOffset sampledFullyAt = DateTimeOffset.MinValue;
+    private List<(long Id, long Length, long Written)> segmentFilesAtSample = [];
 
     /// <summary>Completes when the loop's thread has ended (or never started): only then may the index be closed.</summary>
     public Task Completion => completion.Task;
@@ -94,6 +97,7 @@ internal sealed class IndexWorker(
             return;
         }
 
+        _ = Task.Run(() => WarmServingView(stoppingToken), CancellationToken.None);
         await Task.Factory.StartNew(
             () =>
             {
@@ -479,14 +483,24 @@ internal sealed class IndexWorker(
 
     private void Compact()
     {
-        if (compaction.Jobs().Count == 0)
+        // The word files are weighed by a pass over every page record: only when a commit may have changed them.
+        var commits = index.Catalog.Commits;
+        var wordsMayBeDue = commits != commitsAtWordCheck;
+        commitsAtWordCheck = commits;
+        if (compaction.Jobs().Count == 0 && (!wordsMayBeDue || compaction.WordFiles().Count == 0))
         {
             return;
         }
 
         var report = compaction.Run(hardStop.Token);
+        commitsAtWordCheck = index.Catalog.Commits;
         log.LogInformation(
-            "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed.", report.Jobs, report.SegmentsRewritten, report.BytesReclaimed);
+            "Compaction: {Jobs} job(s), {Segments} segment(s) rewritten, {Reclaimed} bytes reclaimed; page words: {WordFiles} file(s) rewritten, {WordDeleted} deleted, {WordReclaimed} bytes reclaimed.",
+            report.Jobs, report.SegmentsRewritten, report.BytesReclaimed, report.Words.FilesRewritten, report.Words.FilesDeleted, report.Words.BytesReclaimed);
+        foreach (var damaged in report.Words.Damaged)
+        {
+            log.LogWarning("Compaction: {Damage}", damaged);
+        }
     }
 
     private void SealByAge()
@@ -523,20 +537,56 @@ internal sealed class IndexWorker(
         }
     }
 
+    /// <summary>
+    /// Beside the loop, once at start: one search over every page of the serving view loads the view and checks
+    /// each record it names once (as a search does the first time in a process), so the first real search after a
+    /// start costs what a warm one does. Only reads; a failure is logged and left to the searches.
+    /// </summary>
+    private void WarmServingView(CancellationToken stopping)
+    {
+        try
+        {
+            var encoder = index.Encoder;
+            if ((index.Catalog.Encoders.ServingId() ?? encoder.Identity.Id) == encoder.Identity.Id)
+            {
+                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, fromGraph: false, stopping);
+            }
+        }
+        catch (Exception ex) when (ex is not OutOfMemoryException)
+        {
+            log.LogWarning("The serving view was not warmed at start: {Message}", ex.Message);
+        }
+    }
+
     private void Sample(DateTimeOffset now)
     {
         var catalog = index.Catalog;
-        // Damage can come from outside (a segment file removed by hand), so the whole survey runs every five minutes.
-        if (!workSinceSample && catalog.Commits == commitsAtSample && lastSample is not null && now - sampledFullyAt < TimeSpan.FromMinutes(5))
+        if (!workSinceSample && catalog.Commits == commitsAtSample && lastSample is not null)
         {
-            // Nothing was done and nothing committed since the last read: only the clock and the disk moved.
-            state.Publish(lastSample with { At = now, FreeShare = FreeShare() }, Interlocked.Exchange(ref embeddedSinceSample, 0));
-            return;
+            // Nothing was done and nothing committed since the last read. This process is the index's one
+            // writer, so the catalog's figures stand; only the clock, the disk and the segment files (removed or
+            // cut by hand) can move. The files are looked at every five minutes, by their catalog records and
+            // their sizes (per segment, not per page); only a difference pays for the full survey below.
+            if (now - sampledFullyAt < TimeSpan.FromMinutes(5))
+            {
+                state.Publish(lastSample with { At = now, FreeShare = FreeShare() }, Interlocked.Exchange(ref embeddedSinceSample, 0));
+                return;
+            }
+
+            var files = SegmentFiles();
+            if (files.SequenceEqual(segmentFilesAtSample))
+            {
+                sampledFullyAt = now;
+                lastSample = lastSample with { At = now, FreeShare = FreeShare(), BytesOnDisk = DirectorySize.Of(index.Directory) };
+                state.Publish(lastSample, Interlocked.Exchange(ref embeddedSinceSample, 0));
+                return;
+            }
         }
 
         workSinceSample = false;
         commitsAtSample = catalog.Commits;
         sampledFullyAt = now;
+        segmentFilesAtSample = SegmentFiles();
         var figures = catalog.Figures();
         var depths = catalog.Queue.Depths();
         var segments = catalog.Segments.All();
@@ -567,6 +617,14 @@ internal sealed class IndexWorker(
         lastSample = latest;
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }
+
+    /// <summary>Each segment the catalog names with its file's length (-1 when missing) and last write: what can change without a commit.</summary>
+    private List<(long Id, long Length, long Written)> SegmentFiles() =>
+        index.Catalog.Segments.All().Select(segment =>
+        {
+            var file = new FileInfo(SegmentFileNames.PathOf(index.Store.Directory, segment.Id));
+            return file.Exists ? (segment.Id, file.Length, file.LastWriteTimeUtc.Ticks) : (segment.Id, -1L, 0L);
+        }).ToList();
 
     private double? FreeShare()
     {

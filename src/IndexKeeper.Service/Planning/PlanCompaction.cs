@@ -12,4 +12,10 @@ public sealed class PlanCompaction
 
     /// <summary>Bytes on disk the jobs would free (the segments' dead bytes).</summary>
     public long BytesToReclaim { get; init; }
+
+    /// <summary>Page-word files the run would rewrite (or delete, when no page names them any more).</summary>
+    public int WordFiles { get; init; }
+
+    /// <summary>Bytes of page-word files the run would free (the files' dead bytes).</summary>
+    public long WordBytesToReclaim { get; init; }
 }

@@ -216,7 +216,9 @@ public sealed partial class FaultMatrixTests(ITestOutputHelper output)
             a seal before its record, after its fsync, after the directory fsync (not yet recorded by the catalog);
             a compaction output's temp-file write, its rename (before, after); every directory fsync (before,
             after); every catalog transaction's commit (before, after; the one transaction helper); a compaction
-            swap before and after its catalog commit; an old segment's delete (before, after); recovery's cut of
+            swap before and after its catalog commit; an old segment's delete (before, after); a page-word
+            file's rewrite before its fsync, before and after the catalog commit that moves the pages' words, and
+            before the old file's delete (the two deleted documents leave a quarter of the first file's words dead); recovery's cut of
             an uncommitted tail (before, after), its deletion of an unfinished compaction output and its setting
             aside of a segment no commit references.
 

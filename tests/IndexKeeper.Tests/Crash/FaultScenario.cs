@@ -20,13 +20,14 @@ internal sealed record FaultScenario(string Command, string Point, string Action
         FaultPoints.SegmentAppendBeforeFsync, FaultPoints.SegmentAppendAfterFsync, FaultPoints.CatalogCommitBefore, FaultPoints.CatalogCommitAfter,
     ];
 
-    /// <summary>Points of a <c>compact</c>: sealing the open segment, writing outputs, the swap, deleting the old files.</summary>
+    /// <summary>Points of a <c>compact</c>: sealing the open segment, writing outputs, the swap, deleting the old files; then the page-word files' rewrite, commit and delete.</summary>
     private static readonly string[] CompactPoints =
     [
         FaultPoints.SegmentSealBefore, FaultPoints.CompactionOutputWrite, FaultPoints.SegmentSealAfterFsync, FaultPoints.SegmentRenameBefore,
         FaultPoints.SegmentRenameAfter, FaultPoints.SegmentSealAfter, FaultPoints.DirectoryFsyncBefore, FaultPoints.DirectoryFsyncAfter, FaultPoints.CatalogCommitBefore,
         FaultPoints.CompactionSwapBeforeCommit, FaultPoints.CompactionSwapAfterCommit, FaultPoints.CompactionDeleteBefore,
-        FaultPoints.CompactionDeleteAfter,
+        FaultPoints.CompactionDeleteAfter, FaultPoints.WordsCompactionBeforeFsync, FaultPoints.WordsCompactionBeforeCommit,
+        FaultPoints.WordsCompactionAfterCommit, FaultPoints.WordsCompactionDeleteBefore,
     ];
 
     /// <summary>Recovery points, each met by the <c>sync</c> after a prelude that leaves what it repairs.</summary>

@@ -58,7 +58,10 @@ internal sealed class CliIndex : IDisposable
     public void Delete(string relative) => File.Delete(PathOf(relative));
 
     /// <summary>Runs a command with this store's index and roots; extra arguments come after them.</summary>
-    public CliRunner.Result Run(string command, params string[] extra)
+    public CliRunner.Result Run(string command, params string[] extra) => RunWith(new Dictionary<string, string>(), command, extra);
+
+    /// <summary>As <see cref="Run"/>, with extra environment variables (a fault armed for a crash test).</summary>
+    public CliRunner.Result RunWith(IReadOnlyDictionary<string, string> environment, string command, params string[] extra)
     {
         var args = new List<string> { command, "--index", "index" };
         foreach (var root in roots)
@@ -68,7 +71,7 @@ internal sealed class CliIndex : IDisposable
         }
 
         args.AddRange(extra);
-        return CliRunner.Run(temp.Path, ShippedEncoder, [.. args]);
+        return CliRunner.Run(temp.Path, environment, ShippedEncoder, [.. args]);
     }
 
     /// <summary>Runs a command with <c>--json</c>, asserts its exit code, and returns its one JSON object.</summary>
