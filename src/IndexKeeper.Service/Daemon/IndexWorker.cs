@@ -549,7 +549,7 @@ internal sealed class IndexWorker(
             var encoder = index.Encoder;
             if ((index.Catalog.Encoders.ServingId() ?? encoder.Identity.Id) == encoder.Identity.Id)
             {
-                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, fromGraph: false, stopping);
+                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, stopping);
             }
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)
