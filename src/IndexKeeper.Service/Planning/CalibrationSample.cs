@@ -32,7 +32,7 @@ public static class CalibrationSample
         foreach (var stratum in strata.Where(s => s.Sample.Count > 0))
         {
             var share = (double)stratum.Pages / total;
-            var wanted = Math.Clamp((int)Math.Round(Target * share), MinPerKind, stratum.Sample.Count);
+            var wanted = Math.Min(Math.Max((int)Math.Round(Target * share), MinPerKind), stratum.Sample.Count);
             var ordered = stratum.Sample.OrderBy(size).ThenBy(p => p.Id, StringComparer.Ordinal).ToList();
             var picked = Enumerable.Range(0, wanted).Select(i => ordered[(int)((i + 0.5) * ordered.Count / wanted)]).ToList();
             chosen.Add(new CalibrationStratum(stratum.Kind, share, picked));
