@@ -46,7 +46,7 @@ public sealed class CalibrateBenchmark : IBenchmark
         context.Report("plan --calibrate, wall (process)", planWall, "s");
         context.Report("sync, wall (process)", syncWall, "s");
         context.Report("reading, planned (plan readSeconds)", readPlanned, "s");
-        context.Report("documents quarantined (sync; the demo store holds a damaged file on purpose)", sync.GetProperty("documentsQuarantined").GetInt64(), "files");
+        context.Report("documents quarantined (sync; a read past its timeout on a loaded machine quarantines)", sync.GetProperty("documentsQuarantined").GetInt64(), "files");
         foreach (var note in plan.GetProperty("notes").EnumerateArray())
         {
             context.Note("plan: " + note.GetString());
