@@ -15,8 +15,8 @@ internal static class CommonOptions
 
     public static readonly Option<string[]> Roots = new("--root")
     {
-        Description = "a folder to keep indexed, named after its folder; repeat for more; replaces the roots of --config",
-        HelpName = "DIR",
+        Description = "a folder to keep indexed, as NAME=DIR (the root's stable name) or DIR (named after its folder); repeat for more; replaces the roots of --config",
+        HelpName = "[NAME=]DIR",
         Recursive = true,
     };
 

@@ -60,7 +60,7 @@ public sealed class ScanPass
             state.Changes,
             state.NewPages.Keys.Select(k => k.Hex).ToList(),
             removed,
-            state.NewPages.Values.Where(p => !ReferenceEquals(p, ScanPassState.Placeholder)).ToList());
+            state.Sampler.Strata(state.NewPages.ContainsKey));
     }
 
     private ScanPassState Pass(string? command, bool dryRun, CancellationToken cancellationToken)
@@ -476,8 +476,14 @@ public sealed class ScanPass
             state.Note(file, existing is null ? ChangeKind.New : ChangeKind.Changed, newKeys.Count, fresh.Count);
             foreach (var page in document.Pages.Where(p => fresh.Remove(p.Key)))
             {
-                // A dry run never writes pages: it keeps words only for the few it may time the encoder on.
-                state.NewPages[page.Key] = !state.DryRun || state.NewPages.Count < ScanPreview.SampleSize ? PageRecords.From(page, file, now) : ScanPassState.Placeholder;
+                var pageRecord = PageRecords.From(page, file, now);
+                state.NewPages[page.Key] = pageRecord;
+
+                // A dry run never writes pages: it keeps words only for the sample it may time the encoder on.
+                if (state.DryRun && state.Sampler.Offer(document.Kind, page.Key, pageRecord) is { } evicted)
+                {
+                    state.NewPages[evicted] = ScanPassState.Placeholder;
+                }
             }
         }
 

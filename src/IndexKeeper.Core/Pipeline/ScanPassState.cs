@@ -94,6 +94,9 @@ internal sealed class ScanPassState(IndexCatalog catalog, bool dryRun, DateTime 
     public bool IsUnknown(DocumentRecord document) => Unknown.Any(u =>
         u.Root == document.Root && (u.RelativePath == document.Path || (u.CoversSubtree && (u.RelativePath.Length == 0 || document.Path.StartsWith(u.RelativePath + "/", StringComparison.Ordinal)))));
 
+    /// <summary>A dry run's sample of new pages by kind, for the plan's calibration.</summary>
+    public PreviewSampler Sampler { get; } = new();
+
     /// <summary>Pages first seen in this pass, waiting for the flush that adds them.</summary>
     public Dictionary<PageKey, PageRecord> NewPages { get; } = [];
 

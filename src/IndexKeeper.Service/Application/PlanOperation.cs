@@ -156,8 +156,9 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
     {
         if (calibrate)
         {
-            if (EncoderCalibration.Run(index.Catalog, index.Words, index.Encoder, settings.RootPaths, preview.SamplePages, cancellationToken) is { } measured)
+            if (EncoderCalibration.Run(index.Catalog, index.Words, index.Encoder, settings.RootPaths, preview.Sample, settings.EmbedBatchSize, cancellationToken) is { } measured)
             {
+                notes.Add(string.Create(CultureInfo.InvariantCulture, $"Calibrated on {measured.PagesTimed} page(s) by kind: {measured.ByKind}."));
                 return ("calibration", measured.SecondsPerPage, measured.VectorsPerPage);
             }
 

@@ -1,4 +1,3 @@
-using System.Text.RegularExpressions;
 using IndexKeeper.Core.Scheduling;
 
 namespace IndexKeeper.Service.Configuration;
@@ -7,7 +6,7 @@ namespace IndexKeeper.Service.Configuration;
 /// Checks every setting at start and reports every failure at once, each naming the setting and what
 /// is allowed; the host refuses to run any stage while one remains.
 /// </summary>
-public static partial class IndexKeeperOptionsValidator
+public static class IndexKeeperOptionsValidator
 {
     /// <summary>Encoder names this build knows.</summary>
     public static IReadOnlyList<string> EncoderNames { get; } = ["hashed-terms", "minilm", "page-image"];
@@ -32,13 +31,14 @@ public static partial class IndexKeeperOptionsValidator
         {
             var root = options.Roots[i];
             var at = $"Roots:{i}";
-            if (!RootName().IsMatch(root.Name))
+            if (!RootNaming.IsAllowed(root.Name))
             {
                 errors.Add($"{at}:Name: '{root.Name}' is not allowed; use 1-64 letters, digits, '-', '_' or '.'.");
             }
             else if (!names.Add(root.Name))
             {
-                errors.Add($"{at}:Name: '{root.Name}' is used by two roots; root names must be unique.");
+                var derived = root.NameDerived ? " (derived from its Path, as none was given)" : string.Empty;
+                errors.Add($"{at}:Name: '{root.Name}'{derived} is used by two roots; root names must be unique (give each root its own Name).");
             }
 
             if (string.IsNullOrWhiteSpace(root.Path))
@@ -177,7 +177,4 @@ public static partial class IndexKeeperOptionsValidator
         var comparison = OperatingSystem.IsWindows() ? StringComparison.OrdinalIgnoreCase : StringComparison.Ordinal;
         return inner.StartsWith(outer, comparison);
     }
-
-    [GeneratedRegex("^[A-Za-z0-9._-]{1,64}$")]
-    private static partial Regex RootName();
 }

@@ -1,4 +1,3 @@
-using System.Globalization;
 using Microsoft.Extensions.Configuration;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
@@ -80,8 +79,10 @@ public static class OptionsLoader
                 if (sources.Roots.Count > 0)
                 {
                     // --root replaces the file's roots wholesale rather than merging lists index by index.
-                    options.Roots = sources.Roots.Select((path, i) => new RootOptions { Name = RootNameFor(sources.Roots, i), Path = path }).ToList();
+                    options.Roots = sources.Roots.Select(RootNaming.Split).Select(r => new RootOptions { Name = r.Name ?? string.Empty, Path = r.Path }).ToList();
                 }
+
+                NameUnnamedRoots(options.Roots);
             });
         services.AddSingleton<IValidateOptions<IndexKeeperOptions>>(new IndexKeeperOptionsValidation(rootsRequired));
         using var provider = services.BuildServiceProvider();
@@ -107,18 +108,17 @@ public static class OptionsLoader
             .Where(pair => pair.Value is not null && !keys.Any(k => pair.Key.Equals(k, StringComparison.OrdinalIgnoreCase) || pair.Key.StartsWith(k + ":", StringComparison.OrdinalIgnoreCase))))
             .Build();
 
-    /// <summary>A root given by path is named after its folder, made unique with a number.</summary>
-    private static string RootNameFor(IReadOnlyList<string> roots, int index)
+    /// <summary>A root without a Name gets the one derived from its folder and place (<see cref="RootNaming.Derived"/>).</summary>
+    private static void NameUnnamedRoots(List<RootOptions> roots)
     {
-        static string Clean(string path)
+        var paths = roots.Select(r => r.Path).ToList();
+        for (var i = 0; i < roots.Count; i++)
         {
-            var name = Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(path)));
-            var cleaned = new string(name.Select(c => char.IsAsciiLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '-').ToArray());
-            return cleaned.Length is > 0 and <= 48 ? cleaned : "root";
+            if (string.IsNullOrEmpty(roots[i].Name))
+            {
+                roots[i].Name = RootNaming.Derived(paths, i);
+                roots[i].NameDerived = true;
+            }
         }
-
-        var name = Clean(roots[index]);
-        var earlier = Enumerable.Range(0, index).Count(i => Clean(roots[i]) == name);
-        return earlier == 0 ? name : string.Create(CultureInfo.InvariantCulture, $"{name}-{earlier + 1}");
     }
 }

@@ -3,8 +3,15 @@ namespace IndexKeeper.Service.Configuration;
 /// <summary>One configured root: a stable name, a folder, and glob filters relative to it.</summary>
 public sealed class RootOptions
 {
-    /// <summary>Stable name stored in the catalog; renaming it re-indexes nothing but orphans the old name.</summary>
+    /// <summary>
+    /// Stable name stored in the catalog: the root's identity, whatever its Path or place in the list.
+    /// Left out, it is derived from the folder and the place (<see cref="RootNaming.Derived"/>), as
+    /// <c>--root DIR</c> does. Renaming is docs/cli.md, "Root names".
+    /// </summary>
     public string Name { get; set; } = string.Empty;
+
+    /// <summary>True when no Name was given and <see cref="Name"/> was derived (named so in errors); never bound.</summary>
+    internal bool NameDerived { get; set; }
 
     public string Path { get; set; } = string.Empty;
 

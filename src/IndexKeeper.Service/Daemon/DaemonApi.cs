@@ -94,7 +94,7 @@ internal static class DaemonApi
         app.MapGet("/api/daemon", () => Results.Json(Report(options, calendar, index, state, limits), ApiJson.Options)).Produces<DaemonReport>().Errors();
         var metrics = services.GetRequiredService<DaemonMetrics>();
         app.MapGet("/api/search", (HttpContext context, CancellationToken cancellationToken) =>
-            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken)))
+            metrics.TimeSearch(() => SearchEndpoint.Answer(context.Request.Query, options.Query, search.UnknownRoot, search.Search, state, cancellationToken), cancellationToken))
             .Produces<SearchReport>().Produces<ApiError>(StatusCodes.Status400BadRequest).Errors()
             .QueryParameters(
                 ("q", JsonSchemaType.String, true, "The query text, once (Query:MaxCharacters, Query:MaxTerms)."),

@@ -14,9 +14,13 @@ namespace IndexKeeper.Service.Daemon;
 /// </summary>
 internal sealed class DaemonMetrics : IDisposable
 {
-    /// <summary>Outcomes of <c>/api/search</c> (label <c>outcome</c>, in this order): answered, refused with a 4xx (bad parameters or past a cap), failed.</summary>
-    private static readonly string[] SearchOutcomes = ["answered", "refused", "failed"];
-    private const int Answered = 0, Refused = 1, Failed = 2;
+    /// <summary>
+    /// Outcomes of <c>/api/search</c> (label <c>outcome</c>, in this order): answered, refused with a 4xx (bad
+    /// parameters or past a cap), cancelled (the client went away before the answer: no fault of the index),
+    /// failed.
+    /// </summary>
+    private static readonly string[] SearchOutcomes = ["answered", "refused", "cancelled", "failed"];
+    private const int Answered = 0, Refused = 1, Cancelled = 2, Failed = 3;
 
     private readonly Meter meter = new(CoreTelemetry.Name);
     private readonly long[] searchRequests = new long[SearchOutcomes.Length];
@@ -32,7 +36,7 @@ internal sealed class DaemonMetrics : IDisposable
             SearchOutcomes.Select((outcome, i) => new Measurement<long>(Interlocked.Read(ref searchRequests[i]), Tag("outcome", outcome))).ToArray(),
             "{request}", "Requests to /api/search by outcome.");
         searchDuration = meter.CreateHistogram(
-            "indexkeeper.search.duration", "s", "Time to answer /api/search, refused requests included.", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = CoreTelemetry.SecondsBuckets });
+            "indexkeeper.search.duration", "s", "Time to answer /api/search, refused and cancelled requests included.", tags: null, new InstrumentAdvice<double> { HistogramBucketBoundaries = CoreTelemetry.SecondsBuckets });
 
         meter.CreateObservableGauge("indexkeeper.health", () => (int)HealthRules.Evaluate(state.HealthSnapshot(), limits).Status, "1", "The daemon's health as /health judges it: 0 healthy, 1 degraded, 2 unhealthy.");
         meter.CreateObservableGauge("indexkeeper.health.reason", () =>
@@ -146,8 +150,11 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.roots.missing", () => state.Roots.Count(r => r.MissingSinceUtc is not null), "{root}", "Roots that are gone (documents kept for their grace time).");
     }
 
-    /// <summary>Answers a search request through <paramref name="answer"/>, counting its outcome and its time.</summary>
-    public IResult TimeSearch(Func<IResult> answer)
+    /// <summary>
+    /// Answers a search request through <paramref name="answer"/>, counting its outcome and its time; a search
+    /// stopped because <paramref name="requestAborted"/> fired (the client went away) counts as cancelled.
+    /// </summary>
+    public IResult TimeSearch(Func<IResult> answer, CancellationToken requestAborted)
     {
         var started = Stopwatch.GetTimestamp();
         var outcome = Failed;
@@ -156,6 +163,11 @@ internal sealed class DaemonMetrics : IDisposable
             var result = answer();
             outcome = result is IStatusCodeHttpResult { StatusCode: >= 400 and < 500 } ? Refused : Answered;
             return result;
+        }
+        catch (OperationCanceledException) when (requestAborted.IsCancellationRequested)
+        {
+            outcome = Cancelled;
+            throw;
         }
         finally
         {
