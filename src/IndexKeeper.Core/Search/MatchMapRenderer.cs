@@ -18,6 +18,9 @@ public static class MatchMapRenderer
     /// <summary>How long pdftoppm may take to draw one page of a map (it reads a file of the store).</summary>
     private static readonly TimeSpan DrawTimeout = TimeSpan.FromSeconds(60);
 
+    /// <summary>pdftoppm, found and its version asked once per process; a failure is not kept, so the next map asks again.</summary>
+    private static readonly Lazy<PdftoppmRenderer> Renderer = new(() => PdftoppmRenderer.Create("pdftoppm", DrawTimeout), LazyThreadSafetyMode.PublicationOnly);
+
     /// <param name="pageWidth">Page width in page units (the coordinates of the boxes).</param>
     /// <param name="tokenRegions">The matched region of each query token, in query order.</param>
     /// <param name="widthPixels">Width of the image; the height keeps the page's proportions.</param>
@@ -99,7 +102,7 @@ public static class MatchMapRenderer
             }
 
             RasterImage? drawn = null;
-            PdftoppmRenderer.Create("pdftoppm", DrawTimeout).Render(
+            Renderer.Value.Render(
                 backdrop.FilePath, backdrop.PageNumber, backdrop.PageNumber, (int)Math.Clamp(Math.Round(dpi), 18, 600), (_, raster) => drawn = raster, CancellationToken.None);
             return drawn is null ? (null, "pdftoppm drew nothing") : (ToBitmap(drawn.RotateClockwise((360 - backdrop.Rotation) % 360)), null);
         }

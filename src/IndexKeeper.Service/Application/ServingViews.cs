@@ -154,14 +154,10 @@ public sealed class ServingViews : IDisposable
         }
 
         double kept = 0;
+        using var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]);
         foreach (var query in queries)
         {
-            SearchResult exhaustive;
-            using (var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]))
-            {
-                exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
-            }
-
+            var exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
             var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
             var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
             var served = Search(encoderId, query, 10, cancellationToken).Result.Hits;
