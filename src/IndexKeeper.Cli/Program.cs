@@ -15,7 +15,7 @@ internal static class Program
 {
     private static readonly CommandBase[] Commands =
     [
-        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new RepairCommand(), new RebuildCatalogCommand(), new DemoCommand(),
+        new SyncCommand(), new ScanCommand(), new StatusCommand(), new SearchCommand(), new CompactCommand(), new VerifyCommand(), new RepairCommand(), new RebuildCatalogCommand(), new ForgetRootCommand(), new DemoCommand(),
         new PlanCommand(), new EncodersCommand(), new RunCommand(), new WorkerCommand(),
     ];
 

@@ -172,8 +172,8 @@ public sealed class ScanPass
     }
 
     /// <summary>
-    /// Forgets every document of a root (one that has been gone longer than its grace time): their page
-    /// references drop, pages no document holds are removed, their vector sets become dead.
+    /// Forgets every document of a root (one gone longer than its grace time, or named by <c>forget-root</c>):
+    /// their page references drop, pages no document holds are removed, their vector sets become dead.
     /// </summary>
     public ScanSummary RunForgetRoot(string command, string rootName, CancellationToken cancellationToken)
     {
@@ -186,6 +186,23 @@ public sealed class ScanPass
         }
 
         return Finish(state, command).Summary;
+    }
+
+    /// <summary>What <see cref="RunForgetRoot"/> would do, writing nothing: the root's documents and what becomes of their pages.</summary>
+    public ForgetRootPreview PreviewForgetRoot(string rootName, CancellationToken cancellationToken)
+    {
+        var state = Begin(dryRun: true);
+        var documents = 0L;
+        foreach (var document in catalog.Documents.OfRoot(rootName))
+        {
+            cancellationToken.ThrowIfCancellationRequested();
+            Delete(state, document);
+            documents++;
+        }
+
+        var touched = state.Ledger.TakeTouched();
+        var removed = touched.Count(t => t.ExistedBefore && t.References <= 0);
+        return new ForgetRootPreview(rootName, documents, removed, touched.Count - removed);
     }
 
     private ScanPassState Begin(bool dryRun) => new(catalog, dryRun, clock.GetUtcNow().UtcDateTime);

@@ -24,6 +24,7 @@ public static class ApplicationServices
         services.AddSingleton(embedRetry);
         services.AddSingleton<DriftOperation>();
         services.AddSingleton<ScanOperation>();
+        services.AddSingleton<ForgetRootOperation>();
         services.AddSingleton<EmbedBatchOperation>();
         services.AddSingleton<SyncOperation>();
         services.AddSingleton<CompactOperation>();

@@ -26,10 +26,6 @@ public sealed class ScanOperation(OpenIndex index, IndexSettings settings, Drift
     public ScanSummary Paths(string command, IReadOnlyCollection<ChangedPath> paths, CancellationToken cancellationToken) =>
         Pass(settings.Scan, null).RunPaths(command, paths, cancellationToken);
 
-    /// <summary>Removes the documents of a root that has been gone past its grace period.</summary>
-    public ScanSummary ForgetRoot(string command, string root, CancellationToken cancellationToken) =>
-        Pass(settings.Scan, null).RunForgetRoot(command, root, cancellationToken);
-
     /// <summary>What <see cref="Run"/> would find, without writing (the plan).</summary>
     public ScanPreview Preview(IProgress<ScanProgress>? progress, CancellationToken cancellationToken) =>
         Pass(settings.Scan, progress).Preview(cancellationToken);

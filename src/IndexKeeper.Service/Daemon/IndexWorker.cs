@@ -28,6 +28,7 @@ internal sealed class IndexWorker(
     IndexSettings settings,
     OpenIndex index,
     ScanOperation scan,
+    ForgetRootOperation forget,
     EmbedBatchOperation embed,
     DriftOperation drift,
     CanaryOperation canaries,
@@ -477,7 +478,7 @@ internal sealed class IndexWorker(
         }
 
         log.LogWarning("Root {Root} has been gone longer than Detect:RootGoneGraceHours; removing its documents from the index.", root);
-        var summary = scan.ForgetRoot("run: root gone", root, hardStop.Token);
+        var summary = forget.Run("run: root gone", root, hardStop.Token);
         Log("run: root gone", summary);
     }
 

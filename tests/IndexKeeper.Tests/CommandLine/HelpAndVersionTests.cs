@@ -17,6 +17,7 @@ public sealed class HelpAndVersionTests
         { "verify", [] },
         { "repair", [] },
         { "rebuild-catalog", [] },
+        { "forget-root", ["--yes", "<name>"] },
         { "demo", ["--output"] },
         { "plan", ["--calibrate"] },
         { "encoders", ["--check-canaries"] },

@@ -66,6 +66,67 @@ public sealed class RootNameTests
         Assert.Equal(6, json.RootElement.GetProperty("documents").GetInt32());
     }
 
+    [Fact]
+    public void Forget_root_removes_an_old_names_documents_only_with_yes_and_keeps_pages_other_roots_hold()
+    {
+        using var temp = new TempDirectory();
+        WriteTwoRoots(temp);
+        Sync(temp, Config(temp, ("north", "a/docs"), ("south", "b/docs")));
+        var renamed = Config(temp, ("north", "a/docs"), ("southern", "b/docs"));
+        Sync(temp, renamed);
+
+        // The pipes file leaves the share: the walked name drops it, the old name still holds its page.
+        File.Delete(temp.Combine("b/docs/pipes.txt"));
+        Assert.Equal(1, Sync(temp, renamed).GetProperty("documentsDeleted").GetInt32());
+        Assert.Equal((5, 4), Counts(temp));
+
+        // Without --yes: what it would do, read-only.
+        var preview = ForgetRoot(temp, "south");
+        Assert.Equal(0, preview.ExitCode);
+        using (var json = JsonDocument.Parse(preview.Stdout))
+        {
+            Assert.False(json.RootElement.GetProperty("forgotten").GetBoolean());
+            Assert.Equal(2, json.RootElement.GetProperty("documents").GetInt32());
+            Assert.Equal(1, json.RootElement.GetProperty("pagesRemoved").GetInt32());
+            Assert.Equal(1, json.RootElement.GetProperty("pagesKept").GetInt32());
+        }
+
+        Assert.Equal((5, 4), Counts(temp));
+
+        var done = ForgetRoot(temp, "south", "--yes");
+        Assert.True(done.ExitCode == 0, done.Stderr);
+        using (var json = JsonDocument.Parse(done.Stdout))
+        {
+            Assert.True(json.RootElement.GetProperty("forgotten").GetBoolean());
+            Assert.Equal(2, json.RootElement.GetProperty("documents").GetInt32());
+            Assert.Equal(1, json.RootElement.GetProperty("pagesRemoved").GetInt32());
+        }
+
+        Assert.Equal((3, 3), Counts(temp));
+
+        // The shared page kept its vectors: the next pass embeds nothing and changes nothing.
+        AssertNothingHappened(Sync(temp, renamed), documents: 3);
+    }
+
+    [Fact]
+    public void Forget_root_refuses_a_configured_name_and_a_name_the_index_does_not_know()
+    {
+        using var temp = new TempDirectory();
+        WriteTwoRoots(temp);
+        var config = Config(temp, ("north", "a/docs"), ("south", "b/docs"));
+        Sync(temp, config);
+
+        var configured = CliRunner.Run(temp.Path, "forget-root", "south", "--config", config, "--yes");
+        Assert.Equal(2, configured.ExitCode);
+        Assert.Contains("'south' is a root the settings give", configured.Stderr, StringComparison.Ordinal);
+
+        var unknown = ForgetRoot(temp, "west", "--yes");
+        Assert.Equal(2, unknown.ExitCode);
+        Assert.Contains("no documents under the root name 'west'; it has 'north' (2 document(s)), 'south' (2 document(s))", unknown.Stderr, StringComparison.Ordinal);
+
+        Assert.Equal((4, 4), Counts(temp));
+    }
+
     [Theory]
     [InlineData("north=/srv/a", "north", "/srv/a")]
     [InlineData("/srv/a=b", null, "/srv/a=b")]
@@ -122,6 +183,17 @@ public sealed class RootNameTests
         Assert.True(result.ExitCode == 0, result.Stderr);
         using var json = JsonDocument.Parse(result.Stdout);
         return json.RootElement.Clone();
+    }
+
+    private static CliRunner.Result ForgetRoot(TempDirectory temp, string name, params string[] more) =>
+        CliRunner.Run(temp.Path, ["forget-root", name, "--index", "idx", "--json", .. more]);
+
+    /// <summary>Documents and distinct page keys, as <c>status</c> counts them.</summary>
+    private static (int Documents, int Pages) Counts(TempDirectory temp)
+    {
+        var status = CliRunner.Run(temp.Path, "status", "--index", "idx", "--json");
+        using var json = JsonDocument.Parse(status.Stdout);
+        return (json.RootElement.GetProperty("documents").GetInt32(), json.RootElement.GetProperty("pages").GetInt32());
     }
 
     private static void AssertNothingHappened(JsonElement summary, int documents)
