@@ -1,3 +1,4 @@
+using System.Text.Json;
 using IndexKeeper.Service.WorkQueue;
 using IndexKeeper.Tests.Daemon;
 
@@ -37,8 +38,12 @@ public sealed class DistributedBuildTests(PostgresServer server)
             Assert.Contains("indexkeeper_work_queue_workers", metrics, StringComparison.Ordinal);
             Assert.Contains("worker=\"stranger\"", metrics, StringComparison.Ordinal);
 
-            // The plan counts the live workers of the active encoder only, at their measured rates.
-            var plan = daemon.GetJson("/api/plan");
+            // The plan counts the live workers of the active encoder only, at their measured rates. The rates
+            // come from the daemon's last look at the heartbeats, which may predate the heartbeat that carried
+            // a worker's first pages on a loaded machine: wait for it rather than race it.
+            var plan = default(JsonElement);
+            daemon.WaitUntil("the plan counts the workers' measured rates", () =>
+                (plan = daemon.GetJson("/api/plan")).GetProperty("workersPagesPerSecond").ValueKind == JsonValueKind.Number);
             Assert.Equal(2, plan.GetProperty("liveWorkers").GetInt32());
             Assert.True(plan.GetProperty("workersPagesPerSecond").GetDouble() > 0);
             Assert.Equal(0, one.Terminate());
