@@ -32,7 +32,15 @@ public sealed class ChurnRecallBenchmark : IBenchmark
     private const int NewSampleQueries = 32;
     private const int TextQueries = 30;
 
-    private static readonly int[] Checkpoints = [0, 10, 20, 30];
+    // IK_CHURN_RECALL_CHECKPOINTS (comma-separated days) and IK_CHURN_RECALL_EVERY (days between recall figures)
+    // thin the measurements for a large size: each figure costs 16 exhaustive searches, each checkpoint a full build.
+    private static readonly int[] Checkpoints = Environment.GetEnvironmentVariable("IK_CHURN_RECALL_CHECKPOINTS") is { Length: > 0 } days
+        ? [.. days.Split(',').Select(d => int.Parse(d, CultureInfo.InvariantCulture))]
+        : [0, 10, 20, 30];
+
+    private static readonly int Every = Environment.GetEnvironmentVariable("IK_CHURN_RECALL_EVERY") is { Length: > 0 } every
+        ? int.Parse(every, CultureInfo.InvariantCulture)
+        : 1;
 
     public string Name => "churn-recall";
 
@@ -122,6 +130,11 @@ public sealed class ChurnRecallBenchmark : IBenchmark
                 moveWall = watch.Elapsed.TotalMilliseconds;
             }
 
+            if (day % Every != 0 && day != Days && !Checkpoints.Contains(day))
+            {
+                continue;
+            }
+
             var recall = views.MeasureRecall(identity.Id, DateTimeOffset.UtcNow, CancellationToken.None);
             daily.Add((day, recall.Recall));
             var addedShare = (double)addedTotal / (trainedOn + addedTotal);
@@ -140,8 +153,8 @@ public sealed class ChurnRecallBenchmark : IBenchmark
             throw new InvalidOperationException("the view was rebuilt (retrained) during the month instead of moved forward");
         }
 
-        var first = daily.Take(6).Average(d => d.Recall);
-        var last = daily.TakeLast(6).Average(d => d.Recall);
+        var first = daily.Where(d => d.Day <= 5).Average(d => d.Recall);
+        var last = daily.Where(d => d.Day >= Days - 5).Average(d => d.Recall);
         context.Report($"{name}: recall figure, mean of days 0–5", first, "share");
         context.Report($"{name}: recall figure, mean of days 25–30", last, "share");
         context.Report($"{name}: recall figure, mean of days 25–30 minus days 0–5", last - first, "share");
