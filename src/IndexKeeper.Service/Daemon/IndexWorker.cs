@@ -415,7 +415,18 @@ internal sealed class IndexWorker(
 
         retrainTriedAt = now;
         log.LogInformation("Retraining the serving view's centroids: {Reason}; about {Seconds:0} CPU s.", decision.Reason, estimate);
-        var outcome = index.Serving.Retrain(encoderId, now, hardStop.Token);
+        ViewRetraining outcome;
+        try
+        {
+            outcome = index.Serving.Retrain(encoderId, now, hardStop.Token);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
+        {
+            // The view is a cache and the old one still serves: a failed retraining is logged and tried again in a day.
+            log.LogWarning("The serving view was not retrained: {Message}", ex.Message);
+            return true;
+        }
+
         log.LogInformation(
             "Serving view retrained in {Seconds:0.0} s ({Centroids} centroids, {Pages} pages): recall figure {Before:0.000} before, {After:0.000} after; {Outcome}.",
             outcome.BuildWallSeconds, outcome.Centroids, outcome.Pages, outcome.Before.Recall, outcome.After.Recall, outcome.Swapped ? "the new view serves" : "the old view is kept (the new one was worse)");
