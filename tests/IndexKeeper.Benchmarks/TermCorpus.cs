@@ -54,21 +54,29 @@ internal sealed class TermCorpus
     }
 
     /// <summary>The vectors of page <paramref name="index"/> and the placed words they were made from.</summary>
-    public (VectorSet Vectors, PageWord[] Words) PageAndWords(int index)
+    public (VectorSet Vectors, PageWord[] Words) PageAndWords(int index) => PageAndWords(index, 0);
+
+    /// <summary>
+    /// As <see cref="PageAndWords(int)"/>, with each word drawn from a second, unseen vocabulary (the same Zipf
+    /// ranks, other words) with probability <paramref name="newShare"/>: content whose words drift away from
+    /// what the index held before.
+    /// </summary>
+    public (VectorSet Vectors, PageWord[] Words) PageAndWords(int index, double newShare)
     {
-        var placed = Words(index);
+        var placed = Words(index, newShare);
         var page = new PageToEncode(PageKey.Of(BitConverter.GetBytes(index)), "generated", 1, 612, 792, placed);
         return (encoder.EncodePages([page], CancellationToken.None)[0], placed);
     }
 
-    private PageWord[] Words(int index)
+    private PageWord[] Words(int index, double newShare = 0)
     {
         var count = random.Next(minWords, maxWords + 1);
         var text = new string[count];
         var placed = new PageWord[count];
         for (var w = 0; w < count; w++)
         {
-            text[w] = words[Draw()];
+            // With no new share no extra draw is made, so pages come out as before (Replay relies on it).
+            text[w] = newShare > 0 && random.NextDouble() < newShare ? Word(Vocabulary + Draw()) : words[Draw()];
             placed[w] = new PageWord(text[w], new PageBox(w % 12 * 45, w / 12 * 14, (w % 12 * 45) + 40, (w / 12 * 14) + 12));
         }
 

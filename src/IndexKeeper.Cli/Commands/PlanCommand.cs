@@ -71,6 +71,13 @@ internal sealed class PlanCommand() : CommandBase(
         o.WriteLine(r.CompactionDue
             ? string.Create(C, $"Compaction     due: {r.Compaction.Jobs} job(s) over {r.Compaction.Segments} segment(s), {r.Compaction.BytesToRewrite / 1048576.0:0.00} MiB to rewrite, {r.Compaction.BytesToReclaim / 1048576.0:0.00} MiB to reclaim; {r.Compaction.WordFiles} page-word file(s), {r.Compaction.WordBytesToReclaim / 1048576.0:0.00} MiB to reclaim")
             : "Compaction     not due");
+        if (r.Retraining is { } retrain)
+        {
+            o.WriteLine(retrain.Due
+                ? string.Create(C, $"Retraining     due ({retrain.Reason}): the serving view's centroids, {retrain.Pages} pages, about {retrain.EstimatedCpuSeconds:0} CPU s; starts {Time(retrain.StartsAt)}")
+                : $"Retraining     not due ({retrain.Reason})");
+        }
+
         var next = r.NextWindowChange is { } change ? $"{(r.WindowOpen ? "closes" : "opens")} {Time(change)}" : "never changes";
         o.WriteLine(string.Create(C, $"Window         {(r.WindowOpen ? "open" : "closed")} now, {next}; budget {r.BudgetPagesPerHour} fresh pages/hour outside windows"));
         o.WriteLine($"Finish         fresh work {Time(r.FreshFinish)}, all work {Time(r.EstimatedFinish)}");

@@ -49,6 +49,11 @@ internal sealed class StatusCommand() : CommandBase(
             o.WriteLine(string.Create(c, $"  recall       {recall.Recall:0.000} of the exhaustive top-10 on {recall.Queries} sample queries, {recall.MeasuredAt:yyyy-MM-dd HH:mm:ss'Z'}"));
         }
 
+        if (report.CentroidsTrainedAt is { } trained)
+        {
+            o.WriteLine(string.Create(c, $"  centroids    trained {trained:yyyy-MM-dd HH:mm:ss'Z'}, {report.AddedShareSinceTraining ?? 0:P1} of the vectors added since"));
+        }
+
         o.WriteLine(string.Create(c, $"  queued       {report.Queued} pages waiting for vectors"));
         o.WriteLine(string.Create(c, $"  no vectors   {report.PagesWithoutVectors} page(s) without readable vectors (queued ones included)"));
         if (report.SegmentsMissing > 0 || report.VectorSetsUnreadable > 0)

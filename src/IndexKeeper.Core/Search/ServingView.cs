@@ -26,6 +26,11 @@ public sealed class ServingView : IDisposable
     private CentroidLists? centroids;
     private ulong nextId = 1;
 
+    // Running counts for AddedShareSinceTraining: every live vector, and those of pages with ids from the training on.
+    private long vectors;
+    private long vectorsAddedSinceTraining;
+    private ulong firstIdAfterTraining = ulong.MaxValue;
+
     // Every live page in page-key order, made on first use after a change: a search over all pages asks per query.
     private ServingEntry[]? sorted;
 
@@ -110,6 +115,35 @@ public sealed class ServingView : IDisposable
         {
             Recall = recall;
             ChangedSinceRecall = 0;
+        }
+    }
+
+    /// <summary>When the centroids were trained; null when not known (a view read from its file does not record it).</summary>
+    public DateTimeOffset? TrainedAt { get; private set; }
+
+    /// <summary>
+    /// Share of the view's vectors added after its centroids were trained (kept by each change, never recounted);
+    /// null when <see cref="TrainedAt"/> is unknown or the view is empty.
+    /// </summary>
+    public double? AddedShareSinceTraining
+    {
+        get
+        {
+            lock (gate)
+            {
+                return TrainedAt is null || vectors == 0 ? null : (double)vectorsAddedSinceTraining / vectors;
+            }
+        }
+    }
+
+    /// <summary>Marks the view's pages as those its centroids were trained for: later adds count as added since training.</summary>
+    public void MarkTrained(DateTimeOffset at)
+    {
+        lock (gate)
+        {
+            TrainedAt = at;
+            firstIdAfterTraining = nextId;
+            vectorsAddedSinceTraining = 0;
         }
     }
 
@@ -216,6 +250,7 @@ public sealed class ServingView : IDisposable
                 {
                     if (byKey.Remove(change.Key, out var gone))
                     {
+                        Counted(gone.Id, -gone.Entry.VectorCount);
                         byId.Remove(gone.Id);
                         graph?.Remove(gone.Id);
                         centroids?.Remove(gone.Id);
@@ -252,6 +287,7 @@ public sealed class ServingView : IDisposable
 
                 byKey[change.Key] = new Slot(id, new ServingEntry(change.Key, location, change.VectorCount));
                 byId[id] = change.Key;
+                Counted(id, change.VectorCount);
             }
 
             Generation = generation;
@@ -345,9 +381,20 @@ public sealed class ServingView : IDisposable
         {
             view.byKey[entry.Key] = new Slot(id, entry);
             view.byId[id] = entry.Key;
+            view.vectors += entry.VectorCount;
         }
 
         return view;
+    }
+
+    /// <summary>Keeps the running vector counts as a page of <paramref name="id"/> comes or goes. REQUIRES: <c>gate</c> is held.</summary>
+    private void Counted(ulong id, int vectorCount)
+    {
+        vectors += vectorCount;
+        if (id >= firstIdAfterTraining)
+        {
+            vectorsAddedSinceTraining += vectorCount;
+        }
     }
 
     /// <summary>

@@ -60,6 +60,7 @@ public sealed class IndexSettings
             "centroids" => CandidateSource.Centroids,
             _ => CandidateSource.All,
         };
+        Retraining = new RetrainingPolicy(options.Query.RetrainBelowRecall, options.Query.RetrainAfterAddedShare);
         EncoderRecord = EncoderSettings.Record(options.Encoder);
         EmbedBatchSize = options.Encoder.BatchSize;
         Calendar = ScheduleSetup.Calendar(options.Schedule);
@@ -85,6 +86,7 @@ public sealed class IndexSettings
         BudgetPagesPerHour = other.BudgetPagesPerHour;
         MinimumTokenSimilarity = other.MinimumTokenSimilarity;
         Candidates = other.Candidates;
+        Retraining = other.Retraining;
     }
 
     /// <summary>The least best-match similarity one query vector must reach on a page for the page to be a hit.</summary>
@@ -92,6 +94,9 @@ public sealed class IndexSettings
 
     /// <summary>Where search candidates come from: every live page, the serving view's graph or its centroid lists.</summary>
     public CandidateSource Candidates { get; }
+
+    /// <summary>When the serving view's centroids are retrained (<c>Query:Retrain*</c>).</summary>
+    public RetrainingPolicy Retraining { get; }
 
     /// <summary>The index directory (catalog, segments, lock).</summary>
     public string Directory { get; }

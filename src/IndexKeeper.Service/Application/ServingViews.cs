@@ -58,6 +58,12 @@ public sealed class ServingViews : IDisposable
         }
     }
 
+    /// <summary>
+    /// CPU seconds per page of a build when this process has not timed one: 256 s for 100,000 pages of 130
+    /// vectors on this project's 2-core machine (measured, docs/benchmarks.md, <c>serving</c>, third run).
+    /// </summary>
+    public const double DefaultBuildSecondsPerPage = 0.0026;
+
     /// <summary>Views built from the whole catalog in this process (not read from disk, not moved forward by changes).</summary>
     public int Builds { get; private set; }
 
@@ -101,27 +107,9 @@ public sealed class ServingViews : IDisposable
         for (var attempt = 1; ; attempt++)
         {
             var view = For(encoderId, cancellationToken);
-            if (query.Count == 0 || view.Count == 0)
-            {
-                return (new SearchResult([], view.Count, 0), view.Unreadable);
-            }
-
-            var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k);
-            IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
-                ? view.Candidates(query, structureCount)
-                : view.Entries();
-            if (allowed is not null)
-            {
-                candidates = candidates.Where(c => allowed.Contains(c.Key.Hex));
-            }
-
             try
             {
-                using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
-                var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
-                var options = new SearchOptions { Top = k, Candidates = reranked };
-                var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
-                return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
+                return Ranked(view, query, k, cancellationToken, allowed);
             }
             catch (InvalidOperationException) when (attempt < 3)
             {
@@ -130,15 +118,112 @@ public sealed class ServingViews : IDisposable
         }
     }
 
+    /// <summary>The search of <see cref="Search"/> over <paramref name="view"/>; throws when a segment it names was retired meanwhile.</summary>
+    private (SearchResult Result, int Unreadable) Ranked(ServingView view, VectorSet query, int k, CancellationToken cancellationToken, IReadOnlySet<string>? allowed)
+    {
+        if (query.Count == 0 || view.Count == 0)
+        {
+            return (new SearchResult([], view.Count, 0), view.Unreadable);
+        }
+
+        var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k);
+        IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
+            ? view.Candidates(query, structureCount)
+            : view.Entries();
+        if (allowed is not null)
+        {
+            candidates = candidates.Where(c => allowed.Contains(c.Key.Hex));
+        }
+
+        var encoderId = view.EncoderId;
+        using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
+        var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
+        var options = new SearchOptions { Top = k, Candidates = reranked };
+        var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
+        return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
+    }
+
     /// <summary>
     /// Measures the recall figure of the view of <paramref name="encoderId"/> (docs/search.md, "Recall"): for each
     /// sample query (<see cref="RecallSample"/>) the share of the exhaustive float16 MaxSim top-10 that this
     /// search returns (a hit whose exact score reaches the 10th exhaustive score counts too: ties are equally
     /// right). Records it on the view (written with it by <see cref="Persist"/>) and returns it. Reads only.
     /// </summary>
-    public CandidateRecall MeasureRecall(string encoderId, DateTimeOffset now, CancellationToken cancellationToken)
+    public CandidateRecall MeasureRecall(string encoderId, DateTimeOffset now, CancellationToken cancellationToken) =>
+        Measure(For(encoderId, cancellationToken), now, cancellationToken);
+
+    /// <summary>
+    /// What the retraining decision needs of the view of <paramref name="encoderId"/> held in memory; null when
+    /// none is held (nothing is read for it: the idle daemon asks every turn).
+    /// </summary>
+    public RetrainingFacts? Retraining(string encoderId, DateTimeOffset? lastAttempt)
     {
-        var view = For(encoderId, cancellationToken);
+        lock (gate)
+        {
+            return views.TryGetValue(encoderId, out var view)
+                ? new RetrainingFacts(source, view.Count, view.Recall, view.AddedShareSinceTraining, view.TrainedAt, lastAttempt)
+                : null;
+        }
+    }
+
+    /// <summary>CPU seconds a build of <paramref name="pages"/> pages is expected to take: as the last build of this process, else <see cref="DefaultBuildSecondsPerPage"/>.</summary>
+    public double EstimatedBuildSeconds(long pages) => pages * (BuildSecondsPerPage ?? DefaultBuildSecondsPerPage);
+
+    /// <summary>CPU seconds per page of the last build from the catalog in this process (train + assign); null before one.</summary>
+    public double? BuildSecondsPerPage { get; private set; }
+
+    /// <summary>
+    /// Trains the view of <paramref name="encoderId"/> again (docs/search.md, "Retraining"): a new view is built from the
+    /// catalog beside the one searches use, both are measured on the same sample queries, and the new one replaces
+    /// the old only when its figure is no worse (and no commit it has not heard came in between). Only the view, a
+    /// cache, changes: no vector set is read for writing. Only for centroid lists.
+    /// </summary>
+    public ViewRetraining Retrain(string encoderId, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        if (source != CandidateSource.Centroids)
+        {
+            throw new InvalidOperationException($"Only centroid lists are trained; these views take candidates from {source}.");
+        }
+
+        var held = For(encoderId, cancellationToken);
+        var before = Measure(held, now, cancellationToken);
+        var watch = System.Diagnostics.Stopwatch.StartNew();
+        var fresh = Build(encoderId, held.Generation, cancellationToken);
+        var buildWall = watch.Elapsed.TotalSeconds;
+        var swapped = false;
+        try
+        {
+            fresh.MarkTrained(now);
+            var after = Measure(fresh, now, cancellationToken);
+            lock (gate)
+            {
+                var generation = catalog.VectorSetGeneration;
+                swapped = after.Recall >= before.Recall
+                    && views.TryGetValue(encoderId, out var current) && ReferenceEquals(current, held)
+                    && (fresh.Generation == generation || CatchUp(fresh, generation, cancellationToken));
+                if (swapped)
+                {
+                    views[encoderId] = fresh;
+                    held.Dispose();
+                    writtenAt = long.MinValue;
+                }
+            }
+
+            return new ViewRetraining(swapped, before, after, fresh.CentroidCount, fresh.Count, buildWall, BuildSecondsPerPage);
+        }
+        finally
+        {
+            if (!swapped)
+            {
+                fresh.Dispose();
+            }
+        }
+    }
+
+    /// <summary>Measures <paramref name="view"/>'s recall figure (see <see cref="MeasureRecall"/>) and records it on the view.</summary>
+    private CandidateRecall Measure(ServingView view, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        var encoderId = view.EncoderId;
         var entries = view.Entries();
         var positions = RecallSample.Positions(entries.Count, RecallSample.Queries, view.Generation);
         var queries = new List<VectorSet>();
@@ -160,7 +245,7 @@ public sealed class ServingViews : IDisposable
             var exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
             var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
             var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
-            var served = Search(encoderId, query, 10, cancellationToken).Result.Hits;
+            var served = Ranked(view, query, 10, cancellationToken, allowed: null).Result.Hits;
             kept += truth.Count == 0 ? 1 : (double)served.Count(h => truth.Contains(h.Key) || h.Score >= tenth) / truth.Count;
         }
 
@@ -324,6 +409,7 @@ public sealed class ServingViews : IDisposable
         // final state, so one already in the list changes nothing.
         var live = catalog.VectorSets.Live(encoderId);
         var view = new ServingView(encoderId, generation, source, live.Sum(r => (long)r.VectorCount));
+        var cpu = ProcessCpu();
         try
         {
             foreach (var chunk in BuildChunks(live))
@@ -332,6 +418,13 @@ public sealed class ServingViews : IDisposable
             }
 
             Builds++;
+            view.MarkTrained(DateTimeOffset.UtcNow);
+            if (view.Count > 0)
+            {
+                // The process's CPU (both cores share a build); searches beside it add a little.
+                BuildSecondsPerPage = (ProcessCpu() - cpu).TotalSeconds / view.Count;
+            }
+
             return view;
         }
         catch
@@ -366,6 +459,12 @@ public sealed class ServingViews : IDisposable
         var live = store().OpenSelected(encoderId, records);
         var unreadable = live.Unreadable.Select(u => u.Record).ToHashSet();
         return (live.Source, [.. Enumerable.Range(0, records.Count).Where(i => !unreadable.Contains(records[i]))]);
+    }
+
+    private static TimeSpan ProcessCpu()
+    {
+        using var self = System.Diagnostics.Process.GetCurrentProcess();
+        return self.TotalProcessorTime;
     }
 
     private void Heard(VectorSetChanges changes)

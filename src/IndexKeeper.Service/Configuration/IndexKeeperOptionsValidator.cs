@@ -113,6 +113,8 @@ public static class IndexKeeperOptionsValidator
         Range(errors, "Query:MaxTerms", options.Query.MaxTerms, 1, 1024);
         Range(errors, "Query:MaxResults", options.Query.MaxResults, 1, 10_000);
         Range(errors, "Query:MinimumTokenSimilarity", options.Query.MinimumTokenSimilarity, 0, 1);
+        Range(errors, "Query:RetrainBelowRecall", options.Query.RetrainBelowRecall, 0, 1);
+        Range(errors, "Query:RetrainAfterAddedShare", options.Query.RetrainAfterAddedShare, 0, 10);
         if (options.Query.Candidates is not ("all" or "graph" or "centroids"))
         {
             errors.Add($"Query:Candidates: '{options.Query.Candidates}' is not a candidate source; use all, graph or centroids.");

@@ -29,4 +29,16 @@ public sealed class QueryOptions
     /// <c>centroids</c> the serving view's centroid lists (PLAID-style, sublinear).
     /// </summary>
     public string Candidates { get; set; } = "all";
+
+    /// <summary>
+    /// With <c>centroids</c>: the daemon retrains the centroid lists, inside a window, when the last recall figure is
+    /// below this (0–1; 0: never for the figure; docs/search.md, "Retraining").
+    /// </summary>
+    public double RetrainBelowRecall { get; set; } = 0.95;
+
+    /// <summary>
+    /// With <c>centroids</c>: the daemon also retrains when at least this share of the view's vectors came after its
+    /// centroids were trained (0–10; 0: never for the share).
+    /// </summary>
+    public double RetrainAfterAddedShare { get; set; } = 0.5;
 }

@@ -110,7 +110,7 @@ internal static class DaemonApi
             // The plan reads documents with the daemon's reader, which belongs to the work loop's thread.
             var wantCalibration = calibrate is "1" or "true";
             var workers = state.WorkQueue?.Workers;
-            var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration) { Workers = workers }, CancellationToken.None)).ConfigureAwait(false);
+            var report = await state.OnWorkLoop(() => plan.Build(new PlanRequest(DateTimeOffset.UtcNow, gate.Spends, wantCalibration) { Workers = workers, RetrainingTriedAt = state.Retraining?.Facts.LastAttempt }, CancellationToken.None)).ConfigureAwait(false);
             return Results.Json(report, ApiJson.Options);
         }).Produces<PlanReport>().Errors();
         app.MapGet("/api/documents", (string? root, int? skip, int? take) =>

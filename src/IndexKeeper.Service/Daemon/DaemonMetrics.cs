@@ -128,6 +128,15 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableGauge("indexkeeper.search.candidate_recall", () => state.CandidateRecall is { } r
             ? new[] { new Measurement<double>(r.Recall) }
             : [], "1", "Share of the exhaustive top-10 the served search returned on the last sample queries (docs/search.md, \"Recall\").");
+        meter.CreateObservableGauge("indexkeeper.search.centroids.added_share", () => state.Retraining?.Facts.AddedShare is { } share
+            ? new[] { new Measurement<double>(share) }
+            : [], "1", "Share of the serving view's vectors added since its centroids were trained (docs/search.md, \"Retraining\").");
+        meter.CreateObservableGauge("indexkeeper.search.centroids.trained_timestamp", () => state.Retraining?.Facts.TrainedAt is { } at
+            ? new[] { new Measurement<double>(at.ToUnixTimeMilliseconds() / 1000.0) }
+            : [], "s", "When the serving view's centroids were last trained, in seconds since the Unix epoch.");
+        meter.CreateObservableGauge("indexkeeper.search.centroids.retrain_due", () => state.Retraining is { } r
+            ? new[] { new Measurement<int>(r.Decision.Due ? 1 : 0) }
+            : [], "1", "1 while a retraining of the serving view's centroids waits for a window (or runs), 0 otherwise.");
         meter.CreateObservableGauge("indexkeeper.window.open", () => state.Allowance.WindowOpen ? 1 : 0, "1", "1 while a work window is open, 0 outside windows (the budget applies).");
         meter.CreateObservableGauge("indexkeeper.work_queue.reachable", () => state.WorkQueue is { } q ? new[] { new Measurement<int>(q.Fault is null ? 1 : 0) } : [], "1", "1 while the work queue's PostgreSQL answers, 0 while it does not (only with Queue:Connection).");
         meter.CreateObservableGauge("indexkeeper.work_queue.jobs", () => state.WorkQueue is { Fault: null } q

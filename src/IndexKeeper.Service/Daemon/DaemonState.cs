@@ -26,6 +26,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private volatile CanaryFigures? canaries;
     private volatile CandidateRecall? candidateRecall;
+    private volatile RetrainingStatus? retraining;
     private volatile string? workLoopFault;
     private volatile WorkQueueFigures? workQueue;
     private long pagesEmbeddedRemotely;
@@ -58,6 +59,13 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     {
         get => candidateRecall;
         set => candidateRecall = value;
+    }
+
+    /// <summary>The retraining decision the idle work loop last took (null before one, or without centroid lists).</summary>
+    public RetrainingStatus? Retraining
+    {
+        get => retraining;
+        set => retraining = value;
     }
 
     /// <summary>The last canary check of this daemon's life (null before the first).</summary>

@@ -4,7 +4,9 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
+using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Search;
 using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
@@ -55,6 +57,8 @@ internal sealed class IndexWorker(
     private readonly Dictionary<string, TimeSpan?> pollIntervals = new(StringComparer.Ordinal);
     private long embeddedSinceSample;
     private bool migrating;
+    private DateTimeOffset? retrainTriedAt;
+    private DateTimeOffset nextRetrainLook = DateTimeOffset.MinValue;
 
     // The last sample and the catalog commit count it was read at: an idle loop republishes it instead of
     // reading every document, page and vector-set record again (issue 13: idle CPU grew with the index).
@@ -198,6 +202,11 @@ internal sealed class IndexWorker(
                 if (!busy && !stopping.IsCancellationRequested)
                 {
                     busy |= CheckCanariesIfDue();
+                }
+
+                if (!busy && !stopping.IsCancellationRequested)
+                {
+                    busy |= RetrainIfDue();
                 }
 
                 workSinceSample |= busy;
@@ -374,6 +383,57 @@ internal sealed class IndexWorker(
             log.LogInformation("Canary check: {Pages} page(s) match (mean cosine {Mean:0.0000}).", figures.Pages, figures.MeanCosine);
         }
 
+        return true;
+    }
+
+    /// <summary>
+    /// Retraining of the serving view's centroids is bulk work (docs/search.md, "Retraining"): asked when the loop
+    /// is idle, run only when the decision says due and a window is open long enough for its estimated cost.
+    /// Reads the view's running figures only, so asking costs the idle loop nothing it would notice.
+    /// </summary>
+    private bool RetrainIfDue()
+    {
+        var now = state.Clock.GetUtcNow();
+        if (now < nextRetrainLook)
+        {
+            return false;
+        }
+
+        nextRetrainLook = now + TimeSpan.FromMinutes(1);
+        var encoderId = index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id;
+        if (settings.Candidates != CandidateSource.Centroids || index.Serving.Retraining(encoderId, retrainTriedAt) is not { } facts)
+        {
+            return false;
+        }
+
+        var decision = RetrainingDecision.Of(facts, settings.Retraining, now);
+        var estimate = index.Serving.EstimatedBuildSeconds(facts.Pages);
+        state.Retraining = new RetrainingStatus(facts, decision, decision.Due ? RetrainingSlot.Next(settings.Calendar, now, estimate) : null, estimate);
+        if (!decision.Due || state.Retraining.RunsAt != now)
+        {
+            return false;
+        }
+
+        retrainTriedAt = now;
+        log.LogInformation("Retraining the serving view's centroids: {Reason}; about {Seconds:0} CPU s.", decision.Reason, estimate);
+        ViewRetraining outcome;
+        try
+        {
+            outcome = index.Serving.Retrain(encoderId, now, hardStop.Token);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
+        {
+            // The view is a cache and the old one still serves: a failed retraining is logged and tried again in a day.
+            log.LogWarning("The serving view was not retrained: {Message}", ex.Message);
+            return true;
+        }
+
+        log.LogInformation(
+            "Serving view retrained in {Seconds:0.0} s ({Centroids} centroids, {Pages} pages): recall figure {Before:0.000} before, {After:0.000} after; {Outcome}.",
+            outcome.BuildWallSeconds, outcome.Centroids, outcome.Pages, outcome.Before.Recall, outcome.After.Recall, outcome.Swapped ? "the new view serves" : "the old view is kept (the new one was worse)");
+        index.Serving.Persist(CancellationToken.None);
+        state.CandidateRecall = index.Serving.LastRecall(encoderId, readFile: false);
+        state.Retraining = state.Retraining with { Facts = index.Serving.Retraining(encoderId, retrainTriedAt) ?? facts, RunsAt = null };
         return true;
     }
 

@@ -48,6 +48,12 @@ public sealed class StatusReport
     /// </summary>
     public CandidateRecall? CandidateRecall { get; init; }
 
+    /// <summary>When the serving view's centroids were trained; null when not known (only a daemon holding the view knows it).</summary>
+    public DateTimeOffset? CentroidsTrainedAt { get; init; }
+
+    /// <summary>Share of the serving view's vectors added since its centroids were trained; null when not known (as above).</summary>
+    public double? AddedShareSinceTraining { get; init; }
+
     /// <summary>The last canary check of the active encoder; null when never checked.</summary>
     public CanaryReport? Canary { get; init; }
 

@@ -111,6 +111,9 @@ public sealed class PlanReport
 
     public IReadOnlyList<PlanBreakdownRow> Breakdown { get; init; } = [];
 
+    /// <summary>Retraining of the serving view's centroids: due or not, why, its cost and when; null unless <c>Query:Candidates</c> is <c>centroids</c>.</summary>
+    public PlanRetraining? Retraining { get; init; }
+
     /// <summary>What limits the figures (unknown throughput, pages not attributed, walk problems).</summary>
     public IReadOnlyList<string> Notes { get; init; } = [];
 

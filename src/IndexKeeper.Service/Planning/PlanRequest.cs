@@ -11,4 +11,7 @@ public sealed record PlanRequest(DateTimeOffset Now, IReadOnlyList<BudgetSpend> 
 {
     /// <summary>The work queue's workers as the daemon last saw them (docs/work-queue.md); the live ones of the active encoder set the finish time.</summary>
     public IReadOnlyList<WorkQueue.WorkerFigures>? Workers { get; init; }
+
+    /// <summary>When the daemon last tried to retrain the serving view (a try is not repeated within a day); null when never.</summary>
+    public DateTimeOffset? RetrainingTriedAt { get; init; }
 }

@@ -234,6 +234,91 @@ public sealed class ServingViewTests : IDisposable
     }
 
     [Fact]
+    public void A_retrained_view_answers_as_before_and_no_vector_set_or_segment_changes()
+    {
+        // Fewer pages than the lists hand on: both views rank every page, so their answers must be equal and exhaustive.
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 60)]);
+        index.Embed([.. Enumerable.Range(0, 60)]);
+        index.Store.SealAll();
+        using var views = index.Views(readOnly: false);
+        var query = TestVectors.Set(301, 4, Dimensions);
+        var before = views.Search(Encoder.Id, query, 10, CancellationToken.None).Result.Hits.Select(h => (h.Key, h.Score)).ToList();
+        var segments = SegmentFiles();
+        var generation = index.Catalog.VectorSetGeneration;
+        var live = index.Catalog.VectorSets.Live(Encoder.Id).Select(r => (r.PageKey, r.SegmentId, r.Offset)).ToList();
+        var at = new DateTimeOffset(2026, 12, 2, 20, 0, 0, TimeSpan.Zero);
+
+        var outcome = views.Retrain(Encoder.Id, at, CancellationToken.None);
+
+        Assert.True(outcome.Swapped);
+        Assert.Equal(1.0, outcome.Before.Recall);
+        Assert.Equal(1.0, outcome.After.Recall);
+        Assert.Equal(60, outcome.Pages);
+        Assert.Equal(2, views.Builds);
+        var view = views.For(Encoder.Id, CancellationToken.None);
+        Assert.Equal(at, view.TrainedAt);
+        Assert.Equal(0.0, view.AddedShareSinceTraining);
+        Assert.Equal(before, views.Search(Encoder.Id, query, 10, CancellationToken.None).Result.Hits.Select(h => (h.Key, h.Score)));
+        using (var every = index.Store.OpenLive(Encoder.Id))
+        {
+            Assert.Equal(LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10 }, CancellationToken.None).Hits.Select(h => (h.Key, h.Score)), before);
+        }
+
+        // A view is a cache: the catalog and the segment files are as they were.
+        Assert.Equal(generation, index.Catalog.VectorSetGeneration);
+        Assert.Equal(live, index.Catalog.VectorSets.Live(Encoder.Id).Select(r => (r.PageKey, r.SegmentId, r.Offset)));
+        Assert.Equal(segments, SegmentFiles());
+
+        // The new view is what the writer writes; a reader gets its centroids' candidates.
+        views.Persist(CancellationToken.None);
+        using var reader = index.Views(readOnly: true);
+        Assert.Equal(view.Candidates(query, 20), reader.For(Encoder.Id, CancellationToken.None).Candidates(query, 20));
+    }
+
+    [Fact]
+    public void The_share_added_since_training_is_kept_by_each_change()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 40)]);
+        index.Embed([.. Enumerable.Range(0, 40)]);
+        using var views = index.Views(readOnly: false);
+        var view = views.For(Encoder.Id, CancellationToken.None);
+        Assert.NotNull(view.TrainedAt);
+        Assert.Equal(0.0, view.AddedShareSinceTraining);
+
+        // Page p holds 3 + p % 5 vectors (Index.Embed).
+        static int Vectors(IEnumerable<int> pages) => pages.Sum(p => 3 + (p % 5));
+        index.AddPages(40, 41, 42, 43);
+        index.Embed(40, 41, 42, 43);
+        index.Unreference(0, 1, 41);
+        views.For(Encoder.Id, CancellationToken.None);
+        var live = Enumerable.Range(2, 38).Concat([40, 42, 43]).ToList();
+        Assert.Equal((double)Vectors([40, 42, 43]) / Vectors(live), view.AddedShareSinceTraining!.Value, 12);
+        var facts = views.Retraining(Encoder.Id, lastAttempt: null);
+        Assert.NotNull(facts);
+        Assert.Equal(live.Count, facts.Pages);
+        Assert.Equal(view.AddedShareSinceTraining, facts.AddedShare);
+
+        // Read back from its file the view does not know when it was trained, so neither figure is claimed.
+        views.Persist(CancellationToken.None);
+        using var reader = index.Views(readOnly: true);
+        var read = reader.For(Encoder.Id, CancellationToken.None);
+        Assert.Null(read.TrainedAt);
+        Assert.Null(read.AddedShareSinceTraining);
+    }
+
+    [Fact]
+    public void Only_centroid_lists_are_retrained()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages(0, 1, 2);
+        index.Embed(0, 1, 2);
+        using var views = index.Views(readOnly: false, CandidateSource.All);
+        Assert.Throws<InvalidOperationException>(() => views.Retrain(Encoder.Id, DateTimeOffset.UtcNow, CancellationToken.None));
+    }
+
+    [Fact]
     public void Sample_positions_are_distinct_within_the_directory_and_fixed_by_the_seed()
     {
         var positions = RecallSample.Positions(1000, 16, seed: 7);
@@ -285,6 +370,10 @@ public sealed class ServingViewTests : IDisposable
             live.Select(v => (v.PageKey, v.SegmentId, v.Offset, v.Length, v.VectorCount)),
             view.Entries().Select(e => (e.Key.Hex, e.Location.SegmentId, e.Location.Offset, e.Location.Length, e.VectorCount)));
     }
+
+    private List<(string Name, long Length, DateTime Written)> SegmentFiles() =>
+        [.. Directory.EnumerateFiles(System.IO.Path.Combine(directory.Path, VectorStore.SegmentsFolder)).Order(StringComparer.Ordinal)
+            .Select(f => (System.IO.Path.GetFileName(f), new FileInfo(f).Length, File.GetLastWriteTimeUtc(f)))];
 
     /// <summary>A small index opened for writing, with the few changes the tests make.</summary>
     private sealed class Index : IDisposable
