@@ -37,7 +37,7 @@ internal static class CoordinatorProfile
         _ = index.Store;
         composed.Get<ScanOperation>().Walk("benchmark", composed.Settings.Scan.Roots, CancellationToken.None);
         using var source = QueueDatabase.Create(options.Queue, "benchmark coordinator");
-        QueueSchema.Ensure(source);
+        QueueSchema.Ensure(source, migrate: true);
         var jobs = new JobTable(source);
         var publish = new PublishJobsOperation(index);
         var commit = new CommitResultsOperation(index, RetryPolicy.Default);

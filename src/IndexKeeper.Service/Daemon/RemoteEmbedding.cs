@@ -58,7 +58,7 @@ internal sealed class RemoteEmbedding(
         {
             if (published is null)
             {
-                QueueSchema.Ensure(database);
+                QueueSchema.Ensure(database, migrate: true);
 
                 // Jobs of an encoder this index no longer embeds with would wait forever for a worker of their own.
                 jobs.WithdrawOthers(index.Encoder.Identity.Id);

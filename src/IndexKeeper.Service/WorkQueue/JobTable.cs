@@ -78,7 +78,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
     {
         using var command = database.CreateCommand($"""
             SELECT page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority,
-                   state, worker, result_encoder_id, result, failure_kind, failure
+                   state, worker, result_encoder_id, result_float16, failure_kind, failure
             FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})
             ORDER BY finished_at LIMIT @limit
             """);
@@ -197,7 +197,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
         }
 
         using var command = database.CreateCommand($"""
-            UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result = r.result, finished_at = now(), lease_until = NULL
+            UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result_float16 = r.result, finished_at = now(), lease_until = NULL
             FROM unnest(@keys, @encoders, @results) AS r(page_key, encoder_id, result)
             WHERE j.page_key = r.page_key AND j.encoder_id = r.encoder_id AND j.worker = @worker AND j.state = {(int)JobState.Claimed}
             """);

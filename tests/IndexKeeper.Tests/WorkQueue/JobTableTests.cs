@@ -22,7 +22,7 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
     private static NpgsqlDataSource Open(PostgresServer server)
     {
         var source = QueueDatabase.Create(new QueueOptions { Connection = server.Connection(server.CreateDatabase()), PasswordFile = server.PasswordFile }, "indexkeeper-test");
-        QueueSchema.Ensure(source);
+        QueueSchema.Ensure(source, migrate: true);
         return source;
     }
 
