@@ -75,29 +75,21 @@ public sealed class VectorStore : IDisposable
     /// catalog with the queue entries they satisfy. On an I/O failure (disk full) nothing of the batch is
     /// committed and the open segment is cut back to its committed length at the next append.
     /// </summary>
-    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
-    {
-        RefuseIfReadOnly();
-        ArgumentNullException.ThrowIfNull(encoder);
-        ArgumentNullException.ThrowIfNull(batch);
-        if (batch.Count == 0)
-        {
-            return;
-        }
-
-        lock (writerGate)
-        {
-            AppendAndCommitLocked(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors), static vectors => vectors.Count);
-        }
-
-        files.DeletePending();
-    }
+    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch) =>
+        AppendAndCommit(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors), static vectors => vectors.Count);
 
     /// <summary>
     /// <see cref="AppendAndCommit(EncoderIdentity, IReadOnlyList{ValueTuple{PageKey, VectorSet}})"/> for vector sets
     /// already in float16 (a remote worker's): the same records, durability and catalog commit, without the conversion.
     /// </summary>
-    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, Float16VectorSet Vectors)> batch)
+    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, Float16VectorSet Vectors)> batch) =>
+        AppendAndCommit(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors.Vectors, vectors.Regions), static vectors => vectors.Count);
+
+    private void AppendAndCommit<TVectors>(
+        EncoderIdentity encoder,
+        IReadOnlyList<(PageKey Key, TVectors Vectors)> batch,
+        Func<SegmentWriter, PageKey, TVectors, RecordLocation> append,
+        Func<TVectors, int> countOf)
     {
         RefuseIfReadOnly();
         ArgumentNullException.ThrowIfNull(encoder);
@@ -109,7 +101,7 @@ public sealed class VectorStore : IDisposable
 
         lock (writerGate)
         {
-            AppendAndCommitLocked(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors.Vectors, vectors.Regions), static vectors => vectors.Count);
+            AppendAndCommitLocked(encoder, batch, append, countOf);
         }
 
         files.DeletePending();
