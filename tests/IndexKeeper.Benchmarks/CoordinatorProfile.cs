@@ -14,10 +14,12 @@ namespace IndexKeeper.Benchmarks;
 /// by this process's CPU, with a worker (hashed-terms, in this process, untimed) encoding in between. The
 /// stages are the same calls <c>RemoteEmbedding</c> makes; the daemon's own tick (samples, serving view,
 /// a look at the queue a second) is paid by time and is what the out-of-process runs add.
+/// <paramref name="commitBatch"/> is how many handed-back results one commit takes at most: the daemon's
+/// limit (four encoder batches) by default, or fewer to see what a commit costs when results trickle in.
 /// </summary>
 internal static class CoordinatorProfile
 {
-    public static void Run(BenchmarkContext context, PostgresServer server, IReadOnlyList<DemoRoot> roots, string directory)
+    public static void Run(BenchmarkContext context, PostgresServer server, IReadOnlyList<DemoRoot> roots, string directory, int? commitBatch = null, string label = "in process")
     {
         var database = server.CreateDatabase();
         var overrides = new List<string>
@@ -37,7 +39,7 @@ internal static class CoordinatorProfile
         _ = index.Store;
         composed.Get<ScanOperation>().Walk("benchmark", composed.Settings.Scan.Roots, CancellationToken.None);
         using var source = QueueDatabase.Create(options.Queue, "benchmark coordinator");
-        QueueSchema.Ensure(source);
+        QueueSchema.Ensure(source, migrate: true);
         var jobs = new JobTable(source);
         var publish = new PublishJobsOperation(index);
         var commit = new CommitResultsOperation(index, RetryPolicy.Default);
@@ -51,7 +53,7 @@ internal static class CoordinatorProfile
             stages[stage] = (c + cpu, w + wall, n + 1);
         }
 
-        var limit = Math.Max(1, composed.Settings.EmbedBatchSize * 4);
+        var limit = commitBatch ?? Math.Max(1, composed.Settings.EmbedBatchSize * 4);
         var committed = 0L;
         while (true)
         {
@@ -88,15 +90,16 @@ internal static class CoordinatorProfile
             throw new InvalidOperationException($"the profile committed {committed} page(s) and left the queue not empty");
         }
 
-        context.Report("in process: pages committed", committed, "pages");
+        context.Report($"{label}: pages committed", committed, "pages");
+        context.Report($"{label}: results per commit (mean)", (double)committed / stages["check and commit"].Calls, "pages");
         var total = 0.0;
         foreach (var (stage, (cpu, wall, calls)) in stages)
         {
-            context.Report($"in process: {stage}, CPU per page", cpu / committed * 1000, "ms");
-            context.Note(FormattableString.Invariant($"in process: {stage}: {calls} call(s), {cpu * 1000:0} ms CPU, {wall * 1000:0} ms wall"));
+            context.Report($"{label}: {stage}, CPU per page", cpu / committed * 1000, "ms");
+            context.Note(FormattableString.Invariant($"{label}: {stage}: {calls} call(s), {cpu * 1000:0} ms CPU, {wall * 1000:0} ms wall"));
             total += stage.Contains("each look", StringComparison.Ordinal) ? 0 : cpu;
         }
 
-        context.Report("in process: coordinator CPU per page, all stages", total / committed * 1000, "ms");
+        context.Report($"{label}: coordinator CPU per page, all stages", total / committed * 1000, "ms");
     }
 }

@@ -75,7 +75,21 @@ public sealed class VectorStore : IDisposable
     /// catalog with the queue entries they satisfy. On an I/O failure (disk full) nothing of the batch is
     /// committed and the open segment is cut back to its committed length at the next append.
     /// </summary>
-    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
+    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch) =>
+        AppendAndCommit(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors), static vectors => vectors.Count);
+
+    /// <summary>
+    /// <see cref="AppendAndCommit(EncoderIdentity, IReadOnlyList{ValueTuple{PageKey, VectorSet}})"/> for vector sets
+    /// already in float16 (a remote worker's): the same records, durability and catalog commit, without the conversion.
+    /// </summary>
+    public void AppendAndCommit(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, Float16VectorSet Vectors)> batch) =>
+        AppendAndCommit(encoder, batch, static (writer, key, vectors) => writer.Append(key, vectors.Vectors, vectors.Regions), static vectors => vectors.Count);
+
+    private void AppendAndCommit<TVectors>(
+        EncoderIdentity encoder,
+        IReadOnlyList<(PageKey Key, TVectors Vectors)> batch,
+        Func<SegmentWriter, PageKey, TVectors, RecordLocation> append,
+        Func<TVectors, int> countOf)
     {
         RefuseIfReadOnly();
         ArgumentNullException.ThrowIfNull(encoder);
@@ -87,14 +101,18 @@ public sealed class VectorStore : IDisposable
 
         lock (writerGate)
         {
-            AppendAndCommitLocked(encoder, batch);
+            AppendAndCommitLocked(encoder, batch, append, countOf);
         }
 
         files.DeletePending();
     }
 
     /// <summary>REQUIRES: <c>writerGate</c> is held.</summary>
-    private void AppendAndCommitLocked(EncoderIdentity encoder, IReadOnlyList<(PageKey Key, VectorSet Vectors)> batch)
+    private void AppendAndCommitLocked<TVectors>(
+        EncoderIdentity encoder,
+        IReadOnlyList<(PageKey Key, TVectors Vectors)> batch,
+        Func<SegmentWriter, PageKey, TVectors, RecordLocation> append,
+        Func<TVectors, int> countOf)
     {
         var writer = WriterFor(encoder);
         var segment = catalog.Segments.Find(writer.SegmentId) ?? new SegmentRecord
@@ -109,7 +127,7 @@ public sealed class VectorStore : IDisposable
         {
             foreach (var (key, vectors) in batch)
             {
-                var location = writer.Append(key, vectors);
+                var location = append(writer, key, vectors);
                 added.Add(new VectorSetRecord
                 {
                     Id = VectorSetRecord.MakeId(encoder.Id, key.Hex),
@@ -119,7 +137,7 @@ public sealed class VectorStore : IDisposable
                     Offset = location.Offset,
                     Length = location.Length,
                     Checksum = location.Checksum,
-                    VectorCount = vectors.Count,
+                    VectorCount = countOf(vectors),
                 });
             }
 

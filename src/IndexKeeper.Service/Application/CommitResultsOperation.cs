@@ -1,7 +1,7 @@
 using IndexKeeper.Core.Documents;
-using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Faults;
 using IndexKeeper.Core.Queue;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.WorkQueue;
 
 namespace IndexKeeper.Service.Application;
@@ -22,13 +22,13 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
         ArgumentNullException.ThrowIfNull(finished);
         var catalog = index.Catalog;
         var encoder = index.Encoder.Identity;
-        var commit = new List<(PageKey Key, VectorSet Vectors)>();
+        var commit = new List<(PageKey Key, Float16VectorSet Vectors)>();
         var outcome = new CommitOutcome();
         foreach (var job in finished)
         {
             // The reference count alone: reading a page record with its words costs milliseconds (docs/benchmarks.md, embed).
             var needs = catalog.Pages.ReferencesOf(job.Job.PageKey) > 0 && catalog.VectorSets.Find(encoder.Id, job.Job.PageKey) is not { Live: true };
-            VectorSet? vectors = null;
+            Float16VectorSet? vectors = null;
             if (job.State == JobState.Done && job.Result is { } bytes)
             {
                 try

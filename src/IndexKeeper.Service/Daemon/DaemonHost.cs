@@ -95,7 +95,7 @@ public static class DaemonHost
         var database = QueueDatabase.Create(queue, "indexkeeper-coordinator");
         try
         {
-            QueueDatabase.Check(database);
+            QueueDatabase.Check(database, migrate: true);
         }
         catch (Exception ex) when (QueueDatabase.IsUnreachable(ex))
         {

@@ -151,6 +151,7 @@ internal sealed class DaemonMetrics : IDisposable
         meter.CreateObservableCounter("indexkeeper.work_queue.results", () => state.WorkQueue is { } q
             ? new[] { new Measurement<long>(q.Committed, Tag("outcome", "committed")), new Measurement<long>(q.Rejected, Tag("outcome", "rejected")) }
             : [], "{result}", "Vector sets handed back by workers since start: committed, or rejected (another encoder id, bad bytes).");
+        meter.CreateObservableCounter("indexkeeper.work_queue.commits", () => state.WorkQueue is { } q ? new[] { new Measurement<long>(q.Commits) } : [], "{commit}", "Commits (one fsync and one catalog transaction each) that held the committed results; results over commits is the batch a commit carries.");
         meter.CreateObservableGauge("indexkeeper.work_queue.workers", () => state.WorkQueue is { } q ? new[] { new Measurement<int>(q.LiveWorkers) } : [], "{worker}", "Workers with a recent heartbeat.");
         meter.CreateObservableGauge("indexkeeper.work_queue.worker.rate", () => (state.WorkQueue?.Workers ?? []).Where(w => w.Live)
             .Select(w => new Measurement<double>(w.PagesPerSecond, Tag("worker", w.Worker), Tag("encoder", w.EncoderName), Tag("encoder_id", w.EncoderId[..Math.Min(12, w.EncoderId.Length)]))), "{page}/s", "Each live worker's pages per second of encoder time.");

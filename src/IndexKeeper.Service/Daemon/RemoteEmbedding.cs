@@ -27,6 +27,10 @@ internal sealed class RemoteEmbedding(
 {
     private readonly JobTable jobs = new(database);
     private readonly WorkerTable workers = new(database);
+    // How long handed-back results wait in PostgreSQL for others to share their commit (fsync and catalog
+    // transaction) when fewer than a full commit came back; they are durable there meanwhile.
+    private static readonly TimeSpan CommitGather = TimeSpan.FromSeconds(5);
+
     private readonly TimeSpan figuresInterval = TimeSpan.FromSeconds(Math.Min(5, options.HeartbeatSeconds));
     private HashSet<string>? published;
     private string? fault;
@@ -41,6 +45,7 @@ internal sealed class RemoteEmbedding(
     private readonly Dictionary<string, DateTimeOffset> paid = new(StringComparer.Ordinal);
     private long committed;
     private long rejected;
+    private long commits;
 
     /// <summary>True while jobs this coordinator published are not yet committed (and PostgreSQL answers).</summary>
     public bool Outstanding => fault is null && published is { Count: > 0 };
@@ -58,7 +63,7 @@ internal sealed class RemoteEmbedding(
         {
             if (published is null)
             {
-                QueueSchema.Ensure(database);
+                QueueSchema.Ensure(database, migrate: true);
 
                 // Jobs of an encoder this index no longer embeds with would wait forever for a worker of their own.
                 jobs.WithdrawOthers(index.Encoder.Identity.Id);
@@ -94,7 +99,7 @@ internal sealed class RemoteEmbedding(
     /// <summary>Handed-back jobs committed and deleted; true when there were any.</summary>
     private bool Collect(DateTimeOffset now)
     {
-        var finished = jobs.Finished(Math.Max(1, index.Settings.EmbedBatchSize * 4));
+        var finished = jobs.Finished(Math.Max(1, index.Settings.EmbedBatchSize * 4), CommitGather);
         if (finished.Count == 0)
         {
             return false;
@@ -127,6 +132,7 @@ internal sealed class RemoteEmbedding(
         rejected += outcome.Rejected;
         if (outcome.Committed > 0)
         {
+            commits++;
             state.CountEmbedded(outcome.Committed);
             state.CountRemote(outcome.Committed);
         }
@@ -185,7 +191,7 @@ internal sealed class RemoteEmbedding(
     private void Figures()
     {
         var (waiting, claimed, finished, expired) = jobs.Counts();
-        state.WorkQueue = new WorkQueueFigures(null, null, waiting, claimed, finished, expired, committed, rejected, workers.All());
+        state.WorkQueue = new WorkQueueFigures(null, null, waiting, claimed, finished, expired, committed, rejected, commits, workers.All());
     }
 
     private bool Meanwhile(Func<bool> embedLocally) => options.WhenUnreachable == "local" && embedLocally();
@@ -200,7 +206,7 @@ internal sealed class RemoteEmbedding(
         backoff = Reconnect.Next(backoff, TimeSpan.FromSeconds(options.ReconnectMaxSeconds));
         nextAttempt = now + backoff;
         var last = state.WorkQueue;
-        state.WorkQueue = new WorkQueueFigures(fault, faultSince, 0, 0, 0, 0, committed, rejected, last?.Workers ?? []);
+        state.WorkQueue = new WorkQueueFigures(fault, faultSince, 0, 0, 0, 0, committed, rejected, commits, last?.Workers ?? []);
         if (first)
         {
             log.LogWarning(

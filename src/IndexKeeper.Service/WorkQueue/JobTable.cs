@@ -73,16 +73,25 @@ internal sealed class JobTable(NpgsqlDataSource database)
         return command.ExecuteNonQuery();
     }
 
-    /// <summary>Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first.</summary>
-    public IReadOnlyList<FinishedJob> Finished(int limit)
+    /// <summary>
+    /// Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first. With <paramref name="gather"/>,
+    /// none until there are <paramref name="limit"/> of them, or the oldest has waited that long, or no job is
+    /// waiting or claimed (nothing more will come): so one commit (one fsync, one catalog transaction) takes
+    /// several workers' hand-backs. Decided in the same statement, on the database's clock.
+    /// </summary>
+    public IReadOnlyList<FinishedJob> Finished(int limit, TimeSpan? gather = null)
     {
         using var command = database.CreateCommand($"""
+            WITH back AS (SELECT count(*) AS n, min(finished_at) AS oldest FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed}))
             SELECT page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority,
-                   state, worker, result_encoder_id, result, failure_kind, failure
-            FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})
+                   state, worker, result_encoder_id, result_float16, failure_kind, failure
+            FROM {Jobs}, back WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})
+              AND (@gather IS NULL OR back.n >= @limit OR back.oldest <= now() - @gather
+                   OR NOT EXISTS (SELECT 1 FROM {Jobs} WHERE state IN ({(int)JobState.Waiting}, {(int)JobState.Claimed})))
             ORDER BY finished_at LIMIT @limit
             """);
         command.Parameters.AddWithValue("limit", limit);
+        command.Parameters.Add(new NpgsqlParameter<TimeSpan?>("gather", NpgsqlDbType.Interval) { TypedValue = gather });
         var finished = new List<FinishedJob>();
 
         // Sequential access: each result (hundreds of KB) is read from the socket straight into its array, not
@@ -197,7 +206,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
         }
 
         using var command = database.CreateCommand($"""
-            UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result = r.result, finished_at = now(), lease_until = NULL
+            UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result_float16 = r.result, finished_at = now(), lease_until = NULL
             FROM unnest(@keys, @encoders, @results) AS r(page_key, encoder_id, result)
             WHERE j.page_key = r.page_key AND j.encoder_id = r.encoder_id AND j.worker = @worker AND j.state = {(int)JobState.Claimed}
             """);

@@ -39,11 +39,12 @@ internal static class QueueDatabase
     }
 
     /// <summary>Connects and creates or checks the tables (<see cref="QueueSchema.Ensure"/>); a problem of the settings is a <see cref="ConfigurationException"/>.</summary>
-    public static void Check(NpgsqlDataSource database)
+    /// <param name="migrate">True for the coordinator: it migrates older tables; a worker refuses them (<see cref="QueueSchema.Ensure"/>).</param>
+    public static void Check(NpgsqlDataSource database, bool migrate)
     {
         try
         {
-            QueueSchema.Ensure(database);
+            QueueSchema.Ensure(database, migrate);
         }
         catch (PostgresException ex) when (IsSettingProblem(ex))
         {

@@ -5,14 +5,15 @@ namespace IndexKeeper.Service.WorkQueue;
 
 /// <summary>
 /// The work queue's tables in PostgreSQL, versioned (docs/work-queue.md, whose version matches
-/// <see cref="Version"/>). <see cref="Ensure"/> creates them in an empty database, migrates an older
-/// version and refuses a newer one before writing anything; the coordinator and every worker call it
-/// when they connect.
+/// <see cref="Version"/>). <see cref="Ensure"/> creates them in an empty database and refuses a newer
+/// version before writing anything; the coordinator and every worker call it when they connect. Only the
+/// coordinator migrates an older version: a worker of this build would otherwise change the tables under
+/// a coordinator of the older one, so it refuses and says to upgrade the coordinator first.
 /// </summary>
 internal static class QueueSchema
 {
     /// <summary>The schema version this build reads and writes. Never reuse a number.</summary>
-    public const int Version = 1;
+    public const int Version = 2;
 
     /// <summary>The PostgreSQL schema (namespace) holding the queue's tables.</summary>
     public const string Name = "indexkeeper_queue";
@@ -20,8 +21,8 @@ internal static class QueueSchema
     // Any constant: two processes creating the schema at once take turns on this transaction-level lock.
     private const long CreationLock = 0x496B_5175_6575_6531;
 
-    // Version 1. The numbers stored in jobs.state and jobs.failure_kind are JobState and JobFailure: never change them.
-    private const string CreateVersion1 = $"""
+    // Version 1 (internal: the migration test builds it). The numbers stored in jobs.state and jobs.failure_kind are JobState and JobFailure: never change them.
+    internal const string CreateVersion1 = $"""
         CREATE SCHEMA IF NOT EXISTS {Name};
         CREATE TABLE {Name}.schema_version (
             singleton boolean PRIMARY KEY DEFAULT true CHECK (singleton),
@@ -61,11 +62,23 @@ internal static class QueueSchema
         INSERT INTO {Name}.schema_version (version) VALUES (1);
         """;
 
+    // Version 2: results are float16 (VectorSetWire version 2) in a column of a new name, so a worker of an
+    // older build cannot hand back float32 bytes into it: its hand-back fails and, restarted, it is told the
+    // tables are newer than it reads. Results such workers left (state 2, done) wait again (state 0) to be encoded anew.
+    private const string MigrateTo2 = $"""
+        UPDATE {Name}.jobs SET state = 0, worker = NULL, lease_until = NULL, result_encoder_id = NULL, result = NULL, finished_at = NULL
+            WHERE state = 2;
+        ALTER TABLE {Name}.jobs RENAME COLUMN result TO result_float16;
+        UPDATE {Name}.schema_version SET version = 2;
+        """;
+
     /// <summary>
-    /// Creates or migrates the tables; returns the version found before (0: none). A newer version than
-    /// <see cref="Version"/> is a <see cref="ConfigurationException"/> naming Queue:Connection, and nothing is written.
+    /// Creates or (<paramref name="migrate"/>) migrates the tables; returns the version found before (0: none).
+    /// A newer version than <see cref="Version"/>, or an older one without <paramref name="migrate"/>, is a
+    /// <see cref="ConfigurationException"/> naming Queue:Connection, and nothing is written.
     /// </summary>
-    public static int Ensure(NpgsqlDataSource database)
+    /// <param name="migrate">True for the coordinator; a worker only creates tables in an empty database.</param>
+    public static int Ensure(NpgsqlDataSource database, bool migrate)
     {
         ArgumentNullException.ThrowIfNull(database);
         using var connection = database.OpenConnection();
@@ -79,9 +92,21 @@ internal static class QueueSchema
                 $"Queue:Connection: the work queue's tables in database '{connection.Database}' are of version {found}, newer than this build's {Version}; upgrade IndexKeeper on this machine (docs/work-queue.md). Nothing was written."]);
         }
 
+        if (found > 0 && found < Version && !migrate)
+        {
+            transaction.Rollback();
+            throw new ConfigurationException([
+                $"Queue:Connection: the work queue's tables in database '{connection.Database}' are of version {found}, older than this build's {Version}; upgrade and start the coordinator (`indexkeeper run`) first, it migrates them (docs/work-queue.md). Nothing was written."]);
+        }
+
         if (found == 0)
         {
             Execute(connection, transaction, CreateVersion1);
+        }
+
+        if (found < 2)
+        {
+            Execute(connection, transaction, MigrateTo2);
         }
 
         transaction.Commit();

@@ -60,7 +60,7 @@ public sealed class RemoteWorker : IDisposable
     /// <param name="untilIdle">Return at the first claim that finds no job (a drain, or a test).</param>
     public void Run(bool untilIdle, CancellationToken stopping)
     {
-        QueueDatabase.Check(database);
+        QueueDatabase.Check(database, migrate: false);
         log.LogInformation("Worker {Worker} takes jobs of encoder {Encoder} ({Name}).", figures.Worker, encoder.Identity.Id[..12], encoder.Identity.Name);
         using var heartbeat = new Timer(_ => Beat(), null, TimeSpan.Zero, TimeSpan.FromSeconds(queue.HeartbeatSeconds));
         var backoff = TimeSpan.Zero;

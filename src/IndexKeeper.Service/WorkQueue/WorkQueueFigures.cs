@@ -8,6 +8,7 @@ namespace IndexKeeper.Service.WorkQueue;
 /// <param name="FaultSinceUtc">Since when it does not.</param>
 /// <param name="Expired">Claimed jobs whose lease has expired (their worker went silent); another worker takes them.</param>
 /// <param name="Rejected">Results never committed since the coordinator started: another encoder id or bad bytes.</param>
+/// <param name="Commits">Commits (each one fsync and one catalog transaction) that held the <paramref name="Committed"/> results.</param>
 public sealed record WorkQueueFigures(
     string? Fault,
     DateTime? FaultSinceUtc,
@@ -17,6 +18,7 @@ public sealed record WorkQueueFigures(
     long Expired,
     long Committed,
     long Rejected,
+    long Commits,
     IReadOnlyList<WorkerFigures> Workers)
 {
     /// <summary>Workers with a recent heartbeat.</summary>

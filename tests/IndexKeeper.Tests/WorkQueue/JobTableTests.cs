@@ -22,7 +22,7 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
     private static NpgsqlDataSource Open(PostgresServer server)
     {
         var source = QueueDatabase.Create(new QueueOptions { Connection = server.Connection(server.CreateDatabase()), PasswordFile = server.PasswordFile }, "indexkeeper-test");
-        QueueSchema.Ensure(source);
+        QueueSchema.Ensure(source, migrate: true);
         return source;
     }
 
@@ -87,6 +87,29 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         var finished = Assert.Single(Jobs.Finished(10));
         Assert.Equal("second", finished.Worker);
         Assert.Equal(new byte[] { 4, 5, 6 }, finished.Result);
+    }
+
+    [Fact]
+    public void Gathered_results_wait_for_a_full_commit_or_for_nothing_more_to_come()
+    {
+        Jobs.Publish([Job(1), Job(2), Job(3)]);
+        var claimed = Jobs.Claim("w", Encoder, 2, TimeSpan.FromMinutes(5));
+        Assert.Equal(1, Jobs.Finish("w", [(claimed[0].Job, new byte[] { 1 })], Encoder));
+        var hour = TimeSpan.FromHours(1);
+
+        // One back, more out, none old: wait. A full commit's worth (here 1), or no gathering: take it.
+        Assert.Empty(Jobs.Finished(10, hour));
+        Assert.Single(Jobs.Finished(1, hour));
+        Assert.Single(Jobs.Finished(10));
+
+        // A result older than the gathering time is taken even with more out.
+        Assert.Single(Jobs.Finished(10, TimeSpan.Zero));
+
+        // Nothing waiting or claimed: nothing more will come, take what is there.
+        Assert.Equal(1, Jobs.Finish("w", [(claimed[1].Job, new byte[] { 2 })], Encoder));
+        var last = Assert.Single(Jobs.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.Equal(1, Jobs.Finish("w", [(last.Job, new byte[] { 3 })], Encoder));
+        Assert.Equal(3, Jobs.Finished(10, hour).Count);
     }
 
     [Fact]
