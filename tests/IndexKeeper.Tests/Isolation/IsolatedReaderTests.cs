@@ -11,6 +11,10 @@ public sealed class IsolatedReaderTests : IDisposable
 {
     private static readonly ReadLimits OneSecond = ReadLimits.Default with { ReadTimeout = TimeSpan.FromSeconds(1) };
 
+    // For stand-ins that end or answer by themselves: on a loaded machine a shell can take over a second to
+    // start, and a read timeout there would be reported instead of the crash under test.
+    private static readonly ReadLimits Patient = ReadLimits.Default with { ReadTimeout = TimeSpan.FromSeconds(60) };
+
     private readonly ScratchFolder scratch = new();
     private readonly string goodPdf;
 
@@ -23,7 +27,7 @@ public sealed class IsolatedReaderTests : IDisposable
     {
         using var reader = Create(StandInWorker.ThenReal(StandInWorker.KilledMidRead, scratch.File("starts"), 2));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("exit code 137: signal 9 SIGKILL", error.Message, StringComparison.Ordinal);
@@ -89,7 +93,7 @@ public sealed class IsolatedReaderTests : IDisposable
     {
         using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.WritesGarbage, scratch.File("starts")));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("invalid reply", error.Message, StringComparison.Ordinal);
@@ -116,7 +120,7 @@ public sealed class IsolatedReaderTests : IDisposable
         using var reader = Create(StandInWorker.Command(
             "echo 'Unhandled exception. System.OutOfMemoryException: Insufficient memory to continue the execution of the program.' >&2; kill -ABRT $$"));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderOutOfMemory, error.Reason);
         Assert.Contains("exit code 134: signal 6 SIGABRT", error.Message, StringComparison.Ordinal);
@@ -128,7 +132,7 @@ public sealed class IsolatedReaderTests : IDisposable
     {
         using var reader = Create(StandInWorker.Command("echo 'Stack overflow.' >&2; echo '   at Frame.Draw()' >&2; kill -ABRT $$"));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("Stack overflow. |    at Frame.Draw()", error.Message, StringComparison.Ordinal);
@@ -142,7 +146,7 @@ public sealed class IsolatedReaderTests : IDisposable
             new IsolatedReaderOptions { WorkerCommand = StandInWorker.Command("echo 'xref table damaged' >&2; kill -9 $$") },
             logger);
 
-        NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         var messages = logger.Messages;
         Assert.Contains(messages, m => m.StartsWith("Information: Reader worker ", StringComparison.Ordinal) && m.Contains(" started: /bin/sh", StringComparison.Ordinal));
@@ -157,8 +161,8 @@ public sealed class IsolatedReaderTests : IDisposable
         using var capped = Create(StandInWorker.Command("echo \"cap=${DOTNET_GCHeapHardLimit:-none}\" >&2; kill -9 $$"), 1L << 30);
         using var uncapped = Create(StandInWorker.Command("echo \"cap=${DOTNET_GCHeapHardLimit:-none}\" >&2; kill -9 $$"), null);
 
-        var cappedError = NoHang.Throws<DocumentReadException>(() => capped.Read(goodPdf, OneSecond, CancellationToken.None));
-        var uncappedError = NoHang.Throws<DocumentReadException>(() => uncapped.Read(goodPdf, OneSecond, CancellationToken.None));
+        var cappedError = NoHang.Throws<DocumentReadException>(() => capped.Read(goodPdf, Patient, CancellationToken.None));
+        var uncappedError = NoHang.Throws<DocumentReadException>(() => uncapped.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Contains("cap=0x40000000", cappedError.Message, StringComparison.Ordinal);
         Assert.Contains("cap=none", uncappedError.Message, StringComparison.Ordinal);
@@ -181,7 +185,7 @@ public sealed class IsolatedReaderTests : IDisposable
         var fault = FrameStream.Encode(MessageCodec.Fault(new InvalidDataException("broken object stream")));
         using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(fault) + "; exec sleep 600", scratch.File("starts")));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderCrashed, error.Reason);
         Assert.Contains("System.IO.InvalidDataException: broken object stream", error.Message, StringComparison.Ordinal);
@@ -195,7 +199,7 @@ public sealed class IsolatedReaderTests : IDisposable
         var refusal = FrameStream.Encode(MessageCodec.Refusal(QuarantineReason.ReaderOutOfMemory, "the reader ran out of memory"));
         using var reader = Create(StandInWorker.OnceThenReal(StandInWorker.PrintBytes(refusal) + "; exec sleep 600", scratch.File("starts")));
 
-        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, OneSecond, CancellationToken.None));
+        var error = NoHang.Throws<DocumentReadException>(() => reader.Read(goodPdf, Patient, CancellationToken.None));
 
         Assert.Equal(QuarantineReason.ReaderOutOfMemory, error.Reason);
         GoodRead.AssertWorks(reader, goodPdf);
