@@ -12,16 +12,7 @@ public sealed class VectorSet
     {
         ArgumentNullException.ThrowIfNull(vectors);
         ArgumentNullException.ThrowIfNull(regions);
-        if (dimensions <= 0 || vectors.Length % dimensions != 0)
-        {
-            throw new ArgumentException($"{vectors.Length} floats do not form rows of {dimensions}.", nameof(vectors));
-        }
-
-        if (regions.Length != vectors.Length / dimensions)
-        {
-            throw new ArgumentException($"{regions.Length} regions for {vectors.Length / dimensions} vectors.", nameof(regions));
-        }
-
+        CheckShape(dimensions, vectors.Length, regions.Length);
         Dimensions = dimensions;
         Vectors = vectors;
         Regions = regions;
@@ -36,4 +27,18 @@ public sealed class VectorSet
     public PageBox[] Regions { get; }
 
     public ReadOnlySpan<float> Row(int index) => Vectors.AsSpan(index * Dimensions, Dimensions);
+
+    /// <summary>Throws unless <paramref name="values"/> form whole rows of <paramref name="dimensions"/>, one per region (any element type).</summary>
+    internal static void CheckShape(int dimensions, int values, int regions)
+    {
+        if (dimensions <= 0 || values % dimensions != 0)
+        {
+            throw new ArgumentException($"{values} values do not form rows of {dimensions}.", "vectors");
+        }
+
+        if (regions != values / dimensions)
+        {
+            throw new ArgumentException($"{regions} regions for {values / dimensions} vectors.", "regions");
+        }
+    }
 }

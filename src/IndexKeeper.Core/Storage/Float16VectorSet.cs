@@ -1,4 +1,5 @@
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Encoding;
 
 namespace IndexKeeper.Core.Storage;
 
@@ -14,16 +15,7 @@ public sealed class Float16VectorSet
     {
         ArgumentNullException.ThrowIfNull(vectors);
         ArgumentNullException.ThrowIfNull(regions);
-        if (dimensions <= 0 || vectors.Length % dimensions != 0)
-        {
-            throw new ArgumentException($"{vectors.Length} values do not form rows of {dimensions}.", nameof(vectors));
-        }
-
-        if (regions.Length != vectors.Length / dimensions)
-        {
-            throw new ArgumentException($"{regions.Length} regions for {vectors.Length / dimensions} vectors.", nameof(regions));
-        }
-
+        VectorSet.CheckShape(dimensions, vectors.Length, regions.Length);
         Dimensions = dimensions;
         Vectors = vectors;
         Regions = regions;

@@ -147,7 +147,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
             FreshFinish = InZone(forecast?.FreshDone, zone),
             EstimatedFinish = InZone(forecast?.AllDone, zone),
             Breakdown = Breakdown(catalog, preview, queuedKeys.Select(q => q.PageKey).Concat(driftedNotQueued), secondsPerPage, notes),
-            Retraining = Retraining(decision.ServingEncoderId, now, request.RetrainingTriedAt, calendar, zone, notes),
+            Retraining = Retraining(decision.ServingEncoderId, now, request.RetrainingTriedAt, zone, notes),
             Notes = notes,
             ElapsedSeconds = stopwatch.Elapsed.TotalSeconds,
         };
@@ -157,7 +157,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
     /// The retraining decision on the serving view (docs/search.md, "Retraining") and its slot in the windows. The daemon
     /// answers from the view it holds; a command from the recall figure in the view file (the share added is not in it).
     /// </summary>
-    private PlanRetraining? Retraining(string encoderId, DateTimeOffset now, DateTimeOffset? triedAt, WindowCalendar calendar, TimeZoneInfo zone, List<string> notes)
+    private PlanRetraining? Retraining(string encoderId, DateTimeOffset now, DateTimeOffset? triedAt, TimeZoneInfo zone, List<string> notes)
     {
         if (settings.Candidates != CandidateSource.Centroids)
         {
@@ -166,9 +166,7 @@ public sealed class PlanOperation(OpenIndex index, IndexSettings settings, ScanO
 
         var facts = index.Serving.Retraining(encoderId, triedAt)
             ?? new RetrainingFacts(CandidateSource.Centroids, (int)index.Catalog.VectorSets.VectorCounts(encoderId).VectorSets, index.Serving.LastRecall(encoderId), null, null, triedAt);
-        var decision = RetrainingDecision.Of(facts, settings.Retraining, now);
-        var estimate = index.Serving.EstimatedBuildSeconds(facts.Pages);
-        var starts = decision.Due ? RetrainingSlot.Next(calendar, now, estimate) : null;
+        var (_, decision, estimate, starts) = RetrainingOutlook.Of(facts, settings, index.Serving, now);
         if (decision.Due && starts is null)
         {
             notes.Add(string.Create(CultureInfo.InvariantCulture, $"The serving view's retraining ({estimate:0} CPU s) fits in no window within {RetrainingSlot.Horizon.TotalDays:0} days; it waits for a longer window."));

@@ -4,6 +4,7 @@ using IndexKeeper.Core.Drift;
 using IndexKeeper.Core.Health;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Search;
+using IndexKeeper.Service.Application;
 using IndexKeeper.Service.WorkQueue;
 
 namespace IndexKeeper.Service.Daemon;
@@ -26,7 +27,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     private volatile EmbedAllowance allowance = EmbedAllowance.Initial;
     private volatile CanaryFigures? canaries;
     private volatile CandidateRecall? candidateRecall;
-    private volatile RetrainingStatus? retraining;
+    private volatile RetrainingOutlook? retraining;
     private volatile string? workLoopFault;
     private volatile WorkQueueFigures? workQueue;
     private long pagesEmbeddedRemotely;
@@ -62,7 +63,7 @@ internal sealed class DaemonState(TimeProvider clock, int ringCapacity)
     }
 
     /// <summary>The retraining decision the idle work loop last took (null before one, or without centroid lists).</summary>
-    public RetrainingStatus? Retraining
+    public RetrainingOutlook? Retraining
     {
         get => retraining;
         set => retraining = value;

@@ -4,7 +4,6 @@ using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Pipeline;
-using IndexKeeper.Core.Planning;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Core.Search;
 using IndexKeeper.Core.Storage;
@@ -406,16 +405,15 @@ internal sealed class IndexWorker(
             return false;
         }
 
-        var decision = RetrainingDecision.Of(facts, settings.Retraining, now);
-        var estimate = index.Serving.EstimatedBuildSeconds(facts.Pages);
-        state.Retraining = new RetrainingStatus(facts, decision, decision.Due ? RetrainingSlot.Next(settings.Calendar, now, estimate) : null, estimate);
-        if (!decision.Due || state.Retraining.RunsAt != now)
+        var outlook = RetrainingOutlook.Of(facts, settings, index.Serving, now);
+        state.Retraining = outlook;
+        if (!outlook.Decision.Due || outlook.StartsAt != now)
         {
             return false;
         }
 
         retrainTriedAt = now;
-        log.LogInformation("Retraining the serving view's centroids: {Reason}; about {Seconds:0} CPU s.", decision.Reason, estimate);
+        log.LogInformation("Retraining the serving view's centroids: {Reason}; about {Seconds:0} CPU s.", outlook.Decision.Reason, outlook.EstimatedSeconds);
         ViewRetraining outcome;
         try
         {
@@ -433,7 +431,7 @@ internal sealed class IndexWorker(
             outcome.BuildWallSeconds, outcome.Centroids, outcome.Pages, outcome.Before.Recall, outcome.After.Recall, outcome.Swapped ? "the new view serves" : "the old view is kept (the new one was worse)");
         index.Serving.Persist(CancellationToken.None);
         state.CandidateRecall = index.Serving.LastRecall(encoderId, readFile: false);
-        state.Retraining = state.Retraining with { Facts = index.Serving.Retraining(encoderId, retrainTriedAt) ?? facts, RunsAt = null };
+        state.Retraining = outlook with { Facts = index.Serving.Retraining(encoderId, retrainTriedAt) ?? facts, StartsAt = null };
         return true;
     }
 
