@@ -236,8 +236,8 @@ internal sealed class IndexWorker(
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
                     if (remote is { Outstanding: true })
                     {
-                        // Workers hand results back without waking the loop: look again soon.
-                        wait = TimeSpan.FromSeconds(Math.Min(1, wait.TotalSeconds));
+                        // Workers' hand-backs wake the loop (remote.Wake); it also looks by itself, in case one was not heard.
+                        wait = TimeSpan.FromTicks(Math.Min(remote.LookAgain.Ticks, wait.Ticks));
                     }
 
                     if (nextSettle is { } settle)
@@ -245,7 +245,7 @@ internal sealed class IndexWorker(
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
                     }
 
-                    WaitHandle.WaitAny([watchers.Wake, state.RequestArrived, stopping.WaitHandle], wait);
+                    WaitHandle.WaitAny(remote is null ? [watchers.Wake, state.RequestArrived, stopping.WaitHandle] : [watchers.Wake, state.RequestArrived, stopping.WaitHandle, remote.Wake], wait);
                 }
             }
         }

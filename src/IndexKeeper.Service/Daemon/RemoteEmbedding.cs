@@ -12,7 +12,8 @@ namespace IndexKeeper.Service.Daemon;
 /// back (<see cref="CommitResultsOperation"/>), take back unclaimed jobs the gate no longer allows, and publish
 /// what the gate allows now (<see cref="PublishJobsOperation"/>). PostgreSQL out of reach: the turn embeds
 /// locally (Queue:WhenUnreachable = local) or does nothing (wait), health says why, and the next attempt
-/// comes after a doubling backoff. Only the work loop's thread calls <see cref="Turn"/>.
+/// comes after a doubling backoff. Only the work loop's thread calls <see cref="Turn"/>. Workers' hand-backs
+/// wake the loop through <see cref="Wake"/> (LISTEN/NOTIFY); it looks by itself every <see cref="LookAgain"/> as well.
 /// </summary>
 /// <remarks>REQUIRES: called on the one writer's thread.</remarks>
 internal sealed class RemoteEmbedding(
@@ -23,7 +24,7 @@ internal sealed class RemoteEmbedding(
     OpenIndex index,
     IEmbedGate gate,
     DaemonState state,
-    ILogger log)
+    ILogger log) : IDisposable
 {
     private readonly JobTable jobs = new(database);
     private readonly WorkerTable workers = new(database);
@@ -33,6 +34,7 @@ internal sealed class RemoteEmbedding(
 
     private readonly TimeSpan figuresInterval = TimeSpan.FromSeconds(Math.Min(5, options.HeartbeatSeconds));
     private HashSet<string>? published;
+    private QueueListener? results;
     private string? fault;
     private DateTime? faultSince;
     private TimeSpan backoff;
@@ -49,6 +51,17 @@ internal sealed class RemoteEmbedding(
 
     /// <summary>True while jobs this coordinator published are not yet committed (and PostgreSQL answers).</summary>
     public bool Outstanding => fault is null && published is { Count: > 0 };
+
+    /// <summary>Set when workers hand jobs back (a notification), for the loop to wait on; never set before the first turn.</summary>
+    public WaitHandle Wake => (results ??= new QueueListener(database, QueueNotifications.ResultsChannel, _ => true)).Wake;
+
+    /// <summary>
+    /// While jobs are out, how long the loop may wait without a notification before it looks by itself: slowly while
+    /// hand-backs are heard, every second while the listening connection is down (a lost notification delays, never stalls).
+    /// </summary>
+    public TimeSpan LookAgain => results is { Listening: true } ? QueueNotifications.SlowPoll : TimeSpan.FromSeconds(1);
+
+    public void Dispose() => results?.Dispose();
 
     /// <summary>One turn; <paramref name="embedLocally"/> runs while PostgreSQL is out of reach and the setting says local. True when work was done.</summary>
     public bool Turn(Func<bool> embedLocally)

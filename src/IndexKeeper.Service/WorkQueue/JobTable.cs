@@ -22,11 +22,12 @@ internal sealed class JobTable(NpgsqlDataSource database)
             return 0;
         }
 
-        using var command = database.CreateCommand($"""
+        using var command = database.CreateCommand(Notifying($"""
             INSERT INTO {Jobs} (page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority)
             SELECT * FROM unnest(@keys, @encoders, @roots, @paths, @pages, @hashes, @priorities)
             ON CONFLICT (page_key, encoder_id) DO NOTHING
-            """);
+            RETURNING encoder_id
+            """, QueueNotifications.JobsChannel));
         command.Parameters.AddWithValue("keys", jobs.Select(j => j.PageKey).ToArray());
         command.Parameters.AddWithValue("encoders", jobs.Select(j => j.EncoderId).ToArray());
         command.Parameters.AddWithValue("roots", jobs.Select(j => j.RootName).ToArray());
@@ -34,7 +35,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
         command.Parameters.AddWithValue("pages", jobs.Select(j => j.PageNumber).ToArray());
         command.Parameters.AddWithValue("hashes", jobs.Select(j => j.FileHash).ToArray());
         command.Parameters.AddWithValue("priorities", NpgsqlDbType.Array | NpgsqlDbType.Smallint, jobs.Select(j => (short)j.Priority).ToArray());
-        return command.ExecuteNonQuery();
+        return Changed(command);
     }
 
     /// <summary>Page keys with a job under <paramref name="encoderId"/>, whatever its state (what the coordinator need not publish again).</summary>
@@ -188,9 +189,11 @@ internal sealed class JobTable(NpgsqlDataSource database)
     /// <summary>Makes the claims <paramref name="worker"/> still holds claimable at once (a worker that stops); returns how many.</summary>
     public int Release(string worker)
     {
-        using var command = database.CreateCommand($"UPDATE {Jobs} SET state = {(int)JobState.Waiting}, worker = NULL, lease_until = NULL WHERE worker = @worker AND state = {(int)JobState.Claimed}");
+        using var command = database.CreateCommand(Notifying(
+            $"UPDATE {Jobs} SET state = {(int)JobState.Waiting}, worker = NULL, lease_until = NULL WHERE worker = @worker AND state = {(int)JobState.Claimed} RETURNING encoder_id",
+            QueueNotifications.JobsChannel));
         command.Parameters.AddWithValue("worker", worker);
-        return command.ExecuteNonQuery();
+        return Changed(command);
     }
 
     /// <summary>
@@ -205,27 +208,29 @@ internal sealed class JobTable(NpgsqlDataSource database)
             return 0;
         }
 
-        using var command = database.CreateCommand($"""
+        using var command = database.CreateCommand(Notifying($"""
             UPDATE {Jobs} j SET state = {(int)JobState.Done}, result_encoder_id = @result_encoder, result_float16 = r.result, finished_at = now(), lease_until = NULL
             FROM unnest(@keys, @encoders, @results) AS r(page_key, encoder_id, result)
             WHERE j.page_key = r.page_key AND j.encoder_id = r.encoder_id AND j.worker = @worker AND j.state = {(int)JobState.Claimed}
-            """);
+            RETURNING j.encoder_id
+            """, QueueNotifications.ResultsChannel));
         command.Parameters.AddWithValue("result_encoder", resultEncoderId);
         command.Parameters.AddWithValue("keys", results.Select(r => r.Job.PageKey).ToArray());
         command.Parameters.AddWithValue("encoders", results.Select(r => r.Job.EncoderId).ToArray());
         command.Parameters.AddWithValue("results", NpgsqlDbType.Array | NpgsqlDbType.Bytea, results.Select(r => r.Result).ToArray());
         command.Parameters.AddWithValue("worker", worker);
-        return command.ExecuteNonQuery();
+        return Changed(command);
     }
 
     /// <summary>Gives a job back without vectors; false when it is no longer this worker's.</summary>
     public bool Fail(string worker, PageJob job, JobFailure failure, string reason)
     {
         ArgumentNullException.ThrowIfNull(job);
-        using var command = database.CreateCommand($"""
+        using var command = database.CreateCommand(Notifying($"""
             UPDATE {Jobs} SET state = {(int)JobState.Failed}, failure_kind = @kind, failure = @reason, finished_at = now(), lease_until = NULL
             WHERE page_key = @key AND encoder_id = @encoder AND worker = @worker AND state = {(int)JobState.Claimed}
-            """);
+            RETURNING encoder_id
+            """, QueueNotifications.ResultsChannel));
         command.Parameters.AddWithValue("kind", (short)failure);
         command.Parameters.AddWithValue("reason", reason);
         return Mine(command, worker, job);
@@ -236,7 +241,30 @@ internal sealed class JobTable(NpgsqlDataSource database)
         command.Parameters.AddWithValue("key", job.PageKey);
         command.Parameters.AddWithValue("encoder", job.EncoderId);
         command.Parameters.AddWithValue("worker", worker);
-        return command.ExecuteNonQuery() == 1;
+        return Changed(command) == 1;
+    }
+
+    /// <summary>
+    /// <paramref name="statement"/> (ending in <c>RETURNING encoder_id</c>) with one notification on <paramref name="channel"/> for each
+    /// encoder id among the rows it changed, none when it changed none. NOTIFY is delivered at commit: a listener
+    /// woken by it sees the rows.
+    /// </summary>
+    private static string Notifying(string statement, string channel) => $"""
+        WITH changed AS ({statement})
+        SELECT count(*), pg_notify('{channel}', encoder_id) FROM changed GROUP BY encoder_id
+        """;
+
+    /// <summary>The rows a <see cref="Notifying"/> statement changed.</summary>
+    private static int Changed(NpgsqlCommand command)
+    {
+        var rows = 0L;
+        using var reader = command.ExecuteReader();
+        while (reader.Read())
+        {
+            rows += reader.GetInt64(0);
+        }
+
+        return (int)rows;
     }
 
     private static PageJob ReadJob(NpgsqlDataReader reader) => new(

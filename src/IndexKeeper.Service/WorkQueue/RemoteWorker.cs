@@ -30,6 +30,7 @@ public sealed class RemoteWorker : IDisposable
     private readonly ILogger log;
     private readonly TimeSpan lease;
     private readonly Lock figuresGate = new();
+    private readonly WorkerStages stages = new();
     private WorkerFigures figures;
 
     public RemoteWorker(IndexKeeperOptions options, ILogger log)
@@ -63,8 +64,11 @@ public sealed class RemoteWorker : IDisposable
         QueueDatabase.Check(database, migrate: false);
         log.LogInformation("Worker {Worker} takes jobs of encoder {Encoder} ({Name}).", figures.Worker, encoder.Identity.Id[..12], encoder.Identity.Name);
         using var heartbeat = new Timer(_ => Beat(), null, TimeSpan.Zero, TimeSpan.FromSeconds(queue.HeartbeatSeconds));
+
+        // Woken when jobs of its encoder are published or given back; it still looks by itself, slowly while it listens.
+        using var published = new QueueListener(database, QueueNotifications.JobsChannel, payload => payload == encoder.Identity.Id);
         var backoff = TimeSpan.Zero;
-        var idle = TimeSpan.FromSeconds(Math.Min(1, queue.HeartbeatSeconds));
+        var quickPoll = TimeSpan.FromSeconds(Math.Min(1, queue.HeartbeatSeconds));
         var interrupted = false;
         while (!stopping.IsCancellationRequested)
         {
@@ -88,7 +92,7 @@ public sealed class RemoteWorker : IDisposable
                         break;
                     }
 
-                    stopping.WaitHandle.WaitOne(idle);
+                    WorkerStages.Time(stages.Waiting, () => WaitHandle.WaitAny([stopping.WaitHandle, published.Wake], published.Listening ? QueueNotifications.SlowPoll : quickPoll));
                 }
             }
             catch (Exception ex) when (QueueDatabase.IsUnreachable(ex) && !stopping.IsCancellationRequested)
@@ -109,7 +113,7 @@ public sealed class RemoteWorker : IDisposable
     /// <summary>One claim of up to Queue:ClaimBatch jobs, read, encoded and handed back; false when there was none.</summary>
     private bool Turn(CancellationToken stopping)
     {
-        var claimed = jobs.Claim(figures.Worker, encoder.Identity.Id, queue.ClaimBatch, lease);
+        var claimed = WorkerStages.Time(stages.Claiming, () => jobs.Claim(figures.Worker, encoder.Identity.Id, queue.ClaimBatch, lease));
         if (claimed.Count == 0)
         {
             return false;
@@ -124,13 +128,14 @@ public sealed class RemoteWorker : IDisposable
 
         var batch = new List<(PageJob Job, PageToEncode Page)>();
         var failed = 0;
-        foreach (var (job, _) in claimed)
+        var read = pages.Read(claimed.Select(c => c.Job).ToList(), stopping);
+        for (var i = 0; i < claimed.Count; i++)
         {
-            var (page, failure, reason) = pages.Read(job, stopping);
+            var (job, (page, failure, reason)) = (claimed[i].Job, read[i]);
             if (page is null)
             {
                 log.LogWarning("Job {Key} goes back: {Reason}", job.PageKey[..12], reason);
-                jobs.Fail(figures.Worker, job, failure, reason);
+                WorkerStages.Time(stages.HandingBack, () => jobs.Fail(figures.Worker, job, failure, reason));
                 failed++;
                 continue;
             }
@@ -156,7 +161,8 @@ public sealed class RemoteWorker : IDisposable
         {
             var vectors = encoder.EncodePages(batch.Select(b => b.Page).ToList(), stopping);
             var seconds = clock.Elapsed.TotalSeconds;
-            var done = jobs.Finish(figures.Worker, batch.Select((b, i) => (b.Job, VectorSetWire.Write(vectors[i]))).ToList(), encoder.Identity.Id);
+            var results = WorkerStages.Time(stages.Writing, () => batch.Select((b, i) => (b.Job, VectorSetWire.Write(vectors[i]))).ToList());
+            var done = WorkerStages.Time(stages.HandingBack, () => jobs.Finish(figures.Worker, results, encoder.Identity.Id));
             return (done, seconds, 0);
         }
         catch (Exception ex) when (ex is InvalidOperationException or ArgumentException or FormatException && batch.Count > 1)
@@ -221,6 +227,7 @@ public sealed class RemoteWorker : IDisposable
             var released = jobs.Release(figures.Worker);
             Beat();
             log.LogInformation("Worker {Worker} stopped: {Done} page(s) encoded, {Released} claim(s) given back.", figures.Worker, figures.PagesDone, released);
+            log.LogInformation("Worker {Worker} time by stage: {Stages}", figures.Worker, stages.Describe(figures.EncoderSeconds, pages.Spent));
         }
         catch (Exception ex) when (QueueDatabase.IsUnreachable(ex))
         {
