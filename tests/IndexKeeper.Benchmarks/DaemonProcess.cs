@@ -19,13 +19,14 @@ internal sealed class DaemonProcess : IDisposable
     /// <summary>Wall seconds, CPU share of one core, and peak resident memory over a sampled period.</summary>
     public sealed record Usage(double Seconds, double CpuShare, double PeakRssMegabytes);
 
-    public static DaemonProcess Start(string workingDirectory, IReadOnlyList<string> args)
+    /// <param name="program">Another build's indexkeeper.dll (a baseline measured beside this one); this build's by default.</param>
+    public static DaemonProcess Start(string workingDirectory, IReadOnlyList<string> args, string? program = null)
     {
         var endpointFile = Path.Combine(workingDirectory, "index", "daemon.json");
         Directory.CreateDirectory(Path.GetDirectoryName(endpointFile)!);
         File.Delete(endpointFile);
         var start = new ProcessStartInfo("dotnet") { WorkingDirectory = workingDirectory, RedirectStandardError = true, RedirectStandardOutput = true };
-        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"), "run", "--index", "index", "--listen", "127.0.0.1:0" }.Concat(args))
+        foreach (var arg in new[] { program ?? Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"), "run", "--index", "index", "--listen", "127.0.0.1:0" }.Concat(args))
         {
             start.ArgumentList.Add(arg);
         }

@@ -10,7 +10,10 @@ namespace IndexKeeper.Benchmarks;
 /// one local <c>sync</c>, then by a coordinator (<c>run</c>) with 1 and with 2 <c>worker</c> processes
 /// (intra-op threads 1 each) over a throwaway PostgreSQL; pages per second, the coordinator's CPU per page,
 /// PostgreSQL transactions per page, and a projection for N machines. Every run starts from the same
-/// scanned index (pages queued, reading done), so the figures are the embedding alone.
+/// scanned index (pages queued, reading done), so the figures are the embedding alone. Each worker is stopped
+/// (SIGTERM) as soon as the run is done and logs its time by stage; the figures per worker (pages per
+/// encoder-second, share of its time outside the encoder, and each stage per page) transfer to a loaded machine
+/// better than the rates do.
 /// </summary>
 public sealed class WorkQueueBenchmark : IBenchmark
 {
@@ -71,7 +74,7 @@ public sealed class WorkQueueBenchmark : IBenchmark
         using var daemon = DaemonProcess.Start(folder, [.. rootArgs, .. encoder, .. queue, "--Daemon:SampleSeconds=10"]);
 
         var transactionsBefore = server.Scalar(database, "SELECT xact_commit FROM pg_stat_database WHERE datname = current_database()");
-        var processes = Enumerable.Range(0, workers).Select(i => StartWorker(folder, [.. rootArgs, .. encoder, .. queue, $"--Queue:WorkerName=w{i}"])).ToList();
+        var processes = Enumerable.Range(0, workers).Select(i => new WorkerProcess(folder, [.. rootArgs, .. encoder, .. queue, $"--Queue:WorkerName=w{i}"])).ToList();
         try
         {
             // Done when the workers' heartbeats count every page and no job is left: committed and deleted. Looked
@@ -103,8 +106,11 @@ public sealed class WorkQueueBenchmark : IBenchmark
                 throw new InvalidOperationException($"{live} live vector sets for {pages} pages");
             }
 
+            // Stopped at once, so their time by stage is the run's (its waits included: for a publication, for the next job).
+            var stages = processes.Select(p => p.Stop()).ToList();
+            ReportStages(context, workers, stages, pages);
+
             // The coordinator's own idle cost afterwards (loop tick, samples, a look at the queue), the workers stopped, to subtract.
-            StopAll(processes);
             var idle = daemon.Sample(() => false, TimeSpan.FromSeconds(context.Quick ? 5 : 20));
             context.Note(FormattableString.Invariant($"{workers} worker(s): {usage.Seconds:0.0} s, coordinator {usage.CpuShare:P1} of a core (idle after: {idle.CpuShare:P1}), peak {usage.PeakRssMegabytes:0} MB"));
             context.Report($"{workers} worker(s): coordinator CPU per page, idle cost included", usage.CpuShare * usage.Seconds / pages * 1000, "ms");
@@ -113,43 +119,29 @@ public sealed class WorkQueueBenchmark : IBenchmark
         }
         finally
         {
-            StopAll(processes);
             processes.ForEach(p => p.Dispose());
             daemon.Stop();
         }
     }
 
-    private static void StopAll(List<Process> processes)
+    /// <summary>
+    /// The workers' time by stage (their stop line, <c>WorkerStages</c>), summed over the workers: the share of their
+    /// time outside the encoder, and each stage in ms per page embedded.
+    /// </summary>
+    private static void ReportStages(BenchmarkContext context, int workers, List<Dictionary<string, double>> stages, long pages)
     {
-        foreach (var process in processes)
+        var sums = stages.SelectMany(s => s).GroupBy(p => p.Key).ToDictionary(g => g.Key, g => g.Sum(p => p.Value));
+        context.Note($"{workers} worker(s), seconds by stage summed over the workers: " + string.Join(", ", sums.Select(p => FormattableString.Invariant($"{p.Key} {p.Value:0.00}"))));
+        context.Report($"{workers} worker(s): share of the workers' time outside the encoder", 1 - (sums["encode"] / sums["total"]), "share");
+        context.Report($"{workers} worker(s): share of the workers' time outside the encoder, waits for jobs left out", 1 - (sums["encode"] / (sums["total"] - sums["wait"])), "share");
+        foreach (var stage in new[] { "hash", "read", "claim", "write", "handback", "wait", "other" })
         {
-            if (!process.HasExited)
-            {
-                process.Kill(entireProcessTree: true);
-            }
-
-            process.WaitForExit();
+            context.Report($"{workers} worker(s): worker {stage} per page", sums[stage] / pages * 1000, "ms");
         }
-    }
-
-    private static Process StartWorker(string folder, string[] args)
-    {
-        var start = new ProcessStartInfo("dotnet") { WorkingDirectory = folder, RedirectStandardError = true, RedirectStandardOutput = true };
-        foreach (var arg in new[] { Path.Combine(AppContext.BaseDirectory, "indexkeeper.dll"), "worker" }.Concat(args))
-        {
-            start.ArgumentList.Add(arg);
-        }
-
-        var process = Process.Start(start)!;
-        process.ErrorDataReceived += (_, _) => { };
-        process.OutputDataReceived += (_, _) => { };
-        process.BeginErrorReadLine();
-        process.BeginOutputReadLine();
-        return process;
     }
 
     /// <summary>A copy of an index folder (closed): every run starts from the same queue.</summary>
-    private static string Copy(string from, string to)
+    internal static string Copy(string from, string to)
     {
         foreach (var file in Directory.EnumerateFiles(from, "*", SearchOption.AllDirectories))
         {

@@ -30,7 +30,7 @@ public sealed class RemoteWorker : IDisposable
     private readonly ILogger log;
     private readonly TimeSpan lease;
     private readonly Lock figuresGate = new();
-    private readonly WorkerStages stages = new();
+    private WorkerStages stages = new();
     private WorkerFigures figures;
 
     public RemoteWorker(IndexKeeperOptions options, ILogger log)
@@ -62,6 +62,7 @@ public sealed class RemoteWorker : IDisposable
     public void Run(bool untilIdle, CancellationToken stopping)
     {
         QueueDatabase.Check(database, migrate: false);
+        stages = new WorkerStages();
         log.LogInformation("Worker {Worker} takes jobs of encoder {Encoder} ({Name}).", figures.Worker, encoder.Identity.Id[..12], encoder.Identity.Name);
         using var heartbeat = new Timer(_ => Beat(), null, TimeSpan.Zero, TimeSpan.FromSeconds(queue.HeartbeatSeconds));
 
