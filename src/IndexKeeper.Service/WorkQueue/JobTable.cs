@@ -147,18 +147,24 @@ internal sealed class JobTable(NpgsqlDataSource database)
     /// Claims up to <paramref name="count"/> jobs of <paramref name="encoderId"/> for <paramref name="worker"/>:
     /// waiting ones, or claimed ones whose lease has expired, highest priority first. Rows another claim holds
     /// are skipped, not waited for. Within one publication, pages of one document come together, so a worker
-    /// reads the document once for them (<see cref="JobPageReader"/>).
+    /// reads the document once for them (<see cref="JobPageReader"/>); and documents in which another worker
+    /// holds live claims come last, so two workers do not split a document and both read it.
     /// </summary>
     public IReadOnlyList<ClaimedJob> Claim(string worker, string encoderId, int count, TimeSpan lease)
     {
         using var command = database.CreateCommand($"""
-            WITH picked AS (
-                SELECT page_key, encoder_id, state AS old_state FROM {Jobs}
-                WHERE encoder_id = @encoder
-                  AND (state = {(int)JobState.Waiting} OR (state = {(int)JobState.Claimed} AND lease_until < now()))
-                ORDER BY priority, published_at, root_name, relative_path, page_number
+            WITH others AS (
+                SELECT DISTINCT root_name, relative_path FROM {Jobs}
+                WHERE encoder_id = @encoder AND state = {(int)JobState.Claimed} AND worker <> @worker AND lease_until >= now()),
+            picked AS (
+                SELECT c.page_key, c.encoder_id, c.state AS old_state FROM {Jobs} c
+                WHERE c.encoder_id = @encoder
+                  AND (c.state = {(int)JobState.Waiting} OR (c.state = {(int)JobState.Claimed} AND c.lease_until < now()))
+                ORDER BY c.priority, c.published_at,
+                         EXISTS (SELECT 1 FROM others o WHERE o.root_name = c.root_name AND o.relative_path = c.relative_path),
+                         c.root_name, c.relative_path, c.page_number
                 LIMIT @count
-                FOR UPDATE SKIP LOCKED)
+                FOR UPDATE OF c SKIP LOCKED)
             UPDATE {Jobs} j SET state = {(int)JobState.Claimed}, worker = @worker, lease_until = now() + @lease, claims = j.claims + 1
             FROM picked p WHERE j.page_key = p.page_key AND j.encoder_id = p.encoder_id
             RETURNING j.page_key, j.encoder_id, j.root_name, j.relative_path, j.page_number, j.file_hash, j.priority, p.old_state

@@ -38,6 +38,21 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
     }
 
     [Fact]
+    public void A_second_worker_takes_another_document_rather_than_the_rest_of_one_being_worked_on()
+    {
+        PageJob Page(string file, int number) => new(
+            $"{file}-{number}".PadLeft(64, '0'), Encoder, "docs", file, number, new string('e', 64), 0);
+        Jobs.Publish([.. Enumerable.Range(1, 5).Select(n => Page("a.pdf", n)), .. Enumerable.Range(1, 5).Select(n => Page("b.pdf", n))]);
+
+        Assert.Equal([1, 2, 3], Jobs.Claim("w1", Encoder, 3, TimeSpan.FromMinutes(5)).Select(c => c.Job.PageNumber));
+        var second = Jobs.Claim("w2", Encoder, 3, TimeSpan.FromMinutes(5));
+        Assert.All(second, c => Assert.Equal("b.pdf", c.Job.RelativePath));
+
+        // The first worker goes on with its own document (then, nothing else being left, the other's).
+        Assert.Equal(["a.pdf", "a.pdf", "b.pdf"], Jobs.Claim("w1", Encoder, 3, TimeSpan.FromMinutes(5)).Select(c => c.Job.RelativePath));
+    }
+
+    [Fact]
     public void Concurrent_claims_never_share_a_job()
     {
         Jobs.Publish(Enumerable.Range(1, 200).Select(i => Job(i)).ToList());

@@ -1,5 +1,6 @@
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.WorkQueue;
+using IndexKeeper.Tests.Support;
 using Npgsql;
 
 namespace IndexKeeper.Tests.WorkQueue;
@@ -86,6 +87,18 @@ public sealed class QueueNotificationTests(PostgresServer server) : IDisposable
         using var jobs = Listening(QueueNotifications.JobsChannel, p => p == Encoder);
         Assert.Equal(1, Jobs.Release("w"));
         Assert.True(jobs.Wake.WaitOne(Patience));
+    }
+
+    [Fact]
+    public void The_channels_and_their_version_are_the_documented_ones()
+    {
+        var document = File.ReadAllText(Path.Combine(RepositoryRoot.Path, "docs", "work-queue.md"));
+        Assert.Contains($"## Notifications (version {QueueNotifications.Version})", document, StringComparison.Ordinal);
+        foreach (var channel in new[] { QueueNotifications.JobsChannel, QueueNotifications.ResultsChannel })
+        {
+            Assert.EndsWith($"_v{QueueNotifications.Version}", channel, StringComparison.Ordinal);
+            Assert.Contains($"| `{channel}` |", document, StringComparison.Ordinal);
+        }
     }
 
     public void Dispose() => database.Dispose();
