@@ -15,16 +15,9 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
     private const string Encoder = "1111111111111111111111111111111111111111111111111111111111111111";
     private const string OtherEncoder = "2222222222222222222222222222222222222222222222222222222222222222";
 
-    private readonly NpgsqlDataSource database = Open(server);
+    private readonly NpgsqlDataSource database = server.CreateQueue();
 
     private JobTable Jobs => new(database);
-
-    private static NpgsqlDataSource Open(PostgresServer server)
-    {
-        var source = QueueDatabase.Create(new QueueOptions { Connection = server.Connection(server.CreateDatabase()), PasswordFile = server.PasswordFile }, "indexkeeper-test");
-        QueueSchema.Ensure(source, migrate: true);
-        return source;
-    }
 
     private static PageJob Job(int i, string encoder = Encoder, int priority = 0) =>
         new(i.ToString("x64", System.Globalization.CultureInfo.InvariantCulture), encoder, "docs", $"f{i}.pdf", 1, new string('e', 64), priority);

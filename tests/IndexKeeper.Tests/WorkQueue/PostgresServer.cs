@@ -2,6 +2,8 @@ using System.Diagnostics;
 using System.Globalization;
 using System.Net;
 using System.Net.Sockets;
+using IndexKeeper.Service.Configuration;
+using IndexKeeper.Service.WorkQueue;
 using Npgsql;
 
 namespace IndexKeeper.Tests.WorkQueue;
@@ -58,6 +60,14 @@ public sealed class PostgresServer : IDisposable
         using var command = new NpgsqlCommand($"CREATE DATABASE {name}", connection);
         command.ExecuteNonQuery();
         return name;
+    }
+
+    /// <summary>A new database with the queue's tables, opened as the tool opens it (<see cref="QueueDatabase"/>).</summary>
+    internal NpgsqlDataSource CreateQueue()
+    {
+        var source = QueueDatabase.Create(new QueueOptions { Connection = Connection(CreateDatabase()), PasswordFile = PasswordFile }, "indexkeeper-test");
+        QueueSchema.Ensure(source, migrate: true);
+        return source;
     }
 
     /// <summary>

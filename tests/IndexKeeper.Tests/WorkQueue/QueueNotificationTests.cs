@@ -17,16 +17,9 @@ public sealed class QueueNotificationTests(PostgresServer server) : IDisposable
     private const string OtherEncoder = "4444444444444444444444444444444444444444444444444444444444444444";
     private static readonly TimeSpan Patience = TimeSpan.FromMinutes(1);
 
-    private readonly NpgsqlDataSource database = Open(server);
+    private readonly NpgsqlDataSource database = server.CreateQueue();
 
     private JobTable Jobs => new(database);
-
-    private static NpgsqlDataSource Open(PostgresServer server)
-    {
-        var source = QueueDatabase.Create(new QueueOptions { Connection = server.Connection(server.CreateDatabase()), PasswordFile = server.PasswordFile }, "indexkeeper-test");
-        QueueSchema.Ensure(source, migrate: true);
-        return source;
-    }
 
     private static PageJob Job(int i, string encoder = Encoder) =>
         new(i.ToString("x64", System.Globalization.CultureInfo.InvariantCulture), encoder, "docs", $"f{i}.pdf", 1, new string('e', 64), 0);
