@@ -158,7 +158,7 @@ public sealed class IdleBenchmark : IBenchmark
     }
 
     /// <summary>Writes the index once (the serving benchmark's way) and keeps it; a complete one is reused.</summary>
-    private static void Generate(BenchmarkContext context, string cache, int pages, string name)
+    internal static void Generate(BenchmarkContext context, string cache, int pages, string name)
     {
         var complete = Path.Combine(cache, "complete");
         if (File.Exists(complete))
