@@ -34,6 +34,7 @@ internal sealed class IndexWorker(
     DriftOperation drift,
     CanaryOperation canaries,
     CompactOperation compaction,
+    SearchOperation search,
     DaemonState state,
     RootWatchers watchers,
     IEmbedGate gate,
@@ -605,19 +606,23 @@ internal sealed class IndexWorker(
     }
 
     /// <summary>
-    /// Beside the loop, once at start: one search over every page of the serving view loads the view and checks
-    /// each record it names once (as a search does the first time in a process), so the first real search after a
-    /// start costs what a warm one does. Only reads; a failure is logged and left to the searches.
+    /// Beside the loop, once at start: one search as the API makes it loads the serving view and checks each record
+    /// it names once (as a search does the first time in a process), and, with words of an indexed page as the
+    /// query so it has hits, also reads their documents and words and shapes the answer as JSON (the code a first
+    /// search would otherwise compile and the catalog pages it would otherwise load), so the first real search
+    /// after a start costs what a warm one does. Only reads; a failure is logged and left to the searches.
     /// </summary>
     private void WarmServingView(CancellationToken stopping)
     {
         try
         {
-            var encoder = index.Encoder;
-            if ((index.Catalog.Encoders.ServingId() ?? encoder.Identity.Id) == encoder.Identity.Id)
-            {
-                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, stopping);
-            }
+            var clock = Stopwatch.StartNew();
+            var catalog = index.Catalog;
+            var page = catalog.Pages.ReferencedKeys().FirstOrDefault() is { } key ? catalog.Pages.Find(key) : null;
+            var words = page is null ? [] : PageInput.WordsOf(page, index.Words).Take(8).Select(w => w.Text).ToList();
+            var report = search.Search(words.Count > 0 ? string.Join(' ', words) : "warm", 10, stopping);
+            _ = System.Text.Json.JsonSerializer.SerializeToUtf8Bytes(report, ApiJson.Options);
+            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, report.Hits.Count);
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)
         {
