@@ -1,4 +1,3 @@
-using System.Globalization;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Queue;
@@ -21,10 +20,7 @@ public sealed class FiguresBenchmark : IBenchmark
     public void Run(BenchmarkContext context)
     {
         ArgumentNullException.ThrowIfNull(context);
-        var sizes = Environment.GetEnvironmentVariable("IK_FIGURES_PAGES") is { } asked
-            ? asked.Split(',').Select(s => int.Parse(s, CultureInfo.InvariantCulture)).ToArray()
-            : context.Quick ? [1_000] : [10_000, 100_000];
-        foreach (var pages in sizes)
+        foreach (var pages in IdleBenchmark.Sizes(context, "IK_FIGURES_PAGES"))
         {
             Size(context, pages);
         }
@@ -32,9 +28,7 @@ public sealed class FiguresBenchmark : IBenchmark
 
     private static void Size(BenchmarkContext context, int pages)
     {
-        var name = $"{pages / 1000.0:0.#}k";
-        var cache = Path.Combine(Path.GetTempPath(), "indexkeeper-bench-cache", $"idle-{pages}");
-        IdleBenchmark.Generate(context, cache, pages, name);
+        var (cache, name) = IdleBenchmark.Generated(context, pages);
         var directory = Path.Combine(context.WorkDirectory, $"index-{pages}");
         Copy(Path.Combine(cache, "index"), directory);
 
