@@ -5,6 +5,8 @@ namespace IndexKeeper.Core.Catalog;
 /// <see cref="RunningCounts"/> last read them. Marking more than changed costs a record read and nothing else (the
 /// counts re-read each marked record as it is now, so a rolled-back transaction's marks are harmless); a write
 /// that changes a counted field without a mark would let the counts drift, which the periodic recount reports.
+/// Nothing is gathered until the counts are first taken (<see cref="Restart"/>): a command that never asks for
+/// them, a long <c>sync</c> say, does not hold every key it wrote.
 /// </summary>
 internal sealed class CatalogMarks
 {
@@ -13,11 +15,17 @@ internal sealed class CatalogMarks
     private HashSet<string> pages = new(StringComparer.Ordinal);
     private HashSet<string> queue = new(StringComparer.Ordinal);
     private Dictionary<string, (string EncoderId, string PageKey)> vectorSets = new(StringComparer.Ordinal);
+    private bool gathering;
 
     public void Document(string id)
     {
         lock (gate)
         {
+            if (!gathering)
+            {
+                return;
+            }
+
             documents.Add(id);
         }
     }
@@ -26,6 +34,11 @@ internal sealed class CatalogMarks
     {
         lock (gate)
         {
+            if (!gathering)
+            {
+                return;
+            }
+
             pages.Add(key);
         }
     }
@@ -34,6 +47,11 @@ internal sealed class CatalogMarks
     {
         lock (gate)
         {
+            if (!gathering)
+            {
+                return;
+            }
+
             queue.Add(key);
         }
     }
@@ -42,7 +60,25 @@ internal sealed class CatalogMarks
     {
         lock (gate)
         {
+            if (!gathering)
+            {
+                return;
+            }
+
             vectorSets[set.Id] = (set.EncoderId, set.PageKey);
+        }
+    }
+
+    /// <summary>Drops the marks gathered so far and gathers from now on: the caller counts everything next.</summary>
+    public void Restart()
+    {
+        lock (gate)
+        {
+            gathering = true;
+            documents.Clear();
+            pages.Clear();
+            queue.Clear();
+            vectorSets.Clear();
         }
     }
 

@@ -130,7 +130,7 @@ public sealed class RunningCounts
     private Tally Seed()
     {
         // Marks made before this pass are covered by it; later ones move the new tally.
-        store.Marks.Take();
+        store.Marks.Restart();
         var t = new Tally();
         foreach (var document in store.Documents.FindAll())
         {
