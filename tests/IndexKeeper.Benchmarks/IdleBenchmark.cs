@@ -24,20 +24,30 @@ public sealed class IdleBenchmark : IBenchmark
     public void Run(BenchmarkContext context)
     {
         ArgumentNullException.ThrowIfNull(context);
-        var sizes = Environment.GetEnvironmentVariable("IK_IDLE_PAGES") is { } asked
-            ? asked.Split(',').Select(s => int.Parse(s, CultureInfo.InvariantCulture)).ToArray()
-            : context.Quick ? [1_000] : [10_000, 100_000];
-        foreach (var pages in sizes)
+        foreach (var pages in Sizes(context, "IK_IDLE_PAGES"))
         {
             Size(context, pages);
         }
     }
 
-    private static void Size(BenchmarkContext context, int pages)
+    /// <summary>The page counts to run: those of <paramref name="variable"/> (comma-separated), else 1,000 quick or 10,000 and 100,000.</summary>
+    internal static int[] Sizes(BenchmarkContext context, string variable) =>
+        Environment.GetEnvironmentVariable(variable) is { } asked
+            ? asked.Split(',').Select(s => int.Parse(s, CultureInfo.InvariantCulture)).ToArray()
+            : context.Quick ? [1_000] : [10_000, 100_000];
+
+    /// <summary>The generated index of <paramref name="pages"/> pages, written the first time; returns its folder and the size's short name.</summary>
+    internal static (string Cache, string Name) Generated(BenchmarkContext context, int pages)
     {
         var name = $"{pages / 1000.0:0.#}k";
         var cache = Path.Combine(Path.GetTempPath(), "indexkeeper-bench-cache", $"idle-{pages}");
         Generate(context, cache, pages, name);
+        return (cache, name);
+    }
+
+    private static void Size(BenchmarkContext context, int pages)
+    {
+        var (cache, name) = Generated(context, pages);
         var queries = File.ReadAllLines(Path.Combine(cache, "queries.txt"));
         var incoming = Path.Combine(cache, "incoming");
         if (Directory.Exists(incoming))

@@ -41,6 +41,9 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
     /// </summary>
     private readonly List<VectorSetRecord> touched = [];
 
+    /// <summary>Keys the writes of this process touched, for <see cref="RunningCounts"/>.</summary>
+    public CatalogMarks Marks { get; } = new();
+
     /// <summary>Commits since the catalog was opened in this process (any change, transactions only).</summary>
     public long Commits { get; private set; }
 
@@ -55,7 +58,11 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
         Meta.FindById(CatalogSchema.VectorSetGenerationMetaId) is { } generation ? generation["value"].AsInt64 : 0;
 
     /// <summary>REQUIRES: inside a transaction. Records a vector set as the transaction leaves it (deleted = not live).</summary>
-    public void Touch(VectorSetRecord set) => touched.Add(set);
+    public void Touch(VectorSetRecord set)
+    {
+        touched.Add(set);
+        Marks.VectorSet(set);
+    }
 
     /// <summary>Runs <paramref name="change"/> as one transaction: all of it is committed, or none (rolled back on any exception).</summary>
     public void InTransaction(Action change) => InTransaction(() =>

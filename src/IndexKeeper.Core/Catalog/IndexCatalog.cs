@@ -29,6 +29,7 @@ public sealed class IndexCatalog : IDisposable
         Segments = new SegmentTable(store);
         VectorSets = new VectorSetTable(store);
         History = new HistoryTable(store);
+        Counts = new RunningCounts(store, History);
     }
 
     public DocumentTable Documents { get; }
@@ -44,6 +45,9 @@ public sealed class IndexCatalog : IDisposable
     public VectorSetTable VectorSets { get; }
 
     public HistoryTable History { get; }
+
+    /// <summary>The figures of <see cref="Figures"/> and more, kept as running counts of this process's writes.</summary>
+    public RunningCounts Counts { get; }
 
     /// <summary>How many committed transactions changed which vector sets are live or where they lie (docs/catalog.md).</summary>
     public long VectorSetGeneration => store.VectorSetGeneration();
@@ -193,18 +197,26 @@ public sealed class IndexCatalog : IDisposable
             foreach (var id in edit.DeleteDocuments)
             {
                 store.Documents.Delete(id);
+                store.Marks.Document(id);
             }
 
             store.Documents.Upsert(edit.PutDocuments);
+            foreach (var document in edit.PutDocuments)
+            {
+                store.Marks.Document(document.Id);
+            }
+
             store.Pages.Upsert(edit.AddPages);
             foreach (var page in edit.AddPages)
             {
+                store.Marks.Page(page.Id);
                 // A page key back within the life of its old vectors (a restored file) costs no encoder call.
                 SetVectorSetsLive(page.Id, live: true);
             }
 
             foreach (var (key, references) in edit.SetReferences)
             {
+                store.Marks.Page(key);
                 if (store.Pages.FindById(key) is { } page)
                 {
                     page.References = references;
@@ -213,6 +225,10 @@ public sealed class IndexCatalog : IDisposable
             }
 
             store.Queue.Upsert(edit.Enqueue);
+            foreach (var entry in edit.Enqueue)
+            {
+                store.Marks.Queued(entry.Id);
+            }
         });
     }
 
@@ -224,6 +240,8 @@ public sealed class IndexCatalog : IDisposable
         {
             store.Pages.Delete(key);
             store.Queue.Delete(key);
+            store.Marks.Page(key);
+            store.Marks.Queued(key);
             SetVectorSetsLive(key, live: false);
         }
 
@@ -264,6 +282,7 @@ public sealed class IndexCatalog : IDisposable
             foreach (var key in dequeued)
             {
                 store.Queue.Delete(key);
+                store.Marks.Queued(key);
             }
         });
     }
@@ -364,6 +383,7 @@ public sealed class IndexCatalog : IDisposable
                 if (set.Live && Pages.ReferencesOf(set.PageKey) > 0)
                 {
                     store.Queue.Upsert(new QueueRecord { Id = set.PageKey, Priority = QueuePriority.Fresh, EnqueuedUtc = now, NotBeforeUtc = now });
+                    store.Marks.Queued(set.PageKey);
                     requeued++;
                 }
             }
@@ -401,6 +421,11 @@ public sealed class IndexCatalog : IDisposable
                 EnqueuedUtc = nowUtc,
                 NotBeforeUtc = nowUtc,
             }));
+            foreach (var key in queueForMigration)
+            {
+                store.Marks.Queued(key);
+            }
+
             foreach (var encoderId in retireEncoders)
             {
                 Retire(encoderId, nowUtc);

@@ -7,8 +7,13 @@ namespace IndexKeeper.Core.Catalog;
 public sealed class QueueTable
 {
     private readonly ILiteCollection<QueueRecord> queue;
+    private readonly CatalogMarks marks;
 
-    internal QueueTable(CatalogStore store) => queue = store.Queue;
+    internal QueueTable(CatalogStore store)
+    {
+        queue = store.Queue;
+        marks = store.Marks;
+    }
 
     public IEnumerable<QueueRecord> InOrder() => queue.Query().OrderBy(q => q.Priority).ToEnumerable();
 
@@ -54,6 +59,7 @@ public sealed class QueueTable
         foreach (var key in pageKeys)
         {
             queue.Delete(key);
+            marks.Queued(key);
         }
     }
 
@@ -93,6 +99,7 @@ public sealed class QueueTable
         }
 
         queue.Update(entry);
+        marks.Queued(pageKey);
         return entry.Attempts;
     }
 }

@@ -17,13 +17,64 @@ public static class DamageSurvey
     {
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(segmentsDirectory);
+        var (damaged, unreadableLive) = Segments(catalog, segmentsDirectory, readRecords, null, cancellationToken);
+        var (withoutVectors, notQueued) = servingEncoderId is null ? (0, 0) : PagesWithoutVectors(catalog, servingEncoderId, unreadableLive.Keys.ToHashSet(StringComparer.Ordinal));
+        return Report(damaged, unreadableLive.Count, withoutVectors, notQueued);
+    }
+
+    /// <summary>
+    /// The writer's cheap survey (files, headers and lengths) for its samples: a segment whose record and file
+    /// are as they were at a clean inspection is not inspected again (<paramref name="clean"/>), and the pages
+    /// without vectors come from the catalog's running counts (<paramref name="coverage"/>, of the serving
+    /// encoder, after <see cref="RunningCounts.Refresh"/>). Costs O(segments) plus the damaged ones' records.
+    /// </summary>
+    public static DamageReport RunRunning(IndexCatalog catalog, string segmentsDirectory, string servingEncoderId, PageCoverage coverage, CleanSegments clean, CancellationToken cancellationToken)
+    {
+        ArgumentNullException.ThrowIfNull(catalog);
+        ArgumentNullException.ThrowIfNull(coverage);
+        ArgumentNullException.ThrowIfNull(clean);
+        var (damaged, unreadableLive) = Segments(catalog, segmentsDirectory, readRecords: false, clean, cancellationToken);
+        long withoutVectors = coverage.Referenced - coverage.CoveredServing, notQueued = coverage.UncoveredNotQueued;
+        foreach (var set in unreadableLive.Values.Where(s => s.EncoderId == servingEncoderId))
+        {
+            // Counted as covered by its live record; its bytes cannot be read, so a search cannot find the page.
+            if (catalog.Counts.PageState(servingEncoderId, set.PageKey) is { Covered: true } state)
+            {
+                withoutVectors++;
+                notQueued += state.Queued ? 0 : 1;
+            }
+        }
+
+        return Report(damaged, unreadableLive.Count, (int)withoutVectors, (int)notQueued);
+    }
+
+    private static DamageReport Report(List<SegmentDamage> damaged, int unreadableLive, int withoutVectors, int notQueued) => new()
+    {
+        Segments = damaged,
+        SegmentsMissing = damaged.Count(d => d.Missing),
+        VectorSetsUnreadable = unreadableLive,
+        PagesWithoutVectors = withoutVectors,
+        PagesWithoutVectorsNotQueued = notQueued,
+    };
+
+    private static (List<SegmentDamage> Damaged, Dictionary<string, VectorSetRecord> UnreadableLive) Segments(
+        IndexCatalog catalog, string segmentsDirectory, bool readRecords, CleanSegments? clean, CancellationToken cancellationToken)
+    {
         var damaged = new List<SegmentDamage>();
-        var unreadableLive = new HashSet<string>(StringComparer.Ordinal);
-        foreach (var segment in catalog.Segments.All())
+        var unreadableLive = new Dictionary<string, VectorSetRecord>(StringComparer.Ordinal);
+        var segments = catalog.Segments.All();
+        clean?.KeepOnly(segments.Select(s => s.Id));
+        foreach (var segment in segments)
         {
             cancellationToken.ThrowIfCancellationRequested();
-            var sets = catalog.VectorSets.OfSegment(segment.Id);
             var path = SegmentFileNames.PathOf(segmentsDirectory, segment.Id);
+            var mark = clean is null ? default : CleanSegments.MarkOf(segment, path);
+            if (clean is not null && clean.IsClean(segment.Id, mark))
+            {
+                continue;
+            }
+
+            var sets = catalog.VectorSets.OfSegment(segment.Id);
             var locations = sets.Select(s => new RecordLocation(s.SegmentId, s.Offset, s.Length, unchecked((uint)s.Checksum))).ToList();
             var inspection = SegmentInspector.Inspect(path, segment.Id, locations, segment.Sealed, readRecords);
             var fileProblem = inspection.FileProblem;
@@ -36,14 +87,17 @@ public static class DamageSurvey
 
             if (fileProblem is null && unreadable.Count == 0 && inspection.SealProblem is null)
             {
+                clean?.Clean(segment.Id, mark);
                 continue;
             }
+
+            clean?.Forget(segment.Id);
 
             var lost = unreadable.Select(u => (Set: sets[u.Index], u.Problem)).ToList();
             var pages = lost.Where(l => l.Set.Live).Select(l => l.Set.PageKey).Distinct(StringComparer.Ordinal).ToList();
             foreach (var l in lost.Where(l => l.Set.Live))
             {
-                unreadableLive.Add(l.Set.Id);
+                unreadableLive[l.Set.Id] = l.Set;
             }
 
             damaged.Add(new SegmentDamage
@@ -59,15 +113,7 @@ public static class DamageSurvey
             });
         }
 
-        var (withoutVectors, notQueued) = servingEncoderId is null ? (0, 0) : PagesWithoutVectors(catalog, servingEncoderId, unreadableLive);
-        return new DamageReport
-        {
-            Segments = damaged,
-            SegmentsMissing = damaged.Count(d => d.Missing),
-            VectorSetsUnreadable = unreadableLive.Count,
-            PagesWithoutVectors = withoutVectors,
-            PagesWithoutVectorsNotQueued = notQueued,
-        };
+        return (damaged, unreadableLive);
     }
 
     private static (int All, int NotQueued) PagesWithoutVectors(IndexCatalog catalog, string encoderId, IReadOnlySet<string> unreadable)

@@ -7,23 +7,21 @@ namespace IndexKeeper.Service.Daemon;
 /// <summary>
 /// The figures of a full sample beyond the catalog's counts: per-root totals, unsupported files by type,
 /// pages searches cannot find yet, and the migration's progress and forecast. Runs on the work loop's
-/// thread (the gate's budget belongs to it); reads only.
+/// thread (the gate's budget belongs to it); reads only: the catalog's running counts, refreshed by the caller,
+/// and a few small records, so it costs the same at any index size.
 /// </summary>
 internal static class FigureSurvey
 {
     /// <summary>Types listed one by one; the rest are summed as "other", so a drive full of odd names cannot flood the metrics.</summary>
     public const int MaxTypes = 20;
 
-    public static DaemonFigures Complete(DaemonFigures figures, OpenIndex index, IEmbedGate gate)
+    /// <param name="coverage">The running counts' coverage of the serving encoder <paramref name="servingId"/> and the active one.</param>
+    public static DaemonFigures Complete(DaemonFigures figures, OpenIndex index, IEmbedGate gate, string servingId, PageCoverage coverage)
     {
         var catalog = index.Catalog;
         var active = index.Encoder.Identity;
-        var servingId = catalog.Encoders.ServingId() ?? active.Id;
-        var referenced = catalog.Pages.ReferencedKeys().ToList();
-        var servingKeys = catalog.VectorSets.LivePageKeysOf(servingId);
-        var activeKeys = servingId == active.Id ? servingKeys : catalog.VectorSets.LivePageKeysOf(active.Id);
-        var moved = referenced.LongCount(activeKeys.Contains);
-        var waiting = Math.Max(figures.QueuedMigration, servingId == active.Id ? 0 : referenced.Count - moved);
+        var moved = coverage.CoveredActive;
+        var waiting = Math.Max(figures.QueuedMigration, servingId == active.Id ? 0 : coverage.Referenced - moved);
 
         DateTimeOffset? finish = null;
         var notInSight = false;
@@ -42,11 +40,11 @@ internal static class FigureSurvey
 
         return figures with
         {
-            RootTotals = catalog.Documents.TotalsByRoot(),
+            RootTotals = catalog.Counts.TotalsByRoot(),
             UnsupportedTypes = types,
-            PagesWithoutVectors = referenced.LongCount(k => !servingKeys.Contains(k)),
+            PagesWithoutVectors = coverage.Referenced - coverage.CoveredServing,
             Migration = new MigrationFigures(
-                catalog.Encoders.Find(servingId)?.Name ?? active.Name, servingId, active.Name, active.Id, moved, referenced.Count, waiting, finish, notInSight),
+                catalog.Encoders.Find(servingId)?.Name ?? active.Name, servingId, active.Name, active.Id, moved, coverage.Referenced, waiting, finish, notInSight),
         };
     }
 }

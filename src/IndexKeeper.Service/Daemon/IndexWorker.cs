@@ -34,6 +34,7 @@ internal sealed class IndexWorker(
     DriftOperation drift,
     CanaryOperation canaries,
     CompactOperation compaction,
+    SearchOperation search,
     DaemonState state,
     RootWatchers watchers,
     IEmbedGate gate,
@@ -46,6 +47,9 @@ internal sealed class IndexWorker(
     private readonly TimeSpan sampleInterval = TimeSpan.FromSeconds(options.Daemon.SampleSeconds);
     private readonly TimeSpan compactInterval = TimeSpan.FromMinutes(options.Daemon.CompactEveryMinutes);
     private readonly TimeSpan grace = TimeSpan.FromSeconds(options.Daemon.ShutdownGraceSeconds);
+
+    /// <summary>How often a sample after work checks the running counts against a full count (O(index); at 100k pages about a second of CPU an hour).</summary>
+    private static readonly TimeSpan RecountInterval = TimeSpan.FromHours(1);
 
     private readonly WorkLoopSupervisor supervisor = new(
         new RetryPolicy(options.Daemon.FaultRetries + 1, TimeSpan.FromSeconds(options.Daemon.FaultRetryBaseSeconds), TimeSpan.FromMinutes(5)), state, log);
@@ -68,6 +72,11 @@ internal sealed class IndexWorker(
     private DateTimeOffset servingWrittenAt = DateTimeOffset.MinValue;
     private DateTimeOffset sampledFullyAt = DateTimeOffset.MinValue;
     private List<(long Id, long Length, long Written)> segmentFilesAtSample = [];
+
+    // A sample after a commit reads the catalog's running counts (moved by each write, issue 15) and inspects only
+    // segments that changed; the full recount that checks the counts runs at most once per RecountInterval.
+    private readonly CleanSegments cleanSegments = new();
+    private DateTimeOffset? recountedAt;
 
     /// <summary>Completes when the loop's thread has ended (or never started): only then may the index be closed.</summary>
     public Task Completion => completion.Task;
@@ -597,19 +606,23 @@ internal sealed class IndexWorker(
     }
 
     /// <summary>
-    /// Beside the loop, once at start: one search over every page of the serving view loads the view and checks
-    /// each record it names once (as a search does the first time in a process), so the first real search after a
-    /// start costs what a warm one does. Only reads; a failure is logged and left to the searches.
+    /// Beside the loop, once at start: one search as the API makes it loads the serving view and checks each record
+    /// it names once (as a search does the first time in a process), and, with words of an indexed page as the
+    /// query so it has hits, also reads their documents and words and shapes the answer as JSON (the code a first
+    /// search would otherwise compile and the catalog pages it would otherwise load), so the first real search
+    /// after a start costs what a warm one does. Only reads; a failure is logged and left to the searches.
     /// </summary>
     private void WarmServingView(CancellationToken stopping)
     {
         try
         {
-            var encoder = index.Encoder;
-            if ((index.Catalog.Encoders.ServingId() ?? encoder.Identity.Id) == encoder.Identity.Id)
-            {
-                index.Serving.Search(encoder.Identity.Id, encoder.EncodeQuery("warm", stopping), 1, stopping);
-            }
+            var clock = Stopwatch.StartNew();
+            var catalog = index.Catalog;
+            var page = catalog.Pages.ReferencedKeys().FirstOrDefault() is { } key ? catalog.Pages.Find(key) : null;
+            var words = page is null ? [] : PageInput.WordsOf(page, index.Words).Take(8).Select(w => w.Text).ToList();
+            var report = search.Search(words.Count > 0 ? string.Join(' ', words) : "warm", 10, stopping);
+            _ = System.Text.Json.JsonSerializer.SerializeToUtf8Bytes(report, ApiJson.Options);
+            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, report.Hits.Count);
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)
         {
@@ -646,8 +659,26 @@ internal sealed class IndexWorker(
         commitsAtSample = catalog.Commits;
         sampledFullyAt = now;
         segmentFilesAtSample = SegmentFiles();
-        var figures = catalog.Figures();
-        var depths = catalog.Queue.Depths();
+        var counts = catalog.Counts;
+        counts.Refresh();
+        if (recountedAt is null)
+        {
+            // The first refresh counted everything.
+            recountedAt = now;
+        }
+        else if (now - recountedAt >= RecountInterval)
+        {
+            recountedAt = now;
+            foreach (var difference in counts.Recount())
+            {
+                log.LogWarning("The running figures disagreed with a full count ({Difference}); the full count is used from now on.", difference);
+            }
+        }
+
+        var servingId = catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id;
+        var coverage = counts.Coverage(servingId, index.Encoder.Identity.Id);
+        var figures = counts.Figures();
+        var depths = counts.Depths();
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
         var free = FreeShare();
@@ -661,7 +692,7 @@ internal sealed class IndexWorker(
             lastScan?.Counts.GetValueOrDefault(ScanRecord.FilesSkippedByPatternKey) ?? 0,
             lastScan?.Counts.GetValueOrDefault(ScanRecord.FilesUnsupportedKey) ?? 0,
             figures.Pages,
-            catalog.VectorSets.Count(liveOnly: true),
+            counts.LiveVectorSets,
             depths[QueuePriority.Fresh],
             depths[QueuePriority.Migration],
             depths[QueuePriority.Canary],
@@ -671,8 +702,8 @@ internal sealed class IndexWorker(
             segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             DirectorySize.Of(index.Directory),
             free,
-            DamageSurvey.Run(catalog, index.Store.Directory, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readRecords: false, CancellationToken.None));
-        latest = FigureSurvey.Complete(latest, index, gate);
+            DamageSurvey.RunRunning(catalog, index.Store.Directory, servingId, coverage, cleanSegments, CancellationToken.None));
+        latest = FigureSurvey.Complete(latest, index, gate, servingId, coverage);
         lastSample = latest;
         state.Publish(latest, Interlocked.Exchange(ref embeddedSinceSample, 0));
     }

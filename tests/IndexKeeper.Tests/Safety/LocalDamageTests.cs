@@ -114,6 +114,32 @@ public sealed class LocalDamageTests
     }
 
     [Fact]
+    public void The_samples_survey_sees_a_file_removed_after_a_clean_inspection_and_counts_as_the_full_one()
+    {
+        // The daemon's samples skip segments unchanged since a clean inspection: removing the file must end that.
+        using var directory = new Support.TempDirectory();
+        var path = SealedIndex(directory.Path);
+        var clean = new CleanSegments();
+        using (var index = new OpenIndex(directory.Path, readOnlyStore: true))
+        {
+            var intact = Running(index, clean);
+            Assert.Empty(intact.Segments);
+            Assert.Equal(0, intact.PagesWithoutVectors);
+        }
+
+        File.SetAttributes(path, FileAttributes.Normal);
+        File.Delete(path);
+        using (var index = new OpenIndex(directory.Path, readOnlyStore: true))
+        {
+            var running = Running(index, clean);
+            var full = DamageSurvey.Run(index.Catalog, index.Store.Directory, OpenIndex.Encoder.Id, readRecords: false, CancellationToken.None);
+            Assert.True(Assert.Single(running.Segments).Missing);
+            Assert.Equal((full.SegmentsMissing, full.VectorSetsUnreadable, full.PagesWithoutVectors, full.PagesWithoutVectorsNotQueued), (running.SegmentsMissing, running.VectorSetsUnreadable, running.PagesWithoutVectors, running.PagesWithoutVectorsNotQueued));
+            Assert.Equal(8, running.PagesWithoutVectorsNotQueued);
+        }
+    }
+
+    [Fact]
     public void A_record_cut_in_the_middle_is_a_clean_end_of_an_open_segment()
     {
         using var directory = new Support.TempDirectory();
@@ -168,5 +194,12 @@ public sealed class LocalDamageTests
         var value = file.ReadByte();
         file.Position = offset;
         file.WriteByte((byte)(value ^ 0x10));
+    }
+
+    private static DamageReport Running(OpenIndex index, CleanSegments clean)
+    {
+        index.Catalog.Counts.Refresh();
+        var coverage = index.Catalog.Counts.Coverage(OpenIndex.Encoder.Id, OpenIndex.Encoder.Id);
+        return DamageSurvey.RunRunning(index.Catalog, index.Store.Directory, OpenIndex.Encoder.Id, coverage, clean, CancellationToken.None);
     }
 }

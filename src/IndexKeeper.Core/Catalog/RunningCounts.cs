@@ -1,0 +1,360 @@
+using IndexKeeper.Core.Detect;
+using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Queue;
+
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>
+/// The catalog's figures kept as running counts in this process (issues 13 and 15): seeded by one pass over
+/// every document, page, queue and live vector-set record at the first <see cref="Refresh"/>, then moved by
+/// re-reading only the records the writes since named (<see cref="CatalogMarks"/>), so a sample after a commit
+/// costs what the commit changed, not the size of the index. Nothing is stored: a new process counts anew.
+/// <see cref="Recount"/> compares with a fresh pass (the writer's rare check) and adopts it.
+/// </summary>
+/// <remarks>Not thread-safe: the writer's loop refreshes and reads it (its marks may come from any thread).</remarks>
+public sealed class RunningCounts
+{
+    private readonly CatalogStore store;
+    private readonly HistoryTable history;
+    private Tally? tally;
+
+    internal RunningCounts(CatalogStore store, HistoryTable history)
+    {
+        this.store = store;
+        this.history = history;
+    }
+
+    /// <summary>Brings the counts up to date with every write so far (the first call counts everything).</summary>
+    public void Refresh()
+    {
+        if (tally is null)
+        {
+            tally = Seed();
+            return;
+        }
+
+        var (documents, pages, queue, sets) = store.Marks.Take();
+        foreach (var id in documents)
+        {
+            tally.Document(id, store.Documents.FindById(id));
+        }
+
+        var keys = new HashSet<string>(pages, StringComparer.Ordinal);
+        keys.UnionWith(queue);
+        keys.UnionWith(sets.Values.Select(s => s.PageKey));
+        foreach (var key in keys)
+        {
+            tally.Join(key, -1);
+        }
+
+        foreach (var key in pages)
+        {
+            tally.Page(key, store.Pages.Query().Where(p => p.Id == key).Select(p => p.References).ToEnumerable().FirstOrDefault());
+        }
+
+        foreach (var key in queue)
+        {
+            tally.Queued(key, store.Queue.FindById(key));
+        }
+
+        foreach (var (id, (encoderId, pageKey)) in sets)
+        {
+            tally.VectorSet(encoderId, pageKey, store.VectorSets.FindById(id) is { Live: true });
+        }
+
+        foreach (var key in keys)
+        {
+            tally.Join(key, 1);
+        }
+    }
+
+    /// <summary>
+    /// Counts everything again and adopts the fresh counts; returns what differed from the running ones (empty
+    /// when they agreed). O(index): the writer runs it rarely, never per commit.
+    /// </summary>
+    public IReadOnlyList<string> Recount()
+    {
+        Refresh();
+        var running = tally!;
+        var fresh = Seed();
+        fresh.Watch(running.WatchedServing, running.WatchedActive);
+        tally = fresh;
+        return running.Differences(fresh);
+    }
+
+    /// <summary>The counts of <see cref="IndexCatalog.Figures"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public CatalogFigures Figures()
+    {
+        var t = Current;
+        return new CatalogFigures(t.DocumentsLive, t.DocumentsQuarantined - t.DocumentsUnsupported, t.DocumentsUnsupported, t.PagesReferenced, t.PageLocations, t.QueuedAll, history.LastScanUtc());
+    }
+
+    /// <summary>As <see cref="QueueTable.Depths"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public IReadOnlyDictionary<QueuePriority, long> Depths() =>
+        Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => Current.Depths.GetValueOrDefault(p));
+
+    /// <summary>Live vector sets of every encoder, as <see cref="VectorSetTable.Count"/> with liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public long LiveVectorSets => Current.LiveVectorSets;
+
+    /// <summary>As <see cref="DocumentTable.TotalsByRoot"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public IReadOnlyList<RootTotals> TotalsByRoot() =>
+        Current.Roots.Where(r => r.Value.Documents > 0)
+            .Select(r => new RootTotals(r.Key, r.Value.Live, r.Value.Quarantined, r.Value.PageLocations, r.Value.Bytes))
+            .OrderBy(t => t.Root, StringComparer.Ordinal)
+            .ToList();
+
+    /// <summary>
+    /// Referenced pages (live documents hold them) against the live vector sets of the serving and the active
+    /// encoder. A change of either encoder costs one pass over the counted pages (a switch-over, rare).
+    /// REQUIRES: <see cref="Refresh"/> called.
+    /// </summary>
+    public PageCoverage Coverage(string servingEncoderId, string activeEncoderId)
+    {
+        var t = Current;
+        t.Watch(servingEncoderId, activeEncoderId);
+        return new PageCoverage(t.PagesReferenced, t.CoveredServing, t.CoveredActive, t.UncoveredNotQueued);
+    }
+
+    /// <summary>
+    /// Whether a referenced page is covered by a live vector set of the serving encoder and whether it is queued;
+    /// null for a page no live document holds. REQUIRES: <see cref="Refresh"/> called.
+    /// </summary>
+    public (bool Covered, bool Queued)? PageState(string servingEncoderId, string pageKey)
+    {
+        var t = Current;
+        return t.References.GetValueOrDefault(pageKey) > 0 ? (t.IsLive(servingEncoderId, pageKey), t.Queue.ContainsKey(pageKey)) : null;
+    }
+
+    private Tally Current => tally ?? throw new InvalidOperationException("RunningCounts.Refresh must be called first.");
+
+    private Tally Seed()
+    {
+        // Marks made before this pass are covered by it; later ones move the new tally.
+        store.Marks.Restart();
+        var t = new Tally();
+        foreach (var document in store.Documents.FindAll())
+        {
+            t.Document(document.Id, document);
+        }
+
+        foreach (var row in store.Pages.Query().Select(p => new { p.Id, p.References }).ToEnumerable())
+        {
+            t.Page(row.Id, row.References);
+        }
+
+        foreach (var entry in store.Queue.FindAll())
+        {
+            t.Queued(entry.Id, entry);
+        }
+
+        foreach (var row in store.VectorSets.Query().Where(v => v.Live).Select(v => new { v.EncoderId, v.PageKey }).ToEnumerable())
+        {
+            t.VectorSet(row.EncoderId, row.PageKey, live: true);
+        }
+
+        return t;
+    }
+
+    /// <summary>The per-record shares and their sums.</summary>
+    private sealed class Tally
+    {
+        private readonly Dictionary<string, DocumentShare> documents = new(StringComparer.Ordinal);
+        private readonly Dictionary<string, HashSet<string>> livePages = new(StringComparer.Ordinal);
+
+        public Dictionary<string, int> References { get; } = new(StringComparer.Ordinal);
+
+        public Dictionary<string, (QueuePriority Priority, bool Quarantined)> Queue { get; } = new(StringComparer.Ordinal);
+
+        public Dictionary<string, RootSums> Roots { get; } = new(StringComparer.Ordinal);
+
+        public Dictionary<QueuePriority, long> Depths { get; } = [];
+
+        public long DocumentsLive { get; private set; }
+
+        public long DocumentsQuarantined { get; private set; }
+
+        public long DocumentsUnsupported { get; private set; }
+
+        public long PagesReferenced { get; private set; }
+
+        public long PageLocations { get; private set; }
+
+        public long QueuedAll => Queue.Count;
+
+        public long LiveVectorSets { get; private set; }
+
+        public string? WatchedServing { get; private set; }
+
+        public string? WatchedActive { get; private set; }
+
+        public long CoveredServing { get; private set; }
+
+        public long CoveredActive { get; private set; }
+
+        public long UncoveredNotQueued { get; private set; }
+
+        public bool IsLive(string encoderId, string pageKey) => livePages.TryGetValue(encoderId, out var keys) && keys.Contains(pageKey);
+
+        public void Document(string id, DocumentRecord? now)
+        {
+            if (documents.Remove(id, out var old))
+            {
+                Add(old, -1);
+            }
+
+            if (now is not null)
+            {
+                var share = new DocumentShare(
+                    now.Root,
+                    now.State,
+                    now.State == DocumentState.Quarantined && now.QuarantineReason == QuarantineReason.Unsupported && !ReadableTypes.IsReadable(now.Path),
+                    now.PageKeys.Count,
+                    now.Size);
+                documents[id] = share;
+                Add(share, 1);
+            }
+        }
+
+        /// <summary>REQUIRES: the page's coverage share taken out (<see cref="Join"/> -1) before, put back after.</summary>
+        public void Page(string key, int references)
+        {
+            if (References.Remove(key, out var old))
+            {
+                PageLocations -= old;
+                PagesReferenced -= old > 0 ? 1 : 0;
+            }
+
+            if (references != 0)
+            {
+                References[key] = references;
+                PageLocations += references;
+                PagesReferenced += references > 0 ? 1 : 0;
+            }
+        }
+
+        /// <inheritdoc cref="Page"/>
+        public void Queued(string key, QueueRecord? now)
+        {
+            if (Queue.Remove(key, out var old) && !old.Quarantined)
+            {
+                Depths[old.Priority] = Depths.GetValueOrDefault(old.Priority) - 1;
+            }
+
+            if (now is not null)
+            {
+                var quarantined = now.QuarantinedUtc is not null;
+                Queue[key] = (now.Priority, quarantined);
+                if (!quarantined)
+                {
+                    Depths[now.Priority] = Depths.GetValueOrDefault(now.Priority) + 1;
+                }
+            }
+        }
+
+        /// <inheritdoc cref="Page"/>
+        public void VectorSet(string encoderId, string pageKey, bool live)
+        {
+            if (!livePages.TryGetValue(encoderId, out var keys))
+            {
+                keys = new HashSet<string>(StringComparer.Ordinal);
+                livePages[encoderId] = keys;
+            }
+
+            if (live ? keys.Add(pageKey) : keys.Remove(pageKey))
+            {
+                LiveVectorSets += live ? 1 : -1;
+            }
+        }
+
+        /// <summary>Adds (<paramref name="sign"/> 1) or takes out (-1) one page's share of the coverage counts.</summary>
+        public void Join(string key, int sign)
+        {
+            if (WatchedServing is null || WatchedActive is null || References.GetValueOrDefault(key) <= 0)
+            {
+                return;
+            }
+
+            var covered = IsLive(WatchedServing, key);
+            CoveredServing += covered ? sign : 0;
+            CoveredActive += IsLive(WatchedActive, key) ? sign : 0;
+            UncoveredNotQueued += !covered && !Queue.ContainsKey(key) ? sign : 0;
+        }
+
+        public void Watch(string? servingEncoderId, string? activeEncoderId)
+        {
+            if (servingEncoderId == WatchedServing && activeEncoderId == WatchedActive)
+            {
+                return;
+            }
+
+            WatchedServing = servingEncoderId;
+            WatchedActive = activeEncoderId;
+            CoveredServing = CoveredActive = UncoveredNotQueued = 0;
+            foreach (var key in References.Keys)
+            {
+                Join(key, 1);
+            }
+        }
+
+        public IReadOnlyList<string> Differences(Tally fresh)
+        {
+            var differences = new List<string>();
+            void Compare(string what, long running, long counted)
+            {
+                if (running != counted)
+                {
+                    differences.Add($"{what}: running {running}, counted {counted}");
+                }
+            }
+
+            Compare("live documents", DocumentsLive, fresh.DocumentsLive);
+            Compare("quarantined documents", DocumentsQuarantined, fresh.DocumentsQuarantined);
+            Compare("unsupported documents", DocumentsUnsupported, fresh.DocumentsUnsupported);
+            Compare("referenced pages", PagesReferenced, fresh.PagesReferenced);
+            Compare("page locations", PageLocations, fresh.PageLocations);
+            Compare("queued pages", QueuedAll, fresh.QueuedAll);
+            foreach (var priority in Enum.GetValues<QueuePriority>())
+            {
+                Compare($"queued {priority} pages", Depths.GetValueOrDefault(priority), fresh.Depths.GetValueOrDefault(priority));
+            }
+
+            Compare("live vector sets", LiveVectorSets, fresh.LiveVectorSets);
+            Compare("pages covered by the serving encoder", CoveredServing, fresh.CoveredServing);
+            Compare("pages covered by the active encoder", CoveredActive, fresh.CoveredActive);
+            Compare("pages neither covered nor queued", UncoveredNotQueued, fresh.UncoveredNotQueued);
+            foreach (var root in Roots.Keys.Union(fresh.Roots.Keys, StringComparer.Ordinal))
+            {
+                if (Roots.GetValueOrDefault(root) != fresh.Roots.GetValueOrDefault(root))
+                {
+                    differences.Add($"root {root}: running {Roots.GetValueOrDefault(root)}, counted {fresh.Roots.GetValueOrDefault(root)}");
+                }
+            }
+
+            return differences;
+        }
+
+        private void Add(DocumentShare share, int sign)
+        {
+            var live = share.State == DocumentState.Live;
+            var quarantined = share.State == DocumentState.Quarantined;
+            DocumentsLive += live ? sign : 0;
+            DocumentsQuarantined += quarantined ? sign : 0;
+            DocumentsUnsupported += share.Unsupported ? sign : 0;
+            var sums = Roots.GetValueOrDefault(share.Root);
+            Roots[share.Root] = new RootSums(
+                sums.Documents + sign,
+                sums.Live + (live ? sign : 0),
+                sums.Quarantined + (quarantined ? sign : 0),
+                sums.PageLocations + (live ? sign * share.Pages : 0),
+                sums.Bytes + (live ? sign * share.Size : 0));
+            if (Roots[share.Root].Documents == 0)
+            {
+                Roots.Remove(share.Root);
+            }
+        }
+    }
+
+    private readonly record struct DocumentShare(string Root, DocumentState State, bool Unsupported, int Pages, long Size);
+
+    private readonly record struct RootSums(long Documents, long Live, long Quarantined, long PageLocations, long Bytes);
+}
