@@ -17,7 +17,7 @@ public static class CandidateCounts
     public static int FromCentroids(int k, int pages) => Math.Max(Math.Max(300 * k, 3000), pages / HandOnShare);
 
     /// <summary>One page in this many goes from the lists to the sign-code stage (see <see cref="FromCentroids"/>).</summary>
-    public const int HandOnShare = 5;
+    public const int HandOnShare = 4;
 
     /// <summary>
     /// Pages the sign-code stage hands to the float re-rank after the centroid lists: at least 100·k, since at
