@@ -12,7 +12,10 @@ public static class CandidateCounts
 
     /// <summary>
     /// Pages the centroid lists hand on to the view's own sign-code stage (Hamming MaxSim over all of a page's
-    /// vectors), best by the lists' approximate MaxSim: max(300·k, 3,000, one in HandOnShare pages).
+    /// vectors, in memory), best by the lists' approximate MaxSim: max(300·k, 3,000, pages / <see cref="HandOnShare"/>).
+    /// A count that does not grow with the index lost most of the misses at 100,000 pages (3,000 kept 0.85 of the
+    /// exhaustive top-10, 10,000 kept 0.92), and the last exhaustive top-10 page lies deeper in the lists' ranking
+    /// the more pages there are (docs/benchmarks.md, <c>serving</c>, fourth run).
     /// </summary>
     public static int FromCentroids(int k, int pages) => Math.Max(Math.Max(300 * k, 3000), pages / HandOnShare);
 

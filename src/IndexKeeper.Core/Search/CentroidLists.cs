@@ -7,15 +7,17 @@ namespace IndexKeeper.Core.Search;
 /// Candidate pages from centroid inverted lists of vectors, after Santhanam, Khattab, Potts and Zaharia, "PLAID:
 /// An Efficient Engine for Late Interaction Retrieval" (CIKM 2022, arXiv:2205.09707) and Scheerer et al., "WARP:
 /// An Efficient Engine for Multi-Vector Retrieval" (SIGIR 2025, arXiv:2501.17788): k-means centroids trained on a
-/// sample of the index's vectors; every stored vector is an entry (page, sign code) in the list of its centroid.
-/// A query token probes a few centroids and scores the entries of their lists by the sign codes' dot product
-/// (the stand-in for PLAID's residuals); per page and token the best entry counts, and a token that found nothing
-/// on a page is imputed the lowest score it saw (WARP's imputation of missing similarities). The pages with the
-/// best sums are the candidates of the exact stages (docs/search.md, "Candidates"; docs/benchmarks.md, <c>serving</c>).
+/// sample of the index's vectors; every stored vector's sign code is kept page by page (the stand-in for PLAID's
+/// residuals) and its position is in the list of its centroid. A query token probes a few centroids and scores the
+/// entries of their lists by the sign codes' dot product; per page and token the best entry counts, and a token that
+/// found nothing on a page is imputed the lowest score it saw (WARP's imputation of missing similarities). The pages
+/// with the best sums are then scored by Hamming MaxSim over all their vectors' codes (PLAID's full scoring of
+/// candidates from their stored codes), and the best of those are the candidates of the exact re-rank
+/// (docs/search.md, "Candidates"; docs/benchmarks.md, <c>serving</c>).
 /// </summary>
 /// <remarks>
 /// Adds are assigned to the trained centroids and appended; removes leave a tombstone until a quarter of the
-/// slots are dead, then the lists are compacted. The centroids do not follow the content: their quality under
+/// slots are dead, then the page codes are compacted and the lists made again. The centroids do not follow the content: their quality under
 /// churn is the recall figure (docs/search.md, "Recall"), and retraining is a new build. Not safe for a write
 /// beside any other call: the serving view's lock orders them.
 /// </remarks>
