@@ -297,15 +297,16 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>
-    /// The live pages the view's structure ranks best for the query (the graph: encodings; the centroid lists:
-    /// centroid interaction over the pages of <see cref="CandidateCounts.Probes"/> centroids a query token), at
-    /// most <paramref name="count"/>, in page-key order (so ties of the exact re-rank break as in the exhaustive
-    /// search). A view of <c>All</c> gives every page.
+    /// The live pages the view's structure ranks best for the query, at most <paramref name="count"/>, in page-key
+    /// order (so ties of the exact re-rank break as in the exhaustive search). The graph ranks by encodings; the
+    /// centroid lists take the <paramref name="handedOn"/> pages their lists score best (<see cref="CandidateCounts.Probes"/>
+    /// centroids a query token) and keep the best of those by Hamming MaxSim over all their vectors' sign codes. A
+    /// view of <c>All</c> gives every page.
     /// </summary>
-    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count) => Candidates(query, count, CandidateCounts.Probes);
+    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn) => Candidates(query, count, handedOn, CandidateCounts.Probes);
 
-    /// <summary>As <see cref="Candidates(VectorSet, int)"/> with the centroids probed per query token given (measurement).</summary>
-    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int probes)
+    /// <summary>As <see cref="Candidates(VectorSet, int, int)"/> with the centroids probed per query token given (measurement).</summary>
+    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes)
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -328,7 +329,7 @@ public sealed class ServingView : IDisposable
             }
             else if (Source == CandidateSource.Centroids)
             {
-                found = [.. centroids!.Nearest(query.Vectors, probes, count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
+                found = [.. centroids!.Nearest(query.Vectors, probes, Math.Max(count, handedOn), count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
             }
             else
             {
@@ -340,6 +341,21 @@ public sealed class ServingView : IDisposable
 
             found.Sort((a, b) => string.CompareOrdinal(a.Key.Hex, b.Key.Hex));
             return found;
+        }
+    }
+
+    /// <summary>
+    /// Every page the centroid lists score for the query, best first by the lists' approximate MaxSim alone
+    /// (measurement: where the benchmark finds the exhaustive top-10 pages).
+    /// </summary>
+    internal IReadOnlyList<ServingEntry> ListRanked(VectorSet query, int probes)
+    {
+        ArgumentNullException.ThrowIfNull(query);
+        lock (gate)
+        {
+            return centroids is null || byKey.Count == 0
+                ? []
+                : [.. centroids.ListRanked(query.Vectors, probes, byKey.Count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
         }
     }
 

@@ -64,7 +64,7 @@ public sealed class ServingViewTests : IDisposable
         Assert.Equal(1, views.Builds);
 
         // The structure hands on live pages only, as many as asked for when it can reach every page (all probed).
-        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, probes: 1000);
+        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, handedOn: view.Count - 1, probes: 1000);
         Assert.Equal(source == CandidateSource.All ? view.Count : view.Count - 1, fewer.Count);
         Assert.Subset(view.Entries().Select(e => e.Key).ToHashSet(), fewer.Select(e => e.Key).ToHashSet());
     }
@@ -160,7 +160,7 @@ public sealed class ServingViewTests : IDisposable
         IReadOnlyList<Core.Search.ServingEntry> written;
         using (var writer = index.Views(readOnly: false))
         {
-            written = writer.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, probes: 3);
+            written = writer.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, handedOn: 20, probes: 3);
             writer.Persist(CancellationToken.None);
         }
 
@@ -168,7 +168,7 @@ public sealed class ServingViewTests : IDisposable
         using var reader = index.Views(readOnly: true);
         var read = reader.For(Encoder.Id, CancellationToken.None);
         Assert.Equal(0, reader.Builds);
-        Assert.Equal(written, read.Candidates(query, 20, probes: 3));
+        Assert.Equal(written, read.Candidates(query, 20, handedOn: 20, probes: 3));
     }
 
     [Fact]
@@ -273,7 +273,7 @@ public sealed class ServingViewTests : IDisposable
         // The new view is what the writer writes; a reader gets its centroids' candidates.
         views.Persist(CancellationToken.None);
         using var reader = index.Views(readOnly: true);
-        Assert.Equal(view.Candidates(query, 20), reader.For(Encoder.Id, CancellationToken.None).Candidates(query, 20));
+        Assert.Equal(view.Candidates(query, 20, handedOn: 20), reader.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, handedOn: 20));
     }
 
     [Fact]
