@@ -171,8 +171,13 @@ public sealed class ServingBenchmark : IBenchmark
         context.Report($"{name}: top-10 agreement with exhaustive, candidates all", agreeAll / queries.Length, "share");
         context.Report($"{name}: top-10 agreement with exhaustive, candidates centroids", agreeCentroids / queries.Length, "share");
         context.Report($"{name}: top-10 agreement counting ties at the 10th score, candidates centroids", tiedCentroids / queries.Length, "share");
+        Profile(context, name, view, store, identity.Id, queries, pages);
         Losses(context, name, view, store, identity.Id, queries, truths, served, pages);
-        Agreement(context, name, view, catalog, store, identity.Id, queries, truths, pages);
+        // IK_SERVING_SWEEP=0 leaves out the grid of other settings (it builds two more views at 10k), e.g. while iterating.
+        if (Environment.GetEnvironmentVariable("IK_SERVING_SWEEP") != "0")
+        {
+            Agreement(context, name, view, catalog, store, identity.Id, queries, truths, pages);
+        }
 
         FirstSearch(context, name, catalog, directory, identity.Id, queries[0]);
         Churn(context, name, catalog, store, views, identity, corpus, pages);
@@ -214,6 +219,38 @@ public sealed class ServingBenchmark : IBenchmark
                 }
             }
         }
+    }
+
+    /// <summary>
+    /// Where a served centroid query's time goes, stage by stage as <see cref="ServingViews.Search"/> runs them:
+    /// the lists alone (stage 2 given no more pages than the re-rank takes), the lists with the page-code stage,
+    /// opening the candidates' records, and the float16 re-rank. Medians over the queries.
+    /// </summary>
+    private static void Profile(BenchmarkContext context, string name, ServingView view, VectorStore store, string encoderId, VectorSet[] queries, int pages)
+    {
+        var handedOn = CandidateCounts.FromCentroids(10, pages);
+        var reranked = CandidateCounts.RerankedAfterCentroids(10, pages);
+        List<double> lists = [], both = [], open = [], rerank = [];
+        foreach (var query in queries)
+        {
+            var watch = Stopwatch.StartNew();
+            view.Candidates(query, reranked, reranked);
+            lists.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            var candidates = view.Candidates(query, reranked, handedOn);
+            both.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            using var live = store.OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
+            open.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10, Candidates = reranked }, CancellationToken.None);
+            rerank.Add(watch.Elapsed.TotalMilliseconds);
+        }
+
+        context.Report(
+            $"{name}: centroid query, median ms: lists alone / lists and page codes ({handedOn} pages) / opening {reranked} records / float16 re-rank",
+            Median(lists),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{Median(both):0.0} / {Median(open):0.0} / {Median(rerank):0.0}; load {Measure.LoadAverage():0.0}"));
     }
 
     /// <summary>

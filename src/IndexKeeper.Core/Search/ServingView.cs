@@ -118,20 +118,23 @@ public sealed class ServingView : IDisposable
         }
     }
 
-    /// <summary>When the centroids were trained; null when not known (a view read from its file does not record it).</summary>
+    /// <summary>When the centroids were trained; null when not known (a view built before they were counted).</summary>
     public DateTimeOffset? TrainedAt { get; private set; }
 
     /// <summary>
     /// Share of the view's vectors added after its centroids were trained (kept by each change, never recounted);
     /// null when <see cref="TrainedAt"/> is unknown or the view is empty.
     /// </summary>
-    public double? AddedShareSinceTraining
+    public double? AddedShareSinceTraining => Training.AddedShare;
+
+    /// <summary>The running counts behind <see cref="TrainedAt"/> and <see cref="AddedShareSinceTraining"/>, as the view file keeps them.</summary>
+    internal TrainingFigures Training
     {
         get
         {
             lock (gate)
             {
-                return TrainedAt is null || vectors == 0 ? null : (double)vectorsAddedSinceTraining / vectors;
+                return new TrainingFigures(TrainedAt, firstIdAfterTraining, vectors, vectorsAddedSinceTraining);
             }
         }
     }
@@ -387,17 +390,19 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>A view as <see cref="ServingViewFile"/> read it back.</summary>
-    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall)
+    /// <remarks>REQUIRES: <paramref name="training"/> counts the vectors of <paramref name="entries"/> (the reader checks it).</remarks>
+    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall, TrainingFigures training)
     {
         var view = new ServingView(encoderId, generation, source)
         {
             Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
+            TrainedAt = training.TrainedAt, firstIdAfterTraining = training.FirstIdAfterTraining,
+            vectors = training.Vectors, vectorsAddedSinceTraining = training.VectorsAddedSinceTraining,
         };
         foreach (var (id, entry) in entries)
         {
             view.byKey[entry.Key] = new Slot(id, entry);
             view.byId[id] = entry.Key;
-            view.vectors += entry.VectorCount;
         }
 
         return view;

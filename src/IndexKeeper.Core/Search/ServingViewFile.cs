@@ -17,9 +17,10 @@ internal static class ServingViewFile
 {
     /// <summary>
     /// The format this build reads and writes (2: candidate source and centroid lists; 3: the lists' vectors page by
-    /// page with their centroids, read in bulk). Never reuse a number.
+    /// page with their centroids, read in bulk; 4: when the centroids were trained and the vectors added since).
+    /// Never reuse a number.
     /// </summary>
-    public const int Version = 3;
+    public const int Version = 4;
 
     public const string Folder = "serving";
 
@@ -102,6 +103,11 @@ internal static class ServingViewFile
                 writer.Write(view.Recall?.Generation ?? 0);
                 writer.Write(view.Recall?.MeasuredAt.UtcTicks ?? 0);
                 writer.Write(view.ChangedSinceRecall);
+                var training = view.Training;
+                writer.Write(training.TrainedAt?.UtcTicks ?? 0);
+                writer.Write(training.FirstIdAfterTraining);
+                writer.Write(training.Vectors);
+                writer.Write(training.VectorsAddedSinceTraining);
                 writer.Write(entries.Count);
                 WriteString(writer, graphName);
                 writer.Write(graphLength);
@@ -165,11 +171,11 @@ internal static class ServingViewFile
     }
 
     /// <summary>
-    /// The recall figure of the view file of <paramref name="encoderId"/> whatever catalog state it shows; null when
-    /// there is no readable file (version and checksum checked), its candidates are not of <paramref name="source"/>
-    /// or it holds no figure. Nothing is written.
+    /// The recall figure and the training figures of the view file of <paramref name="encoderId"/> whatever catalog
+    /// state it shows; null when there is no readable file (version and checksum checked) or its candidates are not
+    /// of <paramref name="source"/>. Nothing is written.
     /// </summary>
-    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId, CandidateSource source)
+    public static (CandidateRecall? Recall, DateTimeOffset? TrainedAt, double? AddedShare)? ReadFigures(string indexDirectory, string encoderId, CandidateSource source)
     {
         try
         {
@@ -190,7 +196,10 @@ internal static class ServingViewFile
             }
 
             reader.Bytes(4 + 8 + 4 + 4 + 4 + 8);
-            return ReadRecall(ref reader);
+            var recall = ReadRecall(ref reader);
+            reader.Int64();
+            var training = ReadTraining(ref reader);
+            return (recall, training.TrainedAt, training.AddedShare);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException or FormatException)
         {
@@ -236,6 +245,7 @@ internal static class ServingViewFile
         var nextId = reader.UInt64();
         var recall = ReadRecall(ref reader);
         var changedSinceRecall = reader.Int64();
+        var training = ReadTraining(ref reader);
         var count = reader.Int32();
         var graphName = reader.String();
         var graphLength = reader.Int64();
@@ -278,12 +288,20 @@ internal static class ServingViewFile
         }
 
         var entries = new List<(ulong Id, ServingEntry Entry)>(count);
+        long vectorsInDirectory = 0;
         for (var i = 0; i < count; i++)
         {
             var key = PageKey.FromHash(reader.Bytes(PageKey.ByteLength));
             var id = reader.UInt64();
             var location = new RecordLocation(reader.Int64(), reader.Int64(), reader.Int32(), reader.UInt32());
             entries.Add((id, new ServingEntry(key, location, reader.Int32())));
+            vectorsInDirectory += entries[^1].Entry.VectorCount;
+        }
+
+        if (training.Figures.Vectors != vectorsInDirectory || training.Figures.VectorsAddedSinceTraining < 0 || training.Figures.VectorsAddedSinceTraining > vectorsInDirectory)
+        {
+            reason = $"the serving view file counts {training.Figures.Vectors} vectors ({training.Figures.VectorsAddedSinceTraining} added since training), its directory {vectorsInDirectory}";
+            return null;
         }
 
         var centroidCount = reader.Int32();
@@ -378,7 +396,7 @@ internal static class ServingViewFile
         }
 
         reason = string.Empty;
-        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall);
+        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall, training.Figures);
     }
 
     /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>
@@ -391,6 +409,21 @@ internal static class ServingViewFile
         return double.IsNaN(share) || ticks < DateTimeOffset.MinValue.UtcTicks || ticks > DateTimeOffset.MaxValue.UtcTicks
             ? null
             : new CandidateRecall(share, queries, generation, new DateTimeOffset(ticks, TimeSpan.Zero));
+    }
+
+    /// <summary>
+    /// The training fields of the header: UTC ticks the centroids were trained (0 when not known), the first page id
+    /// given after it, the live vectors and those added since; the added share is null when the time is not known.
+    /// </summary>
+    private static (TrainingFigures Figures, DateTimeOffset? TrainedAt, double? AddedShare) ReadTraining(ref Cursor reader)
+    {
+        var ticks = reader.Int64();
+        var figures = new TrainingFigures(
+            ticks <= 0 || ticks > DateTimeOffset.MaxValue.UtcTicks ? null : new DateTimeOffset(ticks, TimeSpan.Zero),
+            reader.UInt64(),
+            reader.Int64(),
+            reader.Int64());
+        return (figures, figures.TrainedAt, figures.AddedShare);
     }
 
     private static void RequireLittleEndian()

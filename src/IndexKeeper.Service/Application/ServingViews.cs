@@ -276,7 +276,25 @@ public sealed class ServingViews : IDisposable
             }
         }
 
-        return readFile ? ServingViewFile.ReadRecall(directory, encoderId, source) : null;
+        return readFile ? ServingViewFile.ReadFigures(directory, encoderId, source)?.Recall : null;
+    }
+
+    /// <summary>
+    /// When the centroids of the view of <paramref name="encoderId"/> were trained and the share of its vectors added
+    /// since: of the view held in memory, else of the view file (the whole file is read to check it); nulls when
+    /// neither knows.
+    /// </summary>
+    public (DateTimeOffset? TrainedAt, double? AddedShare) LastTraining(string encoderId)
+    {
+        lock (gate)
+        {
+            if (views.TryGetValue(encoderId, out var held))
+            {
+                return (held.TrainedAt, held.AddedShareSinceTraining);
+            }
+        }
+
+        return ServingViewFile.ReadFigures(directory, encoderId, source) is { } figures ? (figures.TrainedAt, figures.AddedShare) : (null, null);
     }
 
     /// <summary>
