@@ -1,4 +1,7 @@
+using System.Buffers;
 using System.Numerics;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Numerics.Tensors;
 
 namespace IndexKeeper.Core.Search;
@@ -284,15 +287,21 @@ internal sealed class CentroidLists
     /// <summary>
     /// Ids of the <paramref name="count"/> pages with the best Hamming MaxSim over all their vectors' sign codes, among
     /// the <paramref name="handedOn"/> pages the lists rank best (<see cref="ListRanked"/>): PLAID's later stage that
-    /// scores whole candidate pages from their stored codes, here the sign codes kept page by page. Best first,
-    /// ties to the better list rank.
+    /// scores whole candidate pages from their stored codes, here the sign codes kept page by page. When reading the
+    /// probed lists would cost more than reading every page's codes in order (<see cref="ListEntryCost"/>), or every
+    /// page is handed on, every live page is scored and the lists are not read. Best first, ties to the better list
+    /// rank (to the earlier slot when every page is scored).
     /// </summary>
-    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken)
+    /// <param name="listEntryCost">What a list entry costs in page-code rows read in order (tests set it to force a path).</param>
+    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost)
     {
         var tokens = query.Length / dimensions;
         var queryCodes = new ulong[tokens * words];
         SignCodes.Compute(query, dimensions, queryCodes);
-        var listed = ListScored(query, queryCodes, probes, handedOn, cancellationToken);
+        var probed = Probed(query, queryCodes, probes);
+        var listed = ReadsLists(probed, handedOn, listEntryCost)
+            ? ListScored(queryCodes, probed, handedOn, cancellationToken)
+            : [.. Enumerable.Range(0, Slots).Where(IsLive)];
         var ordinals = Enumerable.Range(0, listed.Length).ToArray();
         var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
         {
@@ -300,6 +309,71 @@ internal sealed class CentroidLists
             best.Offer(MaxSimKernels.Hamming(queryCodes, vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words), dimensions, closest), ordinal);
         });
         return [.. top.Select(t => idOf[listed[t.Ordinal]])];
+    }
+
+    /// <summary>
+    /// A list entry read costs about this many page-code rows read in order: the entries point at codes spread over
+    /// the whole index (a cache miss each), the rows of every page lie side by side. Measured at 10,000 pages: about
+    /// 70 ns an entry against 7 ns a row (docs/benchmarks.md, <c>serving</c>, fifth run).
+    /// </summary>
+    public const int ListEntryCost = 10;
+
+    /// <summary>
+    /// True when the probed lists and the page codes of the <paramref name="handedOn"/> pages cost less to read than
+    /// the codes of every page: lists of common content (or of a centroid that gathered the rare tail) can hold a
+    /// large share of the index.
+    /// </summary>
+    private bool ReadsLists(HashSet<int>[] probed, int handedOn, int listEntryCost)
+    {
+        if (handedOn >= Count)
+        {
+            return false;
+        }
+
+        long entries = 0;
+        foreach (var centroid in probed.SelectMany(p => p).Distinct())
+        {
+            entries += lists[centroid].Count;
+        }
+
+        var live = (long)vectorCount * Count / Math.Max(1, Slots);
+        return (entries * listEntryCost) + (live * handedOn / Count) < live;
+    }
+
+    /// <summary>
+    /// Per query token the centroids whose lists it reads: the one its vector would be assigned to and the nearest
+    /// others by dot product, <paramref name="probes"/> in all.
+    /// </summary>
+    private HashSet<int>[] Probed(ReadOnlySpan<float> query, ulong[] queryCodes, int probes)
+    {
+        var tokens = query.Length / dimensions;
+        var centroidCount = CentroidCount;
+        probes = Math.Clamp(probes, 1, centroidCount);
+        var shortlist = new Shortlisted(Shortlist);
+        var scores = new float[centroidCount];
+        var order = new int[centroidCount];
+        var probed = new HashSet<int>[tokens];
+        for (var q = 0; q < tokens; q++)
+        {
+            var token = query.Slice(q * dimensions, dimensions);
+            probed[q] = [Assigned(token, queryCodes.AsSpan(q * words, words), shortlist)];
+            if (probes > 1)
+            {
+                for (var c = 0; c < centroidCount; c++)
+                {
+                    scores[c] = -TensorPrimitives.Dot(token, centroids.AsSpan(c * dimensions, dimensions));
+                    order[c] = c;
+                }
+
+                Array.Sort(scores, order);
+                for (var i = 0; probed[q].Count < probes; i++)
+                {
+                    probed[q].Add(order[i]);
+                }
+            }
+        }
+
+        return probed;
     }
 
     /// <summary>
@@ -311,97 +385,110 @@ internal sealed class CentroidLists
     {
         var queryCodes = new ulong[query.Length / dimensions * words];
         SignCodes.Compute(query, dimensions, queryCodes);
-        return [.. ListScored(query, queryCodes, probes, count, cancellationToken).Select(s => idOf[s])];
+        return [.. ListScored(queryCodes, Probed(query, queryCodes, probes), count, cancellationToken).Select(s => idOf[s])];
     }
 
     /// <summary>
     /// Slots of the <paramref name="count"/> best pages by the lists: per token the best entry of the probed lists
     /// counts (the sign codes' dot product); a token that found nothing on a page is imputed the lowest score it
-    /// saw (WARP's imputation of missing similarities).
+    /// saw (WARP's imputation of missing similarities). Pages are counted in arrays indexed by slot, not a map: the
+    /// lists of common content run to a large share of the index, and a map lookup per entry made this stage the
+    /// slowest of a query (docs/benchmarks.md, <c>serving</c>, fifth run).
     /// </summary>
-    private int[] ListScored(ReadOnlySpan<float> query, ulong[] queryCodes, int probes, int count, CancellationToken cancellationToken)
+    private int[] ListScored(ulong[] queryCodes, HashSet<int>[] probed, int count, CancellationToken cancellationToken)
     {
-        var tokens = query.Length / dimensions;
-        var centroidCount = CentroidCount;
-        probes = Math.Clamp(probes, 1, centroidCount);
-        var shortlist = new Shortlisted(Shortlist);
-        var scores = new float[centroidCount];
-        var order = new int[centroidCount];
-        var rowOf = new Dictionary<int, int>();
-        var best = new List<int>();
-        var imputed = new int[tokens];
-        for (var q = 0; q < tokens; q++)
+        var tokens = probed.Length;
+        var slots = idOf.Count;
+
+        // Per slot: the sum over the tokens that found it of (its best − the token's imputed score), the best of the
+        // current token, and the last token (1-based) that found it. The total is that sum plus every token's imputed score.
+        var gain = ArrayPool<int>.Shared.Rent(slots);
+        var tokenBest = ArrayPool<int>.Shared.Rent(slots);
+        var foundBy = ArrayPool<int>.Shared.Rent(slots);
+        try
         {
-            cancellationToken.ThrowIfCancellationRequested();
-            var token = query.Slice(q * dimensions, dimensions);
-            var tokenCode = queryCodes.AsSpan(q * words, words);
-            var probed = new HashSet<int> { Assigned(token, tokenCode, shortlist) };
-            if (probes > 1)
-            {
-                for (var c = 0; c < centroidCount; c++)
-                {
-                    scores[c] = -TensorPrimitives.Dot(token, centroids.AsSpan(c * dimensions, dimensions));
-                    order[c] = c;
-                }
-
-                Array.Sort(scores, order);
-                for (var i = 0; probed.Count < probes; i++)
-                {
-                    probed.Add(order[i]);
-                }
-            }
-
-            var lowest = int.MaxValue;
-            foreach (var c in probed)
-            {
-                foreach (var position in lists[c])
-                {
-                    var slot = vectorSlot[position];
-                    if (!alive[slot])
-                    {
-                        continue;
-                    }
-
-                    var distance = 0;
-                    for (var w = 0; w < words; w++)
-                    {
-                        distance += BitOperations.PopCount(tokenCode[w] ^ vectorCodes[(position * words) + w]);
-                    }
-
-                    var similarity = dimensions - (2 * distance);
-                    lowest = Math.Min(lowest, similarity);
-                    if (!rowOf.TryGetValue(slot, out var row))
-                    {
-                        row = rowOf.Count;
-                        rowOf[slot] = row;
-                        for (var t = 0; t < tokens; t++)
-                        {
-                            best.Add(int.MinValue);
-                        }
-                    }
-
-                    var at = (row * tokens) + q;
-                    best[at] = Math.Max(best[at], similarity);
-                }
-            }
-
-            imputed[q] = lowest == int.MaxValue ? 0 : lowest;
-        }
-
-        var top = new TopScores(count);
-        foreach (var (slot, row) in rowOf)
-        {
-            var total = 0;
+            foundBy.AsSpan(0, slots).Clear();
+            var touched = new List<int>();
+            var touchedByToken = new List<int>();
+            long imputedSum = 0;
             for (var q = 0; q < tokens; q++)
             {
-                var found = best[(row * tokens) + q];
-                total += found == int.MinValue ? imputed[q] : found;
+                cancellationToken.ThrowIfCancellationRequested();
+                var tokenCode = queryCodes.AsSpan(q * words, words);
+                var lowest = int.MaxValue;
+                var stamp = q + 1;
+                touchedByToken.Clear();
+                foreach (var c in probed[q])
+                {
+                    foreach (var position in CollectionsMarshal.AsSpan(lists[c]))
+                    {
+                        var slot = vectorSlot[position];
+                        if (!alive[slot])
+                        {
+                            continue;
+                        }
+
+                        var similarity = dimensions - (2 * Distance(tokenCode, position));
+                        lowest = Math.Min(lowest, similarity);
+                        if (foundBy[slot] == stamp)
+                        {
+                            tokenBest[slot] = Math.Max(tokenBest[slot], similarity);
+                            continue;
+                        }
+
+                        if (foundBy[slot] == 0)
+                        {
+                            gain[slot] = 0;
+                            touched.Add(slot);
+                        }
+
+                        foundBy[slot] = stamp;
+                        tokenBest[slot] = similarity;
+                        touchedByToken.Add(slot);
+                    }
+                }
+
+                var imputed = lowest == int.MaxValue ? 0 : lowest;
+                imputedSum += imputed;
+                foreach (var slot in touchedByToken)
+                {
+                    gain[slot] += tokenBest[slot] - imputed;
+                }
             }
 
-            top.Offer(total, slot);
+            var top = new TopScores(count);
+            foreach (var slot in touched)
+            {
+                top.Offer(gain[slot] + imputedSum, slot);
+            }
+
+            return [.. top.ToSorted().Select(s => s.Ordinal)];
+        }
+        finally
+        {
+            ArrayPool<int>.Shared.Return(gain);
+            ArrayPool<int>.Shared.Return(tokenBest);
+            ArrayPool<int>.Shared.Return(foundBy);
+        }
+    }
+
+    /// <summary>Differing bits between a query token's code and the stored code at <paramref name="position"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private int Distance(ReadOnlySpan<ulong> tokenCode, int position)
+    {
+        if (words == 2)
+        {
+            // The default d = 128: two words, no loop.
+            return BitOperations.PopCount(tokenCode[0] ^ vectorCodes[2 * position]) + BitOperations.PopCount(tokenCode[1] ^ vectorCodes[(2 * position) + 1]);
         }
 
-        return [.. top.ToSorted().Select(s => s.Ordinal)];
+        var distance = 0;
+        for (var w = 0; w < words; w++)
+        {
+            distance += BitOperations.PopCount(tokenCode[w] ^ vectorCodes[(position * words) + w]);
+        }
+
+        return distance;
     }
 
     /// <summary>The centroid of <see cref="Shortlist"/> by fewest differing sign bits (ties: lower id) with the largest dot product.</summary>

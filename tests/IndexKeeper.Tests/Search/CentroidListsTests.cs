@@ -101,7 +101,20 @@ public sealed class CentroidListsTests
             .ThenBy(p => p.Rank)
             .Take(10)
             .Select(p => p.Id);
-        Assert.Equal(full, lists.Nearest(query, probes: 1, handedOn: 30, count: 10, CancellationToken.None));
+        Assert.Equal(full, lists.Nearest(query, probes: 1, handedOn: 30, count: 10, CancellationToken.None, listEntryCost: 0));
+
+        // At the default cost the probed lists here hold more than a tenth of all vectors, so reading them costs
+        // more than reading every page's codes: every page is ranked by Hamming MaxSim, ties to the earlier page.
+        var probedEntries = entries.Count(e => tokenCentroids.Contains((ushort)e.Centroid));
+        Assert.True((probedEntries * CentroidLists.ListEntryCost) + (entries.Count * 30 / pages.Count) >= entries.Count);
+        var every = pages
+            .Select((p, slot) => (p.Id, Slot: slot, Score: Enumerable.Range(0, 3).Sum(q => entries.Where(e => e.Id == p.Id)
+                .Max(e => Dimensions - (2 * Enumerable.Range(0, Dimensions).Count(i => (query[(q * Dimensions) + i] >= 0) != (e.Vector[i] >= 0)))))))
+            .OrderByDescending(p => p.Score)
+            .ThenBy(p => p.Slot)
+            .Take(10)
+            .Select(p => p.Id);
+        Assert.Equal(every, lists.Nearest(query, probes: 1, handedOn: 30, count: 10, CancellationToken.None));
     }
 
     [Fact]
