@@ -110,16 +110,9 @@ public sealed class ServingViewTests : IDisposable
     public void A_damaged_view_file_reads_as_stale_and_the_view_is_built_from_the_catalog(int offset)
     {
         using var index = Index.Open(directory.Path);
-        index.AddPages(0, 1, 2);
-        index.Embed(0, 1, 2);
-        using (var writer = index.Views(readOnly: false))
-        {
-            writer.For(Encoder.Id, CancellationToken.None);
-            writer.Persist(CancellationToken.None);
-        }
+        var file = WrittenView(index);
 
         // Offset 4 is the version, 12 the catalog stamp, −8 a byte near the end (a checksum mismatch).
-        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
         var bytes = File.ReadAllBytes(file);
         bytes[offset >= 0 ? offset : bytes.Length + offset] ^= 0x5A;
         File.WriteAllBytes(file, bytes);
@@ -334,17 +327,10 @@ public sealed class ServingViewTests : IDisposable
     public void A_view_file_of_an_older_version_reads_as_stale_and_the_view_is_built_again()
     {
         using var index = Index.Open(directory.Path);
-        index.AddPages(0, 1, 2);
-        index.Embed(0, 1, 2);
-        using (var writer = index.Views(readOnly: false))
-        {
-            writer.For(Encoder.Id, CancellationToken.None);
-            writer.Persist(CancellationToken.None);
-        }
+        var file = WrittenView(index);
 
         // Version 3 with a matching checksum (CRC-32C, RFC 3720, over every byte before the trailer): a whole file
         // of the older layout, which must be refused for its version, not read field by field.
-        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
         var bytes = File.ReadAllBytes(file);
         BinaryPrimitives.WriteInt32LittleEndian(bytes.AsSpan(4), 3);
         BinaryPrimitives.WriteUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4), Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)));
@@ -410,6 +396,20 @@ public sealed class ServingViewTests : IDisposable
 
             Assert.Equal(1, filled);
         }
+    }
+
+    /// <summary>Three pages embedded and their view written by a writer; the view file's path.</summary>
+    private static string WrittenView(Index index)
+    {
+        index.AddPages(0, 1, 2);
+        index.Embed(0, 1, 2);
+        using (var writer = index.Views(readOnly: false))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+        }
+
+        return ServingViewFile.PathOf(index.Path, Encoder.Id);
     }
 
     private static void AssertMatchesCatalog(Index index, ServingView view)
