@@ -138,6 +138,7 @@ public sealed class ServingBenchmark : IBenchmark
         var all = new List<double>();
         var centroids = new List<double>();
         var truths = new List<Truth>();
+        var served = new List<IReadOnlyList<SearchHit>>();
         double agreeAll = 0, agreeCentroids = 0, tiedCentroids = 0;
         foreach (var query in queries)
         {
@@ -159,17 +160,24 @@ public sealed class ServingBenchmark : IBenchmark
             var found = views.Search(identity.Id, query, 10, CancellationToken.None).Result.Hits;
             centroids.Add(watch.Elapsed.TotalMilliseconds);
             agreeCentroids += truths[^1].Overlap(found);
+            served.Add(found);
             tiedCentroids += truths[^1].AtLeastTenth(found);
         }
 
         Latency(context, $"{name}: exhaustive float16 MaxSim", exhaustive);
         Latency(context, $"{name}: serving view, candidates all (sign codes of every page, re-rank of {CandidateCounts.Reranked(10, pages)})", all);
-        Latency(context, $"{name}: serving view, candidates centroids ({CandidateCounts.FromCentroids(10)} of {CandidateCounts.Probes} probes a token, sign codes, re-rank of {CandidateCounts.RerankedAfterCentroids(10, pages)})", centroids);
+        Latency(context, $"{name}: serving view, candidates centroids ({CandidateCounts.FromCentroids(10, pages)} of {CandidateCounts.Probes} probes a token to the sign codes, re-rank of {CandidateCounts.RerankedAfterCentroids(10, pages)})", centroids);
         context.Report($"{name}: speedup over exhaustive, p50, candidates centroids / all", Median(exhaustive) / Median(centroids), $"{Median(exhaustive) / Median(all):0.00}");
         context.Report($"{name}: top-10 agreement with exhaustive, candidates all", agreeAll / queries.Length, "share");
         context.Report($"{name}: top-10 agreement with exhaustive, candidates centroids", agreeCentroids / queries.Length, "share");
         context.Report($"{name}: top-10 agreement counting ties at the 10th score, candidates centroids", tiedCentroids / queries.Length, "share");
-        Agreement(context, name, view, catalog, store, identity.Id, queries, truths, pages);
+        Profile(context, name, view, store, identity.Id, queries, truths, pages);
+        Losses(context, name, view, store, identity.Id, queries, truths, served, pages);
+        // IK_SERVING_SWEEP=0 leaves out the grid of other settings (it builds two more views at 10k), e.g. while iterating.
+        if (Environment.GetEnvironmentVariable("IK_SERVING_SWEEP") != "0")
+        {
+            Agreement(context, name, view, catalog, store, identity.Id, queries, truths, pages);
+        }
 
         FirstSearch(context, name, catalog, directory, identity.Id, queries[0]);
         Churn(context, name, catalog, store, views, identity, corpus, pages);
@@ -188,32 +196,138 @@ public sealed class ServingBenchmark : IBenchmark
         {
             using var other = centroidCount == product.CentroidCount ? null : Built(catalog, store, encoderId, centroidCount, context, name);
             var view = other ?? product;
-            foreach (var probes in new[] { 1, 2 })
+            foreach (var (probes, handed) in new[] { 1, 2 }.SelectMany(p => new[] { 3000, 10_000, 20_000, 33_000, 50_000 }.Where(h => h < pages).Select(h => (p, h))))
             {
-                foreach (var handed in new[] { 1000, 3000, 10_000 }.Where(h => h < pages))
+                foreach (var rerank in new[] { 100, 1000 })
                 {
-                    foreach (var rerank in new[] { 100, 1000 })
+                    double agree = 0;
+                    var latency = new List<double>();
+                    for (var i = 0; i < queries.Length; i++)
                     {
-                        double agree = 0, handedOn = 0;
-                        var latency = new List<double>();
-                        for (var i = 0; i < queries.Length; i++)
-                        {
-                            var watch = Stopwatch.StartNew();
-                            var candidates = view.Candidates(queries[i], handed, probes);
-                            var hits = Ranked(store, encoderId, candidates, queries[i], rerank);
-                            latency.Add(watch.Elapsed.TotalMilliseconds);
-                            agree += truths[i].Overlap(hits);
-                            handedOn += candidates.Count;
-                        }
-
-                        var sorted = latency.Order().ToList();
-                        context.Report(
-                            $"{name}: {centroidCount} centroids, {probes} probes, at most {handed} handed on, re-rank {rerank}: top-10 agreement (pages handed on, mean / p50 ms / p95 ms)",
-                            agree / queries.Length,
-                            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{handedOn / queries.Length:0} / {SearchBenchmark.Percentile(sorted, 0.50):0.0} / {SearchBenchmark.Percentile(sorted, 0.95):0.0}"));
+                        var watch = Stopwatch.StartNew();
+                        var candidates = view.Candidates(queries[i], rerank, handed, probes);
+                        var hits = Ranked(store, encoderId, candidates, queries[i], rerank);
+                        latency.Add(watch.Elapsed.TotalMilliseconds);
+                        agree += truths[i].Overlap(hits);
                     }
+
+                    var sorted = latency.Order().ToList();
+                    context.Report(
+                        $"{name}: {centroidCount} centroids, {probes} probes, {handed} handed on to the sign codes, re-rank {rerank}: top-10 agreement (p50 ms / p95 ms)",
+                        agree / queries.Length,
+                        string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{SearchBenchmark.Percentile(sorted, 0.50):0.0} / {SearchBenchmark.Percentile(sorted, 0.95):0.0}"));
                 }
             }
+        }
+    }
+
+    /// <summary>
+    /// Where a served centroid query's time goes, stage by stage as <see cref="ServingViews.Search"/> runs them: the
+    /// candidates (the lists and the page codes of the pages handed on, or every page's codes when the lists would
+    /// cost more), opening the candidates' records, and the float16 re-rank; beside them the probed lists read
+    /// alone (every page they reach ranked). Medians over the queries.
+    /// </summary>
+    private static void Profile(BenchmarkContext context, string name, ServingView view, VectorStore store, string encoderId, VectorSet[] queries, List<Truth> truths, int pages)
+    {
+        var handedOn = CandidateCounts.FromCentroids(10, pages);
+        var reranked = CandidateCounts.RerankedAfterCentroids(10, pages);
+        List<double> lists = [], both = [], open = [], rerank = [], every = [];
+        double agreeEvery = 0;
+        for (var i = 0; i < queries.Length; i++)
+        {
+            var query = queries[i];
+            var watch = Stopwatch.StartNew();
+            view.ListRanked(query, CandidateCounts.Probes);
+            lists.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            var candidates = view.Candidates(query, reranked, handedOn);
+            both.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            using var live = store.OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
+            open.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10, Candidates = reranked }, CancellationToken.None);
+            rerank.Add(watch.Elapsed.TotalMilliseconds);
+
+            // Every page handed on: the lists are not read, every page's codes are (the other side of the rule).
+            watch.Restart();
+            var fromEvery = view.Candidates(query, reranked, pages);
+            every.Add(watch.Elapsed.TotalMilliseconds);
+            agreeEvery += truths[i].Overlap(Ranked(store, encoderId, fromEvery, query, reranked));
+        }
+
+        context.Report(
+            $"{name}: centroid query, median ms: the probed lists read alone / candidates ({handedOn} pages handed on, or every page) / opening {reranked} records / float16 re-rank",
+            Median(lists),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{Median(both):0.0} / {Median(open):0.0} / {Median(rerank):0.0}; load {Measure.LoadAverage():0.0}"));
+        context.Report(
+            $"{name}: centroid query with every page's codes scored (no lists): candidates median ms (top-10 agreement with exhaustive)",
+            Median(every),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeEvery / queries.Length:0.000})"));
+    }
+
+    /// <summary>
+    /// Where the exhaustive top-10 pages that the product's centroid search missed were lost: in no probed list,
+    /// ranked by the lists past the pages handed on, ranked by the sign codes past the re-rank count, or in the
+    /// re-rank itself (ties). Also how deep in the lists' ranking the last exhaustive top-10 page lies.
+    /// </summary>
+    private static void Losses(BenchmarkContext context, string name, ServingView view, VectorStore store, string encoderId, VectorSet[] queries, List<Truth> truths, List<IReadOnlyList<SearchHit>> served, int pages)
+    {
+        var handedOn = CandidateCounts.FromCentroids(10, pages);
+        var reranked = CandidateCounts.RerankedAfterCentroids(10, pages);
+        int unlisted = 0, pastHandOn = 0, pastSignCodes = 0, inRerank = 0;
+        var deepest = new List<double>();
+        var deepestTwoProbes = new List<double>();
+        for (var i = 0; i < queries.Length; i++)
+        {
+            var listed = view.ListRanked(queries[i], CandidateCounts.Probes);
+            var listRank = listed.Select((e, r) => (e.Key.Hex, r)).ToDictionary(p => p.Hex, p => p.r, StringComparer.Ordinal);
+            var handed = listed.Take(handedOn).ToList();
+            Dictionary<string, int> signRank;
+            using (var live = store.OpenSelected(encoderId, [.. handed.Select(c => Record(encoderId, c))]))
+            {
+                var ranked = LateInteractionSearch.FirstStage(live.Source, queries[i], handed.Count, Environment.ProcessorCount, CancellationToken.None);
+                signRank = ranked.Select((s, r) => (live.Source.Get(s.Ordinal).Key.Hex, r)).ToDictionary(p => p.Hex, p => p.r, StringComparer.Ordinal);
+            }
+
+            var found = served[i].Select(h => h.Key.Hex).ToHashSet(StringComparer.Ordinal);
+            foreach (var key in truths[i].Keys.Where(k => !found.Contains(k)))
+            {
+                if (!listRank.TryGetValue(key, out var rank))
+                {
+                    unlisted++;
+                }
+                else if (rank >= handedOn)
+                {
+                    pastHandOn++;
+                }
+                else if (signRank.GetValueOrDefault(key, int.MaxValue) >= reranked)
+                {
+                    pastSignCodes++;
+                }
+                else
+                {
+                    inRerank++;
+                }
+            }
+
+            deepest.Add(truths[i].Keys.Max(k => listRank.GetValueOrDefault(k, pages)));
+            var twoProbes = view.ListRanked(queries[i], 2).Select((e, r) => (e.Key.Hex, r)).ToDictionary(p => p.Hex, p => p.r, StringComparer.Ordinal);
+            deepestTwoProbes.Add(truths[i].Keys.Max(k => twoProbes.GetValueOrDefault(k, pages)));
+        }
+
+        var total = queries.Length * 10.0;
+        context.Report(
+            $"{name}: exhaustive top-10 pages missed by centroids, share lost: in no probed list / past the {handedOn} handed on / past the {reranked} the sign codes keep / in the re-rank",
+            (unlisted + pastHandOn + pastSignCodes + inRerank) / total,
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{unlisted / total:0.000} / {pastHandOn / total:0.000} / {pastSignCodes / total:0.000} / {inRerank / total:0.000}"));
+        foreach (var (probes, ranks) in new[] { (CandidateCounts.Probes, deepest), (2, deepestTwoProbes) })
+        {
+            var sorted = ranks.Order().ToList();
+            context.Report(
+                $"{name}: lists' rank of the deepest exhaustive top-10 page, {probes} probes a token, p50 (p90 / max)",
+                SearchBenchmark.Percentile(sorted, 0.50),
+                string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{SearchBenchmark.Percentile(sorted, 0.90):0} / {sorted[^1]:0}"));
         }
     }
 
@@ -240,12 +354,14 @@ public sealed class ServingBenchmark : IBenchmark
     /// <summary>The two exact stages over the given pages, as <see cref="ServingViews.Search"/> runs them.</summary>
     private static IReadOnlyList<SearchHit> Ranked(VectorStore store, string encoderId, IReadOnlyList<ServingEntry> candidates, VectorSet query, int rerank)
     {
-        using var live = store.OpenSelected(encoderId, [.. candidates.Select(c => new VectorSetRecord
-        {
-            EncoderId = encoderId, PageKey = c.Key.Hex, SegmentId = c.Location.SegmentId, Offset = c.Location.Offset, Length = c.Location.Length, Checksum = c.Location.Checksum,
-        })]);
+        using var live = store.OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
         return LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10, Candidates = rerank }, CancellationToken.None).Hits;
     }
+
+    private static VectorSetRecord Record(string encoderId, ServingEntry entry) => new()
+    {
+        EncoderId = encoderId, PageKey = entry.Key.Hex, SegmentId = entry.Location.SegmentId, Offset = entry.Location.Offset, Length = entry.Location.Length, Checksum = entry.Location.Checksum,
+    };
 
     private static void CopyFolder(string from, string to)
     {

@@ -11,11 +11,16 @@ public static class CandidateCounts
     public static int FromGraph(int k, int pages) => Math.Max(Math.Max(200 * k, 2000), pages / 20);
 
     /// <summary>
-    /// Pages the centroid lists hand on to the sign-code stage, best by approximate MaxSim: max(300·k, 3,000), a
-    /// count that does not grow with the index (with a re-rank of 1,000, 3,000 kept 0.977–0.993 of the exhaustive
-    /// top-10 at 10,000 pages but 0.85 at 100,000, where 10,000 kept 0.92: docs/benchmarks.md, <c>serving</c>).
+    /// Pages the centroid lists hand on to the view's own sign-code stage (Hamming MaxSim over all of a page's
+    /// vectors, in memory), best by the lists' approximate MaxSim: max(300·k, 3,000, pages / <see cref="HandOnShare"/>).
+    /// A count that does not grow with the index lost most of the misses at 100,000 pages (3,000 kept 0.85 of the
+    /// exhaustive top-10, 10,000 kept 0.92), and the last exhaustive top-10 page lies deeper in the lists' ranking
+    /// the more pages there are (docs/benchmarks.md, <c>serving</c>, fourth run).
     /// </summary>
-    public static int FromCentroids(int k) => Math.Max(300 * k, 3000);
+    public static int FromCentroids(int k, int pages) => Math.Max(Math.Max(300 * k, 3000), pages / HandOnShare);
+
+    /// <summary>One page in this many goes from the lists to the sign-code stage (see <see cref="FromCentroids"/>).</summary>
+    public const int HandOnShare = 4;
 
     /// <summary>
     /// Pages the sign-code stage hands to the float re-rank after the centroid lists: at least 100·k, since at

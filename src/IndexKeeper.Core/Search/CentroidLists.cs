@@ -1,4 +1,7 @@
+using System.Buffers;
 using System.Numerics;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Numerics.Tensors;
 
 namespace IndexKeeper.Core.Search;
@@ -7,15 +10,17 @@ namespace IndexKeeper.Core.Search;
 /// Candidate pages from centroid inverted lists of vectors, after Santhanam, Khattab, Potts and Zaharia, "PLAID:
 /// An Efficient Engine for Late Interaction Retrieval" (CIKM 2022, arXiv:2205.09707) and Scheerer et al., "WARP:
 /// An Efficient Engine for Multi-Vector Retrieval" (SIGIR 2025, arXiv:2501.17788): k-means centroids trained on a
-/// sample of the index's vectors; every stored vector is an entry (page, sign code) in the list of its centroid.
-/// A query token probes a few centroids and scores the entries of their lists by the sign codes' dot product
-/// (the stand-in for PLAID's residuals); per page and token the best entry counts, and a token that found nothing
-/// on a page is imputed the lowest score it saw (WARP's imputation of missing similarities). The pages with the
-/// best sums are the candidates of the exact stages (docs/search.md, "Candidates"; docs/benchmarks.md, <c>serving</c>).
+/// sample of the index's vectors; every stored vector's sign code is kept page by page (the stand-in for PLAID's
+/// residuals) and its position is in the list of its centroid. A query token probes a few centroids and scores the
+/// entries of their lists by the sign codes' dot product; per page and token the best entry counts, and a token that
+/// found nothing on a page is imputed the lowest score it saw (WARP's imputation of missing similarities). The pages
+/// with the best sums are then scored by Hamming MaxSim over all their vectors' codes (PLAID's full scoring of
+/// candidates from their stored codes), and the best of those are the candidates of the exact re-rank
+/// (docs/search.md, "Candidates"; docs/benchmarks.md, <c>serving</c>).
 /// </summary>
 /// <remarks>
 /// Adds are assigned to the trained centroids and appended; removes leave a tombstone until a quarter of the
-/// slots are dead, then the lists are compacted. The centroids do not follow the content: their quality under
+/// slots are dead, then the page codes are compacted and the lists made again. The centroids do not follow the content: their quality under
 /// churn is the recall figure (docs/search.md, "Recall"), and retraining is a new build. Not safe for a write
 /// beside any other call: the serving view's lock orders them.
 /// </remarks>
@@ -43,10 +48,21 @@ internal sealed class CentroidLists
     private readonly float[] centroids;
     private readonly ulong[] centroidCodes;
     private readonly Dictionary<ulong, int> slotOf = [];
+
+    // Per slot (a page as added; removed ones are dead until compaction): id, first vector position, vector count.
     private List<ulong> idOf = [];
     private List<bool> alive = [];
-    private List<int>[] slots;
-    private List<ulong>[] codes;
+    private List<int> startOf = [];
+    private List<int> rowsOf = [];
+
+    // Per vector position, pages' vectors kept together (page-major): sign code, centroid, slot.
+    private ulong[] vectorCodes = [];
+    private ushort[] vectorCentroid = [];
+    private int[] vectorSlot = [];
+    private int vectorCount;
+
+    // Per centroid, the positions of its vectors: the inverted lists.
+    private List<int>[] lists;
     private int dead;
 
     private CentroidLists(int dimensions, float[] centroids)
@@ -56,8 +72,7 @@ internal sealed class CentroidLists
         words = SignCodes.WordsPerCode(dimensions);
         centroidCodes = new ulong[CentroidCount * words];
         SignCodes.Compute(centroids, dimensions, centroidCodes);
-        slots = [.. Enumerable.Range(0, CentroidCount).Select(_ => new List<int>())];
-        codes = [.. Enumerable.Range(0, CentroidCount).Select(_ => new List<ulong>())];
+        lists = NewLists(CentroidCount);
     }
 
     public int CentroidCount => centroids.Length / dimensions;
@@ -67,8 +82,13 @@ internal sealed class CentroidLists
     /// <summary>Centroids, row-major, <c>CentroidCount × dimensions</c>.</summary>
     public ReadOnlySpan<float> Centroids => centroids;
 
-    /// <summary>Bytes held: centroids, list entries (a 4-byte slot and the sign code each) and per-page slots.</summary>
-    public long BytesEstimate => (centroids.Length * 4L) + slots.Sum(l => (long)l.Capacity * 4) + codes.Sum(l => (long)l.Capacity * 8) + (idOf.Capacity * 9L) + (slotOf.Count * 24L);
+    /// <summary>
+    /// Bytes held: centroids, per vector its sign code, centroid and slot (page-major) and its list entry, per page
+    /// its slot fields.
+    /// </summary>
+    public long BytesEstimate =>
+        (centroids.Length * 4L) + (vectorCodes.Length * 8L) + (vectorCentroid.Length * 2L) + (vectorSlot.Length * 4L)
+        + lists.Sum(l => (long)l.Capacity * 4) + (idOf.Capacity * 17L) + (slotOf.Count * 24L);
 
     /// <summary>
     /// Centroids for an index of <paramref name="vectors"/> vectors: a power of two near √vectors, within
@@ -141,56 +161,74 @@ internal sealed class CentroidLists
         return lists;
     }
 
-    /// <summary>Lists over stored centroids and list entries (page id and sign code), as the serving view file keeps them.</summary>
-    public static CentroidLists Restore(int dimensions, float[] centroids, IReadOnlyList<(ulong[] Ids, ulong[] Codes)> lists)
+    /// <summary>
+    /// Lists over stored centroids and pages as the serving view file keeps them: per page its id and vector count
+    /// (in slot order), per vector (pages' vectors together, in the same order) its centroid and sign code. The
+    /// lists are made again from the centroids of the vectors, one pass.
+    /// </summary>
+    /// <exception cref="FormatException">The parts do not fit together.</exception>
+    public static CentroidLists Restore(int dimensions, float[] centroids, ulong[] ids, int[] rows, ushort[] centroidOfVector, ulong[] codes)
     {
-        ArgumentNullException.ThrowIfNull(lists);
+        ArgumentNullException.ThrowIfNull(ids);
+        ArgumentNullException.ThrowIfNull(rows);
+        ArgumentNullException.ThrowIfNull(centroidOfVector);
+        ArgumentNullException.ThrowIfNull(codes);
         var restored = new CentroidLists(dimensions, centroids);
-        if (lists.Count != restored.CentroidCount)
+        if (ids.Length != rows.Length || codes.Length != (long)centroidOfVector.Length * restored.words)
         {
-            throw new FormatException($"{lists.Count} centroid lists for {restored.CentroidCount} centroids.");
+            throw new FormatException($"{ids.Length} pages with {rows.Length} vector counts, {centroidOfVector.Length} vectors with {codes.Length} code words.");
         }
 
-        // Slots in ascending id order, as adds made them (the view never reuses an id), so ties break as before.
-        foreach (var id in lists.SelectMany(l => l.Ids).Distinct().Order())
+        restored.vectorCodes = codes;
+        restored.vectorCentroid = centroidOfVector;
+        restored.vectorSlot = new int[centroidOfVector.Length];
+        restored.idOf = new List<ulong>(ids.Length);
+        restored.alive = new List<bool>(ids.Length);
+        restored.startOf = new List<int>(ids.Length);
+        restored.rowsOf = new List<int>(ids.Length);
+        long at = 0;
+        for (var slot = 0; slot < ids.Length; slot++)
         {
-            restored.slotOf[id] = restored.idOf.Count;
-            restored.idOf.Add(id);
-            restored.alive.Add(true);
-        }
-
-        for (var c = 0; c < lists.Count; c++)
-        {
-            var (ids, entryCodes) = lists[c];
-            if (entryCodes.Length != ids.Length * restored.words)
+            if (rows[slot] < 0 || at + rows[slot] > centroidOfVector.Length || !restored.slotOf.TryAdd(ids[slot], slot))
             {
-                throw new FormatException($"Centroid list {c} has {ids.Length} entries and {entryCodes.Length} code words.");
+                throw new FormatException($"Page {ids[slot]} of the centroid lists has {rows[slot]} vectors past the stored ones, or is there twice.");
             }
 
-            restored.slots[c].AddRange(ids.Select(id => restored.slotOf[id]));
-            restored.codes[c].AddRange(entryCodes);
+            restored.idOf.Add(ids[slot]);
+            restored.alive.Add(true);
+            restored.startOf.Add((int)at);
+            restored.rowsOf.Add(rows[slot]);
+            restored.vectorSlot.AsSpan((int)at, rows[slot]).Fill(slot);
+            at += rows[slot];
         }
 
+        if (at != centroidOfVector.Length)
+        {
+            throw new FormatException($"The pages of the centroid lists have {at} vectors, {centroidOfVector.Length} are stored.");
+        }
+
+        restored.vectorCount = (int)at;
+        if (centroidOfVector.Any(c => c >= restored.CentroidCount))
+        {
+            throw new FormatException($"A vector names a centroid past the {restored.CentroidCount} stored.");
+        }
+
+        restored.RebuildLists();
         return restored;
     }
 
-    /// <summary>The live entries of list <paramref name="centroid"/>: page ids and their sign codes (words per code each).</summary>
-    public (ulong[] Ids, ulong[] Codes) List(int centroid)
-    {
-        var ids = new List<ulong>();
-        var entryCodes = new List<ulong>();
-        for (var e = 0; e < slots[centroid].Count; e++)
-        {
-            var slot = slots[centroid][e];
-            if (alive[slot])
-            {
-                ids.Add(idOf[slot]);
-                entryCodes.AddRange(codes[centroid].GetRange(e * words, words));
-            }
-        }
+    /// <summary>Pages in slot order (removed ones included until compaction; <see cref="IsLive"/> tells).</summary>
+    public int Slots => idOf.Count;
 
-        return ([.. ids], [.. entryCodes]);
-    }
+    public bool IsLive(int slot) => alive[slot];
+
+    public ulong IdOf(int slot) => idOf[slot];
+
+    /// <summary>The centroid of each vector of the page in <paramref name="slot"/>.</summary>
+    public ReadOnlySpan<ushort> CentroidsOf(int slot) => vectorCentroid.AsSpan(startOf[slot], rowsOf[slot]);
+
+    /// <summary>The sign codes of the page in <paramref name="slot"/>, words per code each.</summary>
+    public ReadOnlySpan<ulong> CodesOf(int slot) => vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words);
 
     /// <summary>True when the page is in the lists.</summary>
     public bool Contains(ulong id) => slotOf.ContainsKey(id);
@@ -219,14 +257,16 @@ internal sealed class CentroidLists
         var slot = idOf.Count;
         idOf.Add(id);
         alive.Add(true);
+        startOf.Add(vectorCount);
+        rowsOf.Add(assigned.Length);
         slotOf[id] = slot;
+        Reserve(vectorCount + assigned.Length);
+        signCodes[..(assigned.Length * words)].CopyTo(vectorCodes.AsSpan(vectorCount * words));
+        assigned.CopyTo(vectorCentroid.AsSpan(vectorCount));
         for (var r = 0; r < assigned.Length; r++)
         {
-            slots[assigned[r]].Add(slot);
-            foreach (var word in signCodes.Slice(r * words, words))
-            {
-                codes[assigned[r]].Add(word);
-            }
+            vectorSlot[vectorCount] = slot;
+            lists[assigned[r]].Add(vectorCount++);
         }
     }
 
@@ -245,29 +285,78 @@ internal sealed class CentroidLists
     }
 
     /// <summary>
-    /// Ids of the <paramref name="count"/> pages with the best approximate MaxSim from the lists each query token
-    /// (rows of <paramref name="query"/>) probes: the centroid its vector would be assigned to and the nearest
-    /// others by dot product, <paramref name="probes"/> in all. Best first, ties to the earlier slot.
+    /// Ids of the <paramref name="count"/> pages with the best Hamming MaxSim over all their vectors' sign codes, among
+    /// the <paramref name="handedOn"/> pages the lists rank best (<see cref="ListRanked"/>): PLAID's later stage that
+    /// scores whole candidate pages from their stored codes, here the sign codes kept page by page. When reading the
+    /// probed lists would cost more than reading every page's codes in order (<see cref="ListEntryCost"/>), or every
+    /// page is handed on, every live page is scored and the lists are not read. Best first, ties to the better list
+    /// rank (to the earlier slot when every page is scored).
     /// </summary>
-    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int count, CancellationToken cancellationToken)
+    /// <param name="listEntryCost">What a list entry costs in page-code rows read in order (tests set it to force a path).</param>
+    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost)
+    {
+        var tokens = query.Length / dimensions;
+        var queryCodes = new ulong[tokens * words];
+        SignCodes.Compute(query, dimensions, queryCodes);
+        var probed = Probed(query, queryCodes, probes);
+        var listed = ReadsLists(probed, handedOn, listEntryCost)
+            ? ListScored(queryCodes, probed, handedOn, cancellationToken)
+            : [.. Enumerable.Range(0, Slots).Where(IsLive)];
+        var ordinals = Enumerable.Range(0, listed.Length).ToArray();
+        var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
+        {
+            var slot = listed[ordinal];
+            best.Offer(MaxSimKernels.Hamming(queryCodes, vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words), dimensions, closest), ordinal);
+        });
+        return [.. top.Select(t => idOf[listed[t.Ordinal]])];
+    }
+
+    /// <summary>
+    /// A list entry read costs about this many page-code rows read in order: the entries point at codes spread over
+    /// the whole index (a cache miss each), the rows of every page lie side by side. Measured at 10,000 pages: about
+    /// 70 ns an entry against 7 ns a row (docs/benchmarks.md, <c>serving</c>, fifth run).
+    /// </summary>
+    public const int ListEntryCost = 10;
+
+    /// <summary>
+    /// True when the probed lists and the page codes of the <paramref name="handedOn"/> pages cost less to read than
+    /// the codes of every page: lists of common content (or of a centroid that gathered the rare tail) can hold a
+    /// large share of the index.
+    /// </summary>
+    private bool ReadsLists(HashSet<int>[] probed, int handedOn, int listEntryCost)
+    {
+        if (handedOn >= Count)
+        {
+            return false;
+        }
+
+        long entries = 0;
+        foreach (var centroid in probed.SelectMany(p => p).Distinct())
+        {
+            entries += lists[centroid].Count;
+        }
+
+        var live = (long)vectorCount * Count / Math.Max(1, Slots);
+        return (entries * listEntryCost) + (live * handedOn / Count) < live;
+    }
+
+    /// <summary>
+    /// Per query token the centroids whose lists it reads: the one its vector would be assigned to and the nearest
+    /// others by dot product, <paramref name="probes"/> in all.
+    /// </summary>
+    private HashSet<int>[] Probed(ReadOnlySpan<float> query, ulong[] queryCodes, int probes)
     {
         var tokens = query.Length / dimensions;
         var centroidCount = CentroidCount;
         probes = Math.Clamp(probes, 1, centroidCount);
-        var queryCodes = new ulong[tokens * words];
-        SignCodes.Compute(query, dimensions, queryCodes);
         var shortlist = new Shortlisted(Shortlist);
         var scores = new float[centroidCount];
         var order = new int[centroidCount];
-        var rowOf = new Dictionary<int, int>();
-        var best = new List<int>();
-        var imputed = new int[tokens];
+        var probed = new HashSet<int>[tokens];
         for (var q = 0; q < tokens; q++)
         {
-            cancellationToken.ThrowIfCancellationRequested();
             var token = query.Slice(q * dimensions, dimensions);
-            var tokenCode = queryCodes.AsSpan(q * words, words);
-            var probed = new HashSet<int> { Assigned(token, tokenCode, shortlist) };
+            probed[q] = [Assigned(token, queryCodes.AsSpan(q * words, words), shortlist)];
             if (probes > 1)
             {
                 for (var c = 0; c < centroidCount; c++)
@@ -277,65 +366,129 @@ internal sealed class CentroidLists
                 }
 
                 Array.Sort(scores, order);
-                for (var i = 0; probed.Count < probes; i++)
+                for (var i = 0; probed[q].Count < probes; i++)
                 {
-                    probed.Add(order[i]);
+                    probed[q].Add(order[i]);
                 }
             }
-
-            var lowest = int.MaxValue;
-            foreach (var c in probed)
-            {
-                var listSlots = slots[c];
-                var listCodes = codes[c];
-                for (var e = 0; e < listSlots.Count; e++)
-                {
-                    var slot = listSlots[e];
-                    if (!alive[slot])
-                    {
-                        continue;
-                    }
-
-                    var distance = 0;
-                    for (var w = 0; w < words; w++)
-                    {
-                        distance += BitOperations.PopCount(tokenCode[w] ^ listCodes[(e * words) + w]);
-                    }
-
-                    var similarity = dimensions - (2 * distance);
-                    lowest = Math.Min(lowest, similarity);
-                    if (!rowOf.TryGetValue(slot, out var row))
-                    {
-                        row = rowOf.Count;
-                        rowOf[slot] = row;
-                        for (var t = 0; t < tokens; t++)
-                        {
-                            best.Add(int.MinValue);
-                        }
-                    }
-
-                    var at = (row * tokens) + q;
-                    best[at] = Math.Max(best[at], similarity);
-                }
-            }
-
-            imputed[q] = lowest == int.MaxValue ? 0 : lowest;
         }
 
-        var top = new TopScores(count);
-        foreach (var (slot, row) in rowOf)
+        return probed;
+    }
+
+    /// <summary>
+    /// Ids of the <paramref name="count"/> pages with the best approximate MaxSim from the lists each query token
+    /// (rows of <paramref name="query"/>) probes: the centroid its vector would be assigned to and the nearest
+    /// others by dot product, <paramref name="probes"/> in all. Best first, ties to the earlier slot.
+    /// </summary>
+    public ulong[] ListRanked(ReadOnlySpan<float> query, int probes, int count, CancellationToken cancellationToken)
+    {
+        var queryCodes = new ulong[query.Length / dimensions * words];
+        SignCodes.Compute(query, dimensions, queryCodes);
+        return [.. ListScored(queryCodes, Probed(query, queryCodes, probes), count, cancellationToken).Select(s => idOf[s])];
+    }
+
+    /// <summary>
+    /// Slots of the <paramref name="count"/> best pages by the lists: per token the best entry of the probed lists
+    /// counts (the sign codes' dot product); a token that found nothing on a page is imputed the lowest score it
+    /// saw (WARP's imputation of missing similarities). Pages are counted in arrays indexed by slot, not a map: the
+    /// lists of common content run to a large share of the index, and a map lookup per entry made this stage the
+    /// slowest of a query (docs/benchmarks.md, <c>serving</c>, fifth run).
+    /// </summary>
+    private int[] ListScored(ulong[] queryCodes, HashSet<int>[] probed, int count, CancellationToken cancellationToken)
+    {
+        var tokens = probed.Length;
+        var slots = idOf.Count;
+
+        // Per slot: the sum over the tokens that found it of (its best − the token's imputed score), the best of the
+        // current token, and the last token (1-based) that found it. The total is that sum plus every token's imputed score.
+        var gain = ArrayPool<int>.Shared.Rent(slots);
+        var tokenBest = ArrayPool<int>.Shared.Rent(slots);
+        var foundBy = ArrayPool<int>.Shared.Rent(slots);
+        try
         {
-            var total = 0;
+            foundBy.AsSpan(0, slots).Clear();
+            var touched = new List<int>();
+            var touchedByToken = new List<int>();
+            long imputedSum = 0;
             for (var q = 0; q < tokens; q++)
             {
-                var found = best[(row * tokens) + q];
-                total += found == int.MinValue ? imputed[q] : found;
+                cancellationToken.ThrowIfCancellationRequested();
+                var tokenCode = queryCodes.AsSpan(q * words, words);
+                var lowest = int.MaxValue;
+                var stamp = q + 1;
+                touchedByToken.Clear();
+                foreach (var c in probed[q])
+                {
+                    foreach (var position in CollectionsMarshal.AsSpan(lists[c]))
+                    {
+                        var slot = vectorSlot[position];
+                        if (!alive[slot])
+                        {
+                            continue;
+                        }
+
+                        var similarity = dimensions - (2 * Distance(tokenCode, position));
+                        lowest = Math.Min(lowest, similarity);
+                        if (foundBy[slot] == stamp)
+                        {
+                            tokenBest[slot] = Math.Max(tokenBest[slot], similarity);
+                            continue;
+                        }
+
+                        if (foundBy[slot] == 0)
+                        {
+                            gain[slot] = 0;
+                            touched.Add(slot);
+                        }
+
+                        foundBy[slot] = stamp;
+                        tokenBest[slot] = similarity;
+                        touchedByToken.Add(slot);
+                    }
+                }
+
+                var imputed = lowest == int.MaxValue ? 0 : lowest;
+                imputedSum += imputed;
+                foreach (var slot in touchedByToken)
+                {
+                    gain[slot] += tokenBest[slot] - imputed;
+                }
             }
 
-            top.Offer(total, slot);
+            var top = new TopScores(count);
+            foreach (var slot in touched)
+            {
+                top.Offer(gain[slot] + imputedSum, slot);
+            }
+
+            return [.. top.ToSorted().Select(s => s.Ordinal)];
+        }
+        finally
+        {
+            ArrayPool<int>.Shared.Return(gain);
+            ArrayPool<int>.Shared.Return(tokenBest);
+            ArrayPool<int>.Shared.Return(foundBy);
+        }
+    }
+
+    /// <summary>Differing bits between a query token's code and the stored code at <paramref name="position"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private int Distance(ReadOnlySpan<ulong> tokenCode, int position)
+    {
+        if (words == 2)
+        {
+            // The default d = 128: two words, no loop.
+            return BitOperations.PopCount(tokenCode[0] ^ vectorCodes[2 * position]) + BitOperations.PopCount(tokenCode[1] ^ vectorCodes[(2 * position) + 1]);
         }
 
-        return [.. top.ToSorted().Select(s => idOf[s.Ordinal])];
+        var distance = 0;
+        for (var w = 0; w < words; w++)
+        {
+            distance += BitOperations.PopCount(tokenCode[w] ^ vectorCodes[(position * words) + w]);
+        }
+
+        return distance;
     }
 
     /// <summary>The centroid of <see cref="Shortlist"/> by fewest differing sign bits (ties: lower id) with the largest dot product.</summary>
@@ -415,40 +568,69 @@ internal sealed class CentroidLists
         }
     }
 
-    /// <summary>Drops the tombstones: live slots renumbered in their order, each list filtered.</summary>
+    /// <summary>Drops the tombstones: live slots and their vectors moved down in their order, the lists made again.</summary>
     private void Compact()
     {
-        var renumbered = new int[idOf.Count];
         var ids = new List<ulong>(slotOf.Count);
+        var starts = new List<int>(slotOf.Count);
+        var rows = new List<int>(slotOf.Count);
+        var kept = 0;
         for (var slot = 0; slot < idOf.Count; slot++)
         {
-            renumbered[slot] = alive[slot] ? ids.Count : -1;
-            if (alive[slot])
+            if (!alive[slot])
             {
-                slotOf[idOf[slot]] = ids.Count;
-                ids.Add(idOf[slot]);
-            }
-        }
-
-        for (var c = 0; c < CentroidCount; c++)
-        {
-            var keptSlots = new List<int>();
-            var keptCodes = new List<ulong>();
-            for (var e = 0; e < slots[c].Count; e++)
-            {
-                if (renumbered[slots[c][e]] is var slot and >= 0)
-                {
-                    keptSlots.Add(slot);
-                    keptCodes.AddRange(codes[c].GetRange(e * words, words));
-                }
+                continue;
             }
 
-            slots[c] = keptSlots;
-            codes[c] = keptCodes;
+            var (from, length) = (startOf[slot], rowsOf[slot]);
+            vectorCodes.AsSpan(from * words, length * words).CopyTo(vectorCodes.AsSpan(kept * words));
+            vectorCentroid.AsSpan(from, length).CopyTo(vectorCentroid.AsSpan(kept));
+            vectorSlot.AsSpan(kept, length).Fill(ids.Count);
+            slotOf[idOf[slot]] = ids.Count;
+            ids.Add(idOf[slot]);
+            starts.Add(kept);
+            rows.Add(length);
+            kept += length;
         }
 
         idOf = ids;
+        startOf = starts;
+        rowsOf = rows;
         alive = [.. ids.Select(_ => true)];
+        vectorCount = kept;
         dead = 0;
+        RebuildLists();
     }
+
+    /// <summary>The lists from the vectors' centroids, positions ascending in each (counted first, so sized exactly).</summary>
+    private void RebuildLists()
+    {
+        var sizes = new int[CentroidCount];
+        for (var position = 0; position < vectorCount; position++)
+        {
+            sizes[vectorCentroid[position]]++;
+        }
+
+        lists = [.. sizes.Select(size => new List<int>(size))];
+        for (var position = 0; position < vectorCount; position++)
+        {
+            lists[vectorCentroid[position]].Add(position);
+        }
+    }
+
+    /// <summary>Room for <paramref name="vectors"/> vectors in the page-major arrays, grown by half again.</summary>
+    private void Reserve(int vectors)
+    {
+        if (vectors <= vectorCentroid.Length)
+        {
+            return;
+        }
+
+        var capacity = Math.Max(vectors, Math.Max(1024, vectorCentroid.Length + (vectorCentroid.Length / 2)));
+        Array.Resize(ref vectorCodes, capacity * words);
+        Array.Resize(ref vectorCentroid, capacity);
+        Array.Resize(ref vectorSlot, capacity);
+    }
+
+    private static List<int>[] NewLists(int count) => [.. Enumerable.Range(0, count).Select(_ => new List<int>())];
 }

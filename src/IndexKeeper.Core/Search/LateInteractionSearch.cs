@@ -89,7 +89,7 @@ public static class LateInteractionSearch
     }
 
     // Both cores: chunks of ordinals go to worker threads, each with its own scratch and heap, merged at the end.
-    private static (float Score, int Ordinal)[] Scan<TScratch>(
+    internal static (float Score, int Ordinal)[] Scan<TScratch>(
         int[] ordinals,
         int keep,
         int parallelism,

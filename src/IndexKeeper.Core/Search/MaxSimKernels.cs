@@ -29,20 +29,7 @@ internal static class MaxSimKernels
         best.Fill(int.MaxValue);
         if (words == 2)
         {
-            // The default d = 128: two words per code, kept in registers.
-            for (var p = 0; p < rows; p++)
-            {
-                var low = pageCodes[2 * p];
-                var high = pageCodes[(2 * p) + 1];
-                for (var q = 0; q < tokens; q++)
-                {
-                    var distance = BitOperations.PopCount(low ^ queryCodes[2 * q]) + BitOperations.PopCount(high ^ queryCodes[(2 * q) + 1]);
-                    if (distance < best[q])
-                    {
-                        best[q] = distance;
-                    }
-                }
-            }
+            ClosestTwoWords(queryCodes, pageCodes, best);
         }
         else
         {
@@ -73,6 +60,42 @@ internal static class MaxSimKernels
         }
 
         return score;
+    }
+
+    /// <summary>
+    /// Per query token the fewest differing bits from any page code, for d = 128 (two words a code): four tokens at a
+    /// time with their codes and running minima in registers, so a page's codes are read once per four tokens and no
+    /// bound is checked per row (the codes of both spans are taken whole). A last group of fewer tokens repeats its
+    /// last token.
+    /// </summary>
+    private static void ClosestTwoWords(ReadOnlySpan<ulong> queryCodes, ReadOnlySpan<ulong> pageCodes, Span<int> best)
+    {
+        var tokens = best.Length;
+        var rows = pageCodes.Length / 2;
+        ref var page = ref MemoryMarshal.GetReference(pageCodes);
+        for (var q = 0; q < tokens; q += 4)
+        {
+            var (t0, t1, t2, t3) = (q, Math.Min(q + 1, tokens - 1), Math.Min(q + 2, tokens - 1), Math.Min(q + 3, tokens - 1));
+            var (a0, a1) = (queryCodes[2 * t0], queryCodes[(2 * t0) + 1]);
+            var (b0, b1) = (queryCodes[2 * t1], queryCodes[(2 * t1) + 1]);
+            var (c0, c1) = (queryCodes[2 * t2], queryCodes[(2 * t2) + 1]);
+            var (d0, d1) = (queryCodes[2 * t3], queryCodes[(2 * t3) + 1]);
+            int bestA = int.MaxValue, bestB = int.MaxValue, bestC = int.MaxValue, bestD = int.MaxValue;
+            for (var r = 0; r < rows; r++)
+            {
+                var low = Unsafe.Add(ref page, 2 * r);
+                var high = Unsafe.Add(ref page, (2 * r) + 1);
+                bestA = Math.Min(bestA, BitOperations.PopCount(low ^ a0) + BitOperations.PopCount(high ^ a1));
+                bestB = Math.Min(bestB, BitOperations.PopCount(low ^ b0) + BitOperations.PopCount(high ^ b1));
+                bestC = Math.Min(bestC, BitOperations.PopCount(low ^ c0) + BitOperations.PopCount(high ^ c1));
+                bestD = Math.Min(bestD, BitOperations.PopCount(low ^ d0) + BitOperations.PopCount(high ^ d1));
+            }
+
+            best[t0] = bestA;
+            best[t1] = bestB;
+            best[t2] = bestC;
+            best[t3] = bestD;
+        }
     }
 
     /// <summary>

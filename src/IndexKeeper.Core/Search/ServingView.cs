@@ -118,20 +118,23 @@ public sealed class ServingView : IDisposable
         }
     }
 
-    /// <summary>When the centroids were trained; null when not known (a view read from its file does not record it).</summary>
+    /// <summary>When the centroids were trained; null when not known (a view built before they were counted).</summary>
     public DateTimeOffset? TrainedAt { get; private set; }
 
     /// <summary>
     /// Share of the view's vectors added after its centroids were trained (kept by each change, never recounted);
     /// null when <see cref="TrainedAt"/> is unknown or the view is empty.
     /// </summary>
-    public double? AddedShareSinceTraining
+    public double? AddedShareSinceTraining => Training.AddedShare;
+
+    /// <summary>The running counts behind <see cref="TrainedAt"/> and <see cref="AddedShareSinceTraining"/>, as the view file keeps them.</summary>
+    internal TrainingFigures Training
     {
         get
         {
             lock (gate)
             {
-                return TrainedAt is null || vectors == 0 ? null : (double)vectorsAddedSinceTraining / vectors;
+                return new TrainingFigures(TrainedAt, firstIdAfterTraining, vectors, vectorsAddedSinceTraining);
             }
         }
     }
@@ -297,15 +300,16 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>
-    /// The live pages the view's structure ranks best for the query (the graph: encodings; the centroid lists:
-    /// centroid interaction over the pages of <see cref="CandidateCounts.Probes"/> centroids a query token), at
-    /// most <paramref name="count"/>, in page-key order (so ties of the exact re-rank break as in the exhaustive
-    /// search). A view of <c>All</c> gives every page.
+    /// The live pages the view's structure ranks best for the query, at most <paramref name="count"/>, in page-key
+    /// order (so ties of the exact re-rank break as in the exhaustive search). The graph ranks by encodings; the
+    /// centroid lists take the <paramref name="handedOn"/> pages their lists score best (<see cref="CandidateCounts.Probes"/>
+    /// centroids a query token) and keep the best of those by Hamming MaxSim over all their vectors' sign codes. A
+    /// view of <c>All</c> gives every page.
     /// </summary>
-    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count) => Candidates(query, count, CandidateCounts.Probes);
+    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn) => Candidates(query, count, handedOn, CandidateCounts.Probes);
 
-    /// <summary>As <see cref="Candidates(VectorSet, int)"/> with the centroids probed per query token given (measurement).</summary>
-    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int probes)
+    /// <summary>As <see cref="Candidates(VectorSet, int, int)"/> with the centroids probed per query token given (measurement).</summary>
+    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes)
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -328,7 +332,7 @@ public sealed class ServingView : IDisposable
             }
             else if (Source == CandidateSource.Centroids)
             {
-                found = [.. centroids!.Nearest(query.Vectors, probes, count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
+                found = [.. centroids!.Nearest(query.Vectors, probes, Math.Max(count, handedOn), count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
             }
             else
             {
@@ -340,6 +344,21 @@ public sealed class ServingView : IDisposable
 
             found.Sort((a, b) => string.CompareOrdinal(a.Key.Hex, b.Key.Hex));
             return found;
+        }
+    }
+
+    /// <summary>
+    /// Every page the centroid lists score for the query, best first by the lists' approximate MaxSim alone
+    /// (measurement: where the benchmark finds the exhaustive top-10 pages).
+    /// </summary>
+    internal IReadOnlyList<ServingEntry> ListRanked(VectorSet query, int probes)
+    {
+        ArgumentNullException.ThrowIfNull(query);
+        lock (gate)
+        {
+            return centroids is null || byKey.Count == 0
+                ? []
+                : [.. centroids.ListRanked(query.Vectors, probes, byKey.Count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
         }
     }
 
@@ -371,17 +390,19 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>A view as <see cref="ServingViewFile"/> read it back.</summary>
-    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall)
+    /// <remarks>REQUIRES: <paramref name="training"/> counts the vectors of <paramref name="entries"/> (the reader checks it).</remarks>
+    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall, TrainingFigures training)
     {
         var view = new ServingView(encoderId, generation, source)
         {
             Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
+            TrainedAt = training.TrainedAt, firstIdAfterTraining = training.FirstIdAfterTraining,
+            vectors = training.Vectors, vectorsAddedSinceTraining = training.VectorsAddedSinceTraining,
         };
         foreach (var (id, entry) in entries)
         {
             view.byKey[entry.Key] = new Slot(id, entry);
             view.byId[id] = entry.Key;
-            view.vectors += entry.VectorCount;
         }
 
         return view;

@@ -1,4 +1,5 @@
 using System.Buffers.Binary;
+using System.Runtime.InteropServices;
 using IndexKeeper.Core.Documents;
 using IndexKeeper.Core.Storage;
 
@@ -14,8 +15,12 @@ namespace IndexKeeper.Core.Search;
 /// </summary>
 internal static class ServingViewFile
 {
-    /// <summary>The format this build reads and writes (2: candidate source and centroid lists). Never reuse a number.</summary>
-    public const int Version = 2;
+    /// <summary>
+    /// The format this build reads and writes (2: candidate source and centroid lists; 3: the lists' vectors page by
+    /// page with their centroids, read in bulk; 4: when the centroids were trained and the vectors added since).
+    /// Never reuse a number.
+    /// </summary>
+    public const int Version = 4;
 
     public const string Folder = "serving";
 
@@ -98,6 +103,11 @@ internal static class ServingViewFile
                 writer.Write(view.Recall?.Generation ?? 0);
                 writer.Write(view.Recall?.MeasuredAt.UtcTicks ?? 0);
                 writer.Write(view.ChangedSinceRecall);
+                var training = view.Training;
+                writer.Write(training.TrainedAt?.UtcTicks ?? 0);
+                writer.Write(training.FirstIdAfterTraining);
+                writer.Write(training.Vectors);
+                writer.Write(training.VectorsAddedSinceTraining);
                 writer.Write(entries.Count);
                 WriteString(writer, graphName);
                 writer.Write(graphLength);
@@ -113,28 +123,27 @@ internal static class ServingViewFile
                     writer.Write(entry.VectorCount);
                 }
 
-                // The centroid lists: the centroids, then per centroid its entries (page id, sign code).
+                // The centroid lists: the centroids, then the live pages in slot order and their vectors (the
+                // lists are made again from the vectors' centroids when read).
                 writer.Write(centroids?.CentroidCount ?? 0);
                 if (centroids is not null && entries.Count > 0)
                 {
-                    foreach (var value in centroids.Centroids)
+                    RequireLittleEndian();
+                    writer.Write(MemoryMarshal.AsBytes(centroids.Centroids));
+                    var live = Enumerable.Range(0, centroids.Slots).Where(centroids.IsLive).ToArray();
+                    writer.Write(live.Length);
+                    writer.Write(MemoryMarshal.AsBytes<ulong>([.. live.Select(centroids.IdOf)]));
+                    var rows = live.Select(slot => centroids.CentroidsOf(slot).Length).ToArray();
+                    writer.Write(MemoryMarshal.AsBytes<int>(rows));
+                    writer.Write(checked((int)rows.Sum(r => (long)r)));
+                    foreach (var slot in live)
                     {
-                        writer.Write(value);
+                        writer.Write(MemoryMarshal.AsBytes(centroids.CentroidsOf(slot)));
                     }
 
-                    for (var c = 0; c < centroids.CentroidCount; c++)
+                    foreach (var slot in live)
                     {
-                        var (ids, codes) = centroids.List(c);
-                        writer.Write(ids.Length);
-                        foreach (var id in ids)
-                        {
-                            writer.Write(id);
-                        }
-
-                        foreach (var word in codes)
-                        {
-                            writer.Write(word);
-                        }
+                        writer.Write(MemoryMarshal.AsBytes(centroids.CodesOf(slot)));
                     }
                 }
             }
@@ -162,11 +171,11 @@ internal static class ServingViewFile
     }
 
     /// <summary>
-    /// The recall figure of the view file of <paramref name="encoderId"/> whatever catalog state it shows; null when
-    /// there is no readable file (version and checksum checked), its candidates are not of <paramref name="source"/>
-    /// or it holds no figure. Nothing is written.
+    /// The recall figure and the training figures of the view file of <paramref name="encoderId"/> whatever catalog
+    /// state it shows; null when there is no readable file (version and checksum checked) or its candidates are not
+    /// of <paramref name="source"/>. Nothing is written.
     /// </summary>
-    public static CandidateRecall? ReadRecall(string indexDirectory, string encoderId, CandidateSource source)
+    public static (CandidateRecall? Recall, DateTimeOffset? TrainedAt, double? AddedShare)? ReadFigures(string indexDirectory, string encoderId, CandidateSource source)
     {
         try
         {
@@ -178,18 +187,21 @@ internal static class ServingViewFile
                 return null;
             }
 
-            using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
-            reader.ReadInt64();
-            reader.ReadInt64();
-            if (ReadString(reader) != encoderId || (CandidateSource)reader.ReadInt32() != source)
+            var reader = new Cursor(bytes.AsSpan(Magic.Length + 4, bytes.Length - Magic.Length - 8));
+            reader.Int64();
+            reader.Int64();
+            if (reader.String() != encoderId || (CandidateSource)reader.Int32() != source)
             {
                 return null;
             }
 
-            reader.ReadBytes(4 + 8 + 4 + 4 + 4 + 8);
-            return ReadRecall(reader);
+            reader.Bytes(4 + 8 + 4 + 4 + 4 + 8);
+            var recall = ReadRecall(ref reader);
+            reader.Int64();
+            var training = ReadTraining(ref reader);
+            return (recall, training.TrainedAt, training.AddedShare);
         }
-        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException)
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException or FormatException)
         {
             return null;
         }
@@ -217,20 +229,27 @@ internal static class ServingViewFile
             return null;
         }
 
-        using var reader = new BinaryReader(new MemoryStream(bytes, Magic.Length + 4, bytes.Length - Magic.Length - 8), System.Text.Encoding.UTF8);
-        var fileStamp = reader.ReadInt64();
-        var fileGeneration = reader.ReadInt64();
-        var fileEncoder = ReadString(reader);
-        var fileSource = (CandidateSource)reader.ReadInt32();
-        var dimensions = reader.ReadInt32();
-        var parameters = (reader.ReadUInt64(), reader.ReadInt32(), reader.ReadInt32(), reader.ReadInt32());
-        var nextId = reader.ReadUInt64();
-        var recall = ReadRecall(reader);
-        var changedSinceRecall = reader.ReadInt64();
-        var count = reader.ReadInt32();
-        var graphName = ReadString(reader);
-        var graphLength = reader.ReadInt64();
-        var graphChecksum = reader.ReadUInt32();
+        if (!BitConverter.IsLittleEndian)
+        {
+            reason = "the serving view file is little-endian and is read in bulk on little-endian machines only";
+            return null;
+        }
+
+        var reader = new Cursor(bytes.AsSpan(Magic.Length + 4, bytes.Length - Magic.Length - 8));
+        var fileStamp = reader.Int64();
+        var fileGeneration = reader.Int64();
+        var fileEncoder = reader.String();
+        var fileSource = (CandidateSource)reader.Int32();
+        var dimensions = reader.Int32();
+        var parameters = (reader.UInt64(), reader.Int32(), reader.Int32(), reader.Int32());
+        var nextId = reader.UInt64();
+        var recall = ReadRecall(ref reader);
+        var changedSinceRecall = reader.Int64();
+        var training = ReadTraining(ref reader);
+        var count = reader.Int32();
+        var graphName = reader.String();
+        var graphLength = reader.Int64();
+        var graphChecksum = reader.UInt32();
         if (fileEncoder != encoderId)
         {
             reason = $"the serving view file is of encoder {fileEncoder}";
@@ -262,73 +281,71 @@ internal static class ServingViewFile
             return null;
         }
 
-        if (count < 0 || (long)count * EntryLength > reader.BaseStream.Length - reader.BaseStream.Position)
+        if (count < 0 || (long)count * EntryLength > reader.Remaining)
         {
             reason = "the serving view file's directory has the wrong length";
             return null;
         }
 
         var entries = new List<(ulong Id, ServingEntry Entry)>(count);
+        long vectorsInDirectory = 0;
         for (var i = 0; i < count; i++)
         {
-            var key = PageKey.FromHash(reader.ReadBytes(PageKey.ByteLength));
-            var id = reader.ReadUInt64();
-            var location = new RecordLocation(reader.ReadInt64(), reader.ReadInt64(), reader.ReadInt32(), reader.ReadUInt32());
-            entries.Add((id, new ServingEntry(key, location, reader.ReadInt32())));
+            var key = PageKey.FromHash(reader.Bytes(PageKey.ByteLength));
+            var id = reader.UInt64();
+            var location = new RecordLocation(reader.Int64(), reader.Int64(), reader.Int32(), reader.UInt32());
+            entries.Add((id, new ServingEntry(key, location, reader.Int32())));
+            vectorsInDirectory += entries[^1].Entry.VectorCount;
         }
 
-        var centroidCount = reader.ReadInt32();
+        if (training.Figures.Vectors != vectorsInDirectory || training.Figures.VectorsAddedSinceTraining < 0 || training.Figures.VectorsAddedSinceTraining > vectorsInDirectory)
+        {
+            reason = $"the serving view file counts {training.Figures.Vectors} vectors ({training.Figures.VectorsAddedSinceTraining} added since training), its directory {vectorsInDirectory}";
+            return null;
+        }
+
+        var centroidCount = reader.Int32();
         CentroidLists? centroids = null;
         if (centroidCount > 0 && count > 0)
         {
-            if (centroidCount > CentroidLists.MaximumCentroids || dimensions <= 0)
+            if (centroidCount > CentroidLists.MaximumCentroids || dimensions <= 0 || dimensions % 64 != 0)
             {
                 reason = $"the serving view file names {centroidCount} centroids of {dimensions} dimensions";
                 return null;
             }
 
-            var values = new float[centroidCount * dimensions];
-            for (var i = 0; i < values.Length; i++)
+            var values = reader.Array<float>(centroidCount * dimensions);
+            var pages = reader.Int32();
+            if (pages < 0 || (long)pages * 12 > reader.Remaining)
             {
-                values[i] = reader.ReadSingle();
+                reason = $"the serving view file's centroid lists name {pages} pages, more than it holds";
+                return null;
+            }
+
+            var ids = reader.Array<ulong>(pages);
+            var rows = reader.Array<int>(pages);
+            var vectors = reader.Int32();
+            var words = dimensions / 64;
+            if (vectors < 0 || (long)vectors * (2 + (8 * words)) > reader.Remaining)
+            {
+                reason = $"the serving view file's centroid lists name {vectors} vectors, more than it holds";
+                return null;
             }
 
             var known = entries.Select(e => e.Id).ToHashSet();
-            var words = dimensions / 64;
-            var lists = new List<(ulong[] Ids, ulong[] Codes)>(centroidCount);
-            for (var c = 0; c < centroidCount; c++)
+            foreach (var id in ids)
             {
-                var length = reader.ReadInt32();
-                if (length < 0 || (long)length * 8 * (1 + words) > reader.BaseStream.Length - reader.BaseStream.Position)
+                if (!known.Contains(id))
                 {
-                    reason = $"the serving view file's centroid list {c} has the wrong length";
+                    reason = $"the serving view file's centroid lists name page {id}, which its directory lacks";
                     return null;
                 }
-
-                var ids = new ulong[length];
-                for (var i = 0; i < length; i++)
-                {
-                    ids[i] = reader.ReadUInt64();
-                    if (!known.Contains(ids[i]))
-                    {
-                        reason = $"the serving view file's centroid list {c} names page {ids[i]}, which its directory lacks";
-                        return null;
-                    }
-                }
-
-                var codes = new ulong[length * words];
-                for (var i = 0; i < codes.Length; i++)
-                {
-                    codes[i] = reader.ReadUInt64();
-                }
-
-                lists.Add((ids, codes));
             }
 
-            centroids = CentroidLists.Restore(dimensions, values, lists);
+            centroids = CentroidLists.Restore(dimensions, values, ids, rows, reader.Array<ushort>(vectors), reader.Array<ulong>((long)vectors * words));
         }
 
-        if (reader.BaseStream.Position != reader.BaseStream.Length)
+        if (reader.Remaining != 0)
         {
             reason = "the serving view file has bytes after its sections";
             return null;
@@ -379,19 +396,42 @@ internal static class ServingViewFile
         }
 
         reason = string.Empty;
-        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall);
+        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall, training.Figures);
     }
 
     /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>
-    private static CandidateRecall? ReadRecall(BinaryReader reader)
+    private static CandidateRecall? ReadRecall(ref Cursor reader)
     {
-        var share = reader.ReadDouble();
-        var queries = reader.ReadInt32();
-        var generation = reader.ReadInt64();
-        var ticks = reader.ReadInt64();
+        var share = reader.Double();
+        var queries = reader.Int32();
+        var generation = reader.Int64();
+        var ticks = reader.Int64();
         return double.IsNaN(share) || ticks < DateTimeOffset.MinValue.UtcTicks || ticks > DateTimeOffset.MaxValue.UtcTicks
             ? null
             : new CandidateRecall(share, queries, generation, new DateTimeOffset(ticks, TimeSpan.Zero));
+    }
+
+    /// <summary>
+    /// The training fields of the header: UTC ticks the centroids were trained (0 when not known), the first page id
+    /// given after it, the live vectors and those added since; the added share is null when the time is not known.
+    /// </summary>
+    private static (TrainingFigures Figures, DateTimeOffset? TrainedAt, double? AddedShare) ReadTraining(ref Cursor reader)
+    {
+        var ticks = reader.Int64();
+        var figures = new TrainingFigures(
+            ticks <= 0 || ticks > DateTimeOffset.MaxValue.UtcTicks ? null : new DateTimeOffset(ticks, TimeSpan.Zero),
+            reader.UInt64(),
+            reader.Int64(),
+            reader.Int64());
+        return (figures, figures.TrainedAt, figures.AddedShare);
+    }
+
+    private static void RequireLittleEndian()
+    {
+        if (!BitConverter.IsLittleEndian)
+        {
+            throw new PlatformNotSupportedException("The serving view file is little-endian and written in bulk on little-endian machines only.");
+        }
     }
 
     private static string Stem(string encoderId) => encoderId.Length > 16 ? encoderId[..16] : encoderId;
@@ -429,8 +469,6 @@ internal static class ServingViewFile
         writer.Write(bytes);
     }
 
-    private static string ReadString(BinaryReader reader) => System.Text.Encoding.UTF8.GetString(reader.ReadBytes(reader.ReadUInt16()));
-
     private static void TryDelete(string path)
     {
         try
@@ -440,6 +478,52 @@ internal static class ServingViewFile
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
             // A reader on Windows may still map it; the next publish deletes it.
+        }
+    }
+
+    /// <summary>Reads the little-endian fields of a view file in order from its bytes; arrays are copied in bulk.</summary>
+    private ref struct Cursor(ReadOnlySpan<byte> bytes)
+    {
+        private readonly ReadOnlySpan<byte> bytes = bytes;
+        private int at;
+
+        public readonly long Remaining => bytes.Length - at;
+
+        public ReadOnlySpan<byte> Bytes(int length)
+        {
+            if (length < 0 || length > Remaining)
+            {
+                throw new EndOfStreamException($"{length} bytes wanted at offset {at}, {Remaining} left.");
+            }
+
+            var taken = bytes.Slice(at, length);
+            at += length;
+            return taken;
+        }
+
+        public int Int32() => BinaryPrimitives.ReadInt32LittleEndian(Bytes(4));
+
+        public uint UInt32() => BinaryPrimitives.ReadUInt32LittleEndian(Bytes(4));
+
+        public long Int64() => BinaryPrimitives.ReadInt64LittleEndian(Bytes(8));
+
+        public ulong UInt64() => BinaryPrimitives.ReadUInt64LittleEndian(Bytes(8));
+
+        public double Double() => BinaryPrimitives.ReadDoubleLittleEndian(Bytes(8));
+
+        public string String() => System.Text.Encoding.UTF8.GetString(Bytes(BinaryPrimitives.ReadUInt16LittleEndian(Bytes(2))));
+
+        /// <summary>REQUIRES: a little-endian machine (the file's byte order is copied as it is).</summary>
+        public T[] Array<T>(long count)
+            where T : unmanaged
+        {
+            var size = System.Runtime.CompilerServices.Unsafe.SizeOf<T>();
+            if (count < 0 || count > Remaining / size)
+            {
+                throw new EndOfStreamException($"{count} values of {size} bytes wanted at offset {at}, {Remaining} bytes left.");
+            }
+
+            return MemoryMarshal.Cast<byte, T>(Bytes((int)count * size)).ToArray();
         }
     }
 }

@@ -126,9 +126,12 @@ public sealed class ServingViews : IDisposable
             return (new SearchResult([], view.Count, 0), view.Unreadable);
         }
 
-        var structureCount = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k);
-        IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > structureCount)
-            ? view.Candidates(query, structureCount)
+        // The centroid lists hand on only the pages the float re-rank takes (their own sign-code stage ran);
+        // the graph hands on more, for the sign-code stage below.
+        var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
+        var handedOn = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k, view.Count);
+        IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > handedOn)
+            ? view.Candidates(query, source == CandidateSource.Graph ? handedOn : reranked, handedOn)
             : view.Entries();
         if (allowed is not null)
         {
@@ -137,7 +140,6 @@ public sealed class ServingViews : IDisposable
 
         var encoderId = view.EncoderId;
         using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
-        var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
         var options = new SearchOptions { Top = k, Candidates = reranked };
         var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
         return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
@@ -274,7 +276,25 @@ public sealed class ServingViews : IDisposable
             }
         }
 
-        return readFile ? ServingViewFile.ReadRecall(directory, encoderId, source) : null;
+        return readFile ? ServingViewFile.ReadFigures(directory, encoderId, source)?.Recall : null;
+    }
+
+    /// <summary>
+    /// When the centroids of the view of <paramref name="encoderId"/> were trained and the share of its vectors added
+    /// since: of the view held in memory, else of the view file (the whole file is read to check it); nulls when
+    /// neither knows.
+    /// </summary>
+    public (DateTimeOffset? TrainedAt, double? AddedShare) LastTraining(string encoderId)
+    {
+        lock (gate)
+        {
+            if (views.TryGetValue(encoderId, out var held))
+            {
+                return (held.TrainedAt, held.AddedShareSinceTraining);
+            }
+        }
+
+        return ServingViewFile.ReadFigures(directory, encoderId, source) is { } figures ? (figures.TrainedAt, figures.AddedShare) : (null, null);
     }
 
     /// <summary>

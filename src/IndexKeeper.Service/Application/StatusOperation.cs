@@ -15,7 +15,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
         var decision = drift.Read();
         var damage = DamageSurvey.Run(catalog, index.Store.Directory, decision.ServingEncoderId, readRecords: false, CancellationToken.None);
         var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
-        var training = index.Serving.Retraining(decision.ServingEncoderId, lastAttempt: null);
+        var training = index.Serving.LastTraining(decision.ServingEncoderId);
         return new StatusReport
         {
             IndexDirectory = index.Directory,
@@ -34,8 +34,8 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
             CandidateRecall = index.Serving.LastRecall(decision.ServingEncoderId),
-            CentroidsTrainedAt = training?.TrainedAt,
-            AddedShareSinceTraining = training?.AddedShare,
+            CentroidsTrainedAt = training.TrainedAt,
+            AddedShareSinceTraining = training.AddedShare,
             SegmentsMissing = damage.SegmentsMissing,
             VectorSetsUnreadable = damage.VectorSetsUnreadable,
             PagesWithoutVectors = damage.PagesWithoutVectors,

@@ -89,7 +89,32 @@ public sealed class CentroidListsTests
             .Take(10)
             .Select(p => p.Key);
 
-        Assert.Equal(expected, lists.Nearest(query, probes: 1, count: 10, CancellationToken.None));
+        Assert.Equal(expected, lists.ListRanked(query, probes: 1, count: 10, CancellationToken.None));
+
+        // The pages handed on are then ranked by Hamming MaxSim over all their vectors (per token the page vector
+        // with the fewest differing sign bits, d − 2·Hamming, summed), ties to the better list rank.
+        var handed = lists.ListRanked(query, probes: 1, count: 30, CancellationToken.None);
+        var full = handed
+            .Select((id, rank) => (Id: id, Rank: rank, Score: Enumerable.Range(0, 3).Sum(q => entries.Where(e => e.Id == id)
+                .Max(e => Dimensions - (2 * Enumerable.Range(0, Dimensions).Count(i => (query[(q * Dimensions) + i] >= 0) != (e.Vector[i] >= 0)))))))
+            .OrderByDescending(p => p.Score)
+            .ThenBy(p => p.Rank)
+            .Take(10)
+            .Select(p => p.Id);
+        Assert.Equal(full, lists.Nearest(query, probes: 1, handedOn: 30, count: 10, CancellationToken.None, listEntryCost: 0));
+
+        // At the default cost the probed lists here hold more than a tenth of all vectors, so reading them costs
+        // more than reading every page's codes: every page is ranked by Hamming MaxSim, ties to the earlier page.
+        var probedEntries = entries.Count(e => tokenCentroids.Contains((ushort)e.Centroid));
+        Assert.True((probedEntries * CentroidLists.ListEntryCost) + (entries.Count * 30 / pages.Count) >= entries.Count);
+        var every = pages
+            .Select((p, slot) => (p.Id, Slot: slot, Score: Enumerable.Range(0, 3).Sum(q => entries.Where(e => e.Id == p.Id)
+                .Max(e => Dimensions - (2 * Enumerable.Range(0, Dimensions).Count(i => (query[(q * Dimensions) + i] >= 0) != (e.Vector[i] >= 0)))))))
+            .OrderByDescending(p => p.Score)
+            .ThenBy(p => p.Slot)
+            .Take(10)
+            .Select(p => p.Id);
+        Assert.Equal(every, lists.Nearest(query, probes: 1, handedOn: 30, count: 10, CancellationToken.None));
     }
 
     [Fact]
@@ -108,12 +133,15 @@ public sealed class CentroidListsTests
         }
 
         Assert.Equal(400, lists.Count);
-        var everything = lists.Nearest(Normalised(TestVectors.Set(13, 2, Dimensions).Vectors), probes: 8, count: 2000, CancellationToken.None);
+        var everything = lists.ListRanked(Normalised(TestVectors.Set(13, 2, Dimensions).Vectors), probes: 8, count: 2000, CancellationToken.None);
         Assert.Equal(Enumerable.Range(1100, 400).Select(p => (ulong)p).Order(), everything.Order());
         Assert.False(lists.Contains(5));
-        var (ids, codes) = lists.List(1200 % 8);
-        Assert.Equal(Enumerable.Range(1100, 400).Where(p => p % 8 == 1200 % 8).Select(p => (ulong)p), ids);
-        Assert.Equal(ids, codes);
+
+        // Every page left keeps its own vector: its centroid and its code (both made from its id above).
+        var live = Enumerable.Range(0, lists.Slots).Where(lists.IsLive).ToList();
+        Assert.Equal(Enumerable.Range(1100, 400).Select(p => (ulong)p), live.Select(lists.IdOf));
+        Assert.All(live, slot => Assert.Equal([(ushort)(lists.IdOf(slot) % 8)], lists.CentroidsOf(slot).ToArray()));
+        Assert.All(live, slot => Assert.Equal([lists.IdOf(slot)], lists.CodesOf(slot).ToArray()));
     }
 
     [Theory]

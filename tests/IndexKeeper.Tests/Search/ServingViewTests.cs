@@ -1,7 +1,9 @@
+using System.Buffers.Binary;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Encoding;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Core.Search;
+using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Tests.Storage;
 
@@ -64,7 +66,7 @@ public sealed class ServingViewTests : IDisposable
         Assert.Equal(1, views.Builds);
 
         // The structure hands on live pages only, as many as asked for when it can reach every page (all probed).
-        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, probes: 1000);
+        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, handedOn: view.Count - 1, probes: 1000);
         Assert.Equal(source == CandidateSource.All ? view.Count : view.Count - 1, fewer.Count);
         Assert.Subset(view.Entries().Select(e => e.Key).ToHashSet(), fewer.Select(e => e.Key).ToHashSet());
     }
@@ -108,16 +110,9 @@ public sealed class ServingViewTests : IDisposable
     public void A_damaged_view_file_reads_as_stale_and_the_view_is_built_from_the_catalog(int offset)
     {
         using var index = Index.Open(directory.Path);
-        index.AddPages(0, 1, 2);
-        index.Embed(0, 1, 2);
-        using (var writer = index.Views(readOnly: false))
-        {
-            writer.For(Encoder.Id, CancellationToken.None);
-            writer.Persist(CancellationToken.None);
-        }
+        var file = WrittenView(index);
 
         // Offset 4 is the version, 12 the catalog stamp, −8 a byte near the end (a checksum mismatch).
-        var file = ServingViewFile.PathOf(directory.Path, Encoder.Id);
         var bytes = File.ReadAllBytes(file);
         bytes[offset >= 0 ? offset : bytes.Length + offset] ^= 0x5A;
         File.WriteAllBytes(file, bytes);
@@ -160,7 +155,7 @@ public sealed class ServingViewTests : IDisposable
         IReadOnlyList<Core.Search.ServingEntry> written;
         using (var writer = index.Views(readOnly: false))
         {
-            written = writer.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, probes: 3);
+            written = writer.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, handedOn: 20, probes: 3);
             writer.Persist(CancellationToken.None);
         }
 
@@ -168,7 +163,7 @@ public sealed class ServingViewTests : IDisposable
         using var reader = index.Views(readOnly: true);
         var read = reader.For(Encoder.Id, CancellationToken.None);
         Assert.Equal(0, reader.Builds);
-        Assert.Equal(written, read.Candidates(query, 20, probes: 3));
+        Assert.Equal(written, read.Candidates(query, 20, handedOn: 20, probes: 3));
     }
 
     [Fact]
@@ -273,7 +268,7 @@ public sealed class ServingViewTests : IDisposable
         // The new view is what the writer writes; a reader gets its centroids' candidates.
         views.Persist(CancellationToken.None);
         using var reader = index.Views(readOnly: true);
-        Assert.Equal(view.Candidates(query, 20), reader.For(Encoder.Id, CancellationToken.None).Candidates(query, 20));
+        Assert.Equal(view.Candidates(query, 20, handedOn: 20), reader.For(Encoder.Id, CancellationToken.None).Candidates(query, 20, handedOn: 20));
     }
 
     [Fact]
@@ -300,12 +295,53 @@ public sealed class ServingViewTests : IDisposable
         Assert.Equal(live.Count, facts.Pages);
         Assert.Equal(view.AddedShareSinceTraining, facts.AddedShare);
 
-        // Read back from its file the view does not know when it was trained, so neither figure is claimed.
+        // Read back from its file (version 4 keeps them) the view knows both and goes on counting.
         views.Persist(CancellationToken.None);
+        using (var reader = index.Views(readOnly: true))
+        {
+            var read = reader.For(Encoder.Id, CancellationToken.None);
+            Assert.Equal(0, reader.Builds);
+            Assert.Equal(view.TrainedAt, read.TrainedAt);
+            Assert.Equal(view.AddedShareSinceTraining, read.AddedShareSinceTraining);
+        }
+
+        using (var status = index.Views(readOnly: true))
+        {
+            // Status from the command line reads the figures from the file without building a view.
+            Assert.Equal((view.TrainedAt, view.AddedShareSinceTraining), status.LastTraining(Encoder.Id));
+            Assert.Equal(0, status.Builds);
+        }
+
+        views.Dispose();
+        using var writer = index.Views(readOnly: false);
+        var reopened = writer.For(Encoder.Id, CancellationToken.None);
+        Assert.Equal(0, writer.Builds);
+        index.AddPages(44);
+        index.Embed(44);
+        writer.For(Encoder.Id, CancellationToken.None);
+        live.Add(44);
+        Assert.Equal((double)Vectors([40, 42, 43, 44]) / Vectors(live), reopened.AddedShareSinceTraining!.Value, 12);
+    }
+
+    [Fact]
+    public void A_view_file_of_an_older_version_reads_as_stale_and_the_view_is_built_again()
+    {
+        using var index = Index.Open(directory.Path);
+        var file = WrittenView(index);
+
+        // Version 3 with a matching checksum (CRC-32C, RFC 3720, over every byte before the trailer): a whole file
+        // of the older layout, which must be refused for its version, not read field by field.
+        var bytes = File.ReadAllBytes(file);
+        BinaryPrimitives.WriteInt32LittleEndian(bytes.AsSpan(4), 3);
+        BinaryPrimitives.WriteUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4), Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)));
+        File.WriteAllBytes(file, bytes);
+        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, CandidateSource.Centroids, mapOnly: true, out var reason));
+        Assert.Contains("version 3", reason, StringComparison.Ordinal);
+        Assert.Null(ServingViewFile.ReadFigures(directory.Path, Encoder.Id, CandidateSource.Centroids));
+
         using var reader = index.Views(readOnly: true);
-        var read = reader.For(Encoder.Id, CancellationToken.None);
-        Assert.Null(read.TrainedAt);
-        Assert.Null(read.AddedShareSinceTraining);
+        AssertMatchesCatalog(index, reader.For(Encoder.Id, CancellationToken.None));
+        Assert.Equal(1, reader.Builds);
     }
 
     [Fact]
@@ -360,6 +396,20 @@ public sealed class ServingViewTests : IDisposable
 
             Assert.Equal(1, filled);
         }
+    }
+
+    /// <summary>Three pages embedded and their view written by a writer; the view file's path.</summary>
+    private static string WrittenView(Index index)
+    {
+        index.AddPages(0, 1, 2);
+        index.Embed(0, 1, 2);
+        using (var writer = index.Views(readOnly: false))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+        }
+
+        return ServingViewFile.PathOf(index.Path, Encoder.Id);
     }
 
     private static void AssertMatchesCatalog(Index index, ServingView view)
