@@ -17,55 +17,23 @@ internal sealed class CatalogMarks
     private Dictionary<string, (string EncoderId, string PageKey)> vectorSets = new(StringComparer.Ordinal);
     private bool gathering;
 
-    public void Document(string id)
+    public void Document(string id) => Mark(static (marks, key) => marks.documents.Add(key), id);
+
+    public void Page(string key) => Mark(static (marks, k) => marks.pages.Add(k), key);
+
+    public void Queued(string key) => Mark(static (marks, k) => marks.queue.Add(k), key);
+
+    public void VectorSet(VectorSetRecord set) => Mark(static (marks, s) => marks.vectorSets[s.Id] = (s.EncoderId, s.PageKey), set);
+
+    // One lock and one "gathering?" test for every kind of mark; the sets are read inside the lock because Take swaps them.
+    private void Mark<T>(Action<CatalogMarks, T> add, T item)
     {
         lock (gate)
         {
-            if (!gathering)
+            if (gathering)
             {
-                return;
+                add(this, item);
             }
-
-            documents.Add(id);
-        }
-    }
-
-    public void Page(string key)
-    {
-        lock (gate)
-        {
-            if (!gathering)
-            {
-                return;
-            }
-
-            pages.Add(key);
-        }
-    }
-
-    public void Queued(string key)
-    {
-        lock (gate)
-        {
-            if (!gathering)
-            {
-                return;
-            }
-
-            queue.Add(key);
-        }
-    }
-
-    public void VectorSet(VectorSetRecord set)
-    {
-        lock (gate)
-        {
-            if (!gathering)
-            {
-                return;
-            }
-
-            vectorSets[set.Id] = (set.EncoderId, set.PageKey);
         }
     }
 
