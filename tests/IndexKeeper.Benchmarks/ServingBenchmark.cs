@@ -231,8 +231,9 @@ public sealed class ServingBenchmark : IBenchmark
     {
         var handedOn = CandidateCounts.FromCentroids(10, pages);
         var reranked = CandidateCounts.RerankedAfterCentroids(10, pages);
-        List<double> lists = [], both = [], open = [], rerank = [], every = [];
-        double agreeEvery = 0;
+        const int FewerReranked = 300;
+        List<double> lists = [], both = [], open = [], rerank = [], every = [], everyWhole = [], listsForced = [], fewer = [];
+        double agreeEvery = 0, agreeListsForced = 0, agreeFewer = 0;
         for (var i = 0; i < queries.Length; i++)
         {
             var query = queries[i];
@@ -249,11 +250,31 @@ public sealed class ServingBenchmark : IBenchmark
             LateInteractionSearch.Search(live.Source, query, new SearchOptions { Top = 10, Candidates = reranked }, CancellationToken.None);
             rerank.Add(watch.Elapsed.TotalMilliseconds);
 
-            // Every page handed on: the lists are not read, every page's codes are (the other side of the rule).
+            // Every page handed on: the lists are not read, every page's codes are (the other side of the rule),
+            // pruned as the product does and whole (every token of every page), one after the other.
             watch.Restart();
             var fromEvery = view.Candidates(query, reranked, pages);
             every.Add(watch.Elapsed.TotalMilliseconds);
+            watch.Restart();
+            var fromWhole = view.Candidates(query, reranked, pages, CandidateCounts.Probes, prune: false);
+            everyWhole.Add(watch.Elapsed.TotalMilliseconds);
             agreeEvery += truths[i].Overlap(Ranked(store, encoderId, fromEvery, query, reranked));
+            if (!fromEvery.Select(e => e.Key.Hex).SequenceEqual(fromWhole.Select(e => e.Key.Hex), StringComparer.Ordinal))
+            {
+                throw new InvalidOperationException("the pruned sign-code stage kept other pages than the whole one");
+            }
+
+            // The lists read whatever they cost (the rule's other side at this size).
+            watch.Restart();
+            var fromLists = view.Candidates(query, reranked, handedOn, CandidateCounts.Probes, listEntryCost: 0);
+            listsForced.Add(watch.Elapsed.TotalMilliseconds);
+            agreeListsForced += truths[i].Overlap(Ranked(store, encoderId, fromLists, query, reranked));
+
+            // Fewer pages to the float re-rank: the sign-code stage and the re-rank together.
+            watch.Restart();
+            var fewerHits = Ranked(store, encoderId, view.Candidates(query, FewerReranked, handedOn), query, FewerReranked);
+            fewer.Add(watch.Elapsed.TotalMilliseconds);
+            agreeFewer += truths[i].Overlap(fewerHits);
         }
 
         context.Report(
@@ -261,9 +282,17 @@ public sealed class ServingBenchmark : IBenchmark
             Median(lists),
             string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{Median(both):0.0} / {Median(open):0.0} / {Median(rerank):0.0}; load {Measure.LoadAverage():0.0}"));
         context.Report(
-            $"{name}: centroid query with every page's codes scored (no lists): candidates median ms (top-10 agreement with exhaustive)",
+            $"{name}: centroid query with every page's codes scored (no lists): candidates median ms, pruned (top-10 agreement with exhaustive) / every token of every page",
             Median(every),
-            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeEvery / queries.Length:0.000})"));
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeEvery / queries.Length:0.000}) / {Median(everyWhole):0.0} ms"));
+        context.Report(
+            $"{name}: centroid query with the lists always read ({handedOn} handed on): candidates median ms (top-10 agreement with exhaustive)",
+            Median(listsForced),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeListsForced / queries.Length:0.000})"));
+        context.Report(
+            $"{name}: centroid query re-ranking {FewerReranked} instead of {reranked}: candidates + re-rank median ms (top-10 agreement with exhaustive)",
+            Median(fewer),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeFewer / queries.Length:0.000}); load {Measure.LoadAverage():0.0}"));
     }
 
     /// <summary>

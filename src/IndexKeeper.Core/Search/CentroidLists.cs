@@ -292,8 +292,14 @@ internal sealed class CentroidLists
     /// page is handed on, every live page is scored and the lists are not read. Best first, ties to the better list
     /// rank (to the earlier slot when every page is scored).
     /// </summary>
+    /// <remarks>
+    /// A page's codes are scored token by token, the token of the shortest probed list first, and a page is given
+    /// up once it cannot enter the best <paramref name="count"/> (<see cref="MaxSimKernels.HammingAbove"/>): the
+    /// same pages as scoring every token of every page, since only pages whose bound is below the floor are left.
+    /// </remarks>
     /// <param name="listEntryCost">What a list entry costs in page-code rows read in order (tests set it to force a path).</param>
-    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost)
+    /// <param name="prune">False scores every token of every page (measurement: the pruning's gain).</param>
+    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost, bool prune = true)
     {
         var tokens = query.Length / dimensions;
         var queryCodes = new ulong[tokens * words];
@@ -303,10 +309,19 @@ internal sealed class CentroidLists
             ? ListScored(queryCodes, probed, handedOn, cancellationToken)
             : [.. Enumerable.Range(0, Slots).Where(IsLive)];
         var ordinals = Enumerable.Range(0, listed.Length).ToArray();
+        var order = RarestFirst(probed);
         var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
         {
             var slot = listed[ordinal];
-            best.Offer(MaxSimKernels.Hamming(queryCodes, vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words), dimensions, closest), ordinal);
+            var codes = vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words);
+            if (!prune)
+            {
+                best.Offer(MaxSimKernels.Hamming(queryCodes, codes, dimensions, closest), ordinal);
+            }
+            else if (MaxSimKernels.HammingAbove(queryCodes, order, codes, dimensions, best.Floor) is var score and not int.MinValue)
+            {
+                best.Offer(score, ordinal);
+            }
         });
         return [.. top.Select(t => idOf[listed[t.Ordinal]])];
     }
@@ -339,6 +354,13 @@ internal sealed class CentroidLists
         var live = (long)vectorCount * Count / Math.Max(1, Slots);
         return (entries * listEntryCost) + (live * handedOn / Count) < live;
     }
+
+    /// <summary>
+    /// Query tokens by the length of their shortest probed list, shortest first: a token
+    /// of rare content scores low on most pages, so their bound falls below the floor after the first token.
+    /// </summary>
+    private int[] RarestFirst(HashSet<int>[] probed) =>
+        [.. Enumerable.Range(0, probed.Length).OrderBy(q => probed[q].Min(c => lists[c].Count)).ThenBy(q => q)];
 
     /// <summary>
     /// Per query token the centroids whose lists it reads: the one its vector would be assigned to and the nearest

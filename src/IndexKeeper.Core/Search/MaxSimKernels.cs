@@ -63,6 +63,60 @@ internal static class MaxSimKernels
     }
 
     /// <summary>
+    /// Hamming MaxSim as <see cref="Hamming"/>, token by token in <paramref name="order"/>, given up as soon as the
+    /// page cannot reach <paramref name="floor"/>: after each token the sum so far plus d for every token left is an
+    /// upper bound of the page's score, and a page whose bound is below the floor could not enter the caller's
+    /// best (MaxScore's early termination, Turtle and Flood, "Query evaluation: strategies and optimizations",
+    /// Information Processing &amp; Management 31(6), 1995, with a token's best possible similarity d as its
+    /// term's maximum score). A token's scan also stops at an equal code (distance 0, nothing can beat it).
+    /// </summary>
+    /// <returns>The score, or <see cref="int.MinValue"/> when the page was given up (its score is below the floor).</returns>
+    public static int HammingAbove(ReadOnlySpan<ulong> queryCodes, ReadOnlySpan<int> order, ReadOnlySpan<ulong> pageCodes, int dimensions, float floor)
+    {
+        var words = dimensions / 64;
+        var rows = pageCodes.Length / words;
+        var left = order.Length * dimensions;
+        var score = 0;
+        ref var page = ref MemoryMarshal.GetReference(pageCodes);
+        foreach (var q in order)
+        {
+            var closest = dimensions;
+            if (words == 2)
+            {
+                var (low, high) = (queryCodes[2 * q], queryCodes[(2 * q) + 1]);
+                for (var r = 0; r < rows && closest > 0; r++)
+                {
+                    closest = Math.Min(closest, BitOperations.PopCount(Unsafe.Add(ref page, 2 * r) ^ low) + BitOperations.PopCount(Unsafe.Add(ref page, (2 * r) + 1) ^ high));
+                }
+            }
+            else
+            {
+                var query = queryCodes.Slice(q * words, words);
+                for (var r = 0; r < rows && closest > 0; r++)
+                {
+                    var distance = 0;
+                    for (var w = 0; w < words; w++)
+                    {
+                        distance += BitOperations.PopCount(pageCodes[(r * words) + w] ^ query[w]);
+                    }
+
+                    closest = Math.Min(closest, distance);
+                }
+            }
+
+            // A page with no rows scores −d a token, the lowest possible.
+            score += dimensions - (2 * closest);
+            left -= dimensions;
+            if (score + left < floor)
+            {
+                return int.MinValue;
+            }
+        }
+
+        return score;
+    }
+
+    /// <summary>
     /// Per query token the fewest differing bits from any page code, for d = 128 (two words a code): four tokens at a
     /// time with their codes and running minima in registers, so a page's codes are read once per four tokens and no
     /// bound is checked per row (the codes of both spans are taken whole). A last group of fewer tokens repeats its
