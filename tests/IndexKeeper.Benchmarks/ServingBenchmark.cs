@@ -232,11 +232,12 @@ public sealed class ServingBenchmark : IBenchmark
         var handedOn = CandidateCounts.FromCentroids(10, pages);
         var reranked = CandidateCounts.RerankedAfterCentroids(10, pages);
         const int FewerReranked = 300;
-        List<double> lists = [], both = [], open = [], rerank = [], every = [], everyWhole = [], listsForced = [], fewer = [];
+        List<double> lists = [], both = [], open = [], rerank = [], every = [], everyWhole = [], listsForced = [], fewer = [], probedShare = [];
         double agreeEvery = 0, agreeListsForced = 0, agreeFewer = 0;
         for (var i = 0; i < queries.Length; i++)
         {
             var query = queries[i];
+            probedShare.Add(view.ProbedShare(query));
             var watch = Stopwatch.StartNew();
             view.ListRanked(query, CandidateCounts.Probes);
             lists.Add(watch.Elapsed.TotalMilliseconds);
@@ -289,6 +290,11 @@ public sealed class ServingBenchmark : IBenchmark
             $"{name}: centroid query with the lists always read ({handedOn} handed on): candidates median ms (top-10 agreement with exhaustive)",
             Median(listsForced),
             string.Create(System.Globalization.CultureInfo.InvariantCulture, $"ms ({agreeListsForced / queries.Length:0.000})"));
+        var shares = probedShare.Order().ToList();
+        context.Report(
+            $"{name}: share of the live vectors in the probed lists, p50 (min / max; the rule reads the lists below {0.75 / CentroidLists.ListEntryCost:0.0000} when a quarter of the pages is handed on)",
+            Median(probedShare),
+            string.Create(System.Globalization.CultureInfo.InvariantCulture, $"({shares[0]:0.0000} / {shares[^1]:0.0000})"));
         context.Report(
             $"{name}: centroid query re-ranking {FewerReranked} instead of {reranked}: candidates + re-rank median ms (top-10 agreement with exhaustive)",
             Median(fewer),

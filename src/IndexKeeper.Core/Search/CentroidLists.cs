@@ -318,7 +318,7 @@ internal sealed class CentroidLists
             {
                 best.Offer(MaxSimKernels.Hamming(queryCodes, codes, dimensions, closest), ordinal);
             }
-            else if (MaxSimKernels.HammingAbove(queryCodes, order, codes, dimensions, best.Floor) is var score and not int.MinValue)
+            else if (MaxSimKernels.HammingAbove(queryCodes, order, codes, dimensions, closest, best.Floor) is var score and not int.MinValue)
             {
                 best.Offer(score, ordinal);
             }
@@ -328,10 +328,23 @@ internal sealed class CentroidLists
 
     /// <summary>
     /// A list entry read costs about this many page-code rows read in order: the entries point at codes spread over
-    /// the whole index (a cache miss each), the rows of every page lie side by side. Measured at 10,000 pages: about
-    /// 70 ns an entry against 7 ns a row (docs/benchmarks.md, <c>serving</c>, fifth run).
+    /// the whole index (a cache miss each), the rows of every page lie side by side. At 10,000 pages about 70 ns an
+    /// entry against 7 ns a row (10); at 100,000 pages (208 MB of codes) the rule with 10 read the lists on every
+    /// query, and the lists with their 25,000 pages' codes took 180 ms against 95–105 ms for every page's codes, so an
+    /// entry cost at least 22 rows there (docs/benchmarks.md, <c>serving</c>, sixth run); 32 leaves a margin.
     /// </summary>
-    public const int ListEntryCost = 10;
+    public const int ListEntryCost = 32;
+
+    /// <summary>The entries of the lists the query's tokens probe (each list counted once), as the cost rule sums them.</summary>
+    public long ProbedEntries(ReadOnlySpan<float> query, int probes)
+    {
+        var queryCodes = new ulong[query.Length / dimensions * words];
+        SignCodes.Compute(query, dimensions, queryCodes);
+        return Probed(query, queryCodes, probes).SelectMany(p => p).Distinct().Sum(c => (long)lists[c].Count);
+    }
+
+    /// <summary>Vectors of the live pages.</summary>
+    public long LiveVectors => (long)vectorCount * Count / Math.Max(1, Slots);
 
     /// <summary>
     /// True when the probed lists and the page codes of the <paramref name="handedOn"/> pages cost less to read than
@@ -345,13 +358,8 @@ internal sealed class CentroidLists
             return false;
         }
 
-        long entries = 0;
-        foreach (var centroid in probed.SelectMany(p => p).Distinct())
-        {
-            entries += lists[centroid].Count;
-        }
-
-        var live = (long)vectorCount * Count / Math.Max(1, Slots);
+        var entries = probed.SelectMany(p => p).Distinct().Sum(c => (long)lists[c].Count);
+        var live = LiveVectors;
         return (entries * listEntryCost) + (live * handedOn / Count) < live;
     }
 

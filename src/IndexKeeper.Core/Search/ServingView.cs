@@ -350,6 +350,16 @@ public sealed class ServingView : IDisposable
         }
     }
 
+    /// <summary>The share of the live vectors in the lists the query's tokens probe (measurement: the lists' cost rule).</summary>
+    internal double ProbedShare(VectorSet query)
+    {
+        ArgumentNullException.ThrowIfNull(query);
+        lock (gate)
+        {
+            return centroids is null || centroids.LiveVectors == 0 ? 0 : (double)centroids.ProbedEntries(query.Vectors, CandidateCounts.Probes) / centroids.LiveVectors;
+        }
+    }
+
     /// <summary>
     /// Every page the centroid lists score for the query, best first by the lists' approximate MaxSim alone
     /// (measurement: where the benchmark finds the exhaustive top-10 pages).

@@ -51,6 +51,8 @@ public sealed class MaxSimKernelTests
     [Theory]
     [InlineData(128, 150, 20, false)]
     [InlineData(128, 40, 3, true)]
+    [InlineData(128, 90, 1, true)]
+    [InlineData(128, 60, 6, false)]
     [InlineData(64, 33, 3, false)]
     [InlineData(256, 70, 9, true)]
     public void Pruned_hamming_maxsim_keeps_every_page_that_reaches_the_floor_and_drops_the_others(int dimensions, int rows, int tokens, bool holdsQueryRows)
@@ -61,7 +63,7 @@ public sealed class MaxSimKernelTests
         var query = VectorPoolingTests.RandomSet(tokens, dimensions, seed: tokens + 110).Vectors;
         if (holdsQueryRows)
         {
-            page = [.. page, .. query.AsSpan(0, 2 * dimensions).ToArray()];
+            page = [.. page, .. query.AsSpan(0, Math.Min(2, tokens) * dimensions).ToArray()];
         }
 
         var words = dimensions / 64;
@@ -73,8 +75,8 @@ public sealed class MaxSimKernelTests
         var backwards = Enumerable.Range(0, tokens).Reverse().ToArray();
 
         // Any token order gives the same sum; a page at the floor is kept (it may still enter on a lower ordinal).
-        Assert.Equal(expected, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, float.NegativeInfinity));
-        Assert.Equal(expected, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, expected));
-        Assert.Equal(int.MinValue, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, expected + 1));
+        Assert.Equal(expected, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, new int[tokens], float.NegativeInfinity));
+        Assert.Equal(expected, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, new int[tokens], expected));
+        Assert.Equal(int.MinValue, MaxSimKernels.HammingAbove(queryCodes, backwards, pageCodes, dimensions, new int[tokens], expected + 1));
     }
 }
