@@ -292,14 +292,8 @@ internal sealed class CentroidLists
     /// page is handed on, every live page is scored and the lists are not read. Best first, ties to the better list
     /// rank (to the earlier slot when every page is scored).
     /// </summary>
-    /// <remarks>
-    /// A page's codes are scored token by token, the token of the shortest probed list first, and a page is given
-    /// up once it cannot enter the best <paramref name="count"/> (<see cref="MaxSimKernels.HammingAbove"/>): the
-    /// same pages as scoring every token of every page, since only pages whose bound is below the floor are left.
-    /// </remarks>
     /// <param name="listEntryCost">What a list entry costs in page-code rows read in order (tests set it to force a path).</param>
-    /// <param name="prune">False scores every token of every page (measurement: the pruning's gain).</param>
-    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost, bool prune = true)
+    public ulong[] Nearest(ReadOnlySpan<float> query, int probes, int handedOn, int count, CancellationToken cancellationToken, int listEntryCost = ListEntryCost)
     {
         var tokens = query.Length / dimensions;
         var queryCodes = new ulong[tokens * words];
@@ -309,19 +303,10 @@ internal sealed class CentroidLists
             ? ListScored(queryCodes, probed, handedOn, cancellationToken)
             : [.. Enumerable.Range(0, Slots).Where(IsLive)];
         var ordinals = Enumerable.Range(0, listed.Length).ToArray();
-        var order = RarestFirst(probed);
         var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
         {
             var slot = listed[ordinal];
-            var codes = vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words);
-            if (!prune)
-            {
-                best.Offer(MaxSimKernels.Hamming(queryCodes, codes, dimensions, closest), ordinal);
-            }
-            else if (MaxSimKernels.HammingAbove(queryCodes, order, codes, dimensions, closest, best.Floor) is var score and not int.MinValue)
-            {
-                best.Offer(score, ordinal);
-            }
+            best.Offer(MaxSimKernels.Hamming(queryCodes, vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words), dimensions, closest), ordinal);
         });
         return [.. top.Select(t => idOf[listed[t.Ordinal]])];
     }
@@ -329,9 +314,10 @@ internal sealed class CentroidLists
     /// <summary>
     /// A list entry read costs about this many page-code rows read in order: the entries point at codes spread over
     /// the whole index (a cache miss each), the rows of every page lie side by side. At 10,000 pages about 70 ns an
-    /// entry against 7 ns a row (10); at 100,000 pages (208 MB of codes) the rule with 10 read the lists on every
-    /// query, and the lists with their 25,000 pages' codes took 180 ms against 95–105 ms for every page's codes, so an
-    /// entry cost at least 22 rows there (docs/benchmarks.md, <c>serving</c>, sixth run); 32 leaves a margin.
+    /// entry against 7 ns a row (10); at 100,000 pages (208 MB of codes, an entry misses every cache level) the
+    /// probed lists held 5.9 % of the vectors at the median query and, with their 25,000 pages' codes, took 200 ms
+    /// against 94.5 ms for every page's codes: about 230 ns an entry against 7.3 ns a row, 31 rows
+    /// (docs/benchmarks.md, <c>serving</c>, sixth run).
     /// </summary>
     public const int ListEntryCost = 32;
 
@@ -362,13 +348,6 @@ internal sealed class CentroidLists
         var live = LiveVectors;
         return (entries * listEntryCost) + (live * handedOn / Count) < live;
     }
-
-    /// <summary>
-    /// Query tokens by the length of their shortest probed list, shortest first: a token
-    /// of rare content scores low on most pages, so their bound falls below the floor after the first token.
-    /// </summary>
-    private int[] RarestFirst(HashSet<int>[] probed) =>
-        [.. Enumerable.Range(0, probed.Length).OrderBy(q => probed[q].Min(c => lists[c].Count)).ThenBy(q => q)];
 
     /// <summary>
     /// Per query token the centroids whose lists it reads: the one its vector would be assigned to and the nearest

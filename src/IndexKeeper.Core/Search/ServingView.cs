@@ -309,10 +309,10 @@ public sealed class ServingView : IDisposable
     public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn) => Candidates(query, count, handedOn, CandidateCounts.Probes);
 
     /// <summary>
-    /// As <see cref="Candidates(VectorSet, int, int)"/> with the centroids probed per query token, the lists' cost rule
-    /// and the sign-code stage's pruning given (measurement).
+    /// As <see cref="Candidates(VectorSet, int, int)"/> with the centroids probed per query token and the lists' cost
+    /// rule given (measurement).
     /// </summary>
-    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes, int listEntryCost = CentroidLists.ListEntryCost, bool prune = true)
+    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes, int listEntryCost = CentroidLists.ListEntryCost)
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -335,7 +335,7 @@ public sealed class ServingView : IDisposable
             }
             else if (Source == CandidateSource.Centroids)
             {
-                found = [.. centroids!.Nearest(query.Vectors, probes, Math.Max(count, handedOn), count, CancellationToken.None, listEntryCost, prune).Select(id => byKey[byId[id]].Entry)];
+                found = [.. centroids!.Nearest(query.Vectors, probes, Math.Max(count, handedOn), count, CancellationToken.None, listEntryCost).Select(id => byKey[byId[id]].Entry)];
             }
             else
             {

@@ -13,12 +13,6 @@ internal sealed class TopScores
 
     public int Count => count;
 
-    /// <summary>
-    /// The score a new entry must exceed to be kept (it is kept on an equal score only with a lower ordinal); the
-    /// lowest float while there is room.
-    /// </summary>
-    public float Floor => count < heap.Length || heap.Length == 0 ? float.NegativeInfinity : heap[0].Score;
-
     public void Offer(float score, int ordinal)
     {
         if (count < heap.Length)
