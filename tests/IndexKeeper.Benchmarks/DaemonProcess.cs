@@ -159,9 +159,14 @@ internal sealed class DaemonProcess : IDisposable
         return long.Parse(fields[11], CultureInfo.InvariantCulture) + long.Parse(fields[12], CultureInfo.InvariantCulture);
     }
 
-    private long RssKilobytes()
+    /// <summary>The highest resident memory since the process started (VmHWM of /proc/PID/status, proc(5)), in MiB.</summary>
+    public double PeakRssSinceStartMegabytes => StatusKilobytes("VmHWM:") / 1024.0;
+
+    private long RssKilobytes() => StatusKilobytes("VmRSS:");
+
+    private long StatusKilobytes(string field)
     {
-        var line = File.ReadLines($"/proc/{process.Id}/status").FirstOrDefault(l => l.StartsWith("VmRSS:", StringComparison.Ordinal));
+        var line = File.ReadLines($"/proc/{process.Id}/status").FirstOrDefault(l => l.StartsWith(field, StringComparison.Ordinal));
         return line is null ? 0 : long.Parse(line.Split(' ', StringSplitOptions.RemoveEmptyEntries)[1], CultureInfo.InvariantCulture);
     }
 }

@@ -25,6 +25,13 @@ public sealed class ServingViews : IDisposable
     // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
     private const int BuildChunk = 1024;
 
+    // Segment pages a view's reads may leave mapped in this process before they are let go (docs/daemon.md,
+    // "Memory"): a build or an exhaustive pass reads every segment, which would otherwise stay resident whole.
+    private const long ResidentSegmentBytes = 128L << 20;
+
+    // Vector sets per slice of the recall figure's exhaustive pass, so its reads are let go between slices.
+    private const int ExhaustiveSlice = 4096;
+
     private readonly IndexCatalog catalog;
     private readonly Func<VectorStore> store;
     private readonly string directory;
@@ -142,6 +149,7 @@ public sealed class ServingViews : IDisposable
         using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
         var options = new SearchOptions { Top = k, Candidates = reranked };
         var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
+        TrimResident();
         return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
     }
 
@@ -241,12 +249,11 @@ public sealed class ServingViews : IDisposable
         }
 
         double kept = 0;
-        using var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]);
         foreach (var query in queries)
         {
-            var exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
-            var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
-            var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
+            var exhaustive = Exhaustive(encoderId, entries, query, 10, cancellationToken);
+            var truth = exhaustive.Select(h => h.Key).ToHashSet();
+            var tenth = exhaustive.Count < 10 ? float.NegativeInfinity : exhaustive[^1].Score;
             var served = Ranked(view, query, 10, cancellationToken, allowed: null).Result.Hits;
             kept += truth.Count == 0 ? 1 : (double)served.Count(h => truth.Contains(h.Key) || h.Score >= tenth) / truth.Count;
         }
@@ -255,6 +262,31 @@ public sealed class ServingViews : IDisposable
         view.Measured(recall);
         return recall;
     }
+
+    /// <summary>
+    /// The best <paramref name="top"/> of <paramref name="entries"/> by exact float16 MaxSim, best first: each slice
+    /// searched exhaustively and the slices' best merged (exact: a page's score does not depend on its slice), the
+    /// segment pages read let go between slices.
+    /// </summary>
+    private List<SearchHit> Exhaustive(string encoderId, IReadOnlyList<ServingEntry> entries, VectorSet query, int top, CancellationToken cancellationToken)
+    {
+        var best = new List<SearchHit>();
+        foreach (var slice in entries.Chunk(ExhaustiveSlice))
+        {
+            using (var some = store().OpenSelected(encoderId, [.. slice.Select(e => Record(encoderId, e))]))
+            {
+                best.AddRange(LateInteractionSearch.Search(some.Source, query, new SearchOptions { Top = top, Candidates = int.MaxValue }, cancellationToken).Hits);
+            }
+
+            best = [.. best.OrderByDescending(h => h.Score).Take(top)];
+            TrimResident();
+        }
+
+        return best;
+    }
+
+    /// <summary>Lets go of the segment pages the reads left mapped once they pass <see cref="ResidentSegmentBytes"/>.</summary>
+    private void TrimResident() => store().TrimResident(ResidentSegmentBytes);
 
     /// <summary>
     /// The last recall figure of the view of <paramref name="encoderId"/> held in memory or, with
@@ -417,6 +449,7 @@ public sealed class ServingViews : IDisposable
 
         var changes = steps.SelectMany(s => s.Changed).Where(c => c.EncoderId == view.EncoderId).Select(ToChange).ToList();
         view.Apply(generation, changes, locations => Open(view.EncoderId, locations), cancellationToken);
+        TrimResident();
         Trim();
         return true;
     }
@@ -435,6 +468,7 @@ public sealed class ServingViews : IDisposable
             foreach (var chunk in BuildChunks(live))
             {
                 view.Apply(generation, [.. chunk.Select(ToChange)], locations => Open(encoderId, locations), cancellationToken);
+                TrimResident();
             }
 
             Builds++;
