@@ -40,6 +40,10 @@ public sealed class ServingViews : IDisposable
     private readonly object gate = new();
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
+
+    // The last view held per encoder, read without the gate: status asks for a view's figures while a build or a
+    // catch-up holds the gate for minutes, and must not wait for it (it answers with the view held before).
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, ServingView> shown = new(StringComparer.Ordinal);
     private readonly List<VectorSetChanges> pending = [];
     private readonly long openedAt;
     private long writtenAt;
@@ -95,6 +99,7 @@ public sealed class ServingViews : IDisposable
             views.Remove(encoderId);
             view = Load(encoderId, generation, cancellationToken);
             views[encoderId] = view;
+            shown[encoderId] = view;
             return view;
         }
     }
@@ -214,6 +219,7 @@ public sealed class ServingViews : IDisposable
                 if (swapped)
                 {
                     views[encoderId] = fresh;
+                    shown[encoderId] = fresh;
                     held.Dispose();
                     writtenAt = long.MinValue;
                 }
@@ -300,12 +306,9 @@ public sealed class ServingViews : IDisposable
             return null;
         }
 
-        lock (gate)
+        if (shown.TryGetValue(encoderId, out var held))
         {
-            if (views.TryGetValue(encoderId, out var held))
-            {
-                return held.Recall;
-            }
+            return held.Recall;
         }
 
         return readFile ? ServingViewFile.ReadFigures(directory, encoderId, source)?.Recall : null;
@@ -318,12 +321,9 @@ public sealed class ServingViews : IDisposable
     /// </summary>
     public (DateTimeOffset? TrainedAt, double? AddedShare) LastTraining(string encoderId)
     {
-        lock (gate)
+        if (shown.TryGetValue(encoderId, out var held))
         {
-            if (views.TryGetValue(encoderId, out var held))
-            {
-                return (held.TrainedAt, held.AddedShareSinceTraining);
-            }
+            return (held.TrainedAt, held.AddedShareSinceTraining);
         }
 
         return ServingViewFile.ReadFigures(directory, encoderId, source) is { } figures ? (figures.TrainedAt, figures.AddedShare) : (null, null);
@@ -395,6 +395,7 @@ public sealed class ServingViews : IDisposable
             }
 
             views.Clear();
+            shown.Clear();
         }
     }
 
