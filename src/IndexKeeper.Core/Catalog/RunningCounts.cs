@@ -149,10 +149,13 @@ public sealed class RunningCounts
             return (0, 0);
         }
 
+        // As DriftReconciler reads it: only registered encoders have pages (the store registers every one it writes).
+        var servingKnown = store.Encoders.FindById(servingEncoderId) is not null;
+        var activeKnown = store.Encoders.FindById(activeEncoderId) is not null;
         return Held(t =>
         {
-            var serving = t.LivePagesOf(servingEncoderId);
-            var migrated = serving.LongCount(key => t.IsLive(activeEncoderId, key));
+            var serving = servingKnown ? t.LivePagesOf(servingEncoderId) : [];
+            var migrated = activeKnown ? serving.LongCount(key => t.IsLive(activeEncoderId, key)) : 0;
             return (serving.Count - migrated, migrated);
         });
     }
