@@ -9,10 +9,12 @@ internal sealed class DaemonProcess : IDisposable
 {
     private readonly Process process;
     private readonly HttpClient client;
+    private readonly ManualResetEventSlim warmed;
 
-    private DaemonProcess(Process process, Uri url)
+    private DaemonProcess(Process process, Uri url, ManualResetEventSlim warmed)
     {
         this.process = process;
+        this.warmed = warmed;
         client = new HttpClient { BaseAddress = url, Timeout = TimeSpan.FromMinutes(2) };
     }
 
@@ -32,6 +34,7 @@ internal sealed class DaemonProcess : IDisposable
         }
 
         var process = Process.Start(start)!;
+        var warmed = new ManualResetEventSlim();
         // The daemon's log goes beside the work folder (which is deleted at the end) for a look after a failure.
         var log = new StreamWriter(Path.Combine(Path.GetTempPath(), "indexkeeper-bench-daemon.log"), append: true) { AutoFlush = true };
         process.ErrorDataReceived += (_, e) =>
@@ -41,6 +44,12 @@ internal sealed class DaemonProcess : IDisposable
                 lock (log)
                 {
                     log.WriteLine(e.Data);
+                }
+
+                // IndexWorker's start-up warm-up logs its end, done or failed (docs/daemon.md).
+                if (e.Data.Contains("Serving view warmed", StringComparison.Ordinal) || e.Data.Contains("serving view was not warmed", StringComparison.Ordinal))
+                {
+                    warmed.Set();
                 }
             }
         };
@@ -55,7 +64,7 @@ internal sealed class DaemonProcess : IDisposable
                 try
                 {
                     using var json = JsonDocument.Parse(File.ReadAllText(endpointFile));
-                    return new DaemonProcess(process, new Uri(json.RootElement.GetProperty("url").GetString()!));
+                    return new DaemonProcess(process, new Uri(json.RootElement.GetProperty("url").GetString()!), warmed);
                 }
                 catch (Exception ex) when (ex is IOException or JsonException)
                 {
@@ -74,6 +83,9 @@ internal sealed class DaemonProcess : IDisposable
         process.Kill(entireProcessTree: true);
         throw new TimeoutException("indexkeeper run did not start");
     }
+
+    /// <summary>Whether the daemon logged the end of its start-up warm-up search (which builds or reads the serving view).</summary>
+    public bool Warmed => warmed.IsSet;
 
     public JsonElement Get(string path)
     {
@@ -143,6 +155,7 @@ internal sealed class DaemonProcess : IDisposable
     public void Dispose()
     {
         client.Dispose();
+        warmed.Dispose();
         if (!process.HasExited)
         {
             process.Kill(entireProcessTree: true);
@@ -159,9 +172,14 @@ internal sealed class DaemonProcess : IDisposable
         return long.Parse(fields[11], CultureInfo.InvariantCulture) + long.Parse(fields[12], CultureInfo.InvariantCulture);
     }
 
-    private long RssKilobytes()
+    /// <summary>The highest resident memory since the process started (VmHWM of /proc/PID/status, proc(5)), in MiB.</summary>
+    public double PeakRssSinceStartMegabytes => StatusKilobytes("VmHWM:") / 1024.0;
+
+    private long RssKilobytes() => StatusKilobytes("VmRSS:");
+
+    private long StatusKilobytes(string field)
     {
-        var line = File.ReadLines($"/proc/{process.Id}/status").FirstOrDefault(l => l.StartsWith("VmRSS:", StringComparison.Ordinal));
+        var line = File.ReadLines($"/proc/{process.Id}/status").FirstOrDefault(l => l.StartsWith(field, StringComparison.Ordinal));
         return line is null ? 0 : long.Parse(line.Split(' ', StringSplitOptions.RemoveEmptyEntries)[1], CultureInfo.InvariantCulture);
     }
 }

@@ -3,6 +3,7 @@ using System.Globalization;
 using System.Text;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Index;
+using IndexKeeper.Core.Search;
 using IndexKeeper.Core.Storage;
 
 namespace IndexKeeper.Benchmarks;
@@ -56,8 +57,18 @@ public sealed class IdleBenchmark : IBenchmark
         }
 
         Directory.CreateDirectory(incoming);
+        // IK_IDLE_REBUILD_VIEW=1: drop the kept serving view (a derived file, rebuilt from the segments) to measure its build again.
+        var view = Path.Combine(cache, "index", ServingViewFile.Folder);
+        if (Environment.GetEnvironmentVariable("IK_IDLE_REBUILD_VIEW") == "1" && Directory.Exists(view))
+        {
+            Directory.Delete(view, recursive: true);
+        }
+
+        var building = !Directory.Exists(view);
         // No canaries: the generated pages have no document to read them again from.
-        string[] args = ["--root", "incoming", "--encoder", "hashed-terms", "--Schedule:Windows:0=Mon-Sun 00:00-24:00", "--Detect:SettleSeconds=1", "--Drift:CanaryPages=0"];
+        // IK_IDLE_CANDIDATES: the daemon's Query:Candidates (all by default; centroids trains and builds the lists at the first start).
+        string[] args = ["--root", "incoming", "--encoder", "hashed-terms", "--Schedule:Windows:0=Mon-Sun 00:00-24:00", "--Detect:SettleSeconds=1", "--Drift:CanaryPages=0",
+            "--Query:Candidates=" + (Environment.GetEnvironmentVariable("IK_IDLE_CANDIDATES") ?? "all")];
         using var daemon = DaemonProcess.Start(cache, args);
         daemon.WaitUntil(TimeSpan.FromMinutes(60), () =>
         {
@@ -66,6 +77,11 @@ public sealed class IdleBenchmark : IBenchmark
         }, 1000);
         var started = daemon.CpuSeconds;
         context.Note($"{name}: daemon up and its start-up walk done after {started:0.0} CPU s (load {Measure.LoadAverage():0.0})");
+        // The warm-up search beside the walk builds the view (or reads its file); searches before its end wait for it.
+        var warming = Stopwatch.StartNew();
+        daemon.WaitUntil(TimeSpan.FromMinutes(60), () => daemon.Warmed, 500);
+        context.Report($"{name}: warm-up done after the walk, wall (load {Measure.LoadAverage():0.0}); daemon CPU so far {daemon.CpuSeconds:0} s", warming.Elapsed.TotalSeconds, "s");
+        context.Report($"{name}: peak resident memory through the start{(building ? " and the view build" : " (view read from disk)")} (VmHWM)", daemon.PeakRssSinceStartMegabytes, "MiB");
 
         // The first search after the start, then warm ones (each query once more).
         var clock = Stopwatch.StartNew();
@@ -109,6 +125,7 @@ public sealed class IdleBenchmark : IBenchmark
         context.Report($"{name}: pages the sync added during the window", added, "pages");
         context.Report($"{name}: daemon CPU during the window with the writer", daemon.CpuSeconds - cpuBefore, "s");
         context.Report($"{name}: searches/s with the writer / without", busy.Completed / busy.Seconds / (quiet.Completed / quiet.Seconds), "x");
+        context.Report($"{name}: peak resident memory from the start through serving and the sync (VmHWM)", daemon.PeakRssSinceStartMegabytes, "MiB");
         daemon.Stop();
     }
 

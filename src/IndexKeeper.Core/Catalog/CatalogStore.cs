@@ -44,6 +44,13 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
     /// <summary>Keys the writes of this process touched, for <see cref="RunningCounts"/>.</summary>
     public CatalogMarks Marks { get; } = new();
 
+    /// <summary>
+    /// Held by every transaction from its start to its end and by <see cref="RunningCounts"/> while it reads: the
+    /// counts then never take a transaction's marks before its records are committed (they would re-read the
+    /// records as they were and lose the change), whichever thread asks (the writer's loop or <c>/api/status</c>).
+    /// </summary>
+    public object CountsGate { get; } = new();
+
     /// <summary>Commits since the catalog was opened in this process (any change, transactions only).</summary>
     public long Commits { get; private set; }
 
@@ -75,6 +82,14 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
     public T InTransaction<T>(Func<T> change)
     {
         ArgumentNullException.ThrowIfNull(change);
+        lock (CountsGate)
+        {
+            return Transaction(change);
+        }
+    }
+
+    private T Transaction<T>(Func<T> change)
+    {
         Database.BeginTrans();
         touched.Clear();
         VectorSetChanges? changes = null;

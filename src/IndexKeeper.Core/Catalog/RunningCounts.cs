@@ -11,7 +11,10 @@ namespace IndexKeeper.Core.Catalog;
 /// costs what the commit changed, not the size of the index. Nothing is stored: a new process counts anew.
 /// <see cref="Recount"/> compares with a fresh pass (the writer's rare check) and adopts it.
 /// </summary>
-/// <remarks>Not thread-safe: the writer's loop refreshes and reads it (its marks may come from any thread).</remarks>
+/// <remarks>
+/// Thread-safe: every member holds the catalog's counts gate (<see cref="CatalogStore.CountsGate"/>), which a
+/// transaction holds too, so the writer's loop and <c>status</c> requests may refresh and read it at any time.
+/// </remarks>
 public sealed class RunningCounts
 {
     private readonly CatalogStore store;
@@ -26,6 +29,14 @@ public sealed class RunningCounts
 
     /// <summary>Brings the counts up to date with every write so far (the first call counts everything).</summary>
     public void Refresh()
+    {
+        lock (store.CountsGate)
+        {
+            RefreshHeld();
+        }
+    }
+
+    private void RefreshHeld()
     {
         if (tally is null)
         {
@@ -74,7 +85,15 @@ public sealed class RunningCounts
     /// </summary>
     public IReadOnlyList<string> Recount()
     {
-        Refresh();
+        lock (store.CountsGate)
+        {
+            return RecountHeld();
+        }
+    }
+
+    private IReadOnlyList<string> RecountHeld()
+    {
+        RefreshHeld();
         var running = tally!;
         var fresh = Seed();
         fresh.Watch(running.WatchedServing, running.WatchedActive);
@@ -83,49 +102,87 @@ public sealed class RunningCounts
     }
 
     /// <summary>The counts of <see cref="IndexCatalog.Figures"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
-    public CatalogFigures Figures()
-    {
-        var t = Current;
-        return new CatalogFigures(t.DocumentsLive, t.DocumentsQuarantined - t.DocumentsUnsupported, t.DocumentsUnsupported, t.PagesReferenced, t.PageLocations, t.QueuedAll, history.LastScanUtc());
-    }
+    public CatalogFigures Figures() => Held(t =>
+        new CatalogFigures(t.DocumentsLive, t.DocumentsQuarantined - t.DocumentsUnsupported, t.DocumentsUnsupported, t.PagesReferenced, t.PageLocations, t.QueuedAll, history.LastScanUtc()));
 
     /// <summary>As <see cref="QueueTable.Depths"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
     public IReadOnlyDictionary<QueuePriority, long> Depths() =>
-        Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => Current.Depths.GetValueOrDefault(p));
+        Held(t => Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => t.Depths.GetValueOrDefault(p)));
 
     /// <summary>Live vector sets of every encoder, as <see cref="VectorSetTable.Count"/> with liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>
-    public long LiveVectorSets => Current.LiveVectorSets;
+    public long LiveVectorSets => Held(t => t.LiveVectorSets);
 
     /// <summary>As <see cref="DocumentTable.TotalsByRoot"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
     public IReadOnlyList<RootTotals> TotalsByRoot() =>
-        Current.Roots.Where(r => r.Value.Documents > 0)
+        Held(t => t.Roots.Where(r => r.Value.Documents > 0)
             .Select(r => new RootTotals(r.Key, r.Value.Live, r.Value.Quarantined, r.Value.PageLocations, r.Value.Bytes))
-            .OrderBy(t => t.Root, StringComparer.Ordinal)
-            .ToList();
+            .OrderBy(r => r.Root, StringComparer.Ordinal)
+            .ToList());
 
     /// <summary>
     /// Referenced pages (live documents hold them) against the live vector sets of the serving and the active
     /// encoder. A change of either encoder costs one pass over the counted pages (a switch-over, rare).
     /// REQUIRES: <see cref="Refresh"/> called.
     /// </summary>
-    public PageCoverage Coverage(string servingEncoderId, string activeEncoderId)
+    public PageCoverage Coverage(string servingEncoderId, string activeEncoderId) => Held(t =>
     {
-        var t = Current;
         t.Watch(servingEncoderId, activeEncoderId);
         return new PageCoverage(t.PagesReferenced, t.CoveredServing, t.CoveredActive, t.UncoveredNotQueued);
-    }
+    });
 
     /// <summary>
     /// Whether a referenced page is covered by a live vector set of the serving encoder and whether it is queued;
     /// null for a page no live document holds. REQUIRES: <see cref="Refresh"/> called.
     /// </summary>
-    public (bool Covered, bool Queued)? PageState(string servingEncoderId, string pageKey)
+    public (bool Covered, bool Queued)? PageState(string servingEncoderId, string pageKey) =>
+        Held<(bool Covered, bool Queued)?>(t => t.References.GetValueOrDefault(pageKey) > 0 ? (t.IsLive(servingEncoderId, pageKey), t.Queue.ContainsKey(pageKey)) : null);
+
+    /// <summary>
+    /// Pages with a live vector set of <paramref name="servingEncoderId"/> that also have one of
+    /// <paramref name="activeEncoderId"/> (migrated) and those that do not (drifted), as <c>DriftPolicy</c> counts
+    /// them; both 0 when the two are one encoder. REQUIRES: <see cref="Refresh"/> called.
+    /// </summary>
+    public (long Drifted, long Migrated) Migration(string servingEncoderId, string activeEncoderId)
     {
-        var t = Current;
-        return t.References.GetValueOrDefault(pageKey) > 0 ? (t.IsLive(servingEncoderId, pageKey), t.Queue.ContainsKey(pageKey)) : null;
+        if (servingEncoderId == activeEncoderId)
+        {
+            return (0, 0);
+        }
+
+        // As DriftReconciler reads it: only registered encoders have pages (the store registers every one it writes).
+        var servingKnown = store.Encoders.FindById(servingEncoderId) is not null;
+        var activeKnown = store.Encoders.FindById(activeEncoderId) is not null;
+        return Held(t =>
+        {
+            var serving = servingKnown ? t.LivePagesOf(servingEncoderId) : [];
+            var migrated = activeKnown ? serving.LongCount(key => t.IsLive(activeEncoderId, key)) : 0;
+            return (serving.Count - migrated, migrated);
+        });
+    }
+
+    /// <summary>
+    /// Refreshes the counts and reads them in one hold of the gate, so every figure read shows the same state.
+    /// </summary>
+    public T Read<T>(Func<RunningCounts, T> read)
+    {
+        ArgumentNullException.ThrowIfNull(read);
+        lock (store.CountsGate)
+        {
+            RefreshHeld();
+            return read(this);
+        }
     }
 
     private Tally Current => tally ?? throw new InvalidOperationException("RunningCounts.Refresh must be called first.");
+
+    // Every read of the tally holds the counts gate (re-entered within Read and Recount).
+    private T Held<T>(Func<Tally, T> read)
+    {
+        lock (store.CountsGate)
+        {
+            return read(Current);
+        }
+    }
 
     private Tally Seed()
     {
@@ -194,6 +251,8 @@ public sealed class RunningCounts
         public long UncoveredNotQueued { get; private set; }
 
         public bool IsLive(string encoderId, string pageKey) => livePages.TryGetValue(encoderId, out var keys) && keys.Contains(pageKey);
+
+        public IReadOnlyCollection<string> LivePagesOf(string encoderId) => livePages.TryGetValue(encoderId, out var keys) ? keys : [];
 
         public void Document(string id, DocumentRecord? now)
         {

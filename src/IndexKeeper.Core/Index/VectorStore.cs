@@ -220,6 +220,21 @@ public sealed class VectorStore : IDisposable
         }
     }
 
+    /// <summary>
+    /// Lets go of the segment pages this process holds resident (<see cref="SegmentFileSet.DropResident"/>) when
+    /// the mapped-file bytes resident in it exceed <paramref name="budgetBytes"/>; returns whether it did. Reads only.
+    /// </summary>
+    public bool TrimResident(long budgetBytes)
+    {
+        if (ResidentPages.FileBytes() <= budgetBytes)
+        {
+            return false;
+        }
+
+        files.DropResident();
+        return true;
+    }
+
     /// <summary>Readers map the files, so bytes still in a writer's buffer must reach the file first.</summary>
     private void FlushWritersForReaders()
     {

@@ -12,6 +12,7 @@ internal sealed unsafe class MappedFile
     private readonly MemoryMappedFile? map;
     private readonly MemoryMappedViewAccessor? view;
     private readonly byte* start;
+    private readonly byte* mapped;
     private readonly Action<MappedFile>? onUnmapped;
     private int references = 1;
 
@@ -26,6 +27,7 @@ internal sealed unsafe class MappedFile
         {
             byte* pointer = null;
             view.SafeMemoryMappedViewHandle.AcquirePointer(ref pointer);
+            mapped = pointer;
             start = pointer + view.PointerOffset;
         }
     }
@@ -85,6 +87,18 @@ internal sealed unsafe class MappedFile
 
     /// <summary>The bytes from <paramref name="offset"/> to the end, at most int.MaxValue of them.</summary>
     public ReadOnlySpan<byte> Rest(long offset) => Span(offset, (int)Math.Min(Length - offset, int.MaxValue));
+
+    /// <summary>
+    /// Lets go of the file's pages this process holds resident (<see cref="ResidentPages"/>); the bytes read
+    /// the same afterwards. REQUIRES: the caller holds a reference.
+    /// </summary>
+    public void DropResident()
+    {
+        if (view is not null)
+        {
+            ResidentPages.Drop(mapped, Length + view.PointerOffset);
+        }
+    }
 
     /// <summary>REQUIRES: the caller already holds a reference (so the count cannot be zero).</summary>
     public void AddReference()

@@ -178,6 +178,38 @@ public sealed class SegmentFileSet : IDisposable
         }
     }
 
+    /// <summary>
+    /// Lets go of the segment pages this process holds resident, in every current map (<see cref="MappedFile.DropResident"/>):
+    /// open sources read the same bytes afterwards, from the page cache or the disk. Bounds a whole-index read
+    /// (a serving view's build) and the re-ranks of a long-running daemon to what they touch between calls.
+    /// </summary>
+    public void DropResident()
+    {
+        List<MappedFile> held;
+        lock (gate)
+        {
+            if (disposed)
+            {
+                return;
+            }
+
+            held = [.. entries.Values.Select(e => e.Current).OfType<MappedFile>()];
+            held.ForEach(m => m.AddReference());
+        }
+
+        foreach (var map in held)
+        {
+            try
+            {
+                map.DropResident();
+            }
+            finally
+            {
+                map.Release();
+            }
+        }
+    }
+
     /// <summary>Drops the set's own references; maps held by open sources stay until those are disposed.</summary>
     public void Dispose()
     {

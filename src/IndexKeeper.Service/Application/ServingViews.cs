@@ -25,6 +25,13 @@ public sealed class ServingViews : IDisposable
     // Vector sets read and encoded at a time while building a view: bounds memory, not speed.
     private const int BuildChunk = 1024;
 
+    // Segment pages a view's reads may leave mapped in this process before they are let go (docs/daemon.md,
+    // "Memory"): a build or an exhaustive pass reads every segment, which would otherwise stay resident whole.
+    private const long ResidentSegmentBytes = 128L << 20;
+
+    // Vector sets per slice of the recall figure's exhaustive pass, so its reads are let go between slices.
+    private const int ExhaustiveSlice = 4096;
+
     private readonly IndexCatalog catalog;
     private readonly Func<VectorStore> store;
     private readonly string directory;
@@ -33,6 +40,10 @@ public sealed class ServingViews : IDisposable
     private readonly object gate = new();
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
+
+    // The last view held per encoder, read without the gate: status asks for a view's figures while a build or a
+    // catch-up holds the gate for minutes, and must not wait for it (it answers with the view held before).
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, ServingView> shown = new(StringComparer.Ordinal);
     private readonly List<VectorSetChanges> pending = [];
     private readonly long openedAt;
     private long writtenAt;
@@ -88,6 +99,7 @@ public sealed class ServingViews : IDisposable
             views.Remove(encoderId);
             view = Load(encoderId, generation, cancellationToken);
             views[encoderId] = view;
+            shown[encoderId] = view;
             return view;
         }
     }
@@ -142,6 +154,7 @@ public sealed class ServingViews : IDisposable
         using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
         var options = new SearchOptions { Top = k, Candidates = reranked };
         var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
+        TrimResident();
         return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
     }
 
@@ -206,6 +219,7 @@ public sealed class ServingViews : IDisposable
                 if (swapped)
                 {
                     views[encoderId] = fresh;
+                    shown[encoderId] = fresh;
                     held.Dispose();
                     writtenAt = long.MinValue;
                 }
@@ -241,12 +255,11 @@ public sealed class ServingViews : IDisposable
         }
 
         double kept = 0;
-        using var every = store().OpenSelected(encoderId, [.. entries.Select(e => Record(encoderId, e))]);
         foreach (var query in queries)
         {
-            var exhaustive = LateInteractionSearch.Search(every.Source, query, new SearchOptions { Top = 10, Candidates = int.MaxValue }, cancellationToken);
-            var truth = exhaustive.Hits.Select(h => h.Key).ToHashSet();
-            var tenth = exhaustive.Hits.Count < 10 ? float.NegativeInfinity : exhaustive.Hits[^1].Score;
+            var exhaustive = Exhaustive(encoderId, entries, query, 10, cancellationToken);
+            var truth = exhaustive.Select(h => h.Key).ToHashSet();
+            var tenth = exhaustive.Count < 10 ? float.NegativeInfinity : exhaustive[^1].Score;
             var served = Ranked(view, query, 10, cancellationToken, allowed: null).Result.Hits;
             kept += truth.Count == 0 ? 1 : (double)served.Count(h => truth.Contains(h.Key) || h.Score >= tenth) / truth.Count;
         }
@@ -255,6 +268,31 @@ public sealed class ServingViews : IDisposable
         view.Measured(recall);
         return recall;
     }
+
+    /// <summary>
+    /// The best <paramref name="top"/> of <paramref name="entries"/> by exact float16 MaxSim, best first: each slice
+    /// searched exhaustively and the slices' best merged (exact: a page's score does not depend on its slice), the
+    /// segment pages read let go between slices.
+    /// </summary>
+    private List<SearchHit> Exhaustive(string encoderId, IReadOnlyList<ServingEntry> entries, VectorSet query, int top, CancellationToken cancellationToken)
+    {
+        var best = new List<SearchHit>();
+        foreach (var slice in entries.Chunk(ExhaustiveSlice))
+        {
+            using (var some = store().OpenSelected(encoderId, [.. slice.Select(e => Record(encoderId, e))]))
+            {
+                best.AddRange(LateInteractionSearch.Search(some.Source, query, new SearchOptions { Top = top, Candidates = int.MaxValue }, cancellationToken).Hits);
+            }
+
+            best = [.. best.OrderByDescending(h => h.Score).Take(top)];
+            TrimResident();
+        }
+
+        return best;
+    }
+
+    /// <summary>Lets go of the segment pages the reads left mapped once they pass <see cref="ResidentSegmentBytes"/>.</summary>
+    private void TrimResident() => store().TrimResident(ResidentSegmentBytes);
 
     /// <summary>
     /// The last recall figure of the view of <paramref name="encoderId"/> held in memory or, with
@@ -268,12 +306,9 @@ public sealed class ServingViews : IDisposable
             return null;
         }
 
-        lock (gate)
+        if (shown.TryGetValue(encoderId, out var held))
         {
-            if (views.TryGetValue(encoderId, out var held))
-            {
-                return held.Recall;
-            }
+            return held.Recall;
         }
 
         return readFile ? ServingViewFile.ReadFigures(directory, encoderId, source)?.Recall : null;
@@ -286,12 +321,9 @@ public sealed class ServingViews : IDisposable
     /// </summary>
     public (DateTimeOffset? TrainedAt, double? AddedShare) LastTraining(string encoderId)
     {
-        lock (gate)
+        if (shown.TryGetValue(encoderId, out var held))
         {
-            if (views.TryGetValue(encoderId, out var held))
-            {
-                return (held.TrainedAt, held.AddedShareSinceTraining);
-            }
+            return (held.TrainedAt, held.AddedShareSinceTraining);
         }
 
         return ServingViewFile.ReadFigures(directory, encoderId, source) is { } figures ? (figures.TrainedAt, figures.AddedShare) : (null, null);
@@ -363,6 +395,7 @@ public sealed class ServingViews : IDisposable
             }
 
             views.Clear();
+            shown.Clear();
         }
     }
 
@@ -417,6 +450,7 @@ public sealed class ServingViews : IDisposable
 
         var changes = steps.SelectMany(s => s.Changed).Where(c => c.EncoderId == view.EncoderId).Select(ToChange).ToList();
         view.Apply(generation, changes, locations => Open(view.EncoderId, locations), cancellationToken);
+        TrimResident();
         Trim();
         return true;
     }
@@ -435,6 +469,7 @@ public sealed class ServingViews : IDisposable
             foreach (var chunk in BuildChunks(live))
             {
                 view.Apply(generation, [.. chunk.Select(ToChange)], locations => Open(encoderId, locations), cancellationToken);
+                TrimResident();
             }
 
             Builds++;

@@ -1,21 +1,35 @@
+using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Index;
 using IndexKeeper.Service.Hosting;
 
 namespace IndexKeeper.Service.Application;
 
-/// <summary><c>status</c> and <c>/api/status</c>: the figures of the index. Reads only.</summary>
+/// <summary>
+/// <c>status</c> and <c>/api/status</c>: the figures of the index. Reads only. The counts come from the catalog's
+/// running counts (<see cref="RunningCounts"/>): in the daemon they move with each commit, so a request costs what
+/// changed since the last one; a process that opens the index for one <c>status</c> counts everything once.
+/// </summary>
 public sealed class StatusOperation(OpenIndex index, IndexSettings settings, DriftOperation drift)
 {
     public StatusReport Read()
     {
         var catalog = index.Catalog;
-        var figures = catalog.Figures();
+        var activeId = index.Encoder.Identity.Id;
+        // A catalog that never recorded its serving encoder has it inferred from every live page key (rare: new or old catalogs).
+        var recorded = catalog.Encoders.ServingId();
+        var decision = recorded is null ? drift.Read() : null;
+        var (figures, liveSets, servingId, coverage, drifted, migrated) = catalog.Counts.Read(counts =>
+        {
+            var (drifted, migrated) = decision is null ? counts.Migration(recorded!, activeId) : (decision.DriftedPages.Count, decision.MigratedPages);
+            // As DriftPolicy decides: once no page is left to migrate, the active encoder serves (the switch-over).
+            var serving = decision?.ServingEncoderId ?? (drifted == 0 ? activeId : recorded!);
+            return (counts.Figures(), counts.LiveVectorSets, serving, counts.Coverage(serving, activeId), drifted, migrated);
+        });
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
-        var decision = drift.Read();
-        var damage = DamageSurvey.Run(catalog, index.Store.Directory, decision.ServingEncoderId, readRecords: false, CancellationToken.None);
-        var canary = CanaryReport.Of(catalog.Encoders.Find(index.Encoder.Identity.Id));
-        var training = index.Serving.LastTraining(decision.ServingEncoderId);
+        var damage = DamageSurvey.RunRunning(catalog, index.Store.Directory, servingId, coverage, new CleanSegments(), CancellationToken.None);
+        var canary = CanaryReport.Of(catalog.Encoders.Find(activeId));
+        var training = index.Serving.LastTraining(servingId);
         return new StatusReport
         {
             IndexDirectory = index.Directory,
@@ -23,17 +37,17 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             Pages = figures.Pages,
             PageLocations = figures.PageLocations,
             VectorSets = catalog.VectorSets.Count(liveOnly: false),
-            LiveVectorSets = catalog.VectorSets.Count(liveOnly: true),
+            LiveVectorSets = liveSets,
             Segments = segments.Count,
             DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
             ActiveEncoder = settings.Encoder.Name,
             ActiveEncoderId = index.Encoder.Identity.Id,
-            ServingEncoderId = decision.ServingEncoderId,
-            PagesDrifted = decision.DriftedPages.Count,
-            PagesMigrated = decision.MigratedPages,
+            ServingEncoderId = servingId,
+            PagesDrifted = drifted,
+            PagesMigrated = migrated,
             CanaryDrifted = canary?.Drifted ?? false,
             Canary = canary,
-            CandidateRecall = index.Serving.LastRecall(decision.ServingEncoderId),
+            CandidateRecall = index.Serving.LastRecall(servingId),
             CentroidsTrainedAt = training.TrainedAt,
             AddedShareSinceTraining = training.AddedShare,
             SegmentsMissing = damage.SegmentsMissing,

@@ -1,5 +1,6 @@
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Documents;
+using IndexKeeper.Core.Pipeline;
 using IndexKeeper.Core.Queue;
 using IndexKeeper.Tests.Support;
 
@@ -81,6 +82,16 @@ public sealed class RunningCountsTests
             referenced.Count(activeKeys.Contains),
             referenced.Count(k => !servingKeys.Contains(k) && !queued.Contains(k)));
         Assert.Equal(expected, counts.Coverage(serving, active));
+
+        // status's drift figures from the counts, against the drift policy's own pass over every live page key.
+        if (catalog.Encoders.ServingId() is { } recorded)
+        {
+            var decision = DriftReconciler.Read(catalog, active);
+            var (drifted, migrated) = counts.Migration(recorded, active);
+            Assert.Equal(decision.DriftedPages.Count, drifted);
+            Assert.Equal(decision.MigratedPages, migrated);
+            Assert.Equal(decision.ServingEncoderId, drifted == 0 ? active : recorded);
+        }
     }
 
     /// <summary>Drives the catalog as the scan, the embed pass, compaction, forget-root and drift would.</summary>

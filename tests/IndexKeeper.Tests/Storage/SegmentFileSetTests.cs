@@ -30,6 +30,25 @@ public sealed class SegmentFileSetTests
     }
 
     [Fact]
+    public void Letting_go_of_resident_pages_leaves_an_open_source_reading_the_same_bytes()
+    {
+        using var dir = new TempDirectory();
+        var locations = Write(dir.Path, 1, [30, 31, 32], seal: true);
+        using var files = new SegmentFileSet(dir.Path);
+        using var source = files.OpenSource(TestVectors.EncoderId, locations);
+        var before = Enumerable.Range(0, source.Count).Select(i => source.Get(i).Vectors.ToArray()).ToList();
+        files.DropResident();
+        for (var i = 0; i < source.Count; i++)
+        {
+            // The map is read again from the file (madvise(2), MADV_DONTNEED on a shared file mapping), not zeroed.
+            var expected = VectorQuantization.ToFloat16(TestVectors.Set(30 + i, (30 + i) % 5).Vectors);
+            Assert.True(source.Get(i).Vectors.SequenceEqual(expected));
+            Assert.True(source.Get(i).Vectors.SequenceEqual(before[i]));
+            Assert.Equal(TestVectors.Key(30 + i), source.Get(i).Key);
+        }
+    }
+
+    [Fact]
     public void A_retired_segment_is_deleted_when_its_last_reader_lets_go()
     {
         using var dir = new TempDirectory();
