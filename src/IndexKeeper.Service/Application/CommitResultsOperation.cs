@@ -33,7 +33,7 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
             {
                 try
                 {
-                    vectors = VectorSetWire.Read(bytes);
+                    vectors = VectorSetWire.Read(bytes.Span);
                 }
                 catch (Exception ex) when (ex is FormatException or ArgumentException)
                 {

@@ -13,6 +13,11 @@ internal sealed class JobTable(NpgsqlDataSource database)
 {
     private const string Jobs = QueueSchema.Name + ".jobs";
 
+    // The handed-back results of one Finished call, end to end, kept from call to call: each result (≈ 100-250 KB) in
+    // an array of its own went to the large-object heap, a page at a time, and brought gen2 collections of the whole
+    // daemon's heap with it (docs/benchmarks.md, workqueue run 9). Grows to the largest batch read, never shrinks.
+    private byte[] results = [];
+
     /// <summary>Publishes jobs not already there (a page key under an encoder is one job); returns how many were new.</summary>
     public int Publish(IReadOnlyList<PageJob> jobs)
     {
@@ -75,7 +80,8 @@ internal sealed class JobTable(NpgsqlDataSource database)
     }
 
     /// <summary>
-    /// Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first. With <paramref name="gather"/>,
+    /// Up to <paramref name="limit"/> jobs handed back (done or failed), oldest first; their result bytes lie in a buffer
+    /// this table reuses, valid until its next call of this method. With <paramref name="gather"/>,
     /// none until there are <paramref name="limit"/> of them, or the oldest has waited that long, or no job is
     /// waiting or claimed (nothing more will come): so one commit (one fsync, one catalog transaction) takes
     /// several workers' hand-backs. Decided in the same statement, on the database's clock.
@@ -94,22 +100,51 @@ internal sealed class JobTable(NpgsqlDataSource database)
         command.Parameters.AddWithValue("limit", limit);
         command.Parameters.Add(new NpgsqlParameter<TimeSpan?>("gather", NpgsqlDbType.Interval) { TypedValue = gather });
         var finished = new List<FinishedJob>();
+        var buffer = results;
+        var used = 0;
 
-        // Sequential access: each result (hundreds of KB) is read from the socket straight into its array, not
+        // Sequential access: each result (hundreds of KB) is read from the socket straight into the reused buffer, not
         // first buffered whole in the connection's row buffer and copied (Npgsql's documentation, "Reading large values").
         using var reader = command.ExecuteReader(System.Data.CommandBehavior.SequentialAccess);
         while (reader.Read())
         {
+            var job = ReadJob(reader);
+            var state = (JobState)reader.GetInt16(7);
+            var worker = reader.IsDBNull(8) ? null : reader.GetString(8);
+            var resultEncoder = reader.IsDBNull(9) ? null : reader.GetString(9);
+            ReadOnlyMemory<byte>? result = null;
+            if (!reader.IsDBNull(10))
+            {
+                // A null buffer asks for the value's length (ADO.NET's GetBytes contract).
+                var length = checked((int)reader.GetBytes(10, 0, null, 0, 0));
+                if (used + length > buffer.Length)
+                {
+                    // Results already read keep the old array alive until the caller is done with them.
+                    buffer = new byte[Math.Max(used + length, buffer.Length * 2)];
+                    used = 0;
+                }
+
+                var read = 0L;
+                while (read < length)
+                {
+                    read += reader.GetBytes(10, read, buffer, used + (int)read, length - (int)read);
+                }
+
+                result = buffer.AsMemory(used, length);
+                used += length;
+            }
+
             finished.Add(new FinishedJob(
-                ReadJob(reader),
-                (JobState)reader.GetInt16(7),
-                reader.IsDBNull(8) ? null : reader.GetString(8),
-                reader.IsDBNull(9) ? null : reader.GetString(9),
-                reader.IsDBNull(10) ? null : reader.GetFieldValue<byte[]>(10),
+                job,
+                state,
+                worker,
+                resultEncoder,
+                result,
                 reader.IsDBNull(11) ? null : (JobFailure)reader.GetInt16(11),
                 reader.IsDBNull(12) ? null : reader.GetString(12)));
         }
 
+        results = buffer;
         return finished;
     }
 

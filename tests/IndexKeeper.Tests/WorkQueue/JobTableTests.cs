@@ -23,6 +23,28 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         new(i.ToString("x64", System.Globalization.CultureInfo.InvariantCulture), encoder, "docs", $"f{i}.pdf", 1, new string('e', 64), priority);
 
     [Fact]
+    public void Handed_back_bytes_read_through_the_reused_buffer_are_each_results_own()
+    {
+        // Sizes across the buffer's growth (a small result, then one larger than the buffer so far, then a small one),
+        // and a second read that reuses the buffer: every result must come back byte for byte.
+        var table = Jobs;
+        static byte[] Bytes(int length, int seed) => Enumerable.Range(0, length).Select(i => (byte)((i * 31) + seed)).ToArray();
+        var sizes = new[] { 1000, 300_000, 7 };
+        table.Publish([.. Enumerable.Range(1, 4).Select(i => Job(i))]);
+        var claimed = table.Claim("w", Encoder, 3, TimeSpan.FromMinutes(5));
+        var sent = claimed.Select((c, i) => (c.Job, Result: Bytes(sizes[i], i))).ToList();
+        Assert.Equal(3, table.Finish("w", sent, Encoder));
+
+        var first = table.Finished(10);
+        Assert.Equal(sent.Select(s => s.Result), first.OrderBy(f => f.Job.PageKey).Select(f => f.Result!.Value.ToArray()));
+        table.Delete(first.Select(f => f.Job).ToList());
+
+        var last = Assert.Single(table.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
+        Assert.Equal(1, table.Finish("w", [(last.Job, Bytes(50, 9))], Encoder));
+        Assert.Equal(Bytes(50, 9), Assert.Single(table.Finished(10)).Result!.Value.ToArray());
+    }
+
+    [Fact]
     public void Publishing_twice_makes_one_job()
     {
         Assert.Equal(3, Jobs.Publish([Job(1), Job(2), Job(3)]));
@@ -94,7 +116,7 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
 
         var finished = Assert.Single(Jobs.Finished(10));
         Assert.Equal("second", finished.Worker);
-        Assert.Equal(new byte[] { 4, 5, 6 }, finished.Result);
+        Assert.Equal(new byte[] { 4, 5, 6 }, finished.Result!.Value.ToArray());
     }
 
     [Fact]

@@ -9,7 +9,7 @@ public sealed class ResultCheckTests
     private const string Other = "bbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbbb";
 
     private static FinishedJob Done(string jobEncoder, string resultEncoder) =>
-        new(new PageJob(new string('c', 64), jobEncoder, "docs", "a.pdf", 1, new string('d', 64), 0), JobState.Done, "w1", resultEncoder, [1], null, null);
+        new(new PageJob(new string('c', 64), jobEncoder, "docs", "a.pdf", 1, new string('d', 64), 0), JobState.Done, "w1", resultEncoder, new ReadOnlyMemory<byte>([1]), null, null);
 
     private static FinishedJob Failed(JobFailure failure) =>
         new(new PageJob(new string('c', 64), Active, "docs", "a.pdf", 1, new string('d', 64), 0), JobState.Failed, "w1", null, null, failure, "why");
