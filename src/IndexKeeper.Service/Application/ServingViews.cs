@@ -153,8 +153,9 @@ public sealed class ServingViews : IDisposable
         var encoderId = view.EncoderId;
         using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
         var options = new SearchOptions { Top = k, Candidates = reranked };
+        // No TrimResident here: with every page's codes read per search, mapping them again each time cut the
+        // throughput of 8 clients 2.3x at 10k (docs/benchmarks.md, `idle` run 4).
         var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
-        TrimResident();
         return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
     }
 
