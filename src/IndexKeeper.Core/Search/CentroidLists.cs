@@ -326,7 +326,7 @@ internal sealed class CentroidLists
     {
         var queryCodes = new ulong[query.Length / dimensions * words];
         SignCodes.Compute(query, dimensions, queryCodes);
-        return Probed(query, queryCodes, probes).SelectMany(p => p).Distinct().Sum(c => (long)lists[c].Count);
+        return EntriesOf(Probed(query, queryCodes, probes));
     }
 
     /// <summary>Vectors of the live pages.</summary>
@@ -344,10 +344,13 @@ internal sealed class CentroidLists
             return false;
         }
 
-        var entries = probed.SelectMany(p => p).Distinct().Sum(c => (long)lists[c].Count);
+        var entries = EntriesOf(probed);
         var live = LiveVectors;
         return (entries * listEntryCost) + (live * handedOn / Count) < live;
     }
+
+    // The entries of the probed lists, each list counted once (tokens may share a centroid).
+    private long EntriesOf(HashSet<int>[] probed) => probed.SelectMany(p => p).Distinct().Sum(c => (long)lists[c].Count);
 
     /// <summary>
     /// Per query token the centroids whose lists it reads: the one its vector would be assigned to and the nearest

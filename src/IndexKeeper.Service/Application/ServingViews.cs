@@ -256,9 +256,10 @@ public sealed class ServingViews : IDisposable
         }
 
         double kept = 0;
-        foreach (var query in queries)
+        var exhaustives = Exhaustive(encoderId, entries, queries, 10, cancellationToken);
+        for (var q = 0; q < queries.Count; q++)
         {
-            var exhaustive = Exhaustive(encoderId, entries, query, 10, cancellationToken);
+            var (query, exhaustive) = (queries[q], exhaustives[q]);
             var truth = exhaustive.Select(h => h.Key).ToHashSet();
             var tenth = exhaustive.Count < 10 ? float.NegativeInfinity : exhaustive[^1].Score;
             var served = Ranked(view, query, 10, cancellationToken, allowed: null).Result.Hits;
@@ -271,21 +272,25 @@ public sealed class ServingViews : IDisposable
     }
 
     /// <summary>
-    /// The best <paramref name="top"/> of <paramref name="entries"/> by exact float16 MaxSim, best first: each slice
-    /// searched exhaustively and the slices' best merged (exact: a page's score does not depend on its slice), the
-    /// segment pages read let go between slices.
+    /// For each query, the best <paramref name="top"/> of <paramref name="entries"/> by exact float16 MaxSim, best
+    /// first: each slice opened once and searched exhaustively for every query, the slices' best merged (exact: a
+    /// page's score does not depend on its slice), the segment pages read let go between slices.
     /// </summary>
-    private List<SearchHit> Exhaustive(string encoderId, IReadOnlyList<ServingEntry> entries, VectorSet query, int top, CancellationToken cancellationToken)
+    private List<SearchHit>[] Exhaustive(string encoderId, IReadOnlyList<ServingEntry> entries, IReadOnlyList<VectorSet> queries, int top, CancellationToken cancellationToken)
     {
-        var best = new List<SearchHit>();
+        var best = queries.Select(_ => new List<SearchHit>()).ToArray();
+        var options = new SearchOptions { Top = top, Candidates = int.MaxValue };
         foreach (var slice in entries.Chunk(ExhaustiveSlice))
         {
             using (var some = store().OpenSelected(encoderId, [.. slice.Select(e => Record(encoderId, e))]))
             {
-                best.AddRange(LateInteractionSearch.Search(some.Source, query, new SearchOptions { Top = top, Candidates = int.MaxValue }, cancellationToken).Hits);
+                for (var q = 0; q < queries.Count; q++)
+                {
+                    best[q].AddRange(LateInteractionSearch.Search(some.Source, queries[q], options, cancellationToken).Hits);
+                    best[q] = [.. best[q].OrderByDescending(h => h.Score).Take(top)];
+                }
             }
 
-            best = [.. best.OrderByDescending(h => h.Score).Take(top)];
             TrimResident();
         }
 
