@@ -47,28 +47,22 @@ internal sealed class CentroidLists
     private readonly int words;
     private readonly float[] centroids;
     private readonly ulong[] centroidCodes;
-    private readonly Dictionary<ulong, int> slotOf = [];
 
-    // Per slot (a page as added; removed ones are dead until compaction): id, first vector position, vector count.
-    private List<ulong> idOf = [];
-    private List<bool> alive = [];
-    private List<int> startOf = [];
-    private List<int> rowsOf = [];
+    // Every page's sign codes, page by page; a vector's position is its row there.
+    private readonly PageCodes pages;
 
-    // Per vector position, pages' vectors kept together (page-major): sign code, centroid, slot.
-    private ulong[] vectorCodes = [];
+    // Per vector position, in step with the page codes' rows: centroid, slot.
     private ushort[] vectorCentroid = [];
     private int[] vectorSlot = [];
-    private int vectorCount;
 
     // Per centroid, the positions of its vectors: the inverted lists.
     private List<int>[] lists;
-    private int dead;
 
-    private CentroidLists(int dimensions, float[] centroids)
+    private CentroidLists(int dimensions, float[] centroids, PageCodes pages)
     {
         this.dimensions = dimensions;
         this.centroids = centroids;
+        this.pages = pages;
         words = SignCodes.WordsPerCode(dimensions);
         centroidCodes = new ulong[CentroidCount * words];
         SignCodes.Compute(centroids, dimensions, centroidCodes);
@@ -77,18 +71,20 @@ internal sealed class CentroidLists
 
     public int CentroidCount => centroids.Length / dimensions;
 
-    public int Count => slotOf.Count;
+    public int Count => pages.Count;
+
+    /// <summary>The pages' sign codes the lists point into: a view of every page scores them directly.</summary>
+    public PageCodes Pages => pages;
 
     /// <summary>Centroids, row-major, <c>CentroidCount × dimensions</c>.</summary>
     public ReadOnlySpan<float> Centroids => centroids;
 
     /// <summary>
-    /// Bytes held: centroids, per vector its sign code, centroid and slot (page-major) and its list entry, per page
-    /// its slot fields.
+    /// Bytes held: centroids, the page codes, per vector its centroid and slot (page-major) and its list entry.
     /// </summary>
     public long BytesEstimate =>
-        (centroids.Length * 4L) + (vectorCodes.Length * 8L) + (vectorCentroid.Length * 2L) + (vectorSlot.Length * 4L)
-        + lists.Sum(l => (long)l.Capacity * 4) + (idOf.Capacity * 17L) + (slotOf.Count * 24L);
+        (centroids.Length * 4L) + pages.BytesEstimate + (vectorCentroid.Length * 2L) + (vectorSlot.Length * 4L)
+        + lists.Sum(l => (long)l.Capacity * 4);
 
     /// <summary>
     /// Centroids for an index of <paramref name="vectors"/> vectors: a power of two near √vectors, within
@@ -118,7 +114,7 @@ internal sealed class CentroidLists
             sample.AsSpan((int)((long)c * rows / centroidCount) * dimensions, dimensions).CopyTo(centroids.AsSpan(c * dimensions));
         }
 
-        var lists = new CentroidLists(dimensions, centroids);
+        var lists = new CentroidLists(dimensions, centroids, new PageCodes(dimensions));
         var assigned = new int[rows];
         var sampleCodes = new ulong[rows * lists.words];
         SignCodes.Compute(sample, dimensions, sampleCodes);
@@ -162,55 +158,31 @@ internal sealed class CentroidLists
     }
 
     /// <summary>
-    /// Lists over stored centroids and pages as the serving view file keeps them: per page its id and vector count
-    /// (in slot order), per vector (pages' vectors together, in the same order) its centroid and sign code. The
-    /// lists are made again from the centroids of the vectors, one pass.
+    /// Lists over stored centroids and page codes as the serving view file keeps them: per vector (in the page codes'
+    /// row order) its centroid. The lists are made again from the centroids of the vectors, one pass.
     /// </summary>
     /// <exception cref="FormatException">The parts do not fit together.</exception>
-    public static CentroidLists Restore(int dimensions, float[] centroids, ulong[] ids, int[] rows, ushort[] centroidOfVector, ulong[] codes)
+    public static CentroidLists Restore(float[] centroids, PageCodes pages, ushort[] centroidOfVector)
     {
-        ArgumentNullException.ThrowIfNull(ids);
-        ArgumentNullException.ThrowIfNull(rows);
+        ArgumentNullException.ThrowIfNull(pages);
         ArgumentNullException.ThrowIfNull(centroidOfVector);
-        ArgumentNullException.ThrowIfNull(codes);
-        var restored = new CentroidLists(dimensions, centroids);
-        if (ids.Length != rows.Length || codes.Length != (long)centroidOfVector.Length * restored.words)
+        var dimensions = pages.Dimensions;
+        var restored = new CentroidLists(dimensions, centroids, pages);
+        if (pages.Rows != centroidOfVector.Length)
         {
-            throw new FormatException($"{ids.Length} pages with {rows.Length} vector counts, {centroidOfVector.Length} vectors with {codes.Length} code words.");
+            throw new FormatException($"The pages of the centroid lists have {pages.Rows} vectors, {centroidOfVector.Length} centroids are stored.");
         }
 
-        restored.vectorCodes = codes;
-        restored.vectorCentroid = centroidOfVector;
-        restored.vectorSlot = new int[centroidOfVector.Length];
-        restored.idOf = new List<ulong>(ids.Length);
-        restored.alive = new List<bool>(ids.Length);
-        restored.startOf = new List<int>(ids.Length);
-        restored.rowsOf = new List<int>(ids.Length);
-        long at = 0;
-        for (var slot = 0; slot < ids.Length; slot++)
-        {
-            if (rows[slot] < 0 || at + rows[slot] > centroidOfVector.Length || !restored.slotOf.TryAdd(ids[slot], slot))
-            {
-                throw new FormatException($"Page {ids[slot]} of the centroid lists has {rows[slot]} vectors past the stored ones, or is there twice.");
-            }
-
-            restored.idOf.Add(ids[slot]);
-            restored.alive.Add(true);
-            restored.startOf.Add((int)at);
-            restored.rowsOf.Add(rows[slot]);
-            restored.vectorSlot.AsSpan((int)at, rows[slot]).Fill(slot);
-            at += rows[slot];
-        }
-
-        if (at != centroidOfVector.Length)
-        {
-            throw new FormatException($"The pages of the centroid lists have {at} vectors, {centroidOfVector.Length} are stored.");
-        }
-
-        restored.vectorCount = (int)at;
         if (centroidOfVector.Any(c => c >= restored.CentroidCount))
         {
             throw new FormatException($"A vector names a centroid past the {restored.CentroidCount} stored.");
+        }
+
+        restored.vectorCentroid = centroidOfVector;
+        restored.vectorSlot = new int[centroidOfVector.Length];
+        for (var slot = 0; slot < pages.Slots; slot++)
+        {
+            restored.vectorSlot.AsSpan(pages.StartOf(slot), pages.RowsOf(slot)).Fill(slot);
         }
 
         restored.RebuildLists();
@@ -218,20 +190,20 @@ internal sealed class CentroidLists
     }
 
     /// <summary>Pages in slot order (removed ones included until compaction; <see cref="IsLive"/> tells).</summary>
-    public int Slots => idOf.Count;
+    public int Slots => pages.Slots;
 
-    public bool IsLive(int slot) => alive[slot];
+    public bool IsLive(int slot) => pages.IsLive(slot);
 
-    public ulong IdOf(int slot) => idOf[slot];
+    public ulong IdOf(int slot) => pages.IdOf(slot);
 
     /// <summary>The centroid of each vector of the page in <paramref name="slot"/>.</summary>
-    public ReadOnlySpan<ushort> CentroidsOf(int slot) => vectorCentroid.AsSpan(startOf[slot], rowsOf[slot]);
+    public ReadOnlySpan<ushort> CentroidsOf(int slot) => vectorCentroid.AsSpan(pages.StartOf(slot), pages.RowsOf(slot));
 
     /// <summary>The sign codes of the page in <paramref name="slot"/>, words per code each.</summary>
-    public ReadOnlySpan<ulong> CodesOf(int slot) => vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words);
+    public ReadOnlySpan<ulong> CodesOf(int slot) => pages.CodesOf(slot);
 
     /// <summary>True when the page is in the lists.</summary>
-    public bool Contains(ulong id) => slotOf.ContainsKey(id);
+    public bool Contains(ulong id) => pages.Contains(id);
 
     /// <summary>The centroid of each of a page's vectors (given with their sign codes).</summary>
     public ushort[] Assign(ReadOnlySpan<Half> vectors, ReadOnlySpan<ulong> signCodes)
@@ -254,31 +226,26 @@ internal sealed class CentroidLists
     {
         ArgumentNullException.ThrowIfNull(assigned);
         Remove(id);
-        var slot = idOf.Count;
-        idOf.Add(id);
-        alive.Add(true);
-        startOf.Add(vectorCount);
-        rowsOf.Add(assigned.Length);
-        slotOf[id] = slot;
-        Reserve(vectorCount + assigned.Length);
-        signCodes[..(assigned.Length * words)].CopyTo(vectorCodes.AsSpan(vectorCount * words));
-        assigned.CopyTo(vectorCentroid.AsSpan(vectorCount));
+        var first = pages.Rows;
+        var slot = pages.Add(id, signCodes, assigned.Length);
+        Reserve();
+        assigned.CopyTo(vectorCentroid.AsSpan(first));
+        vectorSlot.AsSpan(first, assigned.Length).Fill(slot);
         for (var r = 0; r < assigned.Length; r++)
         {
-            vectorSlot[vectorCount] = slot;
-            lists[assigned[r]].Add(vectorCount++);
+            lists[assigned[r]].Add(first + r);
         }
     }
 
     public void Remove(ulong id)
     {
-        if (!slotOf.Remove(id, out var slot))
+        if (!pages.Contains(id))
         {
             return;
         }
 
-        alive[slot] = false;
-        if (++dead > Math.Max(1024, idOf.Count / 4))
+        pages.Remove(id);
+        if (pages.CompactionDue)
         {
             Compact();
         }
@@ -299,16 +266,8 @@ internal sealed class CentroidLists
         var queryCodes = new ulong[tokens * words];
         SignCodes.Compute(query, dimensions, queryCodes);
         var probed = Probed(query, queryCodes, probes);
-        var listed = ReadsLists(probed, handedOn, listEntryCost)
-            ? ListScored(queryCodes, probed, handedOn, cancellationToken)
-            : [.. Enumerable.Range(0, Slots).Where(IsLive)];
-        var ordinals = Enumerable.Range(0, listed.Length).ToArray();
-        var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
-        {
-            var slot = listed[ordinal];
-            best.Offer(MaxSimKernels.Hamming(queryCodes, vectorCodes.AsSpan(startOf[slot] * words, rowsOf[slot] * words), dimensions, closest), ordinal);
-        });
-        return [.. top.Select(t => idOf[listed[t.Ordinal]])];
+        var listed = ReadsLists(probed, handedOn, listEntryCost) ? ListScored(queryCodes, probed, handedOn, cancellationToken) : null;
+        return pages.Best(queryCodes, count, listed, null, cancellationToken);
     }
 
     /// <summary>
@@ -330,7 +289,7 @@ internal sealed class CentroidLists
     }
 
     /// <summary>Vectors of the live pages.</summary>
-    public long LiveVectors => (long)vectorCount * Count / Math.Max(1, Slots);
+    public long LiveVectors => pages.LiveRows;
 
     /// <summary>
     /// True when the probed lists and the page codes of the <paramref name="handedOn"/> pages cost less to read than
@@ -397,7 +356,7 @@ internal sealed class CentroidLists
     {
         var queryCodes = new ulong[query.Length / dimensions * words];
         SignCodes.Compute(query, dimensions, queryCodes);
-        return [.. ListScored(queryCodes, Probed(query, queryCodes, probes), count, cancellationToken).Select(s => idOf[s])];
+        return [.. ListScored(queryCodes, Probed(query, queryCodes, probes), count, cancellationToken).Select(pages.IdOf)];
     }
 
     /// <summary>
@@ -410,7 +369,8 @@ internal sealed class CentroidLists
     private int[] ListScored(ulong[] queryCodes, HashSet<int>[] probed, int count, CancellationToken cancellationToken)
     {
         var tokens = probed.Length;
-        var slots = idOf.Count;
+        var slots = pages.Slots;
+        var codes = pages.AllCodes;
 
         // Per slot: the sum over the tokens that found it of (its best − the token's imputed score), the best of the
         // current token, and the last token (1-based) that found it. The total is that sum plus every token's imputed score.
@@ -435,12 +395,12 @@ internal sealed class CentroidLists
                     foreach (var position in CollectionsMarshal.AsSpan(lists[c]))
                     {
                         var slot = vectorSlot[position];
-                        if (!alive[slot])
+                        if (!pages.IsLive(slot))
                         {
                             continue;
                         }
 
-                        var similarity = dimensions - (2 * Distance(tokenCode, position));
+                        var similarity = dimensions - (2 * Distance(tokenCode, codes, position));
                         lowest = Math.Min(lowest, similarity);
                         if (foundBy[slot] == stamp)
                         {
@@ -486,18 +446,18 @@ internal sealed class CentroidLists
 
     /// <summary>Differing bits between a query token's code and the stored code at <paramref name="position"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private int Distance(ReadOnlySpan<ulong> tokenCode, int position)
+    private int Distance(ReadOnlySpan<ulong> tokenCode, ulong[] codes, int position)
     {
         if (words == 2)
         {
             // The default d = 128: two words, no loop.
-            return BitOperations.PopCount(tokenCode[0] ^ vectorCodes[2 * position]) + BitOperations.PopCount(tokenCode[1] ^ vectorCodes[(2 * position) + 1]);
+            return BitOperations.PopCount(tokenCode[0] ^ codes[2 * position]) + BitOperations.PopCount(tokenCode[1] ^ codes[(2 * position) + 1]);
         }
 
         var distance = 0;
         for (var w = 0; w < words; w++)
         {
-            distance += BitOperations.PopCount(tokenCode[w] ^ vectorCodes[(position * words) + w]);
+            distance += BitOperations.PopCount(tokenCode[w] ^ codes[(position * words) + w]);
         }
 
         return distance;
@@ -580,37 +540,14 @@ internal sealed class CentroidLists
         }
     }
 
-    /// <summary>Drops the tombstones: live slots and their vectors moved down in their order, the lists made again.</summary>
+    /// <summary>Drops the tombstones: live pages' vectors moved down in their order (centroids and slots with them), the lists made again.</summary>
     private void Compact()
     {
-        var ids = new List<ulong>(slotOf.Count);
-        var starts = new List<int>(slotOf.Count);
-        var rows = new List<int>(slotOf.Count);
-        var kept = 0;
-        for (var slot = 0; slot < idOf.Count; slot++)
+        pages.Compact((from, to, length, slot) =>
         {
-            if (!alive[slot])
-            {
-                continue;
-            }
-
-            var (from, length) = (startOf[slot], rowsOf[slot]);
-            vectorCodes.AsSpan(from * words, length * words).CopyTo(vectorCodes.AsSpan(kept * words));
-            vectorCentroid.AsSpan(from, length).CopyTo(vectorCentroid.AsSpan(kept));
-            vectorSlot.AsSpan(kept, length).Fill(ids.Count);
-            slotOf[idOf[slot]] = ids.Count;
-            ids.Add(idOf[slot]);
-            starts.Add(kept);
-            rows.Add(length);
-            kept += length;
-        }
-
-        idOf = ids;
-        startOf = starts;
-        rowsOf = rows;
-        alive = [.. ids.Select(_ => true)];
-        vectorCount = kept;
-        dead = 0;
+            vectorCentroid.AsSpan(from, length).CopyTo(vectorCentroid.AsSpan(to));
+            vectorSlot.AsSpan(to, length).Fill(slot);
+        });
         RebuildLists();
     }
 
@@ -618,30 +555,26 @@ internal sealed class CentroidLists
     private void RebuildLists()
     {
         var sizes = new int[CentroidCount];
-        for (var position = 0; position < vectorCount; position++)
+        for (var position = 0; position < pages.Rows; position++)
         {
             sizes[vectorCentroid[position]]++;
         }
 
         lists = [.. sizes.Select(size => new List<int>(size))];
-        for (var position = 0; position < vectorCount; position++)
+        for (var position = 0; position < pages.Rows; position++)
         {
             lists[vectorCentroid[position]].Add(position);
         }
     }
 
-    /// <summary>Room for <paramref name="vectors"/> vectors in the page-major arrays, grown by half again.</summary>
-    private void Reserve(int vectors)
+    /// <summary>The per-vector arrays as long as the page codes' room.</summary>
+    private void Reserve()
     {
-        if (vectors <= vectorCentroid.Length)
+        if (vectorCentroid.Length < pages.Capacity)
         {
-            return;
+            Array.Resize(ref vectorCentroid, pages.Capacity);
+            Array.Resize(ref vectorSlot, pages.Capacity);
         }
-
-        var capacity = Math.Max(vectors, Math.Max(1024, vectorCentroid.Length + (vectorCentroid.Length / 2)));
-        Array.Resize(ref vectorCodes, capacity * words);
-        Array.Resize(ref vectorCentroid, capacity);
-        Array.Resize(ref vectorSlot, capacity);
     }
 
     private static List<int>[] NewLists(int count) => [.. Enumerable.Range(0, count).Select(_ => new List<int>())];

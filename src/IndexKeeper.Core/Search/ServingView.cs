@@ -6,8 +6,9 @@ namespace IndexKeeper.Core.Search;
 
 /// <summary>
 /// What search needs of one encoder's live pages, kept between queries (docs/search.md, "Serving view"): the
-/// page directory (page key → record location) and the structure of its <see cref="Source"/>: nothing for
-/// <c>All</c>, the candidate graph of the pages' fixed dimensional encodings, or the centroid lists. It
+/// page directory (page key → record location) and the structure of its <see cref="Source"/>: every page's sign
+/// codes for <c>All</c>, the candidate graph of the pages' fixed dimensional encodings, or the centroid lists (which
+/// hold the page codes too). It
 /// reflects one catalog vector-set generation and moves forward by <see cref="Apply"/>, one
 /// commit's changes at a time; <see cref="ServingViewFile"/> keeps it on disk for the next process.
 /// </summary>
@@ -24,6 +25,9 @@ public sealed class ServingView : IDisposable
     private FixedDimensionalEncoding? encoding;
     private CandidateGraph? graph;
     private CentroidLists? centroids;
+
+    // The sign codes of every page for All (the centroid lists' own when the view was read from a file of them).
+    private PageCodes? pageCodes;
     private ulong nextId = 1;
 
     // Running counts for AddedShareSinceTraining: every live vector, and those of pages with ids from the training on.
@@ -85,6 +89,18 @@ public sealed class ServingView : IDisposable
             lock (gate)
             {
                 return centroids?.BytesEstimate ?? 0;
+            }
+        }
+    }
+
+    /// <summary>Bytes of the page codes of <c>All</c> in memory (0 for the other sources: their structure holds its own).</summary>
+    public long PageCodeBytesEstimate
+    {
+        get
+        {
+            lock (gate)
+            {
+                return Source == CandidateSource.All ? pageCodes?.BytesEstimate ?? 0 : 0;
             }
         }
     }
@@ -183,6 +199,7 @@ public sealed class ServingView : IDisposable
 
         var encodings = new Dictionary<PageKey, float[]>();
         var codes = new Dictionary<PageKey, (ushort[] Assigned, ulong[] SignCodes)>();
+        var signCodes = new Dictionary<PageKey, (ulong[] Codes, int Rows)>();
         var readable = new HashSet<PageKey>();
         var dimensions = Dimensions;
         var trained = centroids;
@@ -237,6 +254,14 @@ public sealed class ServingView : IDisposable
                         codes[added[given[i]].Key] = assigned[i];
                     }
                 }
+                else if (Source == CandidateSource.All)
+                {
+                    for (var i = 0; i < source.Count; i++)
+                    {
+                        var page = source.Get(i);
+                        signCodes[added[given[i]].Key] = (page.SignCodes.ToArray(), page.Count);
+                    }
+                }
             }
             finally
             {
@@ -257,6 +282,14 @@ public sealed class ServingView : IDisposable
                         byId.Remove(gone.Id);
                         graph?.Remove(gone.Id);
                         centroids?.Remove(gone.Id);
+                        if (Source == CandidateSource.All && pageCodes is not null)
+                        {
+                            pageCodes.Remove(gone.Id);
+                            if (pageCodes.CompactionDue)
+                            {
+                                pageCodes.Compact();
+                            }
+                        }
                     }
 
                     continue;
@@ -282,10 +315,16 @@ public sealed class ServingView : IDisposable
                     graph.Add(id, encodedPage);
                 }
 
-                if (codes.TryGetValue(change.Key, out var pageCodes))
+                if (codes.TryGetValue(change.Key, out var assigned))
                 {
                     centroids = trained;
-                    centroids!.Add(id, pageCodes.Assigned, pageCodes.SignCodes);
+                    centroids!.Add(id, assigned.Assigned, assigned.SignCodes);
+                }
+
+                if (signCodes.TryGetValue(change.Key, out var codesOfPage))
+                {
+                    pageCodes ??= new PageCodes(dimensions);
+                    pageCodes.Add(id, codesOfPage.Codes, codesOfPage.Rows);
                 }
 
                 byKey[change.Key] = new Slot(id, new ServingEntry(change.Key, location, change.VectorCount));
@@ -304,15 +343,18 @@ public sealed class ServingView : IDisposable
     /// order (so ties of the exact re-rank break as in the exhaustive search). The graph ranks by encodings; the
     /// centroid lists take the <paramref name="handedOn"/> pages their lists score best (<see cref="CandidateCounts.Probes"/>
     /// centroids a query token) and keep the best of those by Hamming MaxSim over all their vectors' sign codes. A
-    /// view of <c>All</c> gives every page.
+    /// view of <c>All</c> keeps the best of every page by Hamming MaxSim over its page codes (every page when it holds
+    /// none). <paramref name="include"/>, when given, says which pages may be candidates (a view of <c>All</c> scores only
+    /// those; the others filter what their structure gives).
     /// </summary>
-    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn) => Candidates(query, count, handedOn, CandidateCounts.Probes);
+    public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, Func<PageKey, bool>? include = null) =>
+        Candidates(query, count, handedOn, CandidateCounts.Probes, include: include);
 
     /// <summary>
     /// As <see cref="Candidates(VectorSet, int, int)"/> with the centroids probed per query token and the lists' cost
     /// rule given (measurement).
     /// </summary>
-    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes, int listEntryCost = CentroidLists.ListEntryCost)
+    internal IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, int probes, int listEntryCost = CentroidLists.ListEntryCost, Func<PageKey, bool>? include = null)
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -329,9 +371,15 @@ public sealed class ServingView : IDisposable
             }
 
             List<ServingEntry> found;
-            if (count >= byKey.Count || Source == CandidateSource.All)
+            if ((count >= byKey.Count && include is null) || (Source == CandidateSource.All && pageCodes is null))
             {
                 found = [.. byKey.Values.Select(s => s.Entry)];
+            }
+            else if (Source == CandidateSource.All)
+            {
+                var queryCodes = new ulong[query.Count * SignCodes.WordsPerCode(Dimensions)];
+                SignCodes.Compute(query.Vectors, Dimensions, queryCodes);
+                found = [.. pageCodes!.Best(queryCodes, count, null, include is null ? null : id => include(byId[id]), CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
             }
             else if (Source == CandidateSource.Centroids)
             {
@@ -343,6 +391,11 @@ public sealed class ServingView : IDisposable
                 var encoded = new float[FixedDimensionalEncoding.Length];
                 encoding.EncodeQuery(query.Vectors, encoded);
                 found = [.. graph!.Nearest(encoded, count).Select(id => byKey[byId[id]].Entry)];
+            }
+
+            if (include is not null)
+            {
+                found.RemoveAll(e => !include(e.Key));
             }
 
             found.Sort((a, b) => string.CompareOrdinal(a.Key.Hex, b.Key.Hex));
@@ -394,21 +447,21 @@ public sealed class ServingView : IDisposable
     }
 
     /// <summary>Writes the view (ServingViewFile) under the gate, so no change lands half-way.</summary>
-    internal void Write(Action<IReadOnlyList<(ulong Id, ServingEntry Entry)>, ulong, CandidateGraph?, CentroidLists?> write)
+    internal void Write(Action<IReadOnlyList<(ulong Id, ServingEntry Entry)>, ulong, CandidateGraph?, PageCodes?, CentroidLists?> write)
     {
         lock (gate)
         {
-            write([.. byKey.Values.Select(s => (s.Id, s.Entry)).OrderBy(e => e.Entry.Key.Hex, StringComparer.Ordinal)], nextId, graph, centroids);
+            write([.. byKey.Values.Select(s => (s.Id, s.Entry)).OrderBy(e => e.Entry.Key.Hex, StringComparer.Ordinal)], nextId, graph, centroids?.Pages ?? pageCodes, centroids);
         }
     }
 
     /// <summary>A view as <see cref="ServingViewFile"/> read it back.</summary>
     /// <remarks>REQUIRES: <paramref name="training"/> counts the vectors of <paramref name="entries"/> (the reader checks it).</remarks>
-    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall, TrainingFigures training)
+    internal static ServingView Restore(string encoderId, long generation, CandidateSource source, int dimensions, ulong nextId, IReadOnlyList<(ulong Id, ServingEntry Entry)> entries, CandidateGraph? graph, PageCodes? pageCodes, CentroidLists? centroids, CandidateRecall? recall, long changedSinceRecall, TrainingFigures training)
     {
         var view = new ServingView(encoderId, generation, source)
         {
-            Dimensions = dimensions, graph = graph, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
+            Dimensions = dimensions, graph = graph, pageCodes = pageCodes, centroids = centroids, nextId = nextId, Recall = recall, ChangedSinceRecall = changedSinceRecall,
             TrainedAt = training.TrainedAt, firstIdAfterTraining = training.FirstIdAfterTraining,
             vectors = training.Vectors, vectorsAddedSinceTraining = training.VectorsAddedSinceTraining,
         };

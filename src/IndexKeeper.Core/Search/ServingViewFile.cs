@@ -7,8 +7,8 @@ namespace IndexKeeper.Core.Search;
 
 /// <summary>
 /// The serving view on disk (docs/serving-view.md, version <see cref="Version"/>): in the index's
-/// <c>serving/</c> folder, per encoder a view file (header, page directory, the centroid lists when the view has
-/// them, CRC-32C trailer) naming a graph file when it has a graph (the candidate graph as the USearch package
+/// <c>serving/</c> folder, per encoder a view file (header, page directory, every page's sign codes and the
+/// centroid lists when the view has them, CRC-32C trailer) naming a graph file when it has a graph (the candidate graph as the USearch package
 /// saves it, its length and CRC-32C in the view file). A writer publishes a new graph file, then the view file
 /// by rename; a reader checks version, generation, candidate source, encoding parameters and both checksums,
 /// and treats any mismatch as "stale", never as data.
@@ -17,10 +17,10 @@ internal static class ServingViewFile
 {
     /// <summary>
     /// The format this build reads and writes (2: candidate source and centroid lists; 3: the lists' vectors page by
-    /// page with their centroids, read in bulk; 4: when the centroids were trained and the vectors added since).
-    /// Never reuse a number.
+    /// page with their centroids, read in bulk; 4: when the centroids were trained and the vectors added since; 5: the
+    /// page codes in a section of their own, kept for <c>All</c> too, before the centroid lists). Never reuse a number.
     /// </summary>
-    public const int Version = 4;
+    public const int Version = 5;
 
     public const string Folder = "serving";
 
@@ -32,7 +32,7 @@ internal static class ServingViewFile
 
     /// <summary>
     /// Reads the view of <paramref name="encoderId"/> if it shows <paramref name="generation"/> and holds the
-    /// structure of <paramref name="source"/> (any file serves <c>All</c>); null with the reason otherwise. <paramref name="mapOnly"/> maps the graph read-only (search), else loads it (to apply
+    /// structure of <paramref name="source"/> (a file of centroid lists serves <c>All</c> too); null with the reason otherwise. <paramref name="mapOnly"/> maps the graph read-only (search), else loads it (to apply
     /// changes). Nothing is written.
     /// </summary>
     public static ServingView? TryRead(string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
@@ -70,7 +70,7 @@ internal static class ServingViewFile
         var folder = Path.Combine(indexDirectory, Folder);
         Directory.CreateDirectory(folder);
         var stem = Stem(view.EncoderId);
-        view.Write((entries, nextId, graph, centroids) =>
+        view.Write((entries, nextId, graph, pageCodes, centroids) =>
         {
             var graphName = string.Empty;
             long graphLength = 0;
@@ -123,27 +123,30 @@ internal static class ServingViewFile
                     writer.Write(entry.VectorCount);
                 }
 
-                // The centroid lists: the centroids, then the live pages in slot order and their vectors (the
-                // lists are made again from the vectors' centroids when read).
-                writer.Write(centroids?.CentroidCount ?? 0);
-                if (centroids is not null && entries.Count > 0)
+                // The page codes: the live pages in slot order, their row counts and their rows' sign codes; then the
+                // centroid lists: the centroids and each of those rows' centroid (the lists are made again from them when read).
+                RequireLittleEndian();
+                var live = pageCodes is null || entries.Count == 0 ? [] : Enumerable.Range(0, pageCodes.Slots).Where(pageCodes.IsLive).ToArray();
+                writer.Write(live.Length);
+                if (live.Length > 0)
                 {
-                    RequireLittleEndian();
-                    writer.Write(MemoryMarshal.AsBytes(centroids.Centroids));
-                    var live = Enumerable.Range(0, centroids.Slots).Where(centroids.IsLive).ToArray();
-                    writer.Write(live.Length);
-                    writer.Write(MemoryMarshal.AsBytes<ulong>([.. live.Select(centroids.IdOf)]));
-                    var rows = live.Select(slot => centroids.CentroidsOf(slot).Length).ToArray();
+                    writer.Write(MemoryMarshal.AsBytes<ulong>([.. live.Select(pageCodes!.IdOf)]));
+                    var rows = live.Select(pageCodes.RowsOf).ToArray();
                     writer.Write(MemoryMarshal.AsBytes<int>(rows));
                     writer.Write(checked((int)rows.Sum(r => (long)r)));
                     foreach (var slot in live)
                     {
-                        writer.Write(MemoryMarshal.AsBytes(centroids.CentroidsOf(slot)));
+                        writer.Write(MemoryMarshal.AsBytes(pageCodes.CodesOf(slot)));
                     }
+                }
 
+                writer.Write(live.Length > 0 ? centroids?.CentroidCount ?? 0 : 0);
+                if (centroids is not null && live.Length > 0)
+                {
+                    writer.Write(MemoryMarshal.AsBytes(centroids.Centroids));
                     foreach (var slot in live)
                     {
-                        writer.Write(MemoryMarshal.AsBytes(centroids.CodesOf(slot)));
+                        writer.Write(MemoryMarshal.AsBytes(centroids.CentroidsOf(slot)));
                     }
                 }
             }
@@ -256,8 +259,8 @@ internal static class ServingViewFile
             return null;
         }
 
-        // Every file holds the directory, which is all that candidates of every page need.
-        if (fileSource != source && source != CandidateSource.All)
+        // A file of centroid lists holds every page's codes, which is all that candidates of every page need.
+        if (fileSource != source && !(source == CandidateSource.All && fileSource == CandidateSource.Centroids))
         {
             reason = $"the serving view holds candidates of {fileSource}, the search asks for {source}";
             return null;
@@ -304,21 +307,13 @@ internal static class ServingViewFile
             return null;
         }
 
-        var centroidCount = reader.Int32();
-        CentroidLists? centroids = null;
-        if (centroidCount > 0 && count > 0)
+        var pages = reader.Int32();
+        PageCodes? pageCodes = null;
+        if (pages != 0)
         {
-            if (centroidCount > CentroidLists.MaximumCentroids || dimensions <= 0 || dimensions % 64 != 0)
+            if (pages != count || dimensions <= 0 || dimensions % 64 != 0 || (long)pages * 12 > reader.Remaining)
             {
-                reason = $"the serving view file names {centroidCount} centroids of {dimensions} dimensions";
-                return null;
-            }
-
-            var values = reader.Array<float>(centroidCount * dimensions);
-            var pages = reader.Int32();
-            if (pages < 0 || (long)pages * 12 > reader.Remaining)
-            {
-                reason = $"the serving view file's centroid lists name {pages} pages, more than it holds";
+                reason = $"the serving view file's page codes name {pages} pages of {dimensions} dimensions, its directory {count}";
                 return null;
             }
 
@@ -326,9 +321,9 @@ internal static class ServingViewFile
             var rows = reader.Array<int>(pages);
             var vectors = reader.Int32();
             var words = dimensions / 64;
-            if (vectors < 0 || (long)vectors * (2 + (8 * words)) > reader.Remaining)
+            if (vectors < 0 || (long)vectors * 8 * words > reader.Remaining)
             {
-                reason = $"the serving view file's centroid lists name {vectors} vectors, more than it holds";
+                reason = $"the serving view file's page codes name {vectors} vectors, more than it holds";
                 return null;
             }
 
@@ -337,12 +332,26 @@ internal static class ServingViewFile
             {
                 if (!known.Contains(id))
                 {
-                    reason = $"the serving view file's centroid lists name page {id}, which its directory lacks";
+                    reason = $"the serving view file's page codes name page {id}, which its directory lacks";
                     return null;
                 }
             }
 
-            centroids = CentroidLists.Restore(dimensions, values, ids, rows, reader.Array<ushort>(vectors), reader.Array<ulong>((long)vectors * words));
+            pageCodes = PageCodes.Restore(dimensions, ids, rows, reader.Array<ulong>((long)vectors * words));
+        }
+
+        var centroidCount = reader.Int32();
+        CentroidLists? centroids = null;
+        if (centroidCount != 0)
+        {
+            if (pageCodes is null || centroidCount < 0 || centroidCount > CentroidLists.MaximumCentroids)
+            {
+                reason = $"the serving view file names {centroidCount} centroids over {pages} pages' codes";
+                return null;
+            }
+
+            var values = reader.Array<float>(centroidCount * dimensions);
+            centroids = CentroidLists.Restore(values, pageCodes, reader.Array<ushort>(pageCodes.Rows));
         }
 
         if (reader.Remaining != 0)
@@ -351,15 +360,21 @@ internal static class ServingViewFile
             return null;
         }
 
-        if (count > 0 && (fileSource == CandidateSource.Centroids) != (centroids is not null))
+        if (count > 0 && ((fileSource == CandidateSource.Centroids) != (centroids is not null) || (fileSource != CandidateSource.Graph) != (pageCodes is not null)))
         {
-            reason = "the serving view file's centroid lists do not match its candidate source";
+            reason = "the serving view file's page codes or centroid lists do not match its candidate source";
             return null;
         }
 
         if (source != CandidateSource.Centroids)
         {
             centroids = null;
+        }
+
+        if (source != CandidateSource.All)
+        {
+            // The centroid lists hold the page codes they were read with; the graph needs none.
+            pageCodes = null;
         }
 
         if (fileSource != source)
@@ -396,7 +411,7 @@ internal static class ServingViewFile
         }
 
         reason = string.Empty;
-        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, centroids, recall, changedSinceRecall, training.Figures);
+        return ServingView.Restore(encoderId, generation, source, dimensions, nextId, entries, graph, pageCodes, centroids, recall, changedSinceRecall, training.Figures);
     }
 
     /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>

@@ -142,20 +142,19 @@ public sealed class ServingViews : IDisposable
         // the graph hands on more, for the sign-code stage below.
         var reranked = source == CandidateSource.Centroids ? CandidateCounts.RerankedAfterCentroids(k, view.Count) : CandidateCounts.Reranked(k, view.Count);
         var handedOn = source == CandidateSource.Graph ? CandidateCounts.FromGraph(k, view.Count) : CandidateCounts.FromCentroids(k, view.Count);
-        IEnumerable<ServingEntry> candidates = source != CandidateSource.All && (allowed is null || allowed.Count > handedOn)
-            ? view.Candidates(query, source == CandidateSource.Graph ? handedOn : reranked, handedOn)
-            : view.Entries();
-        if (allowed is not null)
-        {
-            candidates = candidates.Where(c => allowed.Contains(c.Key.Hex));
-        }
+        // A view of every page scores its page codes in memory and hands on only the pages the float re-rank takes.
+        IEnumerable<ServingEntry> candidates = source == CandidateSource.All || allowed is null || allowed.Count > handedOn
+            ? view.Candidates(query, source == CandidateSource.Graph ? handedOn : reranked, handedOn, allowed is null ? null : key => allowed.Contains(key.Hex))
+            : view.Entries().Where(c => allowed.Contains(c.Key.Hex));
 
         var encoderId = view.EncoderId;
         using var live = store().OpenSelected(encoderId, [.. candidates.Select(c => Record(encoderId, c))]);
         var options = new SearchOptions { Top = k, Candidates = reranked };
-        // No TrimResident here: with every page's codes read per search, mapping them again each time cut the
-        // throughput of 8 clients 2.3x at 10k (docs/benchmarks.md, `idle` run 4).
         var ranked = LateInteractionSearch.Search(live.Source, query, options, cancellationToken);
+
+        // A search maps only the records it re-ranks (the sign codes are the view's), so letting go past the budget
+        // costs the next search little; before, every page's codes were mapped again (8 clients 2.3x slower at 10k).
+        TrimResident();
         return (ranked with { PagesScanned = view.Count }, view.Unreadable + live.Unreadable.Count);
     }
 

@@ -66,9 +66,17 @@ public sealed class ServingViewTests : IDisposable
         Assert.Equal(1, views.Builds);
 
         // The structure hands on live pages only, as many as asked for when it can reach every page (all probed).
-        var fewer = view.Candidates(TestVectors.Set(90, 4, Dimensions), view.Count - 1, handedOn: view.Count - 1, probes: 1000);
-        Assert.Equal(source == CandidateSource.All ? view.Count : view.Count - 1, fewer.Count);
+        var query = TestVectors.Set(90, 4, Dimensions);
+        var fewer = view.Candidates(query, view.Count - 1, handedOn: view.Count - 1, probes: 1000);
+        Assert.Equal(view.Count - 1, fewer.Count);
         Assert.Subset(view.Entries().Select(e => e.Key).ToHashSet(), fewer.Select(e => e.Key).ToHashSet());
+        if (source == CandidateSource.All)
+        {
+            // Its page codes, moved by the commits, rank as the sign codes the segments hold: the same best scores.
+            var chosen = view.Candidates(query, 10, handedOn: 10);
+            var scores = SegmentHammingScores(index, query);
+            Assert.Equal(scores.Values.OrderDescending().Take(10), chosen.Select(e => scores[e.Key.Hex]).OrderDescending());
+        }
     }
 
     [Fact]
@@ -167,28 +175,42 @@ public sealed class ServingViewTests : IDisposable
     }
 
     [Fact]
-    public void A_file_serves_every_page_whatever_its_structure_but_not_another_structure()
+    public void A_file_of_centroid_lists_serves_every_page_from_its_page_codes_but_a_graph_file_serves_only_the_graph()
     {
         using var index = Index.Open(directory.Path);
-        index.AddPages(0, 1, 2, 3);
-        index.Embed(0, 1, 2, 3);
+        index.AddPages([.. Enumerable.Range(0, 40)]);
+        index.Embed([.. Enumerable.Range(0, 40)]);
+        using (var writer = index.Views(readOnly: false, CandidateSource.Centroids))
+        {
+            writer.For(Encoder.Id, CancellationToken.None);
+            writer.Persist(CancellationToken.None);
+        }
+
+        var query = TestVectors.Set(91, 3, Dimensions);
+        var scores = SegmentHammingScores(index, query);
+        using (var all = index.Views(readOnly: true, CandidateSource.All))
+        {
+            var view = all.For(Encoder.Id, CancellationToken.None);
+            AssertMatchesCatalog(index, view);
+            Assert.Equal(0, all.Builds);
+            Assert.Equal(scores.Values.OrderDescending().Take(5), view.Candidates(query, 5, handedOn: 5).Select(e => scores[e.Key.Hex]).OrderDescending());
+        }
+
         using (var writer = index.Views(readOnly: false, CandidateSource.Graph))
         {
             writer.For(Encoder.Id, CancellationToken.None);
             writer.Persist(CancellationToken.None);
         }
 
-        using (var all = index.Views(readOnly: true, CandidateSource.All))
+        foreach (var other in new[] { CandidateSource.All, CandidateSource.Centroids })
         {
-            AssertMatchesCatalog(index, all.For(Encoder.Id, CancellationToken.None));
-            Assert.Equal(0, all.Builds);
+            Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, other, mapOnly: true, out var reason));
+            Assert.Contains("Graph", reason, StringComparison.Ordinal);
         }
 
-        Assert.Null(ServingViewFile.TryRead(directory.Path, Encoder.Id, index.Catalog.CreatedTicks, index.Catalog.VectorSetGeneration, CandidateSource.Centroids, mapOnly: true, out var reason));
-        Assert.Contains("Graph", reason, StringComparison.Ordinal);
-        using var centroids = index.Views(readOnly: true, CandidateSource.Centroids);
-        AssertMatchesCatalog(index, centroids.For(Encoder.Id, CancellationToken.None));
-        Assert.Equal(1, centroids.Builds);
+        using var every = index.Views(readOnly: true, CandidateSource.All);
+        AssertMatchesCatalog(index, every.For(Encoder.Id, CancellationToken.None));
+        Assert.Equal(1, every.Builds);
     }
 
     [Fact]
@@ -295,7 +317,7 @@ public sealed class ServingViewTests : IDisposable
         Assert.Equal(live.Count, facts.Pages);
         Assert.Equal(view.AddedShareSinceTraining, facts.AddedShare);
 
-        // Read back from its file (version 4 keeps them) the view knows both and goes on counting.
+        // Read back from its file (version 4 on keeps them) the view knows both and goes on counting.
         views.Persist(CancellationToken.None);
         using (var reader = index.Views(readOnly: true))
         {
@@ -410,6 +432,26 @@ public sealed class ServingViewTests : IDisposable
         }
 
         return ServingViewFile.PathOf(index.Path, Encoder.Id);
+    }
+
+    /// <summary>Per live page (hex key) its Hamming MaxSim over the sign codes its segment record holds.</summary>
+    private static Dictionary<string, int> SegmentHammingScores(Index index, VectorSet query)
+    {
+        var queryCodes = new ulong[query.Count * SignCodes.WordsPerCode(Dimensions)];
+        SignCodes.Compute(query.Vectors, Dimensions, queryCodes);
+        using var live = index.Store.OpenLive(Encoder.Id);
+        var closest = new int[query.Count];
+        var scores = new Dictionary<string, int>();
+        for (var i = 0; i < live.Source.Count; i++)
+        {
+            var page = live.Source.Get(i);
+            if (page.Count > 0)
+            {
+                scores[page.Key.Hex] = MaxSimKernels.Hamming(queryCodes, page.SignCodes, Dimensions, closest);
+            }
+        }
+
+        return scores;
     }
 
     private static void AssertMatchesCatalog(Index index, ServingView view)
