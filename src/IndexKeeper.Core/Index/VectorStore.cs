@@ -235,6 +235,12 @@ public sealed class VectorStore : IDisposable
         return true;
     }
 
+    /// <summary>
+    /// Lets go of the segment pages this process holds resident (<see cref="SegmentFileSet.DropResident"/>) whatever
+    /// their count: for a caller that counts its own reads. Reads only.
+    /// </summary>
+    public void DropResident() => files.DropResident();
+
     /// <summary>Readers map the files, so bytes still in a writer's buffer must reach the file first.</summary>
     private void FlushWritersForReaders()
     {
