@@ -13,13 +13,15 @@ namespace IndexKeeper.Core.Search;
 /// commit's changes at a time; <see cref="ServingViewFile"/> keeps it on disk for the next process.
 /// </summary>
 /// <remarks>
-/// Locking: <c>gate</c> guards the directory, the graph and the centroid lists; searches hold it only to find
-/// candidates. <see cref="Apply"/> encodes pages (and trains centroids) outside it and holds it only to insert. REQUIRES: one caller of
-/// <see cref="Apply"/> at a time (the writer).
+/// Locking: <c>gate</c> guards the directory, the graph and the centroid lists. Searches hold it shared to find
+/// candidates (alone for the graph, whose package is not known to search safely beside itself), and so does
+/// <see cref="Write"/>: a search never waits for the view's writing to disk. <see cref="Apply"/> encodes pages (and
+/// trains centroids) outside it and holds it alone only to insert. REQUIRES: one caller of <see cref="Apply"/> at a
+/// time (the writer).
 /// </remarks>
 public sealed class ServingView : IDisposable
 {
-    private readonly object gate = new();
+    private readonly ViewGate gate = new();
     private readonly Dictionary<PageKey, Slot> byKey = [];
     private readonly Dictionary<ulong, PageKey> byId = [];
     private FixedDimensionalEncoding? encoding;
@@ -71,7 +73,7 @@ public sealed class ServingView : IDisposable
     {
         get
         {
-            lock (gate)
+            using (gate.Read())
             {
                 return byKey.Count;
             }
@@ -86,7 +88,7 @@ public sealed class ServingView : IDisposable
     {
         get
         {
-            lock (gate)
+            using (gate.Read())
             {
                 return centroids?.BytesEstimate ?? 0;
             }
@@ -98,7 +100,7 @@ public sealed class ServingView : IDisposable
     {
         get
         {
-            lock (gate)
+            using (gate.Read())
             {
                 return Source == CandidateSource.All ? pageCodes?.BytesEstimate ?? 0 : 0;
             }
@@ -110,7 +112,7 @@ public sealed class ServingView : IDisposable
     {
         get
         {
-            lock (gate)
+            using (gate.Read())
             {
                 return centroids?.CentroidCount ?? 0;
             }
@@ -127,7 +129,7 @@ public sealed class ServingView : IDisposable
     public void Measured(CandidateRecall recall)
     {
         ArgumentNullException.ThrowIfNull(recall);
-        lock (gate)
+        using (gate.Write())
         {
             Recall = recall;
             ChangedSinceRecall = 0;
@@ -148,7 +150,7 @@ public sealed class ServingView : IDisposable
     {
         get
         {
-            lock (gate)
+            using (gate.Read())
             {
                 return new TrainingFigures(TrainedAt, firstIdAfterTraining, vectors, vectorsAddedSinceTraining);
             }
@@ -158,7 +160,7 @@ public sealed class ServingView : IDisposable
     /// <summary>Marks the view's pages as those its centroids were trained for: later adds count as added since training.</summary>
     public void MarkTrained(DateTimeOffset at)
     {
-        lock (gate)
+        using (gate.Write())
         {
             TrainedAt = at;
             firstIdAfterTraining = nextId;
@@ -192,7 +194,7 @@ public sealed class ServingView : IDisposable
 
         changes = [.. last.Values.Order().Select(i => changes[i])];
         List<ServingChange> added;
-        lock (gate)
+        using (gate.Read())
         {
             added = [.. changes.Where(c => c.Location is not null && !byKey.ContainsKey(c.Key))];
         }
@@ -269,7 +271,7 @@ public sealed class ServingView : IDisposable
             }
         }
 
-        lock (gate)
+        using (gate.Write())
         {
             Dimensions = dimensions;
             foreach (var change in changes)
@@ -323,7 +325,12 @@ public sealed class ServingView : IDisposable
 
                 if (signCodes.TryGetValue(change.Key, out var codesOfPage))
                 {
-                    pageCodes ??= new PageCodes(dimensions);
+                    if (pageCodes is null)
+                    {
+                        pageCodes = new PageCodes(dimensions);
+                        pageCodes.Reserve(ExpectedVectors);
+                    }
+
                     pageCodes.Add(id, codesOfPage.Codes, codesOfPage.Rows);
                 }
 
@@ -344,7 +351,7 @@ public sealed class ServingView : IDisposable
     /// centroid lists take the <paramref name="handedOn"/> pages their lists score best (<see cref="CandidateCounts.Probes"/>
     /// centroids a query token) and keep the best of those by Hamming MaxSim over all their vectors' sign codes. A
     /// view of <c>All</c> keeps the best of every page by Hamming MaxSim over its page codes (every page when it holds
-    /// none). <paramref name="include"/>, when given, says which pages may be candidates (a view of <c>All</c> scores only
+    /// none, and a graph view whose graph was let go gives every page). <paramref name="include"/>, when given, says which pages may be candidates (a view of <c>All</c> scores only
     /// those; the others filter what their structure gives).
     /// </summary>
     public IReadOnlyList<ServingEntry> Candidates(VectorSet query, int count, int handedOn, Func<PageKey, bool>? include = null) =>
@@ -358,7 +365,7 @@ public sealed class ServingView : IDisposable
     {
         ArgumentNullException.ThrowIfNull(query);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
-        lock (gate)
+        using (Source == CandidateSource.Graph ? gate.Write() : gate.Read())
         {
             if (byKey.Count == 0 || query.Count == 0)
             {
@@ -371,7 +378,7 @@ public sealed class ServingView : IDisposable
             }
 
             List<ServingEntry> found;
-            if ((count >= byKey.Count && include is null) || (Source == CandidateSource.All && pageCodes is null))
+            if ((count >= byKey.Count && include is null) || (Source == CandidateSource.All && pageCodes is null) || (Source == CandidateSource.Graph && graph is null))
             {
                 found = [.. byKey.Values.Select(s => s.Entry)];
             }
@@ -407,7 +414,7 @@ public sealed class ServingView : IDisposable
     internal double ProbedShare(VectorSet query)
     {
         ArgumentNullException.ThrowIfNull(query);
-        lock (gate)
+        using (gate.Read())
         {
             return centroids is null || centroids.LiveVectors == 0 ? 0 : (double)centroids.ProbedEntries(query.Vectors, CandidateCounts.Probes) / centroids.LiveVectors;
         }
@@ -420,7 +427,7 @@ public sealed class ServingView : IDisposable
     internal IReadOnlyList<ServingEntry> ListRanked(VectorSet query, int probes)
     {
         ArgumentNullException.ThrowIfNull(query);
-        lock (gate)
+        using (gate.Read())
         {
             return centroids is null || byKey.Count == 0
                 ? []
@@ -431,7 +438,7 @@ public sealed class ServingView : IDisposable
     /// <summary>Every live page, in page-key order.</summary>
     public IReadOnlyList<ServingEntry> Entries()
     {
-        lock (gate)
+        using (gate.Read())
         {
             return sorted ??= [.. byKey.Values.Select(s => s.Entry).OrderBy(e => e.Key.Hex, StringComparer.Ordinal)];
         }
@@ -439,17 +446,17 @@ public sealed class ServingView : IDisposable
 
     public void Dispose()
     {
-        lock (gate)
+        using (gate.Write())
         {
             graph?.Dispose();
             graph = null;
         }
     }
 
-    /// <summary>Writes the view (ServingViewFile) under the gate, so no change lands half-way.</summary>
+    /// <summary>Writes the view (ServingViewFile) under the gate, shared with searches, so no change lands half-way.</summary>
     internal void Write(Action<IReadOnlyList<(ulong Id, ServingEntry Entry)>, ulong, CandidateGraph?, PageCodes?, CentroidLists?> write)
     {
-        lock (gate)
+        using (gate.Read())
         {
             write([.. byKey.Values.Select(s => (s.Id, s.Entry)).OrderBy(e => e.Entry.Key.Hex, StringComparer.Ordinal)], nextId, graph, centroids?.Pages ?? pageCodes, centroids);
         }
@@ -515,7 +522,9 @@ public sealed class ServingView : IDisposable
             }
         }
 
-        return CentroidLists.Train([.. sample], dimensions, centroidCount, cancellationToken);
+        var trained = CentroidLists.Train([.. sample], dimensions, centroidCount, cancellationToken);
+        trained.Pages.Reserve(ExpectedVectors);
+        return trained;
     }
 
     private sealed class Slot(ulong id, ServingEntry entry)

@@ -83,7 +83,12 @@ internal static class ServingViewFile
                 (graphLength, graphChecksum) = SyncAndChecksum(graphPath);
             }
 
-            using var body = new MemoryStream();
+            // Written straight to the file through a running checksum: at 100,000 pages the view is hundreds of
+            // megabytes, which a buffer of the whole would hold twice over while it grows.
+            var path = PathOf(indexDirectory, view.EncoderId);
+            var temporary = path + ".tmp";
+            using (var file = new FileStream(temporary, FileMode.Create, FileAccess.Write, FileShare.None, 1 << 20))
+            using (var body = new ChecksummedStream(file))
             using (var writer = new BinaryWriter(body, System.Text.Encoding.UTF8, leaveOpen: true))
             {
                 writer.Write(Magic);
@@ -149,15 +154,9 @@ internal static class ServingViewFile
                         writer.Write(MemoryMarshal.AsBytes(centroids.CentroidsOf(slot)));
                     }
                 }
-            }
 
-            body.Write(BitConverter.GetBytes(Crc32C.Compute(body.GetBuffer().AsSpan(0, (int)body.Length))));
-            var path = PathOf(indexDirectory, view.EncoderId);
-            var temporary = path + ".tmp";
-            using (var file = new FileStream(temporary, FileMode.Create, FileAccess.Write, FileShare.None))
-            {
-                body.Position = 0;
-                body.CopyTo(file);
+                writer.Flush();
+                file.Write(BitConverter.GetBytes(body.Checksum));
                 file.Flush(flushToDisk: true);
             }
 
@@ -494,6 +493,40 @@ internal static class ServingViewFile
         {
             // A reader on Windows may still map it; the next publish deletes it.
         }
+    }
+
+    /// <summary>A write-only stream that passes bytes on and keeps the CRC-32C of all it passed.</summary>
+    private sealed class ChecksummedStream(Stream inner) : Stream
+    {
+        public uint Checksum { get; private set; }
+
+        public override bool CanRead => false;
+
+        public override bool CanSeek => false;
+
+        public override bool CanWrite => true;
+
+        public override long Length => throw new NotSupportedException();
+
+        public override long Position { get => throw new NotSupportedException(); set => throw new NotSupportedException(); }
+
+        public override void Write(ReadOnlySpan<byte> buffer)
+        {
+            Checksum = Crc32C.Append(Checksum, buffer);
+            inner.Write(buffer);
+        }
+
+        public override void Write(byte[] buffer, int offset, int count) => Write(buffer.AsSpan(offset, count));
+
+        public override void WriteByte(byte value) => Write([value]);
+
+        public override void Flush() => inner.Flush();
+
+        public override int Read(byte[] buffer, int offset, int count) => throw new NotSupportedException();
+
+        public override long Seek(long offset, SeekOrigin origin) => throw new NotSupportedException();
+
+        public override void SetLength(long value) => throw new NotSupportedException();
     }
 
     /// <summary>Reads the little-endian fields of a view file in order from its bytes; arrays are copied in bulk.</summary>

@@ -14,8 +14,9 @@ namespace IndexKeeper.Service.Application;
 /// only when no change list reaches it. Read-only opens never write the file (reads never write).
 /// </summary>
 /// <remarks>
-/// Locking: <c>gate</c> orders catch-ups, builds and writes of the views; <c>pendingGate</c> guards the
-/// change list the commit handler fills on the writer's thread (it only appends, never waits for a view).
+/// Locking: <c>gate</c> orders catch-ups, builds and writes of the views; a search that finds it held searches
+/// the view held (<c>shown</c>) instead of waiting when that view shows the last commit. <c>pendingGate</c> guards the change list the commit
+/// handler fills on the writer's thread (it only appends, never waits for a view).
 /// </remarks>
 public sealed class ServingViews : IDisposable
 {
@@ -121,7 +122,9 @@ public sealed class ServingViews : IDisposable
         ArgumentNullException.ThrowIfNull(query);
         for (var attempt = 1; ; attempt++)
         {
-            var view = For(encoderId, cancellationToken);
+            // While a write or a recall pass holds the gate (a minute for a large view), the first attempt takes the view
+            // held when it already shows the last commit; a search waits only when the view must move first.
+            var view = attempt == 1 && Busy(encoderId) is { } held ? held : For(encoderId, cancellationToken);
             try
             {
                 return Ranked(view, query, k, cancellationToken, allowed);
@@ -131,6 +134,22 @@ public sealed class ServingViews : IDisposable
                 // A segment retired by a compaction committed after the view was taken; the next view names its successor.
             }
         }
+    }
+
+    /// <summary>
+    /// The view held of <paramref name="encoderId"/> when another thread holds the gate and the view shows the last
+    /// commit (a write or a recall pass of the current state); null when the gate is free, no view is held or a commit
+    /// came since: a search sees the last committed state, so it then waits for the view to move.
+    /// </summary>
+    private ServingView? Busy(string encoderId)
+    {
+        if (Monitor.TryEnter(gate))
+        {
+            Monitor.Exit(gate);
+            return null;
+        }
+
+        return shown.TryGetValue(encoderId, out var held) && held.Generation == catalog.VectorSetGeneration ? held : null;
     }
 
     /// <summary>The search of <see cref="Search"/> over <paramref name="view"/>; throws when a segment it names was retired meanwhile.</summary>

@@ -434,6 +434,56 @@ public sealed class ServingViewTests : IDisposable
         return ServingViewFile.PathOf(index.Path, Encoder.Id);
     }
 
+    [Fact]
+    public async Task A_search_does_not_wait_for_the_recall_pass_and_write_of_a_current_view_but_sees_every_commit()
+    {
+        using var index = Index.Open(directory.Path);
+        index.AddPages([.. Enumerable.Range(0, 20)]);
+        index.Embed([.. Enumerable.Range(0, 20)]);
+
+        // The store is asked for whenever vector sets are read: armed, the next ask stops until released, so the
+        // recall pass of the write below holds the views' gate at a known point (no timing).
+        using var entered = new ManualResetEventSlim();
+        using var release = new ManualResetEventSlim();
+        var armed = 0;
+        using var views = new ServingViews(index.Catalog, () =>
+        {
+            if (Interlocked.Exchange(ref armed, 0) == 1)
+            {
+                entered.Set();
+                release.Wait();
+            }
+
+            return index.Store;
+        }, directory.Path, readOnly: false, CandidateSource.Centroids);
+        var page = TestVectors.Set(7, 3 + (7 % 5), Dimensions);
+        Assert.Equal(TestVectors.Key(7), views.Search(Encoder.Id, page, 5, CancellationToken.None).Result.Hits[0].Key);
+
+        Volatile.Write(ref armed, 1);
+        var writing = Task.Run(() => views.Persist(CancellationToken.None));
+        entered.Wait();
+        try
+        {
+            // The gate is held by the recall pass of a view that shows the last commit: the search answers from it.
+            // (A search that waited for the gate would wait for the release: the wait below fails it instead.)
+            var during = await Task.Run(() => views.Search(Encoder.Id, page, 5, CancellationToken.None).Result.Hits).WaitAsync(TimeSpan.FromMinutes(2));
+            Assert.Equal(TestVectors.Key(7), during[0].Key);
+            Assert.False(writing.IsCompleted);
+        }
+        finally
+        {
+            release.Set();
+        }
+
+        await writing;
+
+        // A commit since: the search sees it (the view moves first).
+        index.AddPages(30);
+        index.Embed(30);
+        var newPage = TestVectors.Set(30, 3, Dimensions);
+        Assert.Equal(TestVectors.Key(30), views.Search(Encoder.Id, newPage, 5, CancellationToken.None).Result.Hits[0].Key);
+    }
+
     /// <summary>Per live page (hex key) its Hamming MaxSim over the sign codes its segment record holds.</summary>
     private static Dictionary<string, int> SegmentHammingScores(Index index, VectorSet query)
     {
