@@ -38,10 +38,10 @@ internal static class ServingViewFile
     public static ServingView? TryRead(string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
     {
         var path = PathOf(indexDirectory, encoderId);
-        byte[] bytes;
+        FileStream file;
         try
         {
-            bytes = File.ReadAllBytes(path);
+            file = Open(path);
         }
         catch (Exception ex) when (ex is FileNotFoundException or DirectoryNotFoundException)
         {
@@ -51,7 +51,10 @@ internal static class ServingViewFile
 
         try
         {
-            return Parse(bytes, indexDirectory, encoderId, catalogStamp, generation, source, mapOnly, out reason);
+            using (file)
+            {
+                return Parse(new Cursor(file, file.Length), indexDirectory, encoderId, catalogStamp, generation, source, mapOnly, out reason);
+            }
         }
         catch (Exception ex) when (ex is ArgumentException or IndexOutOfRangeException or FormatException or IOException or EndOfStreamException)
         {
@@ -181,15 +184,13 @@ internal static class ServingViewFile
     {
         try
         {
-            var bytes = File.ReadAllBytes(PathOf(indexDirectory, encoderId));
-            if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic)
-                || BinaryPrimitives.ReadInt32LittleEndian(bytes.AsSpan(Magic.Length)) != Version
-                || Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)) != BinaryPrimitives.ReadUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4)))
+            using var file = Open(PathOf(indexDirectory, encoderId));
+            var reader = new Cursor(file, file.Length);
+            if (file.Length < Magic.Length + 8 || !reader.Bytes(Magic.Length).SequenceEqual(Magic) || reader.Int32() != Version)
             {
                 return null;
             }
 
-            var reader = new Cursor(bytes.AsSpan(Magic.Length + 4, bytes.Length - Magic.Length - 8));
             reader.Int64();
             reader.Int64();
             if (reader.String() != encoderId || (CandidateSource)reader.Int32() != source)
@@ -198,10 +199,12 @@ internal static class ServingViewFile
             }
 
             reader.Bytes(4 + 8 + 4 + 4 + 4 + 8);
-            var recall = ReadRecall(ref reader);
+            var recall = ReadRecall(reader);
             reader.Int64();
-            var training = ReadTraining(ref reader);
-            return (recall, training.TrainedAt, training.AddedShare);
+            var training = ReadTraining(reader);
+
+            // The figures count only from a file that is whole: the rest is read through the checksum in blocks.
+            return reader.ChecksumMatches() ? (recall, training.TrainedAt, training.AddedShare) : null;
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or EndOfStreamException or ArgumentException or FormatException)
         {
@@ -209,25 +212,19 @@ internal static class ServingViewFile
         }
     }
 
-    private static ServingView? Parse(byte[] bytes, string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
+    // Fields are checked as they are read; no view is returned before the trailer's checksum matched every byte.
+    private static ServingView? Parse(Cursor reader, string indexDirectory, string encoderId, long catalogStamp, long generation, CandidateSource source, bool mapOnly, out string reason)
     {
-        if (bytes.Length < Magic.Length + 8 || !bytes.AsSpan(0, Magic.Length).SequenceEqual(Magic))
+        if (reader.Remaining < Magic.Length + 4 || !reader.Bytes(Magic.Length).SequenceEqual(Magic))
         {
             reason = "the serving view file is not one (magic)";
             return null;
         }
 
-        var version = BinaryPrimitives.ReadInt32LittleEndian(bytes.AsSpan(Magic.Length));
+        var version = reader.Int32();
         if (version != Version)
         {
             reason = $"the serving view file has version {version}, this build reads {Version}";
-            return null;
-        }
-
-        var stored = BinaryPrimitives.ReadUInt32LittleEndian(bytes.AsSpan(bytes.Length - 4));
-        if (Crc32C.Compute(bytes.AsSpan(0, bytes.Length - 4)) != stored)
-        {
-            reason = "the serving view file's checksum does not match";
             return null;
         }
 
@@ -237,7 +234,6 @@ internal static class ServingViewFile
             return null;
         }
 
-        var reader = new Cursor(bytes.AsSpan(Magic.Length + 4, bytes.Length - Magic.Length - 8));
         var fileStamp = reader.Int64();
         var fileGeneration = reader.Int64();
         var fileEncoder = reader.String();
@@ -245,9 +241,9 @@ internal static class ServingViewFile
         var dimensions = reader.Int32();
         var parameters = (reader.UInt64(), reader.Int32(), reader.Int32(), reader.Int32());
         var nextId = reader.UInt64();
-        var recall = ReadRecall(ref reader);
+        var recall = ReadRecall(reader);
         var changedSinceRecall = reader.Int64();
-        var training = ReadTraining(ref reader);
+        var training = ReadTraining(reader);
         var count = reader.Int32();
         var graphName = reader.String();
         var graphLength = reader.Int64();
@@ -359,6 +355,12 @@ internal static class ServingViewFile
             return null;
         }
 
+        if (!reader.ChecksumMatches())
+        {
+            reason = "the serving view file's checksum does not match";
+            return null;
+        }
+
         if (count > 0 && ((fileSource == CandidateSource.Centroids) != (centroids is not null) || (fileSource != CandidateSource.Graph) != (pageCodes is not null)))
         {
             reason = "the serving view file's page codes or centroid lists do not match its candidate source";
@@ -414,7 +416,7 @@ internal static class ServingViewFile
     }
 
     /// <summary>The recall fields of the header: share (NaN when never measured), queries, generation, UTC ticks.</summary>
-    private static CandidateRecall? ReadRecall(ref Cursor reader)
+    private static CandidateRecall? ReadRecall(Cursor reader)
     {
         var share = reader.Double();
         var queries = reader.Int32();
@@ -429,7 +431,7 @@ internal static class ServingViewFile
     /// The training fields of the header: UTC ticks the centroids were trained (0 when not known), the first page id
     /// given after it, the live vectors and those added since; the added share is null when the time is not known.
     /// </summary>
-    private static (TrainingFigures Figures, DateTimeOffset? TrainedAt, double? AddedShare) ReadTraining(ref Cursor reader)
+    private static (TrainingFigures Figures, DateTimeOffset? TrainedAt, double? AddedShare) ReadTraining(Cursor reader)
     {
         var ticks = reader.Int64();
         var figures = new TrainingFigures(
@@ -529,23 +531,27 @@ internal static class ServingViewFile
         public override void SetLength(long value) => throw new NotSupportedException();
     }
 
-    /// <summary>Reads the little-endian fields of a view file in order from its bytes; arrays are copied in bulk.</summary>
-    private ref struct Cursor(ReadOnlySpan<byte> bytes)
+    private static FileStream Open(string path) => new(path, FileMode.Open, FileAccess.Read, FileShare.Read | FileShare.Delete, 1 << 20);
+
+    /// <summary>
+    /// Reads the little-endian fields of a view file in order from the file, keeping the CRC-32C of every byte read;
+    /// arrays are read in bulk straight into their own memory (the file is never held whole).
+    /// </summary>
+    private sealed class Cursor(Stream stream, long length)
     {
-        private readonly ReadOnlySpan<byte> bytes = bytes;
-        private int at;
+        private readonly byte[] small = new byte[64];
+        private long at;
+        private uint checksum;
 
-        public readonly long Remaining => bytes.Length - at;
+        /// <summary>Bytes left before the trailer.</summary>
+        public long Remaining => length - 4 - at;
 
-        public ReadOnlySpan<byte> Bytes(int length)
+        /// <summary>The next <paramref name="count"/> bytes; valid until the next read when short.</summary>
+        public ReadOnlySpan<byte> Bytes(int count)
         {
-            if (length < 0 || length > Remaining)
-            {
-                throw new EndOfStreamException($"{length} bytes wanted at offset {at}, {Remaining} left.");
-            }
-
-            var taken = bytes.Slice(at, length);
-            at += length;
+            Require(count, 1);
+            var taken = count <= small.Length ? small.AsSpan(0, count) : new byte[count];
+            Fill(taken);
             return taken;
         }
 
@@ -561,17 +567,44 @@ internal static class ServingViewFile
 
         public string String() => System.Text.Encoding.UTF8.GetString(Bytes(BinaryPrimitives.ReadUInt16LittleEndian(Bytes(2))));
 
-        /// <summary>REQUIRES: a little-endian machine (the file's byte order is copied as it is).</summary>
+        /// <summary>REQUIRES: a little-endian machine (the file's byte order is taken as it is).</summary>
         public T[] Array<T>(long count)
             where T : unmanaged
         {
             var size = System.Runtime.CompilerServices.Unsafe.SizeOf<T>();
+            Require(count, size);
+            var array = new T[count];
+            Fill(MemoryMarshal.AsBytes(array.AsSpan()));
+            return array;
+        }
+
+        /// <summary>Reads what is left before the trailer through the checksum, then whether the trailer matches it.</summary>
+        public bool ChecksumMatches()
+        {
+            var block = new byte[(int)Math.Min(1 << 20, Math.Max(0, Remaining))];
+            while (Remaining > 0)
+            {
+                Fill(block.AsSpan(0, (int)Math.Min(block.Length, Remaining)));
+            }
+
+            Span<byte> trailer = stackalloc byte[4];
+            stream.ReadExactly(trailer);
+            return BinaryPrimitives.ReadUInt32LittleEndian(trailer) == checksum;
+        }
+
+        private void Require(long count, int size)
+        {
             if (count < 0 || count > Remaining / size)
             {
                 throw new EndOfStreamException($"{count} values of {size} bytes wanted at offset {at}, {Remaining} bytes left.");
             }
+        }
 
-            return MemoryMarshal.Cast<byte, T>(Bytes((int)count * size)).ToArray();
+        private void Fill(Span<byte> into)
+        {
+            stream.ReadExactly(into);
+            checksum = Crc32C.Append(checksum, into);
+            at += into.Length;
         }
     }
 }
