@@ -24,7 +24,8 @@ public sealed class QueryOptions
 
     /// <summary>
     /// Where the candidates of a search come from (docs/search.md, "Candidates"): <c>all</c> hands every live
-    /// page to the sign-code stage (the exhaustive two stages); <c>graph</c> asks the serving view's candidate
+    /// page to the sign-code stage over the sign codes the serving view holds (the two stages, as fast as
+    /// <c>centroids</c> at 100,000 pages and with no training: docs/benchmarks.md, <c>serving</c>, seventh run); <c>graph</c> asks the serving view's candidate
     /// graph (sublinear, but it keeps less of the exhaustive top-10: docs/benchmarks.md, <c>serving</c>);
     /// <c>centroids</c> the serving view's centroid lists (PLAID-style, sublinear).
     /// </summary>
