@@ -8,7 +8,9 @@ namespace IndexKeeper.Core.Search;
 
 /// <summary>
 /// The two MaxSim scores of late interaction (Khattab &amp; Zaharia, ColBERT, SIGIR 2020): for each query
-/// token the best page vector, summed over the query tokens. They use only the caller's buffers.
+/// token the best page vector, summed over the query tokens. They use only the caller's buffers. Compiled fully
+/// optimised at first use: a first search after a start runs them over every page, too long to spend in the
+/// runtime's quick first tier.
 /// </summary>
 internal static class MaxSimKernels
 {
@@ -20,6 +22,7 @@ internal static class MaxSimKernels
     /// d − 2·distance (the dot product of the two ±1 vectors), summed.
     /// </summary>
     /// <param name="closest">Scratch of at least one entry per query token.</param>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static int Hamming(ReadOnlySpan<ulong> queryCodes, ReadOnlySpan<ulong> pageCodes, int dimensions, Span<int> closest)
     {
         var words = dimensions / 64;
@@ -68,6 +71,7 @@ internal static class MaxSimKernels
     /// bound is checked per row (the codes of both spans are taken whole). A last group of fewer tokens repeats its
     /// last token.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ClosestTwoWords(ReadOnlySpan<ulong> queryCodes, ReadOnlySpan<ulong> pageCodes, Span<int> best)
     {
         var tokens = best.Length;
@@ -103,6 +107,7 @@ internal static class MaxSimKernels
     /// <paramref name="block"/> (at least <see cref="BlockRows"/>·d floats). Fills, per query token, the best
     /// similarity and the index of the first page row that reached it.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static float Exact(ReadOnlySpan<float> query, ReadOnlySpan<Half> page, int dimensions, Span<float> block, Span<float> bestSimilarity, Span<int> bestIndex)
     {
         var tokens = query.Length / dimensions;
