@@ -128,6 +128,9 @@ internal sealed class PageCodes
     /// <summary>True when the page is held.</summary>
     public bool Contains(ulong id) => slotOf.ContainsKey(id);
 
+    /// <summary>The slot of a held page.</summary>
+    public int SlotOf(ulong id) => slotOf[id];
+
     /// <summary>Adds a page of <paramref name="rows"/> rows (a page held under the id is removed first); returns its slot.</summary>
     public int Add(ulong id, ReadOnlySpan<ulong> signCodes, int rows)
     {

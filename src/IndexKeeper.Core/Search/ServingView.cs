@@ -40,6 +40,10 @@ public sealed class ServingView : IDisposable
     // Every live page in page-key order, made on first use after a change: a search over all pages asks per query.
     private ServingEntry[]? sorted;
 
+    // Their slots in the page codes, in the same order: scores tied at the cut break by page key, so a view moved
+    // forward by commits keeps the pages a view built afresh keeps (slots follow the order pages came in).
+    private int[]? slotsByKey;
+
     /// <param name="expectedVectors">Vectors of the pages the first <see cref="Apply"/> will be followed by (a build
     /// knows them): the centroid count is chosen for them (<see cref="CentroidLists.CentroidsFor"/>); 0 for the
     /// first batch's own count.</param>
@@ -342,6 +346,7 @@ public sealed class ServingView : IDisposable
             Generation = generation;
             ChangedSinceRecall += changes.Count;
             sorted = null;
+            slotsByKey = null;
         }
     }
 
@@ -386,7 +391,8 @@ public sealed class ServingView : IDisposable
             {
                 var queryCodes = new ulong[query.Count * SignCodes.WordsPerCode(Dimensions)];
                 SignCodes.Compute(query.Vectors, Dimensions, queryCodes);
-                found = [.. pageCodes!.Best(queryCodes, count, null, include is null ? null : id => include(byId[id]), CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
+                var ordered = slotsByKey ??= [.. Entries().Select(e => pageCodes!.SlotOf(byKey[e.Key].Id))];
+                found = [.. pageCodes!.Best(queryCodes, count, ordered, include is null ? null : id => include(byId[id]), CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
             }
             else if (Source == CandidateSource.Centroids)
             {

@@ -76,6 +76,15 @@ public sealed class ServingViewTests : IDisposable
             var chosen = view.Candidates(query, 10, handedOn: 10);
             var scores = SegmentHammingScores(index, query);
             Assert.Equal(scores.Values.OrderDescending().Take(10), chosen.Select(e => scores[e.Key.Hex]).OrderDescending());
+
+            // And as a view built afresh from the catalog: the same pages, ties at the cut included (page-key order).
+            using var fresh = index.Views(readOnly: true, source);
+            var rebuilt = fresh.For(Encoder.Id, CancellationToken.None);
+            foreach (var seed in Enumerable.Range(300, 20))
+            {
+                var other = TestVectors.Set(seed, 2, Dimensions);
+                Assert.Equal(rebuilt.Candidates(other, 7, handedOn: 7).Select(e => e.Key), view.Candidates(other, 7, handedOn: 7).Select(e => e.Key));
+            }
         }
     }
 
@@ -432,6 +441,28 @@ public sealed class ServingViewTests : IDisposable
         }
 
         return ServingViewFile.PathOf(index.Path, Encoder.Id);
+    }
+
+    [Fact]
+    public void Pages_tied_at_the_cut_of_a_view_of_every_page_are_kept_in_page_key_order_however_they_came()
+    {
+        // Twenty copies of one page's vectors under other keys, committed in descending key order one by one, so
+        // the writer's view holds them in the opposite order to their keys: every score ties.
+        using var index = Index.Open(directory.Path);
+        var copies = Enumerable.Range(40, 20).OrderByDescending(p => TestVectors.Key(p).Hex, StringComparer.Ordinal).ToList();
+        index.AddPages([.. copies]);
+        using var views = index.Views(readOnly: false, CandidateSource.All);
+        views.For(Encoder.Id, CancellationToken.None);
+        var same = TestVectors.Set(1000, 3, Dimensions);
+        foreach (var p in copies)
+        {
+            index.Store.AppendAndCommit(Encoder, [(TestVectors.Key(p), same)]);
+        }
+
+        var moved = views.For(Encoder.Id, CancellationToken.None).Candidates(same, 7, handedOn: 7).Select(e => e.Key.Hex).ToList();
+        Assert.Equal(copies.Select(p => TestVectors.Key(p).Hex).Order(StringComparer.Ordinal).Take(7), moved);
+        using var fresh = index.Views(readOnly: true, CandidateSource.All);
+        Assert.Equal(moved, fresh.For(Encoder.Id, CancellationToken.None).Candidates(same, 7, handedOn: 7).Select(e => e.Key.Hex));
     }
 
     [Fact]
