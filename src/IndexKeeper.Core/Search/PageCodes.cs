@@ -205,17 +205,20 @@ internal sealed class PageCodes
     /// <paramref name="include"/> says no is skipped; a page without rows has no score and is never among them). Best
     /// first, ties to the earlier of the given slots. Both cores.
     /// </summary>
-    public ulong[] Best(ulong[] queryCodes, int count, int[]? slots, Func<ulong, bool>? include, CancellationToken cancellationToken)
+    /// <param name="visit">Positions in <paramref name="slots"/> in the order to score them, when that is not theirs:
+    /// slots ascending, so the rows are read front to back whatever order breaks the ties (ignored with a filter).</param>
+    public ulong[] Best(ulong[] queryCodes, int count, int[]? slots, Func<ulong, bool>? include, CancellationToken cancellationToken, int[]? visit = null)
     {
         ArgumentNullException.ThrowIfNull(queryCodes);
         slots ??= [.. Enumerable.Range(0, Slots).Where(s => alive[s])];
         if (include is not null)
         {
             slots = [.. slots.Where(s => include(idOf[s]))];
+            visit = null;
         }
 
         var tokens = queryCodes.Length / words;
-        var ordinals = Enumerable.Range(0, slots.Length).ToArray();
+        var ordinals = visit ?? Enumerable.Range(0, slots.Length).ToArray();
         var top = LateInteractionSearch.Scan(ordinals, count, Environment.ProcessorCount, cancellationToken, () => new int[tokens], static _ => { }, (ordinal, closest, best) =>
         {
             var slot = slots[ordinal];

@@ -41,8 +41,9 @@ public sealed class ServingView : IDisposable
     private ServingEntry[]? sorted;
 
     // Their slots in the page codes, in the same order: scores tied at the cut break by page key, so a view moved
-    // forward by commits keeps the pages a view built afresh keeps (slots follow the order pages came in).
-    private int[]? slotsByKey;
+    // forward by commits keeps the pages a view built afresh keeps (slots follow the order pages came in). And the
+    // positions in that array by ascending slot, the order that reads the codes front to back.
+    private (int[] Slots, int[] Visit)? byKeyOrder;
 
     /// <param name="expectedVectors">Vectors of the pages the first <see cref="Apply"/> will be followed by (a build
     /// knows them): the centroid count is chosen for them (<see cref="CentroidLists.CentroidsFor"/>); 0 for the
@@ -346,7 +347,7 @@ public sealed class ServingView : IDisposable
             Generation = generation;
             ChangedSinceRecall += changes.Count;
             sorted = null;
-            slotsByKey = null;
+            byKeyOrder = null;
         }
     }
 
@@ -391,8 +392,8 @@ public sealed class ServingView : IDisposable
             {
                 var queryCodes = new ulong[query.Count * SignCodes.WordsPerCode(Dimensions)];
                 SignCodes.Compute(query.Vectors, Dimensions, queryCodes);
-                var ordered = slotsByKey ??= [.. Entries().Select(e => pageCodes!.SlotOf(byKey[e.Key].Id))];
-                found = [.. pageCodes!.Best(queryCodes, count, ordered, include is null ? null : id => include(byId[id]), CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
+                var (ordered, visit) = byKeyOrder ??= KeyOrder(pageCodes!);
+                found = [.. pageCodes!.Best(queryCodes, count, ordered, include is null ? null : id => include(byId[id]), CancellationToken.None, visit).Select(id => byKey[byId[id]].Entry)];
             }
             else if (Source == CandidateSource.Centroids)
             {
@@ -439,6 +440,15 @@ public sealed class ServingView : IDisposable
                 ? []
                 : [.. centroids.ListRanked(query.Vectors, probes, byKey.Count, CancellationToken.None).Select(id => byKey[byId[id]].Entry)];
         }
+    }
+
+    /// <summary>The live pages' slots in page-key order, and the positions in it by ascending slot. REQUIRES: <c>gate</c> is held.</summary>
+    private (int[] Slots, int[] Visit) KeyOrder(PageCodes codes)
+    {
+        var slots = Entries().Select(e => codes.SlotOf(byKey[e.Key].Id)).ToArray();
+        var visit = Enumerable.Range(0, slots.Length).ToArray();
+        Array.Sort((int[])slots.Clone(), visit);
+        return (slots, visit);
     }
 
     /// <summary>Every live page, in page-key order.</summary>
