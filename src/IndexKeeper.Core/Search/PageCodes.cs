@@ -36,9 +36,6 @@ internal sealed class PageCodes
 
     public int Dimensions => dimensions;
 
-    /// <summary>64-bit words per row's code.</summary>
-    public int Words => words;
-
     /// <summary>Live pages.</summary>
     public int Count => slotOf.Count;
 
@@ -116,13 +113,10 @@ internal sealed class PageCodes
     /// <summary>The row count of the page in <paramref name="slot"/>.</summary>
     public int RowsOf(int slot) => rowsOf[slot];
 
-    /// <summary>The sign codes of the page in <paramref name="slot"/>, <see cref="Words"/> per row.</summary>
+    /// <summary>The sign codes of the page in <paramref name="slot"/>, d / 64 words per row.</summary>
     public ReadOnlySpan<ulong> CodesOf(int slot) => codes.AsSpan(startOf[slot] * words, rowsOf[slot] * words);
 
-    /// <summary>The code of row <paramref name="row"/>.</summary>
-    public ReadOnlySpan<ulong> CodeAt(int row) => codes.AsSpan(row * words, words);
-
-    /// <summary>The code words of every row, <see cref="Words"/> per row (list scans read them by row).</summary>
+    /// <summary>The code words of every row, d / 64 per row (list scans read them by row).</summary>
     public ulong[] AllCodes => codes;
 
     /// <summary>True when the page is held.</summary>

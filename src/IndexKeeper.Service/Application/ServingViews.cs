@@ -42,9 +42,9 @@ public sealed class ServingViews : IDisposable
     private readonly object pendingGate = new();
     private readonly Dictionary<string, ServingView> views = new(StringComparer.Ordinal);
 
-    // Per encoder the generation its view file shows, as this process read or wrote it: an unchanged view is not
-    // written again (at 100,000 pages a write is over 200 MB).
-    private readonly Dictionary<string, long> onDisk = new(StringComparer.Ordinal);
+    // Per encoder what its view file shows, as this process read or wrote it (the generation and the recall figure
+    // carried): a view with both unchanged is not written again (at 100,000 pages a write is over 200 MB).
+    private readonly Dictionary<string, (long Generation, CandidateRecall? Recall)> onDisk = new(StringComparer.Ordinal);
 
     // The last view held per encoder, read without the gate: status asks for a view's figures while a build or a
     // catch-up holds the gate for minutes, and must not wait for it (it answers with the view held before).
@@ -255,7 +255,6 @@ public sealed class ServingViews : IDisposable
                     shown[encoderId] = fresh;
                     held.Dispose();
                     writtenAt = long.MinValue;
-                    onDisk.Remove(encoderId);
                 }
             }
 
@@ -301,11 +300,6 @@ public sealed class ServingViews : IDisposable
 
         var recall = new CandidateRecall(queries.Count == 0 ? 1 : kept / queries.Count, queries.Count, view.Generation, now);
         view.Measured(recall);
-        lock (gate)
-        {
-            // The file no longer carries the view's figure.
-            onDisk.Remove(view.EncoderId);
-        }
         return recall;
     }
 
@@ -416,13 +410,13 @@ public sealed class ServingViews : IDisposable
                 {
                     MeasureRecall(encoderId, DateTimeOffset.UtcNow, cancellationToken);
                 }
-                else if (onDisk.TryGetValue(encoderId, out var written) && written == view.Generation)
+                else if (onDisk.TryGetValue(encoderId, out var written) && written == (view.Generation, view.Recall))
                 {
                     continue;
                 }
 
                 ServingViewFile.Write(directory, view, stamp);
-                onDisk[encoderId] = view.Generation;
+                onDisk[encoderId] = (view.Generation, view.Recall);
             }
 
             writtenAt = generation;
@@ -454,7 +448,7 @@ public sealed class ServingViews : IDisposable
         var stamp = catalog.CreatedTicks;
         if (ServingViewFile.TryRead(directory, encoderId, stamp, generation, source, mapOnly: readOnly, out _) is { } current)
         {
-            onDisk[encoderId] = generation;
+            onDisk[encoderId] = (generation, current.Recall);
             return current;
         }
 
