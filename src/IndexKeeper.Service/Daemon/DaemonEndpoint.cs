@@ -16,6 +16,13 @@ public sealed record DaemonEndpoint(int Version, string Url, int ProcessId, bool
 
     public static string PathIn(string indexDirectory) => Path.Combine(indexDirectory, FileName);
 
+    /// <summary>The URL a client on this machine uses for the server's bound address (an unspecified address is reached over loopback).</summary>
+    public static string ClientUrlOf(string boundUrl)
+    {
+        ArgumentNullException.ThrowIfNull(boundUrl);
+        return boundUrl.Replace("0.0.0.0", "127.0.0.1", StringComparison.Ordinal).Replace("[::]", "[::1]", StringComparison.Ordinal);
+    }
+
     public void Write(string indexDirectory)
     {
         var path = PathIn(indexDirectory);

@@ -50,7 +50,7 @@ public static class DaemonHost
         lifetime.ApplicationStarted.Register(() =>
         {
             var url = app.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()?.Addresses.FirstOrDefault() ?? listen!.ClientUrl;
-            new DaemonEndpoint(DaemonEndpoint.CurrentVersion, url.Replace("0.0.0.0", "127.0.0.1", StringComparison.Ordinal).Replace("[::]", "[::1]", StringComparison.Ordinal), Environment.ProcessId, token is not null)
+            new DaemonEndpoint(DaemonEndpoint.CurrentVersion, DaemonEndpoint.ClientUrlOf(url), Environment.ProcessId, token is not null)
                 .Write(index.Directory);
             app.Logger.LogInformation("IndexKeeper is running: index {Index}, API at {Url}.", index.Directory, url);
         });

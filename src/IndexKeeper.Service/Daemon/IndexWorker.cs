@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using System.Net.Http.Headers;
 using System.ServiceProcess;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
@@ -10,6 +11,9 @@ using IndexKeeper.Core.Storage;
 using IndexKeeper.Service.Application;
 using IndexKeeper.Service.Configuration;
 using IndexKeeper.Service.Hosting;
+using IndexKeeper.Service.Querying;
+using Microsoft.AspNetCore.Hosting.Server;
+using Microsoft.AspNetCore.Hosting.Server.Features;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
 
@@ -34,7 +38,7 @@ internal sealed class IndexWorker(
     DriftOperation drift,
     CanaryOperation canaries,
     CompactOperation compaction,
-    SearchOperation search,
+    IServer server,
     DaemonState state,
     RootWatchers watchers,
     IEmbedGate gate,
@@ -606,13 +610,13 @@ internal sealed class IndexWorker(
     }
 
     /// <summary>
-    /// Beside the loop, once at start: one search as the API makes it loads the serving view and checks each record
-    /// it names once (as a search does the first time in a process), and, with words of an indexed page as the
-    /// query so it has hits, also reads their documents and words and shapes the answer as JSON (the code a first
-    /// search would otherwise compile and the catalog pages it would otherwise load), so the first real search
-    /// after a start costs what a warm one does. Only reads; a failure is logged and left to the searches.
+    /// Beside the loop, once at start: one search through the daemon's own API, as a client makes it, loads the
+    /// serving view and checks each record it names once, and, with words of an indexed page as the query so it
+    /// has hits, also reads their documents and words and writes the answer. So the code of the whole request is
+    /// compiled and the catalog pages it reads are loaded before the first real search, which then costs what a
+    /// warm one does (docs/daemon.md, "Warm-up"). Only reads; a failure is logged and left to the searches.
     /// </summary>
-    private void WarmServingView(CancellationToken stopping)
+    private async Task WarmServingView(CancellationToken stopping)
     {
         try
         {
@@ -620,9 +624,24 @@ internal sealed class IndexWorker(
             var catalog = index.Catalog;
             var page = catalog.Pages.ReferencedKeys().FirstOrDefault() is { } key ? catalog.Pages.Find(key) : null;
             var words = page is null ? [] : PageInput.WordsOf(page, index.Words).Take(8).Select(w => w.Text).ToList();
-            var report = search.Search(words.Count > 0 ? string.Join(' ', words) : "warm", 10, stopping);
-            _ = System.Text.Json.JsonSerializer.SerializeToUtf8Bytes(report, ApiJson.Options);
-            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, report.Hits.Count);
+            var bound = server.Features.Get<IServerAddressesFeature>()?.Addresses.FirstOrDefault()
+                ?? throw new InvalidOperationException("the API has no address to send the warm-up search to");
+            using var client = new HttpClient { BaseAddress = new Uri(DaemonEndpoint.ClientUrlOf(bound)), Timeout = TimeSpan.FromMinutes(10) };
+            if (BearerTokens.Resolve(options.Daemon) is { } token)
+            {
+                client.DefaultRequestHeaders.Authorization = new AuthenticationHeaderValue("Bearer", token);
+            }
+
+            var query = Uri.EscapeDataString(words.Count > 0 ? string.Join(' ', words) : "warm");
+            using var response = await client.GetAsync($"/api/search?k=10&q={query}", stopping).ConfigureAwait(false);
+            var body = await response.Content.ReadAsStringAsync(stopping).ConfigureAwait(false);
+            if (!response.IsSuccessStatusCode)
+            {
+                throw new HttpRequestException($"the API answered {(int)response.StatusCode}: {body.Trim()}");
+            }
+
+            var hits = System.Text.Json.JsonSerializer.Deserialize<SearchReport>(body, ApiJson.Options)?.Hits.Count ?? 0;
+            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, hits);
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)
         {

@@ -47,6 +47,10 @@ public sealed class DaemonSecurityTests
         foreignHost.Headers.Host = "indexkeeper.internal.example:443";
         using var answer = await daemon.Client.SendAsync(foreignHost);
         Assert.Equal(HttpStatusCode.OK, answer.StatusCode);
+
+        // The daemon's own warm-up search goes through the same API, so it must carry the token too (docs/daemon.md, "Warm-up").
+        daemon.WaitUntil("the warm-up search ends", () => daemon.Stderr.Contains("Serving view warmed", StringComparison.Ordinal) || daemon.Stderr.Contains("not warmed", StringComparison.Ordinal));
+        Assert.DoesNotContain("not warmed", daemon.Stderr, StringComparison.Ordinal);
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 }
