@@ -30,6 +30,11 @@ public sealed class ServingViews : IDisposable
     // "Memory"): a build or an exhaustive pass reads every segment, which would otherwise stay resident whole.
     private const long ResidentSegmentBytes = 128L << 20;
 
+    // Record bytes searches may open before their segment pages are let go. Smaller than a view's: each fault maps
+    // the pages around it too (the kernel's fault-around), so a search's resident share is a few times the bytes of
+    // the ~1,000 records it re-ranks at 100,000 pages (about 33 MB); measured in docs/benchmarks.md, idle run 6.
+    private const long SearchResidentBytes = 32L << 20;
+
     // Vector sets per slice of the recall figure's exhaustive pass, so its reads are let go between slices.
     private const int ExhaustiveSlice = 4096;
 
@@ -55,6 +60,10 @@ public sealed class ServingViews : IDisposable
 
     // Record bytes the searches opened since their segment pages were last let go.
     private long searchedBytes;
+
+    // Searches scoring at once, one per core: each already uses every core, so more at once only interleave, and each
+    // holds its candidates' records mapped until it ends. The others wait their turn; none is refused.
+    private readonly SemaphoreSlim searchSlots = new(Environment.ProcessorCount);
 
     /// <param name="store">The segment store, asked for only when vector sets are read (opened on first use).</param>
     /// <param name="readOnly">True for a read-only open: the views are never written to disk and no commit is heard.</param>
@@ -129,6 +138,7 @@ public sealed class ServingViews : IDisposable
             // While a write or a recall pass holds the gate (a minute for a large view), the first attempt takes the view
             // held when it already shows the last commit; a search waits only when the view must move first.
             var view = attempt == 1 && Busy(encoderId) is { } held ? held : For(encoderId, cancellationToken);
+            searchSlots.Wait(cancellationToken);
             try
             {
                 return Ranked(view, query, k, cancellationToken, allowed);
@@ -136,6 +146,10 @@ public sealed class ServingViews : IDisposable
             catch (InvalidOperationException) when (attempt < 3)
             {
                 // A segment retired by a compaction committed after the view was taken; the next view names its successor.
+            }
+            finally
+            {
+                searchSlots.Release();
             }
         }
     }
@@ -182,7 +196,7 @@ public sealed class ServingViews : IDisposable
         // A search maps only the records it re-ranks (the sign codes are the view's), so letting go once they add up
         // to the budget costs the next searches little (before version 5 of the view every page's codes were mapped
         // again: 8 clients 2.3x slower at 10k). Counted here, not read from the process, whose other maps are not ours.
-        if (Interlocked.Add(ref searchedBytes, records.Sum(r => (long)r.Length)) > ResidentSegmentBytes)
+        if (Interlocked.Add(ref searchedBytes, records.Sum(r => (long)r.Length)) > SearchResidentBytes)
         {
             Interlocked.Exchange(ref searchedBytes, 0);
             store().DropResident();
@@ -425,6 +439,7 @@ public sealed class ServingViews : IDisposable
 
     public void Dispose()
     {
+        searchSlots.Dispose();
         if (!readOnly)
         {
             catalog.VectorSetsCommitted -= Heard;
