@@ -12,6 +12,8 @@ public sealed class DocumentTable
 
     public DocumentRecord? Find(string root, string path) => documents.FindById(DocumentRecord.MakeId(root, path));
 
+    public DocumentRecord? FindById(string id) => documents.FindById(id);
+
     /// <summary>Live documents whose bytes hash to <paramref name="fileHash"/>: a new path with one of these is a copy.</summary>
     public IReadOnlyList<DocumentRecord> LiveWithFileHash(string fileHash) =>
         documents.Find(d => d.FileHash == fileHash && d.State == DocumentState.Live).ToList();

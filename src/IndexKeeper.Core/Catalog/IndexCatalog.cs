@@ -316,7 +316,9 @@ public sealed class IndexCatalog : IDisposable
                     }
                     else
                     {
+                        // Not live, so no search saw it (no generation moves); only the running record count does.
                         store.VectorSets.Delete(set.Id);
+                        store.Marks.VectorSet(set);
                     }
                 }
 

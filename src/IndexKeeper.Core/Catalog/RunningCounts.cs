@@ -70,7 +70,7 @@ public sealed class RunningCounts
 
         foreach (var (id, (encoderId, pageKey)) in sets)
         {
-            tally.VectorSet(encoderId, pageKey, store.VectorSets.FindById(id) is { Live: true });
+            tally.VectorSet(encoderId, pageKey, store.VectorSets.FindById(id) is { } set ? set.Live : null);
         }
 
         foreach (var key in keys)
@@ -111,6 +111,15 @@ public sealed class RunningCounts
 
     /// <summary>Live vector sets of every encoder, as <see cref="VectorSetTable.Count"/> with liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>
     public long LiveVectorSets => Held(t => t.LiveVectorSets);
+
+    /// <summary>Vector-set records of every encoder, live or not, as <see cref="VectorSetTable.Count"/> without liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public long VectorSetRecords => Held(t => t.LiveVectorSets + t.DeadVectorSets);
+
+    /// <summary>Live documents by kind, as <see cref="DocumentTable.LiveByKind"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public IReadOnlyDictionary<DocumentKind, long> LiveByKind() => Held(t => t.LiveKinds.Where(k => k.Value > 0).ToDictionary(k => k.Key, k => k.Value));
+
+    /// <summary>Ids of the quarantined documents, in id order, as <see cref="DocumentTable.Quarantined"/> finds them. REQUIRES: <see cref="Refresh"/> called.</summary>
+    public IReadOnlyList<string> QuarantinedDocumentIds() => Held(t => t.QuarantinedIds.Order(StringComparer.Ordinal).ToList());
 
     /// <summary>As <see cref="DocumentTable.TotalsByRoot"/>. REQUIRES: <see cref="Refresh"/> called.</summary>
     public IReadOnlyList<RootTotals> TotalsByRoot() =>
@@ -204,9 +213,9 @@ public sealed class RunningCounts
             t.Queued(entry.Id, entry);
         }
 
-        foreach (var row in store.VectorSets.Query().Where(v => v.Live).Select(v => new { v.EncoderId, v.PageKey }).ToEnumerable())
+        foreach (var row in store.VectorSets.Query().Select(v => new { v.EncoderId, v.PageKey, v.Live }).ToEnumerable())
         {
-            t.VectorSet(row.EncoderId, row.PageKey, live: true);
+            t.VectorSet(row.EncoderId, row.PageKey, row.Live);
         }
 
         return t;
@@ -217,6 +226,9 @@ public sealed class RunningCounts
     {
         private readonly Dictionary<string, DocumentShare> documents = new(StringComparer.Ordinal);
         private readonly Dictionary<string, HashSet<string>> livePages = new(StringComparer.Ordinal);
+
+        // Records kept after their page went (until a compaction drops them): few, so their ids are kept.
+        private readonly HashSet<string> deadSets = new(StringComparer.Ordinal);
 
         public Dictionary<string, int> References { get; } = new(StringComparer.Ordinal);
 
@@ -240,6 +252,12 @@ public sealed class RunningCounts
 
         public long LiveVectorSets { get; private set; }
 
+        public long DeadVectorSets => deadSets.Count;
+
+        public Dictionary<DocumentKind, long> LiveKinds { get; } = [];
+
+        public HashSet<string> QuarantinedIds { get; } = new(StringComparer.Ordinal);
+
         public string? WatchedServing { get; private set; }
 
         public string? WatchedActive { get; private set; }
@@ -259,6 +277,7 @@ public sealed class RunningCounts
             if (documents.Remove(id, out var old))
             {
                 Add(old, -1);
+                QuarantinedIds.Remove(id);
             }
 
             if (now is not null)
@@ -268,9 +287,14 @@ public sealed class RunningCounts
                     now.State,
                     now.State == DocumentState.Quarantined && now.QuarantineReason == QuarantineReason.Unsupported && !ReadableTypes.IsReadable(now.Path),
                     now.PageKeys.Count,
-                    now.Size);
+                    now.Size,
+                    now.Kind);
                 documents[id] = share;
                 Add(share, 1);
+                if (now.State == DocumentState.Quarantined)
+                {
+                    QuarantinedIds.Add(id);
+                }
             }
         }
 
@@ -311,7 +335,8 @@ public sealed class RunningCounts
         }
 
         /// <inheritdoc cref="Page"/>
-        public void VectorSet(string encoderId, string pageKey, bool live)
+        /// <param name="live">Whether the record is live; null when there is no record (any more).</param>
+        public void VectorSet(string encoderId, string pageKey, bool? live)
         {
             if (!livePages.TryGetValue(encoderId, out var keys))
             {
@@ -319,10 +344,13 @@ public sealed class RunningCounts
                 livePages[encoderId] = keys;
             }
 
-            if (live ? keys.Add(pageKey) : keys.Remove(pageKey))
+            if (live == true ? keys.Add(pageKey) : keys.Remove(pageKey))
             {
-                LiveVectorSets += live ? 1 : -1;
+                LiveVectorSets += live == true ? 1 : -1;
             }
+
+            var id = VectorSetRecord.MakeId(encoderId, pageKey);
+            _ = live == false ? deadSets.Add(id) : deadSets.Remove(id);
         }
 
         /// <summary>Adds (<paramref name="sign"/> 1) or takes out (-1) one page's share of the coverage counts.</summary>
@@ -378,6 +406,12 @@ public sealed class RunningCounts
             }
 
             Compare("live vector sets", LiveVectorSets, fresh.LiveVectorSets);
+            Compare("vector-set records not live", DeadVectorSets, fresh.DeadVectorSets);
+            foreach (var kind in LiveKinds.Keys.Union(fresh.LiveKinds.Keys))
+            {
+                Compare($"live {kind} documents", LiveKinds.GetValueOrDefault(kind), fresh.LiveKinds.GetValueOrDefault(kind));
+            }
+
             Compare("pages covered by the serving encoder", CoveredServing, fresh.CoveredServing);
             Compare("pages covered by the active encoder", CoveredActive, fresh.CoveredActive);
             Compare("pages neither covered nor queued", UncoveredNotQueued, fresh.UncoveredNotQueued);
@@ -397,6 +431,7 @@ public sealed class RunningCounts
             var live = share.State == DocumentState.Live;
             var quarantined = share.State == DocumentState.Quarantined;
             DocumentsLive += live ? sign : 0;
+            LiveKinds[share.Kind] = LiveKinds.GetValueOrDefault(share.Kind) + (live ? sign : 0);
             DocumentsQuarantined += quarantined ? sign : 0;
             DocumentsUnsupported += share.Unsupported ? sign : 0;
             var sums = Roots.GetValueOrDefault(share.Root);
@@ -413,7 +448,7 @@ public sealed class RunningCounts
         }
     }
 
-    private readonly record struct DocumentShare(string Root, DocumentState State, bool Unsupported, int Pages, long Size);
+    private readonly record struct DocumentShare(string Root, DocumentState State, bool Unsupported, int Pages, long Size, DocumentKind Kind);
 
     private readonly record struct RootSums(long Documents, long Live, long Quarantined, long PageLocations, long Bytes);
 }

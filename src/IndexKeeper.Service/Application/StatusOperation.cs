@@ -18,12 +18,12 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
         // A catalog that never recorded its serving encoder has it inferred from every live page key (rare: new or old catalogs).
         var recorded = catalog.Encoders.ServingId();
         var decision = recorded is null ? drift.Read() : null;
-        var (figures, liveSets, servingId, coverage, drifted, migrated) = catalog.Counts.Read(counts =>
+        var (figures, liveSets, allSets, byKind, quarantined, servingId, coverage, drifted, migrated) = catalog.Counts.Read(counts =>
         {
             var (drifted, migrated) = decision is null ? counts.Migration(recorded!, activeId) : (decision.DriftedPages.Count, decision.MigratedPages);
             // As DriftPolicy decides: once no page is left to migrate, the active encoder serves (the switch-over).
             var serving = decision?.ServingEncoderId ?? (drifted == 0 ? activeId : recorded!);
-            return (counts.Figures(), counts.LiveVectorSets, serving, counts.Coverage(serving, activeId), drifted, migrated);
+            return (counts.Figures(), counts.LiveVectorSets, counts.VectorSetRecords, counts.LiveByKind(), counts.QuarantinedDocumentIds(), serving, counts.Coverage(serving, activeId), drifted, migrated);
         });
         var segments = catalog.Segments.All();
         var segmentBytes = segments.Sum(s => s.Length);
@@ -36,7 +36,7 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             Documents = figures.Documents,
             Pages = figures.Pages,
             PageLocations = figures.PageLocations,
-            VectorSets = catalog.VectorSets.Count(liveOnly: false),
+            VectorSets = allSets,
             LiveVectorSets = liveSets,
             Segments = segments.Count,
             DeadRatio = segmentBytes == 0 ? 0 : 1.0 - ((double)segments.Sum(s => s.LiveBytes) / segmentBytes),
@@ -58,10 +58,11 @@ public sealed class StatusOperation(OpenIndex index, IndexSettings settings, Dri
             BytesOnDisk = DirectorySize.Of(index.Directory),
             LastScanUtc = figures.LastScanUtc,
             Roots = settings.RootNames.Count > 0 ? settings.RootNames : catalog.Documents.RootNames().ToList(),
-            Quarantine = catalog.Documents.Quarantined()
+            Quarantine = quarantined.Select(catalog.Documents.FindById).OfType<DocumentRecord>()
+                .OrderBy(d => d.Root, StringComparer.Ordinal).ThenBy(d => d.Path, StringComparer.Ordinal)
                 .Select(d => new QuarantineEntry(d.Root, d.Path, d.QuarantineReason?.ToString() ?? "Unknown", d.QuarantineMessage ?? string.Empty, d.LastChangedUtc.ToUniversalTime()))
                 .ToList(),
-            Files = FileTally.Of(catalog, figures),
+            Files = FileTally.Of(catalog, figures, byKind),
         };
     }
 }

@@ -27,14 +27,16 @@ public sealed class FileTally
     /// <summary>The unsupported files by type (lower-case extension, or "(none)"), most first (last full pass).</summary>
     public IReadOnlyList<TypeCount> UnsupportedTypes { get; init; } = [];
 
-    public static FileTally Of(IndexCatalog catalog, CatalogFigures figures)
+    /// <param name="liveByKind">Live documents by kind (the running counts' <see cref="RunningCounts.LiveByKind"/>).</param>
+    public static FileTally Of(IndexCatalog catalog, CatalogFigures figures, IReadOnlyDictionary<DocumentKind, long> liveByKind)
     {
+        ArgumentNullException.ThrowIfNull(liveByKind);
         ArgumentNullException.ThrowIfNull(catalog);
         ArgumentNullException.ThrowIfNull(figures);
         var last = catalog.History.LastScan();
         return new FileTally
         {
-            IndexedByKind = catalog.Documents.LiveByKind().OrderBy(k => k.Key).ToDictionary(k => k.Key.ToString(), k => k.Value, StringComparer.Ordinal),
+            IndexedByKind = liveByKind.OrderBy(k => k.Key).ToDictionary(k => k.Key.ToString(), k => k.Value, StringComparer.Ordinal),
             Quarantined = figures.QuarantinedDocuments,
             SelectedButUnsupported = figures.UnsupportedDocuments,
             SkippedByPattern = last?.Counts.GetValueOrDefault(ScanRecord.FilesSkippedByPatternKey) ?? 0,

@@ -10,7 +10,8 @@ namespace IndexKeeper.Tests.Catalog;
 /// The running counts against a full count by the catalog's own queries (<see cref="IndexCatalog.Figures"/>, the
 /// queue's depths, the per-root totals, the live page keys of each encoder), after random sequences of the
 /// writes the daemon makes: adds, changes, deletes, moves, embeds, compactions, forgotten vectors, forget-root,
-/// a migration step with its switch-over, quarantined queue entries and a rolled-back edit.
+/// a migration step with its switch-over, quarantined queue entries and a rolled-back edit. Also what <c>status</c>
+/// lists from them: vector-set records live or not, live documents by kind, the quarantined documents.
 /// </summary>
 public sealed class RunningCountsTests
 {
@@ -69,6 +70,9 @@ public sealed class RunningCountsTests
         Assert.Equal(catalog.Figures(), counts.Figures());
         Assert.Equal(catalog.Queue.Depths().OrderBy(d => d.Key), counts.Depths().OrderBy(d => d.Key));
         Assert.Equal(catalog.VectorSets.Count(liveOnly: true), counts.LiveVectorSets);
+        Assert.Equal(catalog.VectorSets.Count(liveOnly: false), counts.VectorSetRecords);
+        Assert.Equal(catalog.Documents.LiveByKind().OrderBy(k => k.Key), counts.LiveByKind().OrderBy(k => k.Key));
+        Assert.Equal(catalog.Documents.Quarantined().Select(d => d.Id).Order(StringComparer.Ordinal), counts.QuarantinedDocumentIds());
         Assert.Equal(catalog.Documents.TotalsByRoot(), counts.TotalsByRoot());
 
         var serving = catalog.Encoders.ServingId() ?? active;
@@ -160,6 +164,7 @@ public sealed class RunningCountsTests
                 Size = random.Next(1, 100_000),
                 State = quarantined ? DocumentState.Quarantined : DocumentState.Live,
                 QuarantineReason = quarantined ? QuarantineReason.Unsupported : null,
+                Kind = Pick([DocumentKind.Pdf, DocumentKind.Png, DocumentKind.PlainText]),
                 PageKeys = quarantined ? [] : Enumerable.Range(0, random.Next(1, 5)).Select(_ => $"p{random.Next(60):00}").ToList(),
             };
             var edit = new CatalogEdit();
