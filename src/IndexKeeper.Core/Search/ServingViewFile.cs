@@ -332,7 +332,7 @@ internal static class ServingViewFile
                 }
             }
 
-            pageCodes = PageCodes.Restore(dimensions, ids, rows, reader.Array<ulong>((long)vectors * words));
+            pageCodes = PageCodes.Restore(dimensions, ids, rows, reader.Array<ulong>((long)vectors * words, (vectors + PageCodes.Headroom(vectors)) * words), vectors);
         }
 
         var centroidCount = reader.Int32();
@@ -569,12 +569,16 @@ internal static class ServingViewFile
 
         /// <summary>REQUIRES: a little-endian machine (the file's byte order is taken as it is).</summary>
         public T[] Array<T>(long count)
+            where T : unmanaged => Array<T>(count, count);
+
+        /// <summary>The next <paramref name="count"/> items in an array of <paramref name="capacity"/>, the rest not zeroed.</summary>
+        public T[] Array<T>(long count, long capacity)
             where T : unmanaged
         {
             var size = System.Runtime.CompilerServices.Unsafe.SizeOf<T>();
             Require(count, size);
-            var array = new T[count];
-            Fill(MemoryMarshal.AsBytes(array.AsSpan()));
+            var array = capacity == count ? new T[count] : GC.AllocateUninitializedArray<T>(checked((int)Math.Max(count, capacity)));
+            Fill(MemoryMarshal.AsBytes(array.AsSpan(0, (int)count)));
             return array;
         }
 

@@ -68,14 +68,36 @@ public sealed class PageCodesTests
     [Fact]
     public void Restored_codes_are_read_back_page_by_page_and_parts_that_do_not_fit_are_refused()
     {
-        var restored = PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4, 5, 6]);
+        var restored = PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4, 5, 6], 3);
         Assert.Equal([1UL, 2UL], restored.CodesOf(0).ToArray());
         Assert.Equal([3UL, 4UL, 5UL, 6UL], restored.CodesOf(1).ToArray());
         Assert.True(restored.Contains(9));
 
-        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4]));
-        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7, 7], [1, 1], [1, 2, 3, 4]));
-        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7], [1, 2], [1, 2]));
+        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4], 2));
+        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4], 3));
+        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7, 7], [1, 1], [1, 2, 3, 4], 2));
+        Assert.Throws<FormatException>(() => PageCodes.Restore(Dimensions, [7], [1, 2], [1, 2], 1));
+    }
+
+    [Fact]
+    public void Restored_codes_with_room_take_added_pages_into_the_same_array()
+    {
+        // The room past the stored rows is what a view read from its file keeps for the commits that follow: no copy.
+        var array = new ulong[] { 1, 2, 0, 0, 0, 0 };
+        var restored = PageCodes.Restore(Dimensions, [7], [1], array, 1);
+        Assert.Equal(3, restored.Capacity);
+        restored.Add(8, [3UL, 4UL, 5UL, 6UL], 2);
+        Assert.Same(array, restored.AllCodes);
+        Assert.Equal([1UL, 2UL], restored.CodesOf(restored.SlotOf(7)).ToArray());
+        Assert.Equal([3UL, 4UL, 5UL, 6UL], restored.CodesOf(restored.SlotOf(8)).ToArray());
+
+        // Past the room the codes move to a larger array, every row kept.
+        restored.Add(9, [7UL, 8UL], 1);
+        Assert.NotSame(array, restored.AllCodes);
+        Assert.True(restored.Capacity >= 4);
+        Assert.Equal([1UL, 2UL], restored.CodesOf(restored.SlotOf(7)).ToArray());
+        Assert.Equal([3UL, 4UL, 5UL, 6UL], restored.CodesOf(restored.SlotOf(8)).ToArray());
+        Assert.Equal([7UL, 8UL], restored.CodesOf(restored.SlotOf(9)).ToArray());
     }
 
     // The definition: per query token the fewest differing bits from any row (a page without rows has no score).
