@@ -109,6 +109,18 @@ public sealed class RunningCounts
     public IReadOnlyDictionary<QueuePriority, long> Depths() =>
         Held(t => Enum.GetValues<QueuePriority>().ToDictionary(p => p, p => t.Depths.GetValueOrDefault(p)));
 
+    /// <summary>
+    /// Queued pages by priority that may be tried at <paramref name="nowUtc"/>, as <see cref="QueueTable.Due"/> counts
+    /// them (quarantined ones included: their time lies far ahead). Costs the number of distinct not-before times, which
+    /// is small: a scan or a migration step enqueues its pages under one time, only back-offs have their own.
+    /// REQUIRES: <see cref="Refresh"/> called.
+    /// </summary>
+    public QueuedPages Due(DateTime nowUtc)
+    {
+        var now = nowUtc.ToUniversalTime().Ticks;
+        return Held(t => new QueuedPages(t.DueOf(QueuePriority.Fresh, now), t.DueOf(QueuePriority.Migration, now), t.DueOf(QueuePriority.Canary, now)));
+    }
+
     /// <summary>Live vector sets of every encoder, as <see cref="VectorSetTable.Count"/> with liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>
     public long LiveVectorSets => Held(t => t.LiveVectorSets);
 
@@ -232,7 +244,10 @@ public sealed class RunningCounts
 
         public Dictionary<string, int> References { get; } = new(StringComparer.Ordinal);
 
-        public Dictionary<string, (QueuePriority Priority, bool Quarantined)> Queue { get; } = new(StringComparer.Ordinal);
+        public Dictionary<string, (QueuePriority Priority, bool Quarantined, long NotBefore)> Queue { get; } = new(StringComparer.Ordinal);
+
+        // Per priority, queued pages by not-before time (UTC ticks).
+        private readonly Dictionary<QueuePriority, SortedDictionary<long, long>> notBefore = [];
 
         public Dictionary<string, RootSums> Roots { get; } = new(StringComparer.Ordinal);
 
@@ -267,6 +282,26 @@ public sealed class RunningCounts
         public long CoveredActive { get; private set; }
 
         public long UncoveredNotQueued { get; private set; }
+
+        /// <summary>Queued pages of <paramref name="priority"/> whose not-before time is at or before <paramref name="nowTicks"/>.</summary>
+        public long DueOf(QueuePriority priority, long nowTicks)
+        {
+            long due = 0;
+            if (notBefore.TryGetValue(priority, out var times))
+            {
+                foreach (var (ticks, pages) in times)
+                {
+                    if (ticks > nowTicks)
+                    {
+                        break;
+                    }
+
+                    due += pages;
+                }
+            }
+
+            return due;
+        }
 
         public bool IsLive(string encoderId, string pageKey) => livePages.TryGetValue(encoderId, out var keys) && keys.Contains(pageKey);
 
@@ -318,19 +353,33 @@ public sealed class RunningCounts
         /// <inheritdoc cref="Page"/>
         public void Queued(string key, QueueRecord? now)
         {
-            if (Queue.Remove(key, out var old) && !old.Quarantined)
+            if (Queue.Remove(key, out var old))
             {
-                Depths[old.Priority] = Depths.GetValueOrDefault(old.Priority) - 1;
+                Depths[old.Priority] = Depths.GetValueOrDefault(old.Priority) - (old.Quarantined ? 0 : 1);
+                var times = notBefore[old.Priority];
+                if ((times[old.NotBefore] -= 1) == 0)
+                {
+                    times.Remove(old.NotBefore);
+                }
             }
 
             if (now is not null)
             {
                 var quarantined = now.QuarantinedUtc is not null;
-                Queue[key] = (now.Priority, quarantined);
+                var ticks = now.NotBeforeUtc.ToUniversalTime().Ticks;
+                Queue[key] = (now.Priority, quarantined, ticks);
                 if (!quarantined)
                 {
                     Depths[now.Priority] = Depths.GetValueOrDefault(now.Priority) + 1;
                 }
+
+                if (!notBefore.TryGetValue(now.Priority, out var times))
+                {
+                    times = [];
+                    notBefore[now.Priority] = times;
+                }
+
+                times[ticks] = times.GetValueOrDefault(ticks) + 1;
             }
         }
 

@@ -496,7 +496,8 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        var allowance = gate.Allowance(now, index.Catalog.Queue.Due(now.UtcDateTime));
+        // From the running counts: a count of the queue here cost a pass over it every batch (a migration queues every page).
+        var allowance = gate.Allowance(now, index.Catalog.Counts.Read(counts => counts.Due(now.UtcDateTime)));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {

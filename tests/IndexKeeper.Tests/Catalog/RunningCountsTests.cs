@@ -69,6 +69,11 @@ public sealed class RunningCountsTests
         counts.Refresh();
         Assert.Equal(catalog.Figures(), counts.Figures());
         Assert.Equal(catalog.Queue.Depths().OrderBy(d => d.Key), counts.Depths().OrderBy(d => d.Key));
+        foreach (var at in new[] { DateTime.MinValue, World.Start, World.Start.AddHours(5), World.Start.AddDays(1), World.Start.AddDays(400), DateTime.MaxValue })
+        {
+            Assert.Equal(catalog.Queue.Due(at), counts.Due(at));
+        }
+
         Assert.Equal(catalog.VectorSets.Count(liveOnly: true), counts.LiveVectorSets);
         Assert.Equal(catalog.VectorSets.Count(liveOnly: false), counts.VectorSetRecords);
         Assert.Equal(catalog.Documents.LiveByKind().OrderBy(k => k.Key), counts.LiveByKind().OrderBy(k => k.Key));
@@ -101,7 +106,9 @@ public sealed class RunningCountsTests
     /// <summary>Drives the catalog as the scan, the embed pass, compaction, forget-root and drift would.</summary>
     private sealed class World(IndexCatalog catalog, Random random)
     {
-        private readonly DateTime at = new(2031, 3, 1, 0, 0, 0, DateTimeKind.Utc);
+        public static readonly DateTime Start = new(2031, 3, 1, 0, 0, 0, DateTimeKind.Utc);
+
+        private readonly DateTime at = Start;
         private readonly string[] roots = ["north", "south", "east"];
         private bool migrated;
 
@@ -326,7 +333,9 @@ public sealed class RunningCountsTests
         {
             if (random.Next(2) == 0 && catalog.Queue.Keys() is { Count: > 0 } keys)
             {
-                catalog.Queue.RecordFailure(Pick(keys).PageKey, _ => null, "test failure", at);
+                // Quarantined, or backing off for up to two days (Due is asked at several times).
+                var backOff = random.Next(3) == 0 ? (DateTime?)null : at.AddHours(random.Next(1, 48));
+                catalog.Queue.RecordFailure(Pick(keys).PageKey, _ => backOff, "test failure", at);
                 return;
             }
 
