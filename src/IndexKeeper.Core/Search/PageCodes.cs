@@ -51,8 +51,8 @@ internal sealed class PageCodes
     /// <summary>Rows of the live pages.</summary>
     public long LiveRows => (long)Rows * Count / Math.Max(1, Slots);
 
-    /// <summary>Bytes held: per row its code, per slot its fields and map entry.</summary>
-    public long BytesEstimate => (codes.Length * 8L) + (idOf.Capacity * 17L) + (slotOf.Count * 24L);
+    /// <summary>Bytes held: per row its code, per slot its fields and map entry (the room past the rows is not written until used).</summary>
+    public long BytesEstimate => (Rows * words * 8L) + (idOf.Capacity * 17L) + (slotOf.Count * 24L);
 
     /// <summary>True when enough slots are dead that <see cref="Compact"/> is worth its copy.</summary>
     public bool CompactionDue => dead > Math.Max(1024, idOf.Count / 4);

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using IndexKeeper.Core.Faults;
 using IndexKeeper.Tests.EndToEnd;
 using IndexKeeper.Tests.Support;
 
@@ -19,9 +20,11 @@ public sealed class DaemonShutdownTests
             File.WriteAllBytes(temp.Combine("store", $"manual-{i:D2}.pdf"), StorePdfs.Document($"pumphouse{i:D2}", pagesEach));
         }
 
-        // Small batches keep the encoder busy across many commits, so the stop lands mid-work.
+        // Batches of two pages; the first daemon pauses at its third batch's append (a named fault point, no timing):
+        // two batches are committed and the rest queued when the stop lands, which resumes the pause.
         string[] args = ["--root", "store", "--encoder", "hashed-terms", "--Encoder:BatchSize=2", "--Detect:SettleSeconds=0.2", "--Daemon:SampleSeconds=0.2", "--Schedule:Windows:0=Mon-Sun 00:00-24:00"];
-        using (var daemon = RunningDaemon.Start(temp.Path, args))
+        var paused = new Dictionary<string, string> { [FaultInjection.Variable] = $"{FaultPoints.SegmentAppendBeforeFsync}:pause:3" };
+        using (var daemon = RunningDaemon.Start(temp.Path, args, environment: paused))
         {
             daemon.WaitUntil("some pages have vectors and some are still queued", () =>
             {
