@@ -210,7 +210,8 @@ public sealed partial class FaultMatrixTests(ITestOutputHelper output)
             - `eio`: the I/O throws the error a failing disk throws ("Input/output error").
             - `pause` (not a row of this matrix): the process waits at the point until the file named by
               `IK_FAULT_RESUME` exists (tests of readers beside a writer) or a stop signal has cancelled its work
-              (`tests/IndexKeeper.Tests/CommandLine/StopSignalTests.cs`), then goes on.
+              (`tests/IndexKeeper.Tests/CommandLine/StopSignalTests.cs`, and the daemon's in
+              `tests/IndexKeeper.Tests/Daemon/DaemonShutdownTests.cs`), then goes on.
 
             Points (`FaultPoints`, in the order of the write path): a segment append before and after its fsync;
             a seal before its record, after its fsync, after the directory fsync (not yet recorded by the catalog);
