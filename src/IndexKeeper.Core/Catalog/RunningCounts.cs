@@ -112,13 +112,13 @@ public sealed class RunningCounts
     /// <summary>
     /// Queued pages by priority that may be tried at <paramref name="nowUtc"/>, as <see cref="QueueTable.Due"/> counts
     /// them (quarantined ones included: their time lies far ahead). Costs the number of distinct not-before times, which
-    /// is small: a scan or a migration step enqueues its pages under one time, only back-offs have their own.
-    /// REQUIRES: <see cref="Refresh"/> called.
+    /// is small: a scan or a migration step enqueues its pages under one time, only back-offs have their own. Refreshes
+    /// the counts first, as <see cref="Read"/> does: the gate asks it before every batch.
     /// </summary>
     public QueuedPages Due(DateTime nowUtc)
     {
         var now = nowUtc.ToUniversalTime().Ticks;
-        return Held(t => new QueuedPages(t.DueOf(QueuePriority.Fresh, now), t.DueOf(QueuePriority.Migration, now), t.DueOf(QueuePriority.Canary, now)));
+        return Read(counts => counts.Held(t => new QueuedPages(t.DueOf(QueuePriority.Fresh, now), t.DueOf(QueuePriority.Migration, now), t.DueOf(QueuePriority.Canary, now))));
     }
 
     /// <summary>Live vector sets of every encoder, as <see cref="VectorSetTable.Count"/> with liveOnly. REQUIRES: <see cref="Refresh"/> called.</summary>

@@ -60,7 +60,7 @@ internal sealed class PageCodes
     /// <summary>
     /// Page codes as the serving view file keeps them: per page its id and row count in slot order, then every row's
     /// code in the same order: the first <paramref name="stored"/> rows of <paramref name="codes"/>, whose words past
-    /// them are room for the rows commits add (<see cref="Headroom"/>).
+    /// them are room for the rows commits add (<see cref="WithRoom"/>).
     /// </summary>
     /// <exception cref="FormatException">The parts do not fit together.</exception>
     public static PageCodes Restore(int dimensions, ulong[] ids, int[] rows, ulong[] codes, int stored)
@@ -141,7 +141,7 @@ internal sealed class PageCodes
         startOf.Add(Rows);
         rowsOf.Add(rows);
         slotOf[id] = slot;
-        Grow(Rows + rows);
+        Reserve(Rows + rows);
         signCodes[..(rows * words)].CopyTo(codes.AsSpan(Rows * words));
         Rows += rows;
         return slot;
@@ -225,34 +225,25 @@ internal sealed class PageCodes
     }
 
     /// <summary>
-    /// Rows of room to keep beyond <paramref name="rows"/> held: an eighth. A growth copies the array while the old one
-    /// is still held (at 100,000 pages 210 MB more resident, then garbage for the collector), so a view read from its
-    /// file or built keeps room for the commits of a while; the room is never written until used, so it costs address
-    /// space, not resident memory.
+    /// The rows an array for <paramref name="rows"/> rows has room for: an eighth more. A growth copies the array while
+    /// the old one is still held (at 100,000 pages 210 MB more resident, then garbage for the collector), so a view read
+    /// from its file or built keeps room for the commits of a while; the room is never written until used, so it costs
+    /// address space, not resident memory.
     /// </summary>
-    public static long Headroom(long rows) => Math.Max(1024, rows / 8);
+    public static long WithRoom(long rows) => rows + Math.Max(1024, rows / 8);
 
     /// <summary>
-    /// Room for <paramref name="rows"/> rows at once: a build that knows its vectors takes the array it needs instead of
-    /// growing one.
+    /// Room for <paramref name="rows"/> rows, and the room of <see cref="WithRoom"/> beyond them, at once: a build that
+    /// knows its vectors takes the array it needs instead of growing one, and an add past the room grows it the same way.
     /// </summary>
     public void Reserve(long rows)
     {
         if (rows > Capacity)
         {
             // Not zeroed: only the rows held are ever read, and untouched room stays out of resident memory.
-            var grown = GC.AllocateUninitializedArray<ulong>(checked((int)(rows * words)));
+            var grown = GC.AllocateUninitializedArray<ulong>(checked((int)(WithRoom(rows) * words)));
             codes.AsSpan(0, Rows * words).CopyTo(grown);
             codes = grown;
-        }
-    }
-
-    /// <summary>Room for <paramref name="rows"/> rows and <see cref="Headroom"/> more.</summary>
-    private void Grow(int rows)
-    {
-        if (rows > Capacity)
-        {
-            Reserve(rows + Headroom(rows));
         }
     }
 }

@@ -333,7 +333,7 @@ public sealed class ServingView : IDisposable
                     if (pageCodes is null)
                     {
                         pageCodes = new PageCodes(dimensions);
-                        pageCodes.Reserve(ExpectedVectors + PageCodes.Headroom(ExpectedVectors));
+                        pageCodes.Reserve(ExpectedVectors);
                     }
 
                     pageCodes.Add(id, codesOfPage.Codes, codesOfPage.Rows);
@@ -539,7 +539,7 @@ public sealed class ServingView : IDisposable
         }
 
         var trained = CentroidLists.Train([.. sample], dimensions, centroidCount, cancellationToken);
-        trained.Pages.Reserve(ExpectedVectors + PageCodes.Headroom(ExpectedVectors));
+        trained.Pages.Reserve(ExpectedVectors);
         return trained;
     }
 

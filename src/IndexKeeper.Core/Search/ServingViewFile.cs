@@ -332,7 +332,7 @@ internal static class ServingViewFile
                 }
             }
 
-            pageCodes = PageCodes.Restore(dimensions, ids, rows, reader.Array<ulong>((long)vectors * words, (vectors + PageCodes.Headroom(vectors)) * words), vectors);
+            pageCodes = PageCodes.Restore(dimensions, ids, rows, reader.Array<ulong>((long)vectors * words, PageCodes.WithRoom(vectors) * words), vectors);
         }
 
         var centroidCount = reader.Int32();

@@ -15,9 +15,9 @@ public sealed class DaemonClient : IDisposable
 
     private readonly HttpClient client;
 
-    private DaemonClient(Uri url, string? token)
+    private DaemonClient(Uri url, string? token, TimeSpan? timeout = null)
     {
-        client = new HttpClient { BaseAddress = url, Timeout = TimeSpan.FromMinutes(2) };
+        client = new HttpClient { BaseAddress = url, Timeout = timeout ?? TimeSpan.FromMinutes(2) };
         if (token is not null)
         {
             client.DefaultRequestHeaders.Authorization = new AuthenticationHeaderValue("Bearer", token);
@@ -35,6 +35,9 @@ public sealed class DaemonClient : IDisposable
                 ["Daemon:TokenFile: the daemon holding this index wants a bearer token; set Daemon:TokenFile or INDEXKEEPER_Daemon__Token for this command too."]) : null)
             : null;
     }
+
+    /// <summary>A client for the API at <paramref name="url"/>: the daemon's own, for its warm-up search, which may build the serving view.</summary>
+    internal static DaemonClient At(Uri url, string? token, TimeSpan timeout) => new(url, token, timeout);
 
     /// <summary>GETs a path and reads the JSON answer; an unreachable or failing daemon is an <see cref="IOException"/> naming it.</summary>
     public T Get<T>(string pathAndQuery)

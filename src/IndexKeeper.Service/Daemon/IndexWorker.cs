@@ -1,5 +1,4 @@
 using System.Diagnostics;
-using System.Net.Http.Headers;
 using System.ServiceProcess;
 using IndexKeeper.Core.Catalog;
 using IndexKeeper.Core.Detect;
@@ -114,7 +113,7 @@ internal sealed class IndexWorker(
             return;
         }
 
-        _ = Task.Run(() => WarmServingView(stoppingToken), CancellationToken.None);
+        _ = Task.Run(WarmServingView, CancellationToken.None);
         await Task.Factory.StartNew(
             () =>
             {
@@ -496,8 +495,7 @@ internal sealed class IndexWorker(
     private bool EmbedOneBatch()
     {
         var now = state.Clock.GetUtcNow();
-        // From the running counts: a count of the queue here cost a pass over it every batch (a migration queues every page).
-        var allowance = gate.Allowance(now, index.Catalog.Counts.Read(counts => counts.Due(now.UtcDateTime)));
+        var allowance = gate.Allowance(now, index.Catalog.Counts.Due(now.UtcDateTime));
         state.Allowance = allowance;
         if (allowance.MaxPages <= 0)
         {
@@ -617,7 +615,7 @@ internal sealed class IndexWorker(
     /// compiled and the catalog pages it reads are loaded before the first real search, which then costs what a
     /// warm one does (docs/daemon.md, "Warm-up"). Only reads; a failure is logged and left to the searches.
     /// </summary>
-    private async Task WarmServingView(CancellationToken stopping)
+    private void WarmServingView()
     {
         try
         {
@@ -627,21 +625,9 @@ internal sealed class IndexWorker(
             var words = page is null ? [] : PageInput.WordsOf(page, index.Words).Take(8).Select(w => w.Text).ToList();
             var bound = server.Features.Get<IServerAddressesFeature>()?.Addresses.FirstOrDefault()
                 ?? throw new InvalidOperationException("the API has no address to send the warm-up search to");
-            using var client = new HttpClient { BaseAddress = new Uri(DaemonEndpoint.ClientUrlOf(bound)), Timeout = TimeSpan.FromMinutes(10) };
-            if (BearerTokens.Resolve(options.Daemon) is { } token)
-            {
-                client.DefaultRequestHeaders.Authorization = new AuthenticationHeaderValue("Bearer", token);
-            }
-
+            using var client = DaemonClient.At(new Uri(DaemonEndpoint.ClientUrlOf(bound)), BearerTokens.Resolve(options.Daemon), TimeSpan.FromMinutes(10));
             var query = Uri.EscapeDataString(words.Count > 0 ? string.Join(' ', words) : "warm");
-            using var response = await client.GetAsync($"/api/search?k=10&q={query}", stopping).ConfigureAwait(false);
-            var body = await response.Content.ReadAsStringAsync(stopping).ConfigureAwait(false);
-            if (!response.IsSuccessStatusCode)
-            {
-                throw new HttpRequestException($"the API answered {(int)response.StatusCode}: {body.Trim()}");
-            }
-
-            var hits = System.Text.Json.JsonSerializer.Deserialize<SearchReport>(body, ApiJson.Options)?.Hits.Count ?? 0;
+            var hits = client.Get<SearchReport>($"/api/search?k=10&q={query}").Hits.Count;
             log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, hits);
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)

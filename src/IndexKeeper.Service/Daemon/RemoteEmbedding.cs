@@ -157,8 +157,7 @@ internal sealed class RemoteEmbedding(
     private bool Publish(DateTimeOffset now)
     {
         var encoderId = index.Encoder.Identity.Id;
-        // From the running counts: a count of the queue here cost a pass over it every batch (a migration queues every page).
-        var allowance = gate.Allowance(now, index.Catalog.Counts.Read(counts => counts.Due(now.UtcDateTime)));
+        var allowance = gate.Allowance(now, index.Catalog.Counts.Due(now.UtcDateTime));
         state.Allowance = allowance;
         if (!allowance.WindowOpen && lastOpen != false)
         {
