@@ -89,10 +89,13 @@ internal sealed class DaemonProcess : IDisposable
 
     public JsonElement Get(string path)
     {
-        var body = client.GetStringAsync(path).GetAwaiter().GetResult();
+        var body = Text(path);
         using var json = JsonDocument.Parse(body);
         return json.RootElement.Clone();
     }
+
+    /// <summary>A GET's body as text (e.g. /metrics).</summary>
+    public string Text(string path) => client.GetStringAsync(path).GetAwaiter().GetResult();
 
     /// <summary>A GET whose status is the answer (a refused request is a figure, not an exception); the body is read and dropped.</summary>
     public int StatusOf(string path)
