@@ -1,3 +1,5 @@
+using System.Runtime.InteropServices;
+
 namespace IndexKeeper.Core.Search;
 
 /// <summary>
@@ -225,6 +227,31 @@ internal sealed class PageCodes
     }
 
     /// <summary>
+    /// A page's <paramref name="rows"/> codes of <paramref name="dimensions"/> bits with repeated rows left out, the
+    /// first of each kept in order. A page's Hamming MaxSim takes each query token's best row, and a row seen twice
+    /// cannot be better the second time, so the distinct rows give every page the same first-stage score for fewer
+    /// bytes read (a word a page repeats has the same vector with a term encoder).
+    /// </summary>
+    public static (ulong[] Codes, int Rows) Distinct(ReadOnlySpan<ulong> signCodes, int rows, int dimensions)
+    {
+        var words = dimensions / 64;
+        var all = signCodes[..(rows * words)].ToArray();
+        var seen = new HashSet<int>(rows, new RowComparer(all, words));
+        var kept = new ulong[all.Length];
+        var count = 0;
+        for (var r = 0; r < rows; r++)
+        {
+            if (seen.Add(r))
+            {
+                all.AsSpan(r * words, words).CopyTo(kept.AsSpan(count * words));
+                count++;
+            }
+        }
+
+        return (count == rows ? all : kept[..(count * words)], count);
+    }
+
+    /// <summary>
     /// The rows an array for <paramref name="rows"/> rows has room for: an eighth more. A growth copies the array while
     /// the old one is still held (at 100,000 pages 210 MB more resident, then garbage for the collector), so a view read
     /// from its file or built keeps room for the commits of a while; the room is never written until used, so it costs
@@ -244,6 +271,19 @@ internal sealed class PageCodes
             var grown = GC.AllocateUninitializedArray<ulong>(checked((int)(WithRoom(rows) * words)));
             codes.AsSpan(0, Rows * words).CopyTo(grown);
             codes = grown;
+        }
+    }
+
+    /// <summary>Rows of one code array compared by their words.</summary>
+    private sealed class RowComparer(ulong[] codes, int words) : IEqualityComparer<int>
+    {
+        public bool Equals(int x, int y) => codes.AsSpan(x * words, words).SequenceEqual(codes.AsSpan(y * words, words));
+
+        public int GetHashCode(int obj)
+        {
+            var hash = new HashCode();
+            hash.AddBytes(MemoryMarshal.AsBytes(codes.AsSpan(obj * words, words)));
+            return hash.ToHashCode();
         }
     }
 }

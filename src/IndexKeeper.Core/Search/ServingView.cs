@@ -266,7 +266,7 @@ public sealed class ServingView : IDisposable
                     for (var i = 0; i < source.Count; i++)
                     {
                         var page = source.Get(i);
-                        signCodes[added[given[i]].Key] = (page.SignCodes.ToArray(), page.Count);
+                        signCodes[added[given[i]].Key] = PageCodes.Distinct(page.SignCodes, page.Count, dimensions);
                     }
                 }
             }

@@ -66,6 +66,34 @@ public sealed class PageCodesTests
     }
 
     [Fact]
+    public void Distinct_rows_keep_the_first_of_each_in_order_and_every_page_its_plain_score()
+    {
+        var (kept, rows) = PageCodes.Distinct([1, 2, 3, 4, 1, 2, 5, 6, 3, 4, 1, 3], 6, Dimensions);
+        Assert.Equal(4, rows);
+        Assert.Equal([1UL, 2UL, 3UL, 4UL, 5UL, 6UL, 1UL, 3UL], kept);
+
+        // Pages of rows drawn from a small pool repeat many of them; their distinct rows must rank as all their rows do.
+        var random = new Random(43);
+        var pool = Enumerable.Range(0, 40 * Words).Select(_ => (ulong)random.NextInt64()).ToArray();
+        var codes = new PageCodes(Dimensions);
+        var plain = new Dictionary<ulong, int>();
+        var query = Enumerable.Range(0, 3 * Words).Select(_ => (ulong)random.NextInt64()).ToArray();
+        for (var p = 0; p < 500; p++)
+        {
+            var picks = Enumerable.Range(0, random.Next(1, 30)).Select(_ => random.Next(40)).ToArray();
+            var page = picks.SelectMany(i => pool.AsSpan(i * Words, Words).ToArray()).ToArray();
+            var distinct = PageCodes.Distinct(page, picks.Length, Dimensions);
+            Assert.Equal(picks.Distinct().SelectMany(i => pool.AsSpan(i * Words, Words).ToArray()), distinct.Codes);
+            Assert.Equal(picks.Distinct().Count(), distinct.Rows);
+            codes.Add((ulong)p, distinct.Codes, distinct.Rows);
+            plain[(ulong)p] = Plain(query, page);
+        }
+
+        var best = codes.Best(query, 50, null, null, CancellationToken.None);
+        Assert.Equal(plain.Values.OrderDescending().Take(50), best.Select(id => plain[id]).OrderDescending());
+    }
+
+    [Fact]
     public void Restored_codes_are_read_back_page_by_page_and_parts_that_do_not_fit_are_refused()
     {
         var restored = PageCodes.Restore(Dimensions, [7, 9], [1, 2], [1, 2, 3, 4, 5, 6], 3);
