@@ -40,6 +40,12 @@ public sealed class DaemonOptions
     /// <summary>OTLP transport for <see cref="OtlpEndpoint"/>: <c>grpc</c> or <c>http/protobuf</c> (the OTLP specification's names).</summary>
     public string OtlpProtocol { get; set; } = "grpc";
 
+    /// <summary>
+    /// At start, after the warm-up search, read the serving encoder's segment files once so the page cache holds them
+    /// and the first searches after a reboot do not wait on the disk; only when they fit in a quarter of the memory.
+    /// </summary>
+    public bool ReadAheadSegments { get; set; } = true;
+
     /// <summary>Seconds between samples of the figures (metrics, status page chart, health).</summary>
     public double SampleSeconds { get; set; } = 10;
 

@@ -113,7 +113,7 @@ internal sealed class IndexWorker(
             return;
         }
 
-        _ = Task.Run(WarmServingView, CancellationToken.None);
+        _ = Task.Run(() => WarmServingView(stoppingToken), CancellationToken.None);
         await Task.Factory.StartNew(
             () =>
             {
@@ -613,9 +613,11 @@ internal sealed class IndexWorker(
     /// serving view and checks each record it names once, and, with words of an indexed page as the query so it
     /// has hits, also reads their documents and words and writes the answer. So the code of the whole request is
     /// compiled and the catalog pages it reads are loaded before the first real search, which then costs what a
-    /// warm one does (docs/daemon.md, "Warm-up"). Only reads; a failure is logged and left to the searches.
+    /// warm one does (docs/daemon.md, "Warm-up"). Then the serving encoder's segments are read ahead
+    /// (<see cref="SegmentReadAhead"/>) when the setting allows and they fit. Only reads; a failure is logged and
+    /// left to the searches.
     /// </summary>
-    private void WarmServingView()
+    private void WarmServingView(CancellationToken stopping)
     {
         try
         {
@@ -628,12 +630,36 @@ internal sealed class IndexWorker(
             using var client = DaemonClient.At(new Uri(DaemonEndpoint.ClientUrlOf(bound)), BearerTokens.Resolve(options.Daemon), TimeSpan.FromMinutes(10));
             var query = Uri.EscapeDataString(words.Count > 0 ? string.Join(' ', words) : "warm");
             var hits = client.Get<SearchReport>($"/api/search?k=10&q={query}").Hits.Count;
-            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query).", clock.Elapsed.TotalSeconds, hits);
+            log.LogInformation("Serving view warmed in {Seconds:0.00} s ({Hits} hit(s) for the warm-up query); {Segments}.", clock.Elapsed.TotalSeconds, hits, ReadAhead(stopping));
+        }
+        catch (OperationCanceledException) when (stopping.IsCancellationRequested)
+        {
         }
         catch (Exception ex) when (ex is not OutOfMemoryException)
         {
             log.LogWarning("The serving view was not warmed at start: {Message}", ex.Message);
         }
+    }
+
+    /// <summary>The warm-up's read-ahead of the serving encoder's segments, or why there was none; what the log says of it.</summary>
+    private string ReadAhead(CancellationToken stopping)
+    {
+        if (!options.Daemon.ReadAheadSegments)
+        {
+            return "segments not read ahead (Daemon:ReadAheadSegments is false)";
+        }
+
+        var catalog = index.Catalog;
+        var (segments, bytes) = SegmentReadAhead.Of(catalog, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id);
+        var memory = GC.GetGCMemoryInfo().TotalAvailableMemoryBytes;
+        if (!SegmentReadAhead.Fits(bytes, memory))
+        {
+            return FormattableString.Invariant($"segments not read ahead: {bytes / 1e9:0.0} GB is more than a quarter of the {memory / 1e9:0.0} GB of memory");
+        }
+
+        var clock = Stopwatch.StartNew();
+        var read = SegmentReadAhead.Read(index.Store.Directory, segments, stopping);
+        return FormattableString.Invariant($"{read / 1e6:0} MB of segments read ahead in {clock.Elapsed.TotalSeconds:0.0} s");
     }
 
     private void Sample(DateTimeOffset now)

@@ -51,6 +51,7 @@ public sealed class DaemonSecurityTests
         // The daemon's own warm-up search goes through the same API, so it must carry the token too (docs/daemon.md, "Warm-up").
         daemon.WaitUntil("the warm-up search ends", () => daemon.Stderr.Contains("Serving view warmed", StringComparison.Ordinal) || daemon.Stderr.Contains("not warmed", StringComparison.Ordinal));
         Assert.DoesNotContain("not warmed", daemon.Stderr, StringComparison.Ordinal);
+        Assert.Contains("of segments read ahead", daemon.Stderr, StringComparison.Ordinal);
         Assert.Equal(0, daemon.Terminate(RunningDaemon.Patience));
     }
 }
