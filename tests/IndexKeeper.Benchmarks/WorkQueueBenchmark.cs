@@ -23,6 +23,15 @@ public sealed class WorkQueueBenchmark : IBenchmark
     {
         ArgumentNullException.ThrowIfNull(context);
         var work = context.WorkDirectory;
+
+        // IK_WORKQUEUE_FAST_ONLY=RATE: only the fast-worker run, scaled against RATE pages/s a machine (e.g. to profile it).
+        if (Environment.GetEnvironmentVariable("IK_WORKQUEUE_FAST_ONLY") is { Length: > 0 } fastOnly)
+        {
+            using var alone = new PostgresServer();
+            Fleet(context, alone, work, double.Parse(fastOnly, CultureInfo.InvariantCulture));
+            return;
+        }
+
         var roots = context.Quick ? EmbedBenchmark.SmokeStore(Path.Combine(work, "store")) : EmbedBenchmark.DemoRoots(context, Path.Combine(work, "store"));
         string[] encoder = context.Quick ? ["--Encoder:Name=hashed-terms"] : ["--Encoder:Name=minilm", "--Encoder:IntraOpThreads=1"];
         var rootArgs = roots.SelectMany(r => new[] { "--root", r.Path }).ToArray();

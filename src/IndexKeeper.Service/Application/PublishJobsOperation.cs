@@ -32,6 +32,8 @@ internal sealed class PublishJobsOperation(OpenIndex index)
         var allowed = Enum.GetValues<QueuePriority>().Where(p => p <= lowestPriority).ToList();
         var batch = new List<PageJob>();
         var satisfied = new List<string>();
+        // Pages are queued document by document, so a run's jobs mostly share a few documents: each is read once.
+        var documents = new Dictionary<(string Root, string Path), DocumentRecord?>();
         foreach (var entry in catalog.Queue.Next(published.Count + maxJobs, nowUtc, allowed))
         {
             if (batch.Count >= maxJobs)
@@ -52,7 +54,7 @@ internal sealed class PublishJobsOperation(OpenIndex index)
                 continue;
             }
 
-            if (Where(catalog, entry.Id, source.Root, source.Path, source.Page) is { } at)
+            if (Where(catalog, documents, entry.Id, source.Root, source.Path, source.Page) is { } at)
             {
                 batch.Add(new PageJob(entry.Id, encoderId, at.Root, at.Path, at.Page, at.FileHash, (int)entry.Priority));
             }
@@ -69,9 +71,16 @@ internal sealed class PublishJobsOperation(OpenIndex index)
     }
 
     /// <summary>A live document holding the page and its position: the page record's own location first, else any holder.</summary>
-    private static (string Root, string Path, int Page, string FileHash)? Where(IndexCatalog catalog, string pageKey, string root, string path, int number)
+    private static (string Root, string Path, int Page, string FileHash)? Where(
+        IndexCatalog catalog, Dictionary<(string Root, string Path), DocumentRecord?> documents, string pageKey, string root, string path, int number)
     {
-        if (catalog.Documents.Find(root, path) is { State: DocumentState.Live } seen
+        if (!documents.TryGetValue((root, path), out var document))
+        {
+            document = catalog.Documents.Find(root, path);
+            documents[(root, path)] = document;
+        }
+
+        if (document is { State: DocumentState.Live } seen
             && number >= 1 && number <= seen.PageKeys.Count && seen.PageKeys[number - 1] == pageKey)
         {
             return (seen.Root, seen.Path, number, seen.FileHash);
