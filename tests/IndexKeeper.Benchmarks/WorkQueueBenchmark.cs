@@ -75,8 +75,9 @@ public sealed class WorkQueueBenchmark : IBenchmark
     /// hashed-terms encoder (about a millisecond a page instead of a quarter second) hand pages back as fast as
     /// they read them, so the coordinator commits in a minute what several machines of <c>minilm</c> workers would.
     /// Its vectors have the same size (128 dimensions, one a word or token) and its pages about as many (480 words
-    /// a page: the index bytes per page of both runs are reported), so the coordinator's work per page is alike; per turn it is not (more results a commit, more jobs a publication), which is what many machines
-    /// bring, and why a projection scaled from two workers' rate overstates the coordinator's share.
+    /// a page: the index bytes per page of both runs are reported), so the coordinator's work per page is alike;
+    /// per turn it is not (more results a commit, more jobs a publication), which is what many machines bring, and
+    /// why a projection scaled from two workers' rate overstates the coordinator's share.
     /// </summary>
     private static void Fleet(BenchmarkContext context, PostgresServer server, string work, double machineRate)
     {
@@ -99,7 +100,8 @@ public sealed class WorkQueueBenchmark : IBenchmark
         context.Report("fast workers: coordinator busy share during the run", run.CpuShare, "share");
         context.Report("fast workers: coordinator busy share during the run's second half", run.SecondHalfShare, "share");
 
-        // Scaled to ten machines from this measured rate: linear in pages, its idle cost (figures, heartbeats) kept once.
+        // Scaled to ten machines from the second half's busy share at this run's rate: linear in pages, its idle cost
+        // (figures, heartbeats) kept once.
         context.Report(
             "projection from the fast run: coordinator busy share with 10 such machines",
             run.IdleShare + ((run.SecondHalfShare - run.IdleShare) * 10 / machines),
