@@ -83,10 +83,9 @@ public sealed class IdleBenchmark : IBenchmark
         context.Report($"{name}: warm-up done after the walk, wall (load {Measure.LoadAverage():0.0}); daemon CPU so far {daemon.CpuSeconds:0} s", warming.Elapsed.TotalSeconds, "s");
         context.Report($"{name}: peak resident memory through the start{(building ? " and the view build" : " (view read from disk)")} (VmHWM)", daemon.PeakRssSinceStartMegabytes, "MiB");
 
-        // The first search after the start, then warm ones (each query once more). This process's HTTP client is used
-        // once before (a look at /health): its own first request (connection, JIT compilation here) is not the daemon's.
-        // The daemon's own time for each search is read from its duration histogram's sum in /metrics.
-        Search(daemon, "/health");
+        // The first search after the start, then warm ones (each query once more). This process's HTTP client was used
+        // by the waits above, so its own first request is not in the figure; the daemon's own time for each search is
+        // read from its duration histogram's sum in /metrics as well.
         var served = ServedSeconds(daemon);
         var clock = Stopwatch.StartNew();
         Search(daemon, SearchPath(queries[0]));
