@@ -237,18 +237,19 @@ internal sealed class PageCodes
         var words = dimensions / 64;
         var all = signCodes[..(rows * words)].ToArray();
         var seen = new HashSet<int>(rows, new RowComparer(all, words));
-        var kept = new ulong[all.Length];
-        var count = 0;
-        for (var r = 0; r < rows; r++)
+        var kept = Enumerable.Range(0, rows).Where(seen.Add).ToList();
+        if (kept.Count == rows)
         {
-            if (seen.Add(r))
-            {
-                all.AsSpan(r * words, words).CopyTo(kept.AsSpan(count * words));
-                count++;
-            }
+            return (all, rows);
         }
 
-        return (count == rows ? all : kept[..(count * words)], count);
+        var distinct = new ulong[kept.Count * words];
+        for (var i = 0; i < kept.Count; i++)
+        {
+            all.AsSpan(kept[i] * words, words).CopyTo(distinct.AsSpan(i * words));
+        }
+
+        return (distinct, kept.Count);
     }
 
     /// <summary>

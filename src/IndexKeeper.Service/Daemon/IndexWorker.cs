@@ -411,7 +411,7 @@ internal sealed class IndexWorker(
         }
 
         nextRetrainLook = now + TimeSpan.FromMinutes(1);
-        var encoderId = index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id;
+        var encoderId = ServingEncoderId;
         if (settings.Candidates != CandidateSource.Centroids || index.Serving.Retraining(encoderId, retrainTriedAt) is not { } facts)
         {
             return false;
@@ -599,7 +599,7 @@ internal sealed class IndexWorker(
         {
             index.Serving.Persist(CancellationToken.None);
             // Only the view held in memory: reading the file here would cost the idle daemon a pass over it a minute.
-            state.CandidateRecall = index.Serving.LastRecall(index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id, readFile: false);
+            state.CandidateRecall = index.Serving.LastRecall(ServingEncoderId, readFile: false);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or InvalidOperationException)
         {
@@ -641,6 +641,9 @@ internal sealed class IndexWorker(
         }
     }
 
+    /// <summary>The encoder whose vectors searches use: the catalog's serving one, else (a fresh index) the active one.</summary>
+    private string ServingEncoderId => index.Catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id;
+
     /// <summary>The warm-up's read-ahead of the serving encoder's segments, or why there was none; what the log says of it.</summary>
     private string ReadAhead(CancellationToken stopping)
     {
@@ -649,8 +652,7 @@ internal sealed class IndexWorker(
             return "segments not read ahead (Daemon:ReadAheadSegments is false)";
         }
 
-        var catalog = index.Catalog;
-        var (segments, bytes) = SegmentReadAhead.Of(catalog, catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id);
+        var (segments, bytes) = SegmentReadAhead.Of(index.Catalog, ServingEncoderId);
         var memory = GC.GetGCMemoryInfo().TotalAvailableMemoryBytes;
         if (!SegmentReadAhead.Fits(bytes, memory))
         {
@@ -707,7 +709,7 @@ internal sealed class IndexWorker(
             }
         }
 
-        var servingId = catalog.Encoders.ServingId() ?? index.Encoder.Identity.Id;
+        var servingId = ServingEncoderId;
         var coverage = counts.Coverage(servingId, index.Encoder.Identity.Id);
         var figures = counts.Figures();
         var depths = counts.Depths();
