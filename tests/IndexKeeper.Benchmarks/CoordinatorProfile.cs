@@ -70,7 +70,7 @@ internal static class CoordinatorProfile
             while (true)
             {
                 IReadOnlyList<FinishedJob> finished = [];
-                Time("read results", () => finished = jobs.Finished(limit));
+                Time("read results", () => finished = jobs.Finished(limit).Taken);
                 if (finished.Count == 0)
                 {
                     break;

@@ -246,10 +246,14 @@ internal sealed class IndexWorker(
 
                     // Notifications, requests and stop requests wake the loop; the tick only serves root checks and samples.
                     var wait = TimeSpan.FromSeconds(Math.Min(5, sampleInterval.TotalSeconds));
+                    var heedHandBacks = remote is not null;
                     if (remote is { Outstanding: true })
                     {
-                        // Workers' hand-backs wake the loop (remote.Wake); it also looks by itself, in case one was not heard.
-                        wait = TimeSpan.FromTicks(Math.Min(remote.LookAgain.Ticks, wait.Ticks));
+                        // Workers' hand-backs wake the loop (remote.Wake) unless they are left to gather; it also looks by
+                        // itself, in case one was not heard.
+                        var (look, heed) = remote.NextLook(clock.GetUtcNow());
+                        wait = TimeSpan.FromTicks(Math.Min(look.Ticks, wait.Ticks));
+                        heedHandBacks = heed;
                     }
 
                     if (nextSettle is { } settle)
@@ -257,7 +261,7 @@ internal sealed class IndexWorker(
                         wait = TimeSpan.FromTicks(Math.Clamp((settle - clock.GetUtcNow().UtcDateTime).Ticks, TimeSpan.FromMilliseconds(20).Ticks, wait.Ticks));
                     }
 
-                    WaitHandle.WaitAny(remote is null ? [watchers.Wake, state.RequestArrived, stopping.WaitHandle] : [watchers.Wake, state.RequestArrived, stopping.WaitHandle, remote.Wake], wait);
+                    WaitHandle.WaitAny(heedHandBacks ? [watchers.Wake, state.RequestArrived, stopping.WaitHandle, remote!.Wake] : [watchers.Wake, state.RequestArrived, stopping.WaitHandle], wait);
                 }
             }
         }

@@ -13,7 +13,8 @@ namespace IndexKeeper.Service.Daemon;
 /// what the gate allows now (<see cref="PublishJobsOperation"/>). PostgreSQL out of reach: the turn embeds
 /// locally (Queue:WhenUnreachable = local) or does nothing (wait), health says why, and the next attempt
 /// comes after a doubling backoff. Only the work loop's thread calls <see cref="Turn"/>. Workers' hand-backs
-/// wake the loop through <see cref="Wake"/> (LISTEN/NOTIFY); it looks by itself every <see cref="LookAgain"/> as well.
+/// wake the loop through <see cref="Wake"/> (LISTEN/NOTIFY), except while they are left to gather (<see cref="NextLook"/>); it
+/// looks by itself now and then as well.
 /// </summary>
 /// <remarks>REQUIRES: called on the one writer's thread.</remarks>
 internal sealed class RemoteEmbedding(
@@ -40,6 +41,10 @@ internal sealed class RemoteEmbedding(
     private TimeSpan backoff;
     private DateTimeOffset nextAttempt = DateTimeOffset.MinValue;
     private DateTimeOffset nextFigures = DateTimeOffset.MinValue;
+
+    // Until when hand-backs are left to gather after a look that took none (GatherHold): their notifications do not wake
+    // the loop meanwhile and its turns do not look.
+    private DateTimeOffset holdUntil = DateTimeOffset.MinValue;
     private bool? lastOpen;
 
     // Jobs published under the daytime budget and the instant of their grant: they stay out after a window
@@ -56,10 +61,14 @@ internal sealed class RemoteEmbedding(
     public WaitHandle Wake => (results ??= new QueueListener(database, QueueNotifications.ResultsChannel, _ => true)).Wake;
 
     /// <summary>
-    /// While jobs are out, how long the loop may wait without a notification before it looks by itself: slowly while
-    /// hand-backs are heard, every second while the listening connection is down (a lost notification delays, never stalls).
+    /// While jobs are out: how long the loop may wait, and whether a hand-back's notification (<see cref="Wake"/>)
+    /// should end the wait sooner. While hand-backs gather, until the look <see cref="GatherHold"/> planned, unheeded;
+    /// otherwise heeded, with a look by itself after a while: slowly while hand-backs are heard, every second while the
+    /// listening connection is down (a lost notification delays, never stalls).
     /// </summary>
-    public TimeSpan LookAgain => results is { Listening: true } ? QueueNotifications.SlowPoll : TimeSpan.FromSeconds(1);
+    public (TimeSpan Wait, bool HeedHandBacks) NextLook(DateTimeOffset now) =>
+        now < holdUntil ? (holdUntil - now, false)
+        : (results is { Listening: true } ? QueueNotifications.SlowPoll : TimeSpan.FromSeconds(1), true);
 
     public void Dispose() => results?.Dispose();
 
@@ -112,9 +121,19 @@ internal sealed class RemoteEmbedding(
     /// <summary>Handed-back jobs committed and deleted; true when there were any.</summary>
     private bool Collect(DateTimeOffset now)
     {
-        var finished = jobs.Finished(Math.Max(1, index.Settings.EmbedBatchSize * 4), CommitGather);
+        if (now < holdUntil)
+        {
+            return false;
+        }
+
+        // Every hand-back before this look is seen by it: only a later one's notification should wake the loop again.
+        results?.Clear();
+        var limit = Math.Max(1, index.Settings.EmbedBatchSize * 4);
+        var look = jobs.Finished(limit, CommitGather);
+        var finished = look.Taken;
         if (finished.Count == 0)
         {
+            holdUntil = now + GatherHold.After(look, limit, CommitGather);
             return false;
         }
 

@@ -84,11 +84,17 @@ internal sealed class JobTable(NpgsqlDataSource database)
     /// this table reuses, valid until its next call of this method. With <paramref name="gather"/>,
     /// none until there are <paramref name="limit"/> of them, or the oldest has waited that long, or no job is
     /// waiting or claimed (nothing more will come): so one commit (one fsync, one catalog transaction) takes
-    /// several workers' hand-backs. Decided in the same statement, on the database's clock.
+    /// several workers' hand-backs. Decided in the same round trip, on the database's clock, which also counts
+    /// what is back and how long the oldest has waited (for <see cref="GatherHold"/>).
     /// </summary>
-    public IReadOnlyList<FinishedJob> Finished(int limit, TimeSpan? gather = null)
+    public FinishedLook Finished(int limit, TimeSpan? gather = null)
     {
-        using var command = database.CreateCommand($"""
+        using var batch = database.CreateBatch();
+        batch.BatchCommands.Add(new NpgsqlBatchCommand($"""
+            SELECT count(*), coalesce(extract(epoch FROM now() - min(finished_at)), 0)::float8
+            FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed})
+            """));
+        var rows = new NpgsqlBatchCommand($"""
             WITH back AS (SELECT count(*) AS n, min(finished_at) AS oldest FROM {Jobs} WHERE state IN ({(int)JobState.Done}, {(int)JobState.Failed}))
             SELECT page_key, encoder_id, root_name, relative_path, page_number, file_hash, priority,
                    state, worker, result_encoder_id, result_float16, failure_kind, failure
@@ -97,15 +103,19 @@ internal sealed class JobTable(NpgsqlDataSource database)
                    OR NOT EXISTS (SELECT 1 FROM {Jobs} WHERE state IN ({(int)JobState.Waiting}, {(int)JobState.Claimed})))
             ORDER BY finished_at LIMIT @limit
             """);
-        command.Parameters.AddWithValue("limit", limit);
-        command.Parameters.Add(new NpgsqlParameter<TimeSpan?>("gather", NpgsqlDbType.Interval) { TypedValue = gather });
+        rows.Parameters.AddWithValue("limit", limit);
+        rows.Parameters.Add(new NpgsqlParameter<TimeSpan?>("gather", NpgsqlDbType.Interval) { TypedValue = gather });
+        batch.BatchCommands.Add(rows);
         var finished = new List<FinishedJob>();
         var buffer = results;
         var used = 0;
 
         // Sequential access: each result (hundreds of KB) is read from the socket straight into the reused buffer, not
         // first buffered whole in the connection's row buffer and copied (Npgsql's documentation, "Reading large values").
-        using var reader = command.ExecuteReader(System.Data.CommandBehavior.SequentialAccess);
+        using var reader = batch.ExecuteReader(System.Data.CommandBehavior.SequentialAccess);
+        reader.Read();
+        var (back, oldest) = (reader.GetInt64(0), TimeSpan.FromSeconds(Math.Max(0, reader.GetDouble(1))));
+        reader.NextResult();
         while (reader.Read())
         {
             var job = ReadJob(reader);
@@ -145,7 +155,7 @@ internal sealed class JobTable(NpgsqlDataSource database)
         }
 
         results = buffer;
-        return finished;
+        return new FinishedLook(finished, back, oldest);
     }
 
     /// <summary>Deletes jobs the coordinator has dealt with (committed, or decided on): the table does not grow.</summary>

@@ -29,6 +29,9 @@ internal sealed class QueueListener : IDisposable
     /// <summary>Set by a notification (auto-reset: one set wakes one wait, and one that came while nobody waited is kept).</summary>
     public WaitHandle Wake => wake;
 
+    /// <summary>Forgets a notification nobody has waited for yet: the caller is about to look at what it would announce.</summary>
+    public void Clear() => wake.Reset();
+
     /// <summary>True while the connection listens: notifications can arrive.</summary>
     public bool Listening => listening;
 

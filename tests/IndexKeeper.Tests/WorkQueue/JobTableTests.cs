@@ -35,13 +35,13 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         var sent = claimed.Select((c, i) => (c.Job, Result: Bytes(sizes[i], i))).ToList();
         Assert.Equal(3, table.Finish("w", sent, Encoder));
 
-        var first = table.Finished(10);
+        var first = table.Finished(10).Taken;
         Assert.Equal(sent.Select(s => s.Result), first.OrderBy(f => f.Job.PageKey).Select(f => f.Result!.Value.ToArray()));
         table.Delete(first.Select(f => f.Job).ToList());
 
         var last = Assert.Single(table.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.Equal(1, table.Finish("w", [(last.Job, Bytes(50, 9))], Encoder));
-        Assert.Equal(Bytes(50, 9), Assert.Single(table.Finished(10)).Result!.Value.ToArray());
+        Assert.Equal(Bytes(50, 9), Assert.Single(table.Finished(10).Taken).Result!.Value.ToArray());
     }
 
     [Fact]
@@ -114,7 +114,7 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         Assert.Equal(0, Jobs.Finish("first", [(first.Job, new byte[] { 1, 2, 3 })], Encoder));
         Assert.Equal(1, Jobs.Finish("second", [(second.Job, new byte[] { 4, 5, 6 })], Encoder));
 
-        var finished = Assert.Single(Jobs.Finished(10));
+        var finished = Assert.Single(Jobs.Finished(10).Taken);
         Assert.Equal("second", finished.Worker);
         Assert.Equal(new byte[] { 4, 5, 6 }, finished.Result!.Value.ToArray());
     }
@@ -127,19 +127,22 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         Assert.Equal(1, Jobs.Finish("w", [(claimed[0].Job, new byte[] { 1 })], Encoder));
         var hour = TimeSpan.FromHours(1);
 
-        // One back, more out, none old: wait. A full commit's worth (here 1), or no gathering: take it.
-        Assert.Empty(Jobs.Finished(10, hour));
-        Assert.Single(Jobs.Finished(1, hour));
-        Assert.Single(Jobs.Finished(10));
+        // One back, more out, none old: wait, with what is back counted. A full commit's worth (here 1), or no gathering: take it.
+        var gathering = Jobs.Finished(10, hour);
+        Assert.Empty(gathering.Taken);
+        Assert.Equal(1, gathering.Back);
+        Assert.InRange(gathering.Oldest, TimeSpan.Zero, TimeSpan.FromMinutes(10));
+        Assert.Single(Jobs.Finished(1, hour).Taken);
+        Assert.Single(Jobs.Finished(10).Taken);
 
         // A result older than the gathering time is taken even with more out.
-        Assert.Single(Jobs.Finished(10, TimeSpan.Zero));
+        Assert.Single(Jobs.Finished(10, TimeSpan.Zero).Taken);
 
         // Nothing waiting or claimed: nothing more will come, take what is there.
         Assert.Equal(1, Jobs.Finish("w", [(claimed[1].Job, new byte[] { 2 })], Encoder));
         var last = Assert.Single(Jobs.Claim("w", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.Equal(1, Jobs.Finish("w", [(last.Job, new byte[] { 3 })], Encoder));
-        Assert.Equal(3, Jobs.Finished(10, hour).Count);
+        Assert.Equal(3, Jobs.Finished(10, hour).Taken.Count);
     }
 
     [Fact]
@@ -168,7 +171,7 @@ public sealed class JobTableTests(PostgresServer server) : IDisposable
         var first = Jobs.Claim("first", Encoder, 2, TimeSpan.FromSeconds(-1));
         var taken = Assert.Single(Jobs.Claim("second", Encoder, 1, TimeSpan.FromMinutes(5)));
         Assert.Equal(1, Jobs.Finish("first", first.Select(c => (c.Job, new byte[] { 7 })).ToList(), Encoder));
-        var finished = Assert.Single(Jobs.Finished(10));
+        var finished = Assert.Single(Jobs.Finished(10).Taken);
         Assert.NotEqual(taken.Job.PageKey, finished.Job.PageKey);
         Assert.Equal("first", finished.Worker);
     }

@@ -42,7 +42,7 @@ public sealed class QueueSchemaMigrationTests(PostgresServer server)
             // The float32 column is gone under its old name: an older worker's hand-back cannot land in it.
             Assert.Equal(0, server.Scalar(database, $"SELECT count(*) FROM information_schema.columns WHERE table_schema = '{QueueSchema.Name}' AND column_name = 'result'"));
             Assert.Equal(2, server.Scalar(database, $"SELECT count(*) FROM {QueueSchema.Name}.jobs WHERE state = 0 AND result_float16 IS NULL AND worker IS NULL"));
-            Assert.Empty(new JobTable(source).Finished(10));
+            Assert.Empty(new JobTable(source).Finished(10).Taken);
 
             // Twice is once.
             Assert.Equal(QueueSchema.Version, QueueSchema.Ensure(source, migrate: true));
