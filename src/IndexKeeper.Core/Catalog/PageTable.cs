@@ -5,9 +5,10 @@ namespace IndexKeeper.Core.Catalog;
 /// <summary>The catalog's pages: one record per page key, with its words and how many locations hold it.</summary>
 public sealed class PageTable
 {
+    private readonly CatalogStore store;
     private readonly ILiteCollection<PageRecord> pages;
 
-    internal PageTable(CatalogStore store) => pages = store.Pages;
+    internal PageTable(CatalogStore store) => (this.store, pages) = (store, store.Pages);
 
     public PageRecord? Find(string pageKey) => pages.FindById(pageKey);
 
@@ -28,16 +29,12 @@ public sealed class PageTable
             .ToEnumerable()
             .Select(d => (d["k"].AsString, new WordsAtRecord { File = d["f"].AsInt64, Offset = d["o"].AsInt64, Length = d["l"].AsInt32, Checksum = d["c"].AsInt64 }));
 
-    /// <summary>A page's reference count and where it was seen (root, path, 1-based page), read without deserialising its words; null when it has no record.</summary>
-    internal (int References, string Root, string Path, int Page)? SourceOf(string pageKey)
-    {
-        var found = pages.Query().Where(p => p.Id == pageKey)
-            .Select(BsonExpression.Create("{ r: $.References, root: $.SourceRoot, path: $.SourcePath, page: $.SourcePage }"))
-            .ToEnumerable().FirstOrDefault();
-        return found is null ? null : (found["r"].AsInt32, found["root"].AsString, found["path"].AsString, found["page"].AsInt32);
-    }
+    /// <summary>A page's reference count and where it was seen (root, path, 1-based page), read without mapping its words into records; null when it has no record.</summary>
+    internal (int References, string Root, string Path, int Page)? SourceOf(string pageKey) =>
+        store.PageDocument(pageKey) is { } found
+            ? (found[nameof(PageRecord.References)].AsInt32, found[nameof(PageRecord.SourceRoot)].AsString, found[nameof(PageRecord.SourcePath)].AsString, found[nameof(PageRecord.SourcePage)].AsInt32)
+            : null;
 
-    /// <summary>A page's reference count (0 when it has no record), read without deserialising its words.</summary>
-    internal int ReferencesOf(string pageKey) =>
-        pages.Query().Where(p => p.Id == pageKey).Select(p => p.References).ToEnumerable().FirstOrDefault();
+    /// <summary>A page's reference count (0 when it has no record), read without mapping its words into records.</summary>
+    internal int ReferencesOf(string pageKey) => store.PageReferences(pageKey);
 }

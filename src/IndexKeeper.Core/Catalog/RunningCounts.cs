@@ -60,7 +60,7 @@ public sealed class RunningCounts
 
         foreach (var key in pages)
         {
-            tally.Page(key, store.Pages.Query().Where(p => p.Id == key).Select(p => p.References).ToEnumerable().FirstOrDefault());
+            tally.Page(key, store.PageReferences(key));
         }
 
         foreach (var key in queue)
