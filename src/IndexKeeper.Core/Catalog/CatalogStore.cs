@@ -33,8 +33,14 @@ internal sealed class CatalogStore(LiteDatabase database, string? writerDirector
     /// <summary>One page's record as stored (field names as <see cref="PageRecord"/>'s properties, its key as <c>_id</c>); null when it has none.</summary>
     public BsonDocument? PageDocument(string pageKey) => pageDocuments.FindById(pageKey);
 
+    /// <summary>Pages' records as stored, by key (<see cref="ByKeys"/>); a key without a record is absent.</summary>
+    public Dictionary<string, BsonDocument> PageDocuments(IEnumerable<string> pageKeys) => ByKeys.Find(pageDocuments, pageKeys, d => d["_id"].AsString);
+
     /// <summary>A page's reference count; 0 when it has no record.</summary>
-    public int PageReferences(string pageKey) => PageDocument(pageKey)?[nameof(PageRecord.References)].AsInt32 ?? 0;
+    public int PageReferences(string pageKey) => References(PageDocument(pageKey));
+
+    /// <summary>A page record's reference count as stored; 0 for none.</summary>
+    public static int References(BsonDocument? page) => page?[nameof(PageRecord.References)].AsInt32 ?? 0;
 
     public ILiteCollection<QueueRecord> Queue { get; } = database.GetCollection<QueueRecord>(CatalogSchema.Queue);
 

@@ -29,12 +29,20 @@ public sealed class PageTable
             .ToEnumerable()
             .Select(d => (d["k"].AsString, new WordsAtRecord { File = d["f"].AsInt64, Offset = d["o"].AsInt64, Length = d["l"].AsInt32, Checksum = d["c"].AsInt64 }));
 
-    /// <summary>A page's reference count and where it was seen (root, path, 1-based page), read without mapping its words into records; null when it has no record.</summary>
-    internal (int References, string Root, string Path, int Page)? SourceOf(string pageKey) =>
-        store.PageDocument(pageKey) is { } found
-            ? (found[nameof(PageRecord.References)].AsInt32, found[nameof(PageRecord.SourceRoot)].AsString, found[nameof(PageRecord.SourcePath)].AsString, found[nameof(PageRecord.SourcePage)].AsInt32)
-            : null;
+    /// <summary>
+    /// Pages' reference counts and where each was seen (root, path, 1-based page), by key, read without mapping their
+    /// words into records; a page without a record is absent.
+    /// </summary>
+    internal Dictionary<string, (int References, string Root, string Path, int Page)> SourcesOf(IEnumerable<string> pageKeys) =>
+        store.PageDocuments(pageKeys).ToDictionary(p => p.Key, p => Source(p.Value), StringComparer.Ordinal);
 
     /// <summary>A page's reference count (0 when it has no record), read without mapping its words into records.</summary>
     internal int ReferencesOf(string pageKey) => store.PageReferences(pageKey);
+
+    /// <summary>As <see cref="ReferencesOf(string)"/> for many pages at once, by key (a page without a record is absent).</summary>
+    internal Dictionary<string, int> ReferencesOf(IEnumerable<string> pageKeys) =>
+        store.PageDocuments(pageKeys).ToDictionary(p => p.Key, p => CatalogStore.References(p.Value), StringComparer.Ordinal);
+
+    private static (int References, string Root, string Path, int Page) Source(BsonDocument found) =>
+        (CatalogStore.References(found), found[nameof(PageRecord.SourceRoot)].AsString, found[nameof(PageRecord.SourcePath)].AsString, found[nameof(PageRecord.SourcePage)].AsInt32);
 }

@@ -44,10 +44,12 @@ public sealed class RunningCounts
             return;
         }
 
+        // The records the marks name, read a few queries per table rather than one lookup each (ByKeys).
         var (documents, pages, queue, sets) = store.Marks.Take();
+        var documentRecords = ByKeys.Find(store.Documents, documents, d => d.Id);
         foreach (var id in documents)
         {
-            tally.Document(id, store.Documents.FindById(id));
+            tally.Document(id, documentRecords.GetValueOrDefault(id));
         }
 
         var keys = new HashSet<string>(pages, StringComparer.Ordinal);
@@ -58,19 +60,22 @@ public sealed class RunningCounts
             tally.Join(key, -1);
         }
 
+        var pageRecords = store.PageDocuments(pages);
         foreach (var key in pages)
         {
-            tally.Page(key, store.PageReferences(key));
+            tally.Page(key, CatalogStore.References(pageRecords.GetValueOrDefault(key)));
         }
 
+        var queueRecords = ByKeys.Find(store.Queue, queue, q => q.Id);
         foreach (var key in queue)
         {
-            tally.Queued(key, store.Queue.FindById(key));
+            tally.Queued(key, queueRecords.GetValueOrDefault(key));
         }
 
+        var setRecords = ByKeys.Find(store.VectorSets, sets.Keys, v => v.Id);
         foreach (var (id, (encoderId, pageKey)) in sets)
         {
-            tally.VectorSet(encoderId, pageKey, store.VectorSets.FindById(id) is { } set ? set.Live : null);
+            tally.VectorSet(encoderId, pageKey, setRecords.GetValueOrDefault(id) is { } set ? set.Live : null);
         }
 
         foreach (var key in keys)

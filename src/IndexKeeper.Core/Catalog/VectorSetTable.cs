@@ -11,6 +11,10 @@ public sealed class VectorSetTable
 
     public VectorSetRecord? Find(string encoderId, string pageKey) => vectorSets.FindById(VectorSetRecord.MakeId(encoderId, pageKey));
 
+    /// <summary>As <see cref="Find"/> for many pages of one encoder at once, by page key (a page without a record is absent).</summary>
+    public Dictionary<string, VectorSetRecord> Find(string encoderId, IEnumerable<string> pageKeys) =>
+        ByKeys.Find(vectorSets, pageKeys.Select(k => VectorSetRecord.MakeId(encoderId, k)), v => v.Id).Values.ToDictionary(v => v.PageKey, StringComparer.Ordinal);
+
     /// <summary>
     /// The live vector sets of an encoder in page-key order. Search numbers pages by this order and gives
     /// equal scores to the lower number, so ties rank alike in every index holding the same vector sets,

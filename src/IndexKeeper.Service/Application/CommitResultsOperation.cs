@@ -24,10 +24,15 @@ internal sealed class CommitResultsOperation(OpenIndex index, RetryPolicy retry)
         var encoder = index.Encoder.Identity;
         var commit = new List<(PageKey Key, Float16VectorSet Vectors)>();
         var outcome = new CommitOutcome();
+
+        // The reference counts alone (reading page records with their words costs milliseconds, docs/benchmarks.md,
+        // embed), and the vector sets, for the whole gathering in a few queries.
+        var keys = finished.Select(f => f.Job.PageKey).ToList();
+        var references = catalog.Pages.ReferencesOf(keys);
+        var sets = catalog.VectorSets.Find(encoder.Id, keys);
         foreach (var job in finished)
         {
-            // The reference count alone: reading a page record with its words costs milliseconds (docs/benchmarks.md, embed).
-            var needs = catalog.Pages.ReferencesOf(job.Job.PageKey) > 0 && catalog.VectorSets.Find(encoder.Id, job.Job.PageKey) is not { Live: true };
+            var needs = references.GetValueOrDefault(job.Job.PageKey) > 0 && sets.GetValueOrDefault(job.Job.PageKey) is not { Live: true };
             Float16VectorSet? vectors = null;
             if (job.State == JobState.Done && job.Result is { } bytes)
             {

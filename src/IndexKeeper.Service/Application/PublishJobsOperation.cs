@@ -34,21 +34,19 @@ internal sealed class PublishJobsOperation(OpenIndex index)
         var satisfied = new List<string>();
         // Pages are queued document by document, so a run's jobs mostly share a few documents: each is read once.
         var documents = new Dictionary<(string Root, string Path), DocumentRecord?>();
-        foreach (var entry in catalog.Queue.Next(published.Count + maxJobs, nowUtc, allowed))
+        var entries = catalog.Queue.Next(published.Count + maxJobs, nowUtc, allowed).Where(e => !published.Contains(e.Id)).ToList();
+
+        // The page records without their words (a worker reads the page itself) and the vector sets, a few queries for all.
+        var sources = catalog.Pages.SourcesOf(entries.Select(e => e.Id));
+        var sets = catalog.VectorSets.Find(encoderId, entries.Select(e => e.Id));
+        foreach (var entry in entries)
         {
             if (batch.Count >= maxJobs)
             {
                 break;
             }
 
-            if (published.Contains(entry.Id))
-            {
-                continue;
-            }
-
-            // The page record without its words: a worker reads the page itself.
-            var page = catalog.Pages.SourceOf(entry.Id);
-            if (page is not { References: > 0 } source || catalog.VectorSets.Find(encoderId, entry.Id) is { Live: true })
+            if (!sources.TryGetValue(entry.Id, out var source) || source.References <= 0 || sets.GetValueOrDefault(entry.Id) is { Live: true })
             {
                 satisfied.Add(entry.Id);
                 continue;

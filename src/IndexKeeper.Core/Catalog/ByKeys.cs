@@ -1,0 +1,29 @@
+using LiteDB;
+
+namespace IndexKeeper.Core.Catalog;
+
+/// <summary>
+/// Many records of one collection by their keys in a few queries (<c>_id IN [...]</c>) instead of one lookup each: a
+/// LiteDB lookup pays a snapshot, a query pipeline and a reader per call, which for the coordinator's few reads of each
+/// committed page was most of its catalog time (docs/benchmarks.md, workqueue run 12).
+/// </summary>
+internal static class ByKeys
+{
+    // Keys per query: bounds the size of one query's expression.
+    private const int Chunk = 512;
+
+    /// <summary>The records found, by key; a key without a record is absent.</summary>
+    public static Dictionary<string, T> Find<T>(ILiteCollection<T> collection, IEnumerable<string> keys, Func<T, string> keyOf)
+    {
+        var found = new Dictionary<string, T>(StringComparer.Ordinal);
+        foreach (var chunk in keys.Distinct(StringComparer.Ordinal).Chunk(Chunk))
+        {
+            foreach (var record in collection.Find(Query.In("_id", new BsonArray(chunk.Select(k => new BsonValue(k))))))
+            {
+                found[keyOf(record)] = record;
+            }
+        }
+
+        return found;
+    }
+}
