@@ -9,8 +9,12 @@ namespace IndexKeeper.Core.Catalog;
 /// </summary>
 internal static class ByKeys
 {
-    // Keys per query: bounds the size of one query's expression.
+    // Keys per query: bounds the size of one query's parameter.
     private const int Chunk = 512;
+
+    // The keys go in as a parameter: LiteDB compiles each distinct expression text once and keeps it (Query.In writes the
+    // keys into the text, so every call compiled a new expression and added it to LiteDB's cache for good).
+    private const string KeyIn = "_id IN @0";
 
     /// <summary>The records found, by key; a key without a record is absent.</summary>
     public static Dictionary<string, T> Find<T>(ILiteCollection<T> collection, IEnumerable<string> keys, Func<T, string> keyOf)
@@ -18,7 +22,7 @@ internal static class ByKeys
         var found = new Dictionary<string, T>(StringComparer.Ordinal);
         foreach (var chunk in keys.Distinct(StringComparer.Ordinal).Chunk(Chunk))
         {
-            foreach (var record in collection.Find(Query.In("_id", new BsonArray(chunk.Select(k => new BsonValue(k))))))
+            foreach (var record in collection.Find(BsonExpression.Create(KeyIn, new BsonArray(chunk.Select(k => new BsonValue(k))))))
             {
                 found[keyOf(record)] = record;
             }
