@@ -30,4 +30,16 @@ internal static class ByKeys
 
         return found;
     }
+
+    /// <summary>Deletes the records of these keys (a key without a record is passed over); returns how many were deleted.</summary>
+    public static int Delete<T>(ILiteCollection<T> collection, IEnumerable<string> keys)
+    {
+        var deleted = 0;
+        foreach (var chunk in keys.Distinct(StringComparer.Ordinal).Chunk(Chunk))
+        {
+            deleted += collection.DeleteMany(BsonExpression.Create(KeyIn, new BsonArray(chunk.Select(k => new BsonValue(k)))));
+        }
+
+        return deleted;
+    }
 }

@@ -260,10 +260,11 @@ public sealed class IndexCatalog : IDisposable
         ArgumentNullException.ThrowIfNull(dequeued);
         store.InTransaction(() =>
         {
+            var references = Pages.ReferencesOf(added.Select(s => s.PageKey));
             foreach (var set in added)
             {
                 // A key whose last page location went away while it was being encoded is born dead.
-                set.Live = Pages.ReferencesOf(set.PageKey) > 0;
+                set.Live = references.GetValueOrDefault(set.PageKey) > 0;
                 segment.RecordCount++;
                 if (set.Live)
                 {
@@ -279,9 +280,9 @@ public sealed class IndexCatalog : IDisposable
                 store.Touch(set);
             }
 
+            ByKeys.Delete(store.Queue, dequeued);
             foreach (var key in dequeued)
             {
-                store.Queue.Delete(key);
                 store.Marks.Queued(key);
             }
         });

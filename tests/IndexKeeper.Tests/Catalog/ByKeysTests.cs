@@ -23,4 +23,19 @@ public sealed class ByKeysTests
         Assert.All(expected, e => Assert.Equal(e.Value["References"].AsInt32, found[e.Key]["References"].AsInt32));
         Assert.Empty(ByKeys.Find(pages, [], d => d["_id"].AsString));
     }
+
+    [Fact]
+    public void Deleting_many_keys_deletes_those_records_only()
+    {
+        using var database = new LiteDatabase(new MemoryStream());
+        var queue = database.GetCollection("queue");
+        queue.InsertBulk(Enumerable.Range(0, 1200).Select(i => new BsonDocument { ["_id"] = $"k{i:x4}" }));
+
+        var gone = Enumerable.Range(0, 1300).Where(i => i % 2 == 0).Select(i => $"k{i:x4}").ToList();
+        Assert.Equal(600, ByKeys.Delete(queue, [.. gone, "k0000"]));
+
+        // The reference: LiteDB's own count and lookups.
+        Assert.Equal(600, queue.Count());
+        Assert.All(Enumerable.Range(0, 1200), i => Assert.Equal(i % 2 == 1, queue.FindById($"k{i:x4}") is not null));
+    }
 }
