@@ -151,6 +151,7 @@ public sealed class WorkQueueBenchmark : IBenchmark
                     }
 
                     lastLook.Restart();
+                    processes.ForEach(p => p.ThrowIfExited());
                     looks++;
                     var done = server.Scalar(database, "SELECT coalesce(sum(pages_done), 0) FROM indexkeeper_queue.workers");
                     if (half is null && done >= pages / 2)

@@ -46,6 +46,15 @@ internal sealed class WorkerProcess : IDisposable
         }
     }
 
+    /// <summary>A worker that ended by itself mid-run (a run would otherwise wait out its hour for pages nobody embeds): its exit code and last log lines.</summary>
+    public void ThrowIfExited()
+    {
+        if (process.HasExited)
+        {
+            throw new InvalidOperationException($"a worker exited mid-run with code {process.ExitCode}:\n" + string.Join('\n', stderr.TakeLast(30)));
+        }
+    }
+
     /// <summary>SIGTERM, as a service manager stops it; its seconds by stage (empty for a build that does not log them).</summary>
     public Dictionary<string, double> Stop()
     {
