@@ -133,7 +133,7 @@ internal sealed class RemoteEmbedding(
         var finished = look.Taken;
         if (finished.Count == 0)
         {
-            holdUntil = now + GatherHold.After(look, limit, CommitGather);
+            holdUntil = now + GatherHold.After(look, limit, published!.Count, CommitGather);
             return false;
         }
 
