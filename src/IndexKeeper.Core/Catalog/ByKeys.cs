@@ -16,30 +16,22 @@ internal static class ByKeys
     // keys into the text, so every call compiled a new expression and added it to LiteDB's cache for good).
     private const string KeyIn = "_id IN @0";
 
-    /// <summary>The records found, by key; a key without a record is absent.</summary>
+    /// <summary>The records found, keyed by <paramref name="keyOf"/>; a key without a record is absent.</summary>
     public static Dictionary<string, T> Find<T>(ILiteCollection<T> collection, IEnumerable<string> keys, Func<T, string> keyOf)
     {
         var found = new Dictionary<string, T>(StringComparer.Ordinal);
-        foreach (var chunk in keys.Distinct(StringComparer.Ordinal).Chunk(Chunk))
+        foreach (var record in Queries(keys).SelectMany(query => collection.Find(query)))
         {
-            foreach (var record in collection.Find(BsonExpression.Create(KeyIn, new BsonArray(chunk.Select(k => new BsonValue(k))))))
-            {
-                found[keyOf(record)] = record;
-            }
+            found[keyOf(record)] = record;
         }
 
         return found;
     }
 
     /// <summary>Deletes the records of these keys (a key without a record is passed over); returns how many were deleted.</summary>
-    public static int Delete<T>(ILiteCollection<T> collection, IEnumerable<string> keys)
-    {
-        var deleted = 0;
-        foreach (var chunk in keys.Distinct(StringComparer.Ordinal).Chunk(Chunk))
-        {
-            deleted += collection.DeleteMany(BsonExpression.Create(KeyIn, new BsonArray(chunk.Select(k => new BsonValue(k)))));
-        }
+    public static int Delete<T>(ILiteCollection<T> collection, IEnumerable<string> keys) => Queries(keys).Sum(query => collection.DeleteMany(query));
 
-        return deleted;
-    }
+    /// <summary>One <c>_id IN @0</c> predicate for each chunk of the distinct keys.</summary>
+    private static IEnumerable<BsonExpression> Queries(IEnumerable<string> keys) =>
+        keys.Distinct(StringComparer.Ordinal).Chunk(Chunk).Select(chunk => BsonExpression.Create(KeyIn, new BsonArray(chunk.Select(k => new BsonValue(k)))));
 }

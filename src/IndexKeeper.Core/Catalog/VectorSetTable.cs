@@ -13,7 +13,7 @@ public sealed class VectorSetTable
 
     /// <summary>As <see cref="Find"/> for many pages of one encoder at once, by page key (a page without a record is absent).</summary>
     public Dictionary<string, VectorSetRecord> Find(string encoderId, IEnumerable<string> pageKeys) =>
-        ByKeys.Find(vectorSets, pageKeys.Select(k => VectorSetRecord.MakeId(encoderId, k)), v => v.Id).Values.ToDictionary(v => v.PageKey, StringComparer.Ordinal);
+        ByKeys.Find(vectorSets, pageKeys.Select(k => VectorSetRecord.MakeId(encoderId, k)), v => v.PageKey);
 
     /// <summary>
     /// The live vector sets of an encoder in page-key order. Search numbers pages by this order and gives
